@@ -1,0 +1,65 @@
+"""Errors raised for bad input: always name the field, the value and what is allowed."""
+
+from __future__ import annotations
+
+import math
+from typing import Any
+
+
+class InputError(ValueError):
+    """Bad user input. ``str(err)`` is a one-line message fit for the CLI."""
+
+    def __init__(self, field: str, value: Any, allowed: str, hint: str = "") -> None:
+        self.field = field
+        self.value = value
+        self.allowed = allowed
+        self.hint = hint
+        msg = f"{field} = {value!r} is not allowed: expected {allowed}"
+        if hint:
+            msg += f". {hint}"
+        super().__init__(msg)
+
+
+def require_finite(field: str, value: Any) -> float:
+    """Return ``value`` as float, or raise if it is not a finite real number."""
+    if isinstance(value, bool):
+        raise InputError(field, value, "a finite number")
+    try:
+        x = float(value)
+    except (TypeError, ValueError):
+        raise InputError(field, value, "a finite number") from None
+    if not math.isfinite(x):
+        raise InputError(field, value, "a finite number")
+    return x
+
+
+def require_positive(field: str, value: Any, unit: str = "") -> float:
+    """Finite and > 0."""
+    x = require_finite(field, value)
+    if x <= 0.0:
+        raise InputError(field, value, f"a finite number > 0{(' ' + unit) if unit else ''}")
+    return x
+
+
+def require_non_negative(field: str, value: Any, unit: str = "") -> float:
+    """Finite and >= 0."""
+    x = require_finite(field, value)
+    if x < 0.0:
+        raise InputError(field, value, f"a finite number >= 0{(' ' + unit) if unit else ''}")
+    return x
+
+
+def require_in_range(field: str, value: Any, lo: float, hi: float, unit: str = "") -> float:
+    """Finite and lo <= value <= hi."""
+    x = require_finite(field, value)
+    if not (lo <= x <= hi):
+        u = f" {unit}" if unit else ""
+        raise InputError(field, value, f"a number from {lo:g}{u} to {hi:g}{u}")
+    return x
+
+
+def require_choice(field: str, value: Any, choices: list | tuple | dict) -> Any:
+    """One of ``choices``."""
+    if value not in choices:
+        raise InputError(field, value, "one of " + ", ".join(repr(c) for c in choices))
+    return value

@@ -1,0 +1,170 @@
+"""The one result type every check returns, and the recorder that builds it.
+
+A check function is written once. It calls its clause functions through a
+:class:`Calc`; with ``Calc(render=False)`` (design searches) that is a plain
+function call on floats, with ``Calc(render=True)`` (the calc sheet) the same
+functions are rendered by handcalcs and each step's LaTeX is kept.
+"""
+
+from __future__ import annotations
+
+import html
+import json
+import math
+from dataclasses import asdict, dataclass, field
+from typing import Any, Callable
+
+from .render import render as _render
+from .units import convert
+
+#: internal float unit -> unit used in reports and JSON
+DISPLAY_UNIT = {
+    "N": "kN", "Nmm": "kNm", "N/mm": "kN/m", "mm": "mm", "mm2": "mm2", "mm3": "mm3",
+    "mm4": "mm4", "MPa": "MPa", "kg": "kg", "kg/m": "kg/m", "": "", "mm6": "mm6",
+}
+#: unit tag used in JSON keys
+KEY_TAG = {
+    "kN": "kN", "kNm": "kNm", "kN/m": "kN_per_m", "mm": "mm", "mm2": "mm2", "mm3": "mm3",
+    "mm4": "mm4", "MPa": "MPa", "kg": "kg", "kg/m": "kg_per_m", "": "", "mm6": "mm6",
+}
+
+
+def display(value: float, unit: str) -> tuple[float, str]:
+    """Convert an internal float to its report unit: (value, unit)."""
+    du = DISPLAY_UNIT.get(unit, unit)
+    return (convert(value, unit, du) if du != unit else value), du
+
+
+@dataclass(frozen=True)
+class CheckRecord:
+    """One design check: demand against resistance, with its clause and rendered steps.
+
+    ``utilisation = demand / resistance``; for a *minimum* requirement (e.g. an
+    end distance) the demand is the required value and the resistance the
+    provided one, so the same ratio applies. ``ok`` is ``utilisation <= 1``.
+    ``values`` holds named intermediate results as ``name -> (value, unit)``
+    in report units; ``location_mm`` says where along the beam it governs.
+    """
+
+    id: str
+    title: str
+    clause: str
+    demand: float
+    resistance: float
+    unit: str
+    utilisation: float
+    ok: bool
+    values: dict[str, tuple[float, str]] = field(default_factory=dict)
+    latex: tuple[str, ...] = ()
+    location_mm: float | None = None
+    note: str = ""
+
+    # ----------------------------------------------------------------- output
+    def to_dict(self) -> dict[str, Any]:
+        """JSON-ready dict; keys of values and of demand/resistance carry their unit."""
+        tag = KEY_TAG.get(self.unit, self.unit.replace("/", "_per_"))
+        sfx = f"_{tag}" if tag else ""
+        d = {
+            "id": self.id,
+            "title": self.title,
+            "clause": self.clause,
+            f"demand{sfx}": _clean(self.demand),
+            f"resistance{sfx}": _clean(self.resistance),
+            "unit": self.unit,
+            "utilisation": _clean(self.utilisation),
+            "ok": self.ok,
+            "values": {(f"{k}_{KEY_TAG.get(u, u.replace('/', '_per_'))}" if u else k): _clean(v)
+                       for k, (v, u) in self.values.items()},
+        }
+        if self.location_mm is not None:
+            d["location_m"] = round(self.location_mm / 1000.0, 4)
+        if self.note:
+            d["note"] = self.note
+        return d
+
+    def to_json(self) -> str:
+        return json.dumps(self.to_dict(), indent=2)
+
+    @property
+    def verdict(self) -> str:
+        return "OK" if self.ok else "NOT OK"
+
+    def summary_line(self) -> str:
+        return (f"{self.title:<48} {self.demand:10.2f} / {self.resistance:10.2f} {self.unit:<5} "
+                f"u = {self.utilisation:5.3f}  {self.verdict:<6}  [{self.clause}]")
+
+    def _repr_markdown_(self) -> str:
+        steps = "\n\n".join(self.latex)
+        colour = "green" if self.ok else "red"
+        return (f"**{html.escape(self.title)}** — *{self.clause}*\n\n{steps}\n\n"
+                f"$E_d = {self.demand:.3g}$ {self.unit}, $R_d = {self.resistance:.3g}$ {self.unit}, "
+                f"utilisation **{self.utilisation:.3f}** — <span style='color:{colour}'>**{self.verdict}**</span>")
+
+
+def _clean(x: float) -> float | None:
+    if x is None:
+        return None
+    if isinstance(x, float) and not math.isfinite(x):
+        return None
+    return round(float(x), 6)
+
+
+def utilisation(demand: float, resistance: float) -> float:
+    """demand / resistance, +inf when the resistance is nil."""
+    if resistance <= 0.0:
+        return math.inf if demand > 0 else 0.0
+    return abs(demand) / resistance
+
+
+class Calc:
+    """Runs clause functions, optionally rendering each step.
+
+    >>> calc = Calc()                       # fast path
+    >>> F = calc(F_v_Rd, alpha_v=0.6, f_ub=800, A_s=245, gamma_M2=1.25)  # doctest: +SKIP
+    """
+
+    __slots__ = ("render", "precision", "latex", "values")
+
+    def __init__(self, render: bool = False, precision: int = 3) -> None:
+        self.render = render
+        self.precision = precision
+        self.latex: list[str] = []
+        self.values: dict[str, tuple[float, str]] = {}
+
+    def __call__(self, fn: Callable, **kwargs: Any) -> Any:
+        if not self.render:
+            return fn(**kwargs)
+        latex, result = _render(fn, precision=self.precision, **kwargs)
+        self.latex.append(latex)
+        return result
+
+    def note(self, text: str) -> None:
+        """Add a prose line (LaTeX text mode) to the rendered steps."""
+        if self.render:
+            self.latex.append(text)
+
+    def keep(self, name: str, value: float, unit: str = "") -> float:
+        """Remember a named intermediate value (internal unit) for the record."""
+        v, u = display(value, unit)
+        self.values[name] = (v, u)
+        return value
+
+    def record(self, *, id: str, title: str, clause: str, demand: float, resistance: float,
+               unit: str, location_mm: float | None = None, note: str = "") -> CheckRecord:
+        """Close the check: convert to report units and compute the utilisation."""
+        d, du = display(demand, unit)
+        r, _ = display(resistance, unit)
+        u = utilisation(demand, resistance)
+        rec = CheckRecord(id=id, title=title, clause=clause, demand=d, resistance=r, unit=du,
+                          utilisation=u, ok=u <= 1.0 + 1e-9, values=dict(self.values),
+                          latex=tuple(self.latex), location_mm=location_mm, note=note)
+        self.latex = []
+        self.values = {}
+        return rec
+
+
+def records_to_json(records: list[CheckRecord]) -> str:
+    return json.dumps([r.to_dict() for r in records], indent=2)
+
+
+__all__ = ["CheckRecord", "Calc", "utilisation", "display", "records_to_json", "asdict"]

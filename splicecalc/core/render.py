@@ -1,0 +1,75 @@
+"""Render a clause function with handcalcs, from the same source that runs on floats.
+
+``render(fn, **kwargs)`` converts the float arguments to forallpeople quantities
+(using the units declared by :func:`splicecalc.core.clause.clause`), runs the
+function through handcalcs' renderer, and returns the LaTeX together with the
+result converted back to a float in the declared unit.
+
+We hand handcalcs only the body of the function, taken with :mod:`ast`, rather
+than using ``handcalcs.decorator.handcalc``: the decorator filters source lines
+by substring (``def``, ``return``, ``@``), which breaks multi-line signatures
+and decorators. The renderer itself (``LatexRenderer``) is handcalcs'.
+"""
+
+from __future__ import annotations
+
+import ast
+import inspect
+import textwrap
+from functools import lru_cache
+from typing import Any, Callable
+
+import innerscope
+from handcalcs.handcalcs import LatexRenderer
+
+from .units import is_quantity, to_float, to_quantity
+
+
+@lru_cache(maxsize=None)
+def _body_source(fn: Callable) -> str:
+    src = textwrap.dedent(inspect.getsource(fn))
+    tree = ast.parse(src)
+    fdef = tree.body[0]
+    assert isinstance(fdef, (ast.FunctionDef, ast.AsyncFunctionDef))
+    stmts = list(fdef.body)
+    if stmts and isinstance(stmts[0], ast.Expr) and isinstance(getattr(stmts[0], "value", None), ast.Constant) \
+            and isinstance(stmts[0].value.value, str):
+        stmts = stmts[1:]
+    lines = src.splitlines()
+    keep: list[str] = []
+    for st in stmts:
+        if isinstance(st, ast.Return):
+            continue
+        seg = lines[st.lineno - 1: st.end_lineno]
+        keep.extend(seg)
+    return textwrap.dedent("\n".join(keep))
+
+
+def quantity_args(fn: Callable, kwargs: dict[str, Any]) -> dict[str, Any]:
+    """Convert float kwargs (and unit-bearing defaults) to quantities per the declared units."""
+    info = fn.__clause__
+    sig = inspect.signature(fn)
+    bound = sig.bind(**kwargs)
+    bound.apply_defaults()
+    out = {}
+    for name, val in bound.arguments.items():
+        unit = info.units.get(name, "")
+        if unit and not is_quantity(val) and isinstance(val, (int, float)):
+            out[name] = to_quantity(val, unit)
+        else:
+            out[name] = val
+    return out
+
+
+def render(fn: Callable, precision: int = 3, **kwargs: Any) -> tuple[str, float]:
+    """Return ``(latex, result_as_float)`` for ``fn(**kwargs)`` rendered by handcalcs."""
+    qargs = quantity_args(fn, kwargs)
+    scope = innerscope.call(fn, **qargs)
+    line_args = {"override": "", "precision": precision, "sci_not": None}
+    latex = LatexRenderer(_body_source(fn), scope, line_args).render()
+    latex = "".join(latex.replace("\\[", "", 1).rsplit("\\]", 1)).strip()
+    result = scope.return_value
+    unit = fn.__clause__.returns
+    if isinstance(result, tuple):
+        return latex, result
+    return latex, to_float(result, unit) if unit else (float(result) if not is_quantity(result) else to_float(result, ""))
