@@ -1,0 +1,66 @@
+# Sourced by scripts/demo.sh and scripts/test.sh: make the machine ready, idempotently.
+#  1. TeX Live (XeTeX) + pandoc + poppler from Debian packages when missing
+#     (installed with apt-get when we are root, otherwise we stop with the exact command);
+#  2. a virtual environment in .venv with splicecalc and its test extras installed.
+set -euo pipefail
+
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+VENV="$ROOT/.venv"
+PYTHON_BIN="${PYTHON:-python3}"
+
+# Debian packages the PDF build and the PDF tests need.
+APT_PACKAGES="texlive-xetex texlive-latex-recommended texlive-latex-extra texlive-fonts-recommended lmodern fonts-dejavu-core pandoc poppler-utils"
+
+_missing_system() {
+    local missing=0
+    command -v xelatex >/dev/null 2>&1 || missing=1
+    command -v pandoc >/dev/null 2>&1 || missing=1
+    command -v pdftotext >/dev/null 2>&1 || missing=1
+    command -v pdftoppm >/dev/null 2>&1 || missing=1
+    if command -v kpsewhich >/dev/null 2>&1; then
+        for sty in fancyhdr.sty lastpage.sty xcolor.sty booktabs.sty tcolorbox.sty adjustbox.sty mathtools.sty; do
+            [ -n "$(kpsewhich "$sty" 2>/dev/null)" ] || missing=1
+        done
+    fi
+    return $((1 - missing))
+}
+
+ensure_system_packages() {
+    if _missing_system; then
+        if [ "$(id -u)" = "0" ] && command -v apt-get >/dev/null 2>&1; then
+            echo "splicecalc: installing TeX Live (XeTeX), pandoc and poppler from Debian packages ..." >&2
+            export DEBIAN_FRONTEND=noninteractive
+            apt-get update -qq
+            # shellcheck disable=SC2086
+            apt-get install -y -qq --no-install-recommends $APT_PACKAGES >/dev/null
+        else
+            echo "splicecalc: TeX Live / pandoc / poppler are missing. Install them with:" >&2
+            echo "  sudo apt-get update && sudo apt-get install -y --no-install-recommends $APT_PACKAGES" >&2
+            exit 1
+        fi
+    fi
+}
+
+ensure_venv() {
+    if ! "$PYTHON_BIN" -c 'import sys; sys.exit(0 if sys.version_info >= (3, 11) else 1)' 2>/dev/null; then
+        echo "splicecalc: Python >= 3.11 is needed (found: $("$PYTHON_BIN" --version 2>&1)). Set PYTHON=/path/to/python3.11" >&2
+        exit 1
+    fi
+    if [ ! -x "$VENV/bin/python" ]; then
+        echo "splicecalc: creating the virtual environment in .venv ..." >&2
+        "$PYTHON_BIN" -m venv "$VENV"
+    fi
+    # Reinstall only when pyproject.toml changed since the last install.
+    local stamp="$VENV/.splicecalc-installed"
+    local want
+    want="$(sha256sum "$ROOT/pyproject.toml" | cut -d' ' -f1)"
+    if [ ! -f "$stamp" ] || [ "$(cat "$stamp")" != "$want" ]; then
+        echo "splicecalc: installing splicecalc and its dependencies into .venv ..." >&2
+        "$VENV/bin/python" -m pip install -q --disable-pip-version-check -e "$ROOT[test]"
+        echo "$want" > "$stamp"
+    fi
+}
+
+ensure_system_packages
+ensure_venv
+export MPLBACKEND=Agg

@@ -1,0 +1,6 @@
+#!/usr/bin/env bash
+# Run the whole splicecalc test suite on this machine, installing what it needs first.
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/bootstrap.sh"
+cd "$ROOT"
+exec "$VENV/bin/python" -m pytest "$@"

@@ -1,0 +1,1 @@
+"""The splicecalc command line."""

@@ -1,0 +1,1 @@
+"""Design searches on the plain-float path: lightest section, splice positions, splice layout."""

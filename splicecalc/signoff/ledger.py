@@ -1,0 +1,259 @@
+"""Signatures, revisions and verification, kept in the notebook's metadata.
+
+``nb.metadata["splicecalc"]`` holds::
+
+    signatures: [{role, name, date, digest}, ...]      # append-only history
+    revisions:  [{letter, date, description}, ...]     # append-only
+
+A built PDF gets a sidecar ``<name>.pdf.json`` with the PDF's own SHA-256,
+the digest it was built from, the signatures valid at build time and
+``issued``; an issued PDF is never overwritten.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import json
+import os
+import re
+import tempfile
+from dataclasses import asdict, dataclass
+from pathlib import Path
+from typing import Any
+
+from ..core.errors import InputError
+from .digest import compute_digest, file_sha256
+
+#: sign-off roles in the order they must be given
+ROLES = ("prepared", "checked", "approved")
+_STATUS_BY_ROLE = {"prepared": "PREPARED", "checked": "CHECKED", "approved": "APPROVED"}
+_REV_RE = re.compile(r"^([A-Z]{1,2}|[PC][0-9]{1,3}|[0-9]{1,3})$")
+
+#: verify exit codes
+EXIT_VALID, EXIT_CHANGED, EXIT_UNSIGNED = 0, 1, 3
+
+
+@dataclass(frozen=True)
+class Signature:
+    role: str
+    name: str
+    date: str
+    digest: str
+
+
+@dataclass(frozen=True)
+class Revision:
+    letter: str
+    date: str
+    description: str
+
+
+@dataclass(frozen=True)
+class SignStatus:
+    """Result of checking a notebook or PDF against its signatures.
+
+    state: "valid" | "changed" | "unsigned"; label: what every page shows.
+    """
+
+    state: str
+    label: str
+    current_digest: str
+    signed_digest: str | None
+    signatures: tuple[Signature, ...]
+    detail: str = ""
+
+    @property
+    def exit_code(self) -> int:
+        return {"valid": EXIT_VALID, "changed": EXIT_CHANGED, "unsigned": EXIT_UNSIGNED}[self.state]
+
+
+# ----------------------------------------------------------------- helpers
+def _read_nb(path: str | Path):
+    import nbformat
+
+    p = Path(path)
+    if not p.is_file():
+        raise InputError("notebook", str(path), "an existing .ipynb file")
+    return nbformat.read(str(p), as_version=4)
+
+
+def write_atomic(path: str | Path, text: str) -> None:
+    """Write text to ``path`` via a temporary file in the same folder and os.replace."""
+    p = Path(path)
+    fd, tmp = tempfile.mkstemp(prefix=f".{p.name}.", suffix=".tmp", dir=str(p.parent))
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8") as f:
+            f.write(text)
+        os.replace(tmp, p)
+    except BaseException:
+        if os.path.exists(tmp):
+            os.unlink(tmp)
+        raise
+
+
+def _write_nb(nb: Any, path: str | Path) -> None:
+    import nbformat
+
+    write_atomic(path, nbformat.writes(nb))
+
+
+def ledger_of(nb: Any) -> dict:
+    """The splicecalc metadata dict of a notebook (created if absent)."""
+    meta = nb.metadata.setdefault("splicecalc", {})
+    meta.setdefault("signatures", [])
+    meta.setdefault("revisions", [])
+    return meta
+
+
+def _today() -> str:
+    return _dt.date.today().isoformat()
+
+
+# ----------------------------------------------------------------- status
+def status_of(nb: Any) -> SignStatus:
+    """Compare the notebook's current digest with its latest signature."""
+    meta = ledger_of(nb)
+    sigs = tuple(Signature(**s) for s in meta["signatures"])
+    current = compute_digest(nb)
+    if not sigs:
+        return SignStatus("unsigned", "DRAFT", current, None, sigs, "no signatures")
+    latest = sigs[-1].digest
+    if latest != current:
+        return SignStatus("changed", "DRAFT - CHANGED SINCE SIGNED", current, latest, sigs,
+                          f"signed digest {latest[:12]}..., current {current[:12]}...")
+    valid_roles = [s.role for s in sigs if s.digest == current]
+    top = max(valid_roles, key=ROLES.index)
+    return SignStatus("valid", _STATUS_BY_ROLE[top], current, latest, sigs,
+                      "signed: " + ", ".join(f"{s.role} {s.name}" for s in sigs if s.digest == current))
+
+
+# ----------------------------------------------------------------- actions
+def sign_notebook(path: str | Path, role: str, name: str, date: str | None = None) -> SignStatus:
+    """Add a signature to an executed notebook (atomic write).
+
+    A checker signs only over a prepared signature of the same digest, and
+    must be someone else; an approver only over a checked one.
+    """
+    if role not in ROLES:
+        raise InputError("role", role, "one of " + ", ".join(ROLES))
+    if not isinstance(name, str) or not name.strip():
+        raise InputError("name", name, "the signer's name (non-empty text)")
+    date = date or _today()
+    try:
+        _dt.date.fromisoformat(date)
+    except (TypeError, ValueError):
+        raise InputError("date", date, "an ISO date, e.g. 2026-12-02") from None
+    nb = _read_nb(path)
+    meta = ledger_of(nb)
+    from .digest import collect_records
+
+    if not collect_records(nb):
+        raise InputError("notebook", str(path), "an executed calc notebook with check records",
+                         "Build it first (splicecalc build), then sign the executed notebook")
+    digest = compute_digest(nb)
+    current = [s for s in meta["signatures"] if s["digest"] == digest]
+    if role == "checked":
+        preparers = [s for s in current if s["role"] == "prepared"]
+        if not preparers:
+            raise InputError("role", role, "'prepared' to be signed first on this version")
+        if any(s["name"].strip().lower() == name.strip().lower() for s in preparers):
+            raise InputError("name", name, "a checker other than the preparer")
+    if role == "approved" and not any(s["role"] == "checked" for s in current):
+        raise InputError("role", role, "'checked' to be signed first on this version")
+    meta["signatures"].append(asdict(Signature(role, name.strip(), date, digest)))
+    _write_nb(nb, path)
+    return status_of(nb)
+
+
+def add_revision(path: str | Path, letter: str, description: str, date: str | None = None) -> list[Revision]:
+    """Append a revision (letter, date, description); existing ones are never changed."""
+    if not isinstance(letter, str) or not _REV_RE.match(letter):
+        raise InputError("revision", letter, "a revision code such as A, B, P1, C2 or 01")
+    if not isinstance(description, str) or not description.strip():
+        raise InputError("description", description, "a short description of the revision")
+    nb = _read_nb(path)
+    meta = ledger_of(nb)
+    if any(r["letter"] == letter for r in meta["revisions"]):
+        raise InputError("revision", letter, "a new revision code (revisions are append-only)")
+    meta["revisions"].append(asdict(Revision(letter, date or _today(), description.strip())))
+    _write_nb(nb, path)
+    return [Revision(**r) for r in meta["revisions"]]
+
+
+# ----------------------------------------------------------------- PDF sidecar
+def sidecar_path(pdf: str | Path) -> Path:
+    return Path(str(pdf) + ".json")
+
+
+def is_protected(pdf: str | Path) -> bool:
+    """True when the PDF is an issued revision (must never be overwritten)."""
+    sc = sidecar_path(pdf)
+    if not sc.is_file():
+        return False
+    try:
+        return bool(json.loads(sc.read_text(encoding="utf-8")).get("issued"))
+    except (OSError, ValueError):
+        return True  # unreadable sidecar: be safe
+
+
+def write_sidecar(pdf: str | Path, nb: Any, notebook_path: str | Path | None, issued: bool = False) -> dict:
+    """Record the PDF's hash and the sign-off state it was built with."""
+    st = status_of(nb)
+    meta = ledger_of(nb)
+    data = {
+        "pdf_sha256": file_sha256(pdf),
+        "digest": st.current_digest,
+        "status": st.label,
+        "signatures": meta["signatures"],
+        "revisions": meta["revisions"],
+        "notebook": str(notebook_path) if notebook_path else None,
+        "issued": issued,
+    }
+    write_atomic(sidecar_path(pdf), json.dumps(data, indent=2))
+    return data
+
+
+def issue_pdf(pdf: str | Path) -> dict:
+    """Mark a built PDF as an issued revision: from now on it is never overwritten."""
+    sc = sidecar_path(pdf)
+    if not sc.is_file():
+        raise InputError("pdf", str(pdf), "a PDF built by splicecalc (its .pdf.json record is missing)")
+    data = json.loads(sc.read_text(encoding="utf-8"))
+    if data.get("pdf_sha256") != file_sha256(pdf):
+        raise InputError("pdf", str(pdf), "the PDF as built (its bytes changed since the build)")
+    data["issued"] = True
+    write_atomic(sc, json.dumps(data, indent=2))
+    return data
+
+
+def verify_path(path: str | Path) -> SignStatus:
+    """Verify a notebook or a PDF against its recorded digest (no re-execution)."""
+    p = Path(path)
+    if p.suffix == ".ipynb":
+        return status_of(_read_nb(p))
+    if p.suffix != ".pdf":
+        raise InputError("path", str(path), "a .ipynb notebook or a .pdf calc package")
+    if not p.is_file():
+        raise InputError("path", str(path), "an existing PDF")
+    sc = sidecar_path(p)
+    if not sc.is_file():
+        return SignStatus("unsigned", "DRAFT", "", None, (), "no .pdf.json record next to the PDF")
+    data = json.loads(sc.read_text(encoding="utf-8"))
+    sigs = tuple(Signature(**s) for s in data.get("signatures", []))
+    digest = data.get("digest", "")
+    if data.get("pdf_sha256") != file_sha256(p):
+        return SignStatus("changed", "CHANGED SINCE BUILT", digest, sigs[-1].digest if sigs else None, sigs,
+                          "the PDF's bytes differ from those recorded at build time")
+    nb_path = data.get("notebook")
+    if nb_path and Path(nb_path).is_file():
+        now = compute_digest(_read_nb(nb_path))
+        if now != digest:
+            return SignStatus("changed", "DRAFT - CHANGED SINCE SIGNED", now, digest, sigs,
+                              "the notebook changed since this PDF was built")
+    if not sigs:
+        return SignStatus("unsigned", "DRAFT", digest, None, sigs, "built unsigned")
+    if sigs[-1].digest != digest:
+        return SignStatus("changed", "DRAFT - CHANGED SINCE SIGNED", digest, sigs[-1].digest, sigs,
+                          "built from inputs that differ from the signed ones")
+    top = max((s.role for s in sigs if s.digest == digest), key=ROLES.index)
+    return SignStatus("valid", _STATUS_BY_ROLE[top], digest, digest, sigs, "PDF matches its signed record")
