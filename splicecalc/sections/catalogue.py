@@ -18,7 +18,7 @@ from functools import lru_cache
 from pathlib import Path
 
 from ..core.errors import InputError
-from .section import FAMILIES, Section, _check_dimensions
+from .section import FAMILIES, Section
 
 _DATA = Path(__file__).with_name("data")
 _FILES = {"UKB": "ukb.csv", "UKC": "ukc.csv", "IPE": "ipe.csv", "HEA": "hea.csv", "HEB": "heb.csv"}
@@ -38,12 +38,13 @@ def _read_family(family: str) -> tuple[Section, ...]:
     out = []
     for i, row in enumerate(rows, start=3):
         name = row["designation"].strip()
-        where = f"{path.name} line {i} ({name})"
-        h, b, tw, tf, r = _check_dimensions(row["h_mm"], row["b_mm"], row["tw_mm"], row["tf_mm"],
-                                            row["r_mm"], where=where)
-        mass = float(row["mass_kg_per_m"])
         designation = f"{name} {family}" if family in ("UKB", "UKC") else name
-        out.append(Section(designation, family, h, b, tw, tf, r, mass, standard))
+        try:
+            out.append(Section(designation, family, float(row["h_mm"]), float(row["b_mm"]),
+                               float(row["tw_mm"]), float(row["tf_mm"]), float(row["r_mm"]),
+                               float(row["mass_kg_per_m"]), standard))
+        except ValueError as err:     # InputError is a ValueError
+            raise RuntimeError(f"{path.name} line {i}: {err}") from err
     return tuple(out)
 
 

@@ -10,12 +10,15 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from typing import Any
 
-from ..core.errors import InputError, require_non_negative, require_positive
+from ..core.errors import InputError, require_in_range, require_positive
 from ..materials.steel import DENSITY_kg_per_m3
 from .geometry import properties
 
 FAMILIES: tuple[str, ...] = ("UKB", "UKC", "IPE", "HEA", "HEB")
 MEASURED = "MEASURED"
+#: accepted range of any defining dimension (mm); r may also be 0
+DIM_MIN_mm = 1.0
+DIM_MAX_mm = 5000.0
 
 
 @dataclass(frozen=True)
@@ -64,7 +67,12 @@ class Section:
     mass: float = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        p = properties(self.h, self.b, self.tw, self.tf, self.r)
+        dims = _check_dimensions(self.h, self.b, self.tw, self.tf, self.r, where=self.designation)
+        for name, value in zip(("h", "b", "tw", "tf", "r"), dims):
+            object.__setattr__(self, name, value)
+        object.__setattr__(self, "mass_nominal",
+                           require_positive(f"{self.designation}.mass_nominal", self.mass_nominal, "kg/m"))
+        p = properties(*dims)
         for name, value in zip(p._fields, p):
             object.__setattr__(self, name, value)
         object.__setattr__(self, "mass", p.A * 1e-6 * DENSITY_kg_per_m3)
@@ -107,11 +115,11 @@ def _sig(x: float, digits: int = 6) -> float:
 def _check_dimensions(h: Any, b: Any, tw: Any, tf: Any, r: Any, where: str = "") -> tuple[float, ...]:
     """Validate I-section dimensions; return them as floats. Raises InputError naming the field."""
     pre = f"{where}." if where else ""
-    h_ = require_positive(pre + "h", h, "mm")
-    b_ = require_positive(pre + "b", b, "mm")
-    tw_ = require_positive(pre + "tw", tw, "mm")
-    tf_ = require_positive(pre + "tf", tf, "mm")
-    r_ = require_non_negative(pre + "r", r, "mm")
+    h_ = require_in_range(pre + "h", h, DIM_MIN_mm, DIM_MAX_mm, "mm")
+    b_ = require_in_range(pre + "b", b, DIM_MIN_mm, DIM_MAX_mm, "mm")
+    tw_ = require_in_range(pre + "tw", tw, DIM_MIN_mm, DIM_MAX_mm, "mm")
+    tf_ = require_in_range(pre + "tf", tf, DIM_MIN_mm, DIM_MAX_mm, "mm")
+    r_ = require_in_range(pre + "r", r, 0.0, DIM_MAX_mm, "mm")
     if not 2.0 * tf_ < h_:
         raise InputError(pre + "tf", tf, f"less than h/2 = {h_ / 2:g} mm (two flanges must fit in the depth)")
     if not tw_ < b_:
@@ -129,7 +137,7 @@ def _check_dimensions(h: Any, b: Any, tw: Any, tf: Any, r: Any, where: str = "")
 def measured_section(h: Any, b: Any, tw: Any, tf: Any, r: Any, designation: str = "measured") -> Section:
     """A section from measured dimensions (mm), e.g. an existing beam found on survey.
 
-    Checks that every dimension is a finite positive number (``r`` may be 0)
+    Checks that every dimension is a finite number from 1 mm to 5000 mm (``r`` may be 0)
     and that the shape is a possible I section: 2 tf < h, tw < b, 2 r < h - 2 tf
     and tw + 2 r < b. Raises :class:`~splicecalc.core.errors.InputError`
     naming the field. The nominal mass is the computed mass (7850 kg/m3).

@@ -1,0 +1,220 @@
+"""The ``splicecalc`` command.
+
+Look-ups:   section, sections, bolt, weld
+Design:     run
+Package:    new, build, sign, revise, issue, verify, demo
+
+User errors (bad input) print one line to stderr and exit 2; verify exits
+0 valid, 1 changed since signed, 3 unsigned.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+from typing import Callable
+
+from ..core.errors import InputError
+
+
+def _emit(data: dict | list, as_json: bool, text: Callable[[], str]) -> None:
+    if as_json:
+        print(json.dumps(data, indent=2))
+    else:
+        print(text())
+
+
+# ----------------------------------------------------------------- look-ups
+def _cmd_section(args: argparse.Namespace) -> int:
+    from ..sections import get_section
+
+    sec = get_section(args.designation)
+    d = sec.to_dict()
+
+    def text() -> str:
+        lines = [f"{sec.designation}  ({sec.family})"]
+        for k, v in d.items():
+            if k in ("designation", "family"):
+                continue
+            lines.append(f"  {k:<18} {v:>12.6g}" if isinstance(v, (int, float)) else f"  {k:<18} {v}")
+        return "\n".join(lines)
+
+    _emit(d, args.json, text)
+    return 0
+
+
+def _cmd_sections(args: argparse.Namespace) -> int:
+    from ..sections import list_sections
+
+    fam = args.family.upper() if args.family else None
+    if fam and fam not in ("UKB", "UKC", "IPE", "HEA", "HEB"):
+        raise InputError("family", args.family, "one of UKB, UKC, IPE, HEA, HEB")
+    secs = list_sections(fam)
+    if args.max_depth is not None:
+        secs = [s for s in secs if s.h <= args.max_depth]
+    if args.min_wpl is not None:
+        secs = [s for s in secs if s.Wpl_y / 1e3 >= args.min_wpl]
+    rows = [s.to_dict() for s in secs]
+
+    def text() -> str:
+        head = f"{'designation':<22}{'mass_kg_per_m':>14}{'h_mm':>8}{'b_mm':>8}{'Iy_cm4':>12}{'Wpl_y_cm3':>12}"
+        body = [f"{r['designation']:<22}{r['mass_kg_per_m']:>14.1f}{r['h_mm']:>8.1f}{r['b_mm']:>8.1f}"
+                f"{r['Iy_cm4']:>12.0f}{r['Wpl_y_cm3']:>12.0f}" for r in rows]
+        return "\n".join([head, *body, f"({len(rows)} sections)"])
+
+    _emit(rows, args.json, text)
+    return 0
+
+
+def _cmd_bolt(args: argparse.Namespace) -> int:
+    from .lookups import bolt_summary
+
+    d = bolt_summary(args.size, args.bolt_class, friction_class=args.friction_class)
+
+    def text() -> str:
+        return "\n".join([f"{args.size.upper()} class {args.bolt_class}"] +
+                         [f"  {k:<22} {v:>10.4g}" if isinstance(v, (int, float)) else f"  {k:<22} {v}"
+                          for k, v in d.items()])
+
+    _emit(d, args.json, text)
+    return 0
+
+
+def _cmd_weld(args: argparse.Namespace) -> int:
+    from .lookups import weld_summary
+
+    d = weld_summary(args.leg, args.grade)
+
+    def text() -> str:
+        return "\n".join([f"{args.leg:g} mm fillet weld, {args.grade}"] +
+                         [f"  {k:<22} {v:>10.4g}" if isinstance(v, (int, float)) else f"  {k:<22} {v}"
+                          for k, v in d.items()])
+
+    _emit(d, args.json, text)
+    return 0
+
+
+# ----------------------------------------------------------------- package
+def _cmd_verify(args: argparse.Namespace) -> int:
+    from ..signoff import verify_path
+
+    st = verify_path(args.path)
+    out = {"state": st.state, "status": st.label, "digest": st.current_digest,
+           "signed_digest": st.signed_digest, "detail": st.detail,
+           "signatures": [s.__dict__ for s in st.signatures]}
+    _emit(out, args.json, lambda: f"{st.state.upper()}: {st.label} ({st.detail})")
+    return st.exit_code
+
+
+def _cmd_sign(args: argparse.Namespace) -> int:
+    from ..signoff import sign_notebook
+
+    st = sign_notebook(args.notebook, args.role, args.name, date=args.date)
+    print(f"signed as {args.role} by {args.name}: status {st.label}, digest {st.current_digest[:16]}...")
+    return 0
+
+
+def _cmd_revise(args: argparse.Namespace) -> int:
+    from ..signoff import add_revision
+
+    revs = add_revision(args.notebook, args.revision, args.description, date=args.date)
+    print("revisions: " + ", ".join(f"{r.letter} ({r.date}) {r.description}" for r in revs))
+    return 0
+
+
+def _cmd_issue(args: argparse.Namespace) -> int:
+    from ..signoff import issue_pdf
+
+    issue_pdf(args.pdf)
+    print(f"{args.pdf} is issued: it will not be overwritten by later builds")
+    return 0
+
+
+def _optional(module: str, attr: str):
+    """Import an optional sub-command implementation (None while it does not exist)."""
+    import importlib
+
+    try:
+        return getattr(importlib.import_module(module), attr)
+    except (ImportError, AttributeError):
+        return None
+
+
+def build_parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(prog="splicecalc", description=__doc__.split("\n\n")[0])
+    sub = p.add_subparsers(dest="command", required=True)
+
+    s = sub.add_parser("section", help="properties of one catalogue section")
+    s.add_argument("designation", help='e.g. "533x210x92 UKB", "IPE300"')
+    s.add_argument("--json", action="store_true")
+    s.set_defaults(func=_cmd_section)
+
+    s = sub.add_parser("sections", help="list or filter a section family")
+    s.add_argument("family", nargs="?", help="UKB, UKC, IPE, HEA or HEB (all when omitted)")
+    s.add_argument("--max-depth", type=float, help="maximum depth h in mm")
+    s.add_argument("--min-wpl", type=float, help="minimum Wpl,y in cm3")
+    s.add_argument("--json", action="store_true")
+    s.set_defaults(func=_cmd_sections)
+
+    s = sub.add_parser("bolt", help="resistances of one bolt (EN 1993-1-8)")
+    s.add_argument("size", help="M12 ... M36")
+    s.add_argument("--class", dest="bolt_class", default="8.8", help="4.6, 8.8 or 10.9 (default 8.8)")
+    s.add_argument("--friction-class", default="A", help="slip surface class A-D for slip per plane")
+    s.add_argument("--json", action="store_true")
+    s.set_defaults(func=_cmd_bolt)
+
+    s = sub.add_parser("weld", help="fillet weld design resistance per mm (simplified method)")
+    s.add_argument("leg", type=float, help="leg length in mm")
+    s.add_argument("--grade", default="S275", help="parent steel grade (default S275)")
+    s.add_argument("--json", action="store_true")
+    s.set_defaults(func=_cmd_weld)
+
+    run_parser = _optional("splicecalc.cli.run", "add_parser")
+    if run_parser:
+        run_parser(sub)
+
+    pkg = _optional("splicecalc.cli.package", "add_parsers")
+    if pkg:
+        pkg(sub)
+
+    s = sub.add_parser("sign", help="sign an executed calc notebook as prepared / checked / approved")
+    s.add_argument("notebook")
+    s.add_argument("--role", required=True, choices=["prepared", "checked", "approved"])
+    s.add_argument("--name", required=True)
+    s.add_argument("--date", help="ISO date (default today)")
+    s.set_defaults(func=_cmd_sign)
+
+    s = sub.add_parser("revise", help="append a revision (letter, description) to a calc notebook")
+    s.add_argument("notebook")
+    s.add_argument("--revision", required=True, help="e.g. A, B, P1")
+    s.add_argument("--description", required=True)
+    s.add_argument("--date")
+    s.set_defaults(func=_cmd_revise)
+
+    s = sub.add_parser("issue", help="mark a built PDF as an issued revision (never overwritten)")
+    s.add_argument("pdf")
+    s.set_defaults(func=_cmd_issue)
+
+    s = sub.add_parser("verify", help="verify a notebook or PDF against its signatures "
+                                      "(exit 0 valid, 1 changed, 3 unsigned)")
+    s.add_argument("path")
+    s.add_argument("--json", action="store_true")
+    s.set_defaults(func=_cmd_verify)
+    return p
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    try:
+        return int(args.func(args) or 0)
+    except InputError as e:
+        print(f"splicecalc: error: {e}", file=sys.stderr)
+        return 2
+    except KeyboardInterrupt:
+        return 130
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())
