@@ -37,7 +37,7 @@ def _cmd_section(args: argparse.Namespace) -> int:
         for k, v in d.items():
             if k in ("designation", "family"):
                 continue
-            lines.append(f"  {k:<18} {v:>12.6g}" if isinstance(v, (int, float)) else f"  {k:<18} {v}")
+            lines.append(f"  {k:<24} {v:>12.6g}" if isinstance(v, (int, float)) else f"  {k:<24} {v}")
         return "\n".join(lines)
 
     _emit(d, args.json, text)
