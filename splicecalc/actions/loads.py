@@ -125,6 +125,12 @@ class UDL:
         """A copy with ``w`` multiplied by ``factor`` (> 0)."""
         return replace(self, w=self.w * factor, name=name or self.name)
 
+    def to_dict(self) -> dict:
+        """JSON-ready dict; keys carry units (w in kN/m = N/mm, positions in mm)."""
+        return {"name": self.name, "type": "udl", "action": self.action, "category": self.category,
+                "group": self.action_name, "w_kN_per_m": self.w, "x_start_mm": self.x_start,
+                "x_end_mm": self.x_end}
+
     def describe(self) -> str:
         ext = "full span" if self.x_start == 0.0 and self.x_end is None else \
             f"x = {self.x_start / 1e3:.3g} to {'L' if self.x_end is None else f'{self.x_end / 1e3:.3g}'} m"
@@ -167,6 +173,11 @@ class PointLoad:
 
     def scaled(self, factor: float, name: str | None = None) -> "PointLoad":
         return replace(self, P=self.P * factor, name=name or self.name)
+
+    def to_dict(self) -> dict:
+        """JSON-ready dict; keys carry units."""
+        return {"name": self.name, "type": "point", "action": self.action, "category": self.category,
+                "group": self.action_name, "P_kN": self.P / 1e3, "x_mm": self.x}
 
     def describe(self) -> str:
         return f"{self.name}: {self.P / 1e3:.3g} kN at x = {self.x / 1e3:.3g} m ({self.action_name})"

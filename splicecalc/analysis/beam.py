@@ -231,7 +231,11 @@ class SimpleBeam:
             if t0 == 0.0:
                 cand.append(float(x0))
             elif t0 * t1 < 0.0:
-                cand.append(brentq(f, x0, x1, xtol=1e-9 * self.L, rtol=1e-14, maxiter=200))
+                f0, f1 = f(float(x0)), f(float(x1))   # same evaluation path as inside brentq
+                if f0 * f1 < 0.0:
+                    cand.append(brentq(f, x0, x1, xtol=1e-9 * self.L, rtol=1e-14, maxiter=200))
+                else:  # sign change at round-off level: keep the sample nearer to zero
+                    cand.append(float(x0) if abs(f0) <= abs(f1) else float(x1))
         cand_arr = np.array(cand)
         wv = np.atleast_1d(self.w(cand_arr))
         i = int(np.argmax(np.abs(wv)))

@@ -1,0 +1,230 @@
+"""Shear force, bending moment and deflection diagrams of a :class:`SimpleBeam`.
+
+Returns a :class:`matplotlib.figure.Figure` built on the Agg canvas (no pyplot,
+no global state), sized for the text width of an A4 page. Values are shown in
+kN, kNm and mm; x in m. Sign convention as in :mod:`splicecalc.analysis.beam`:
+sagging moment plotted positive (upwards), deflection drawn downwards.
+
+Public API: :func:`beam_diagrams`, :func:`envelope_diagram`.
+"""
+
+from __future__ import annotations
+
+from typing import Sequence
+
+import numpy as np
+from matplotlib.backends.backend_agg import FigureCanvasAgg
+from matplotlib.figure import Figure
+from matplotlib.patches import Rectangle
+
+from ..actions.loads import UDL, PointLoad
+from ..core.errors import InputError, require_finite
+from .beam import SimpleBeam
+from .envelope import Envelope
+
+#: A4 text width (about 170 mm) in inches
+A4_TEXT_WIDTH_IN = 6.7
+
+
+def _positions(values: object, L: float, field: str) -> tuple[float, ...]:
+    if values is None:
+        return ()
+    if isinstance(values, (int, float)):
+        values = (values,)
+    if not isinstance(values, (list, tuple, np.ndarray)):
+        raise InputError(field, values, "a list of positions in mm")
+    out = []
+    for i, v in enumerate(values):
+        x = require_finite(f"{field}[{i}]", v)
+        if not 0.0 <= x <= L:
+            raise InputError(f"{field}[{i}]", v, f"a position from 0 to the span {L:g} mm")
+        out.append(x)
+    return tuple(out)
+
+
+def _sample(beam: SimpleBeam, n: int) -> tuple[np.ndarray, np.ndarray]:
+    """x (mm) and V (N) with both sides of every jump, so point loads plot as steps."""
+    bp = beam.breakpoints()
+    xs = np.unique(np.concatenate((np.linspace(0.0, beam.L, n), bp)))
+    vl = np.atleast_1d(beam.V(xs, "left"))
+    vr = np.atleast_1d(beam.V(xs, "right"))
+    x2 = np.repeat(xs, 2)
+    v2 = np.empty_like(x2)
+    v2[0::2] = vl
+    v2[1::2] = vr
+    v2[0] = 0.0
+    v2[-1] = 0.0
+    return x2, v2
+
+
+def _style_axis(ax, L_m: float, ylabel: str) -> None:
+    ax.axhline(0.0, color="black", lw=0.8)
+    ax.set_xlim(-0.02 * L_m, 1.02 * L_m)
+    ax.set_ylabel(ylabel, fontsize=8)
+    ax.margins(y=0.18)
+    ax.tick_params(labelsize=7)
+    ax.grid(True, lw=0.3, alpha=0.5)
+
+
+def _supports(ax, L_m: float) -> None:
+    for xs, lab in ((0.0, "A"), (L_m, "B")):
+        ax.plot([xs], [0.0], marker="^", ms=9, color="black", clip_on=False, zorder=5)
+        ax.annotate(lab, (xs, 0.0), xytext=(0, -14), textcoords="offset points", ha="center", fontsize=7)
+
+
+def _vlines(axes, xs_mm: Sequence[float], style: dict, labels: Sequence[str]) -> None:
+    for x, lab in zip(xs_mm, labels):
+        for k, ax in enumerate(axes):
+            ax.axvline(x / 1e3, **style)
+            if k == 0:
+                ax.annotate(lab, (x / 1e3, 1.0), xycoords=("data", "axes fraction"), xytext=(0, 2),
+                            textcoords="offset points", ha="center", va="bottom", fontsize=7,
+                            color=style.get("color", "black"))
+
+
+def _mark(ax, x_m: float, y: float, text: str, colour: str, L_m: float) -> None:
+    ax.plot([x_m], [y], "o", ms=4, color=colour, zorder=6)
+    right = x_m > 0.6 * L_m
+    ax.annotate(text, (x_m, y), xytext=(-6 if right else 6, 4 if y >= 0 else -11), textcoords="offset points",
+                ha="right" if right else "left", fontsize=7, color=colour, zorder=7,
+                bbox=dict(boxstyle="round,pad=0.15", fc="white", ec="none", alpha=0.85))
+
+
+def _load_panel(ax, beam: SimpleBeam) -> None:
+    """Sketch of the loads: UDLs as stacked bands, point loads as arrows, values in kN/m and kN."""
+    L_m = beam.L / 1e3
+    ax.plot([0.0, L_m], [0.0, 0.0], color="black", lw=2.5, solid_capstyle="butt")
+    level = 0.15
+    for ld in beam.loads:
+        if isinstance(ld, UDL):
+            a, b = ld.extent(beam.L)
+            ax.add_patch(Rectangle((a / 1e3, level), (b - a) / 1e3, 0.22, fc="tab:orange", alpha=0.25,
+                                   ec="tab:orange", lw=0.8))
+            ax.annotate(f"{ld.name}: {ld.w:.3g} kN/m", ((a + b) / 2e3, level + 0.11), ha="center",
+                        va="center", fontsize=6.5)
+            level += 0.3
+    top = level + 0.1
+    for ld in beam.loads:
+        if isinstance(ld, PointLoad):
+            ax.annotate("", (ld.x / 1e3, 0.02), xytext=(ld.x / 1e3, top + 0.35),
+                        arrowprops=dict(arrowstyle="-|>", color="tab:brown", lw=1.2))
+            ax.annotate(f"{ld.name}: {ld.P / 1e3:.3g} kN", (ld.x / 1e3, top + 0.37), ha="center",
+                        va="bottom", fontsize=6.5, color="tab:brown")
+    ax.set_ylim(-0.3, top + 0.75)
+    ax.set_yticks([])
+    ax.set_ylabel("loads", fontsize=8)
+    ax.set_xlim(-0.02 * L_m, 1.02 * L_m)
+    for side in ("left", "right", "top"):
+        ax.spines[side].set_visible(False)
+
+
+def beam_diagrams(beam: SimpleBeam, *, splices_mm: Sequence[float] | None = None,
+                  restraints_mm: Sequence[float] | None = None, title: str | None = None,
+                  n: int = 401, show_loads: bool = True) -> Figure:
+    """Stacked load sketch, V, M (and w when ``beam.I`` is set) diagrams with maxima, supports A/B,
+    intermediate restraints (dotted, "R1"...) and splices (dashed, "S1"...; M and V there labelled).
+
+    splices_mm, restraints_mm: positions from support A, mm. n: plotting points (>= 11).
+    show_loads: add the load sketch on top (values as held by ``beam``, e.g. factored).
+    """
+    if not isinstance(beam, SimpleBeam):
+        raise InputError("beam", beam, "a SimpleBeam")
+    L = beam.L
+    splices = _positions(splices_mm, L, "splices_mm")
+    restraints = _positions(restraints_mm, L, "restraints_mm")
+    if isinstance(n, bool) or not isinstance(n, (int, np.integer)) or n < 11:
+        raise InputError("n", n, "an integer >= 11")
+    if title is not None and not isinstance(title, str):
+        raise InputError("title", title, "a text")
+    if not isinstance(show_loads, bool):
+        raise InputError("show_loads", show_loads, "True or False")
+    L_m = L / 1e3
+    has_w = beam.I is not None
+    nax = 3 if has_w else 2
+    fig = Figure(figsize=(A4_TEXT_WIDTH_IN, 2.1 * nax + (1.6 if show_loads else 0.4)), layout="constrained")
+    FigureCanvasAgg(fig)
+    if show_loads:
+        all_axes = fig.subplots(nax + 1, 1, sharex=True, gridspec_kw={"height_ratios": [0.8] + [1.0] * nax})
+        _load_panel(all_axes[0], beam)
+        axes = all_axes[1:]
+    else:
+        axes = fig.subplots(nax, 1, sharex=True)
+
+    # shear
+    xv, v = _sample(beam, n)
+    ax = axes[0]
+    ax.fill_between(xv / 1e3, v / 1e3, 0.0, color="tab:blue", alpha=0.15, lw=0)
+    ax.plot(xv / 1e3, v / 1e3, color="tab:blue", lw=1.2)
+    _style_axis(ax, L_m, "V (kN)")
+    vmx = beam.V_max()
+    ax.annotate(f"R_A = {beam.R_A / 1e3:.1f} kN", (0.0, 0.0), xytext=(8, -12), textcoords="offset points",
+                fontsize=7)
+    ax.annotate(f"R_B = {beam.R_B / 1e3:.1f} kN", (L_m, 0.0), xytext=(-8, 6), textcoords="offset points",
+                ha="right", fontsize=7)
+    _mark(ax, vmx.x_mm / 1e3, vmx.value / 1e3, f"|V| max = {vmx.abs / 1e3:.1f} kN at x = {vmx.x_mm / 1e3:.2f} m",
+          "tab:blue", L_m)
+
+    # moment
+    xm = np.unique(np.concatenate((np.linspace(0.0, L, n), beam.breakpoints())))
+    m = np.atleast_1d(beam.M(xm))
+    ax = axes[1]
+    ax.fill_between(xm / 1e3, m / 1e6, 0.0, color="tab:red", alpha=0.15, lw=0)
+    ax.plot(xm / 1e3, m / 1e6, color="tab:red", lw=1.2)
+    _style_axis(ax, L_m, "M (kNm), sagging +")
+    mmx = beam.M_max()
+    _mark(ax, mmx.x_mm / 1e3, mmx.value / 1e6, f"M max = {mmx.value / 1e6:.1f} kNm at x = {mmx.x_mm / 1e3:.2f} m",
+          "tab:red", L_m)
+
+    # deflection
+    if has_w:
+        w = np.atleast_1d(beam.w(xm))
+        ax = axes[2]
+        ax.plot(xm / 1e3, w, color="tab:green", lw=1.2)
+        ax.fill_between(xm / 1e3, w, 0.0, color="tab:green", alpha=0.15, lw=0)
+        ax.invert_yaxis()
+        _style_axis(ax, L_m, "w (mm), downward +")
+        wmx = beam.w_max()
+        _mark(ax, wmx.x_mm / 1e3, wmx.value, f"w max = {wmx.value:.1f} mm at x = {wmx.x_mm / 1e3:.2f} m",
+              "tab:green", L_m)
+    for ax in axes:
+        _supports(ax, L_m)
+    axes[-1].set_xlabel("x from support A (m)", fontsize=8)
+
+    _vlines(axes, restraints, dict(color="grey", ls=":", lw=1.0), [f"R{i + 1}" for i in range(len(restraints))])
+    _vlines(axes, splices, dict(color="tab:purple", ls="--", lw=1.0), [f"S{i + 1}" for i in range(len(splices))])
+    for x in splices:
+        mv = float(beam.M(x))
+        vv = max(abs(float(beam.V(x, "left"))), abs(float(beam.V(x, "right"))))
+        axes[1].annotate(f"M = {mv / 1e6:.1f} kNm", (x / 1e3, mv / 1e6), xytext=(3, -12),
+                         textcoords="offset points", fontsize=6.5, color="tab:purple")
+        axes[0].annotate(f"|V| = {vv / 1e3:.1f} kN", (x / 1e3, float(beam.V(x)) / 1e3), xytext=(3, 3),
+                         textcoords="offset points", fontsize=6.5, color="tab:purple")
+    if title:
+        fig.suptitle(title, fontsize=9)
+    return fig
+
+
+def envelope_diagram(env: Envelope, *, splices_mm: Sequence[float] | None = None,
+                     title: str | None = None) -> Figure:
+    """M_Ed and V_Ed envelopes (kNm, kN) with the maxima and splice positions marked."""
+    if not isinstance(env, Envelope):
+        raise InputError("env", env, "an Envelope")
+    x = env.x_mm
+    L = float(x.max())
+    splices = _positions(splices_mm, L, "splices_mm")
+    fig = Figure(figsize=(A4_TEXT_WIDTH_IN, 4.6), layout="constrained")
+    FigureCanvasAgg(fig)
+    axes = fig.subplots(2, 1, sharex=True)
+    for ax, y, sc, unit, colour, lab in ((axes[0], env.V_Ed, 1e3, "kN", "tab:blue", "|V_Ed| (kN)"),
+                                         (axes[1], env.M_Ed, 1e6, "kNm", "tab:red", "|M_Ed| (kNm)")):
+        ax.plot(x / 1e3, y / sc, color=colour, lw=1.2)
+        ax.fill_between(x / 1e3, y / sc, 0.0, color=colour, alpha=0.15, lw=0)
+        _style_axis(ax, L / 1e3, lab)
+        i = int(np.argmax(y))
+        _mark(ax, x[i] / 1e3, y[i] / sc, f"max {y[i] / sc:.1f} {unit} at x = {x[i] / 1e3:.2f} m", colour, L / 1e3)
+        _supports(ax, L / 1e3)
+    axes[-1].set_xlabel("x from support A (m)", fontsize=8)
+    _vlines(axes, splices, dict(color="tab:purple", ls="--", lw=1.0), [f"S{i + 1}" for i in range(len(splices))])
+    if title:
+        fig.suptitle(title, fontsize=9)
+    return fig
