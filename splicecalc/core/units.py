@@ -47,6 +47,7 @@ SI_FACTOR: dict[str, float] = {
     "kg": 1.0,
     "kg/m": 1.0,
     "1/mm": 1e3,
+    "m/s2": 1.0,
 }
 
 #: SI base dimensions of each float unit (kg, m, s exponents)
@@ -68,6 +69,7 @@ _BASE = {
     "kg": lambda: _si.kg,
     "kg/m": lambda: _si.kg / _si.m,
     "1/mm": lambda: 1 / _si.m,
+    "m/s2": lambda: _si.m / _si.s ** 2,
 }
 
 

@@ -154,10 +154,10 @@ class BeamSpec:
         require_choice("beam.load_level", ll, LOAD_LEVELS)
         s(self, "load_level", ll)
         s(self, "deflection_limit", require_in_range("beam.deflection_limit", self.deflection_limit,
-                                                     1.0, 10000.0))
+                                                     50.0, 1000.0))
         if self.total_deflection_limit is not None:
             s(self, "total_deflection_limit", require_in_range(
-                "beam.total_deflection_limit", self.total_deflection_limit, 1.0, 10000.0))
+                "beam.total_deflection_limit", self.total_deflection_limit, 50.0, 1000.0))
         require_choice("beam.combination", self.combination, COMBINATIONS)
         ov = self.na_overrides
         if isinstance(ov, dict):
@@ -206,6 +206,7 @@ class Job:
     supports: tuple[Any, ...] = ()
     splices_table: dict | None = None
     support_tables: tuple[dict, ...] = ()
+    notes: tuple[str, ...] = field(default=(), compare=False)
 
     def __post_init__(self) -> None:
         if not isinstance(self.beam, BeamSpec):
@@ -228,6 +229,8 @@ class Job:
         object.__setattr__(self, "loads", lds)
         object.__setattr__(self, "supports", tuple(self.supports))
         object.__setattr__(self, "support_tables", tuple(self.support_tables))
+        object.__setattr__(self, "notes", tuple(self.notes))
+        check_section_choice(self.beam)
 
     # ------------------------------------------------------------ derived
     @property
@@ -324,6 +327,33 @@ def load_to_dict(ld: Load) -> dict[str, Any]:
         d["point"] = _q(ld.P, "N", "kN")
         d["at"] = _q(ld.x, "mm", "m")
     return d
+
+
+def check_section_choice(beam: BeamSpec) -> None:
+    """Check the section designation exists and that some section meets ``max_depth``.
+
+    Uses :mod:`splicecalc.sections` when it is available (imported lazily).
+    """
+    try:
+        from ..sections import get_section, list_sections
+    except ImportError:  # sections module not there yet: checked again at design time
+        return
+    if not beam.is_auto:
+        try:
+            sec = get_section(beam.section)
+        except InputError as err:
+            raise InputError("beam.section", beam.section, err.allowed, err.hint) from None
+        if beam.max_depth is not None and sec.h > beam.max_depth:
+            raise InputError("beam.section", beam.section,
+                             f"a section no deeper than beam.max_depth = {beam.max_depth:g} mm "
+                             f"(h = {sec.h:g} mm)")
+        return
+    if beam.max_depth is not None:
+        shallowest = min(s.h for f in beam.families for s in list_sections(f))
+        if shallowest > beam.max_depth:
+            raise InputError("beam.max_depth", _q(beam.max_depth, "mm", "mm"),
+                             f"a depth that some section of {', '.join(beam.families)} meets "
+                             f"(the shallowest is h = {shallowest:g} mm)")
 
 
 def validate_load_on_span(ld: Any, span: float, key: str) -> None:
