@@ -1,0 +1,575 @@
+"""Member checks to EN 1993-1-1:2005 and EN 1993-1-5:2006 (UK National Annex by default).
+
+Each ``check_*`` function validates its input, calls the clause formulas of
+:mod:`.en1993_1_1`, :mod:`.en1993_1_5` and :mod:`.mcr` through a
+:class:`~splicecalc.core.record.Calc` and returns a
+:class:`~splicecalc.core.record.CheckRecord`.
+
+Units of the arguments: moments ``M_Ed`` in N*mm, forces ``V_Ed``/``F_Ed`` in N,
+lengths in mm, areas in mm2 (records show kN, kNm, mm). Signs of ``M_Ed`` and
+``V_Ed`` are ignored (magnitudes are checked).
+
+``section`` is any object with the attributes of
+:class:`splicecalc.sections.Section` (doubly symmetric rolled I or H):
+``h, b, tw, tf, r`` (mm), ``A`` (mm2), ``Iy, Iz, It`` (mm4), ``Iw`` (mm6),
+``Wel_y, Wpl_y`` (mm3) and ``designation``. The yield strength is taken for
+the flange thickness (the thickest element, EN 10025-2 via
+:func:`splicecalc.materials.steel`) for every check except web bearing, which
+uses f_yf and f_yw separately as EN 1993-1-5 Eq. 6.8 does.
+
+Not covered (refused with :class:`SlenderSectionError` /
+:class:`ShearBucklingError`, both :class:`~splicecalc.core.errors.InputError`):
+Class 4 cross-sections (effective properties to EN 1993-1-5 section 4) and
+webs needing a shear-buckling check (EN 1993-1-5 section 5).
+"""
+
+from __future__ import annotations
+
+import math
+from typing import Any, Sequence
+
+from ..core.errors import InputError, require_finite, require_in_range, require_non_negative, require_positive
+from ..core.record import Calc, CheckRecord
+from ..materials.partial_factors import UK_NA, NationalAnnex
+from ..materials.steel import E_MPa, steel
+from ..sections.geometry import A_v_z
+from . import en1993_1_1 as f11
+from . import en1993_1_5 as f15
+from .mcr import C_1_numerical, mcr_numerical
+
+
+class SlenderSectionError(InputError):
+    """A Class 4 cross-section: effective properties (EN 1993-1-5) are not implemented."""
+
+
+class ShearBucklingError(InputError):
+    """A web with h_w/t_w > 72 eps/eta: the shear-buckling check of EN 1993-1-5 section 5 is not implemented."""
+
+
+#: imperfection factors, EN 1993-1-1:2005, Table 6.3
+ALPHA_LT: dict[str, float] = {"a": 0.21, "b": 0.34, "c": 0.49, "d": 0.76}
+
+_SECTION_ATTRS = ("h", "b", "tw", "tf", "A", "Iy", "Iz", "It", "Iw", "Wel_y", "Wpl_y")
+
+
+# ------------------------------------------------------------------ helpers
+def _check_section(section: Any) -> None:
+    for name in _SECTION_ATTRS:
+        if not hasattr(section, name):
+            raise InputError("section", type(section).__name__,
+                             "a splicecalc.sections.Section (or an object with h, b, tw, tf, r, A, Iy, Iz, It, Iw, "
+                             f"Wel_y, Wpl_y); missing '{name}'")
+        require_positive(f"section.{name}", getattr(section, name))
+    if not hasattr(section, "r"):
+        raise InputError("section", type(section).__name__, "an object with the root radius 'r' (mm)")
+    require_non_negative("section.r", section.r, "mm")
+    if not 2 * section.tf + 2 * section.r < section.h:
+        raise InputError("section.h", section.h, "more than 2 tf + 2 r (a web between the root fillets)")
+    if not section.tw + 2 * section.r < section.b:
+        raise InputError("section.b", section.b, "more than tw + 2 r (flange outstands)")
+
+
+def _name(section: Any) -> str:
+    return str(getattr(section, "designation", "section"))
+
+
+def _check_na(na: Any) -> NationalAnnex:
+    if not isinstance(na, NationalAnnex):
+        raise InputError("na", type(na).__name__, "a splicecalc.materials.NationalAnnex (e.g. UK_NA)")
+    return na
+
+
+def _check_calc(calc: Any) -> Calc:
+    if calc is None:
+        return Calc()
+    if not isinstance(calc, Calc):
+        raise InputError("calc", type(calc).__name__, "a splicecalc.core.Calc or None")
+    return calc
+
+
+def _fy(section: Any, grade: str) -> tuple[float, float]:
+    """(f_y, f_u) in MPa for the flange thickness (thickest element of a rolled I)."""
+    s = steel(grade, section.tf, field="section.tf")
+    return s.f_y, s.f_u
+
+
+def _h_w(section: Any) -> float:
+    return section.h - 2.0 * section.tf
+
+
+def _c_flange(section: Any) -> float:
+    return (section.b - section.tw - 2.0 * section.r) / 2.0
+
+
+def _c_web(section: Any) -> float:
+    return section.h - 2.0 * section.tf - 2.0 * section.r
+
+
+def _loc(location_mm: Any) -> float | None:
+    return None if location_mm is None else require_finite("location_mm", location_mm)
+
+
+_ORD = {1: "Class 1", 2: "Class 2", 3: "Class 3", 4: "Class 4"}
+
+
+def _class_of(ratio: float, lims: Sequence[float]) -> int:
+    for i, lim in enumerate(lims[:3]):
+        if ratio <= lim:
+            return i + 1
+    return 4
+
+
+def _classification(section: Any, grade: str, N_Ed: float, calc: Calc) -> dict[str, Any]:
+    """Run Table 5.2 for flange and web through ``calc``; return classes, ratios and limits."""
+    f_y, _ = _fy(section, grade)
+    eps = calc(f11.epsilon, f_y=f_y)
+    fl = calc(f11.c_t_flange, c_f=_c_flange(section), t_f=section.tf, epsilon=eps)
+    if N_Ed > 0.0:
+        alpha = calc(f11.alpha_web, N_Ed=N_Ed, c_w=_c_web(section), t_w=section.tw, f_y=f_y)
+        psi = calc(f11.psi_web, N_Ed=N_Ed, A=section.A, f_y=f_y)
+    else:
+        alpha, psi = 0.5, -1.0
+    wb = calc(f11.c_t_web, c_w=_c_web(section), t_w=section.tw, epsilon=eps, alpha=alpha, psi=psi)
+    fl = tuple(float(x) for x in fl)
+    wb = tuple(float(x) for x in wb)
+    cf, cw = _class_of(fl[0], fl[1:]), _class_of(wb[0], wb[1:])
+    return dict(f_y=f_y, epsilon=eps, flange=fl, web=wb, class_flange=cf, class_web=cw,
+                section_class=max(cf, cw), alpha=alpha, psi=psi)
+
+
+def _refuse_class_4(section: Any, grade: str, cl: dict[str, Any]) -> None:
+    parts = []
+    if cl["class_flange"] == 4:
+        parts.append(f"the compression flange outstand (c/t = {cl['flange'][0]:.2f} > 14 eps = {cl['flange'][3]:.2f})")
+    if cl["class_web"] == 4:
+        parts.append(f"the web (c/t = {cl['web'][0]:.2f} > Class 3 limit {cl['web'][3]:.2f})")
+    raise SlenderSectionError(
+        "section", _name(section), "a Class 1, 2 or 3 cross-section (EN 1993-1-1:2005, 5.5.2, Table 5.2)",
+        hint=(f"In {steel(grade, section.tf).grade} " + " and ".join(parts) + " is Class 4 (slender). "
+              "Effective properties to EN 1993-1-5 section 4 are not implemented in splicecalc: "
+              "choose a stockier section or a lower grade"))
+
+
+def _section_class_fast(section: Any, grade: str, N_Ed: float = 0.0) -> dict[str, Any]:
+    return _classification(section, grade, N_Ed, Calc())
+
+
+# ------------------------------------------------------------------ classification
+def section_class(section: Any, grade: str, N_Ed: float = 0.0) -> int:
+    """Cross-section class 1-4 (EN 1993-1-1 Table 5.2), for design searches.
+
+    Plain-float path; returns 4 for a slender section instead of raising.
+    ``N_Ed`` (N, compression >= 0) changes the web limits (bending and compression).
+    """
+    _check_section(section)
+    N = require_non_negative("N_Ed", N_Ed, "N")
+    return _section_class_fast(section, grade, N)["section_class"]
+
+
+def classify(section: Any, grade: str, na: NationalAnnex = UK_NA, calc: Calc | None = None, *,
+             N_Ed: float = 0.0) -> CheckRecord:
+    """Classify the cross-section in major-axis bending (and compression ``N_Ed`` >= 0, N), Table 5.2.
+
+    Record: ``demand`` = c/t of the governing element, ``resistance`` = its
+    limit for the class the section reaches (Class 1, 2 or 3), so the
+    utilisation says how close the section is to the next class boundary;
+    ``values`` hold the class numbers. A Class 4 section raises
+    :class:`SlenderSectionError` (EN 1993-1-5 effective properties not
+    implemented). ``na`` is accepted for a uniform signature (Table 5.2 has no
+    national choices).
+    """
+    _check_section(section)
+    _check_na(na)
+    calc = _check_calc(calc)
+    N = require_non_negative("N_Ed", N_Ed, "N")
+    if N > 0.0:
+        calc.note(f"Web in bending and compression, $N_{{Ed}}$ = {N / 1e3:.1f} kN.")
+    cl = _classification(section, grade, N, calc)
+    if cl["section_class"] == 4:
+        calc.latex.clear()
+        calc.values.clear()
+        _refuse_class_4(section, grade, cl)
+    k = cl["section_class"]
+    u_f = cl["flange"][0] / cl["flange"][k]
+    u_w = cl["web"][0] / cl["web"][k]
+    gov, data = ("flange", cl["flange"]) if u_f >= u_w else ("web", cl["web"])
+    calc.note(f"Flange {_ORD[cl['class_flange']]}, web {_ORD[cl['class_web']]}: section {_ORD[k]}.")
+    calc.keep("f_y", cl["f_y"], "MPa")
+    calc.keep("epsilon", cl["epsilon"])
+    calc.keep("c_t_flange", cl["flange"][0])
+    calc.keep("c_t_web", cl["web"][0])
+    calc.keep("Class_flange", cl["class_flange"])
+    calc.keep("Class_web", cl["class_web"])
+    calc.keep("Class", k)
+    return calc.record(id="classification", title=f"Cross-section classification, {_name(section)}",
+                       clause="EN 1993-1-1:2005, 5.5.2, Table 5.2", demand=data[0], resistance=data[k], unit="",
+                       note=f"{_ORD[k]}; governing element: {gov} (utilisation = c/t over the {_ORD[k]} limit)")
+
+
+# ------------------------------------------------------------------ bending
+def _W_y(section: Any, grade: str, cls: int, A_f_net: float | None, W_net: float | None, na: NationalAnnex,
+         calc: Calc) -> tuple[float, str]:
+    """Bending modulus for M_c,Rd (mm3), with tension-flange holes (6.2.5(4)); and a note."""
+    f_y, f_u = _fy(section, grade)
+    plastic = cls <= 2
+    W = section.Wpl_y if plastic else section.Wel_y
+    note = ("W_pl,y (Class 1 or 2, Eq. 6.13)" if plastic else "W_el,y (Class 3, Eq. 6.14)")
+    if W_net is not None:
+        return W_net, note + "; net modulus given by the user"
+    if A_f_net is None:
+        return W, note
+    A_f = section.b * section.tf
+    N_u = calc(f11.N_f_u_Rd, A_f_net=A_f_net, f_u=f_u, gamma_M2=na.gamma_M2_member)
+    N_pl = calc(f11.N_f_pl_Rd, A_f=A_f, f_y=f_y, gamma_M0=na.gamma_M0)
+    if N_u >= N_pl:
+        calc.note("Eq. 6.16 met: fastener holes in the tension flange may be ignored (6.2.5(4)).")
+        return W, note + "; holes in the tension flange ignored (Eq. 6.16 met)"
+    calc.note("Eq. 6.16 not met: the tension flange area is reduced to $A_{f,eff}$.")
+    A_eff = calc(f11.A_f_eff, A_f_net=A_f_net, f_u=f_u, f_y=f_y, gamma_M0=na.gamma_M0, gamma_M2=na.gamma_M2_member)
+    dA = A_f - A_eff
+    y_f = (section.h - section.tf) / 2.0
+    if plastic:
+        W = calc(f11.W_pl_y_net, W_pl_y=section.Wpl_y, Delta_A_f=dA, y_f=y_f, t_w=section.tw)
+    else:
+        W = calc(f11.W_el_y_net, I_y=section.Iy, A=section.A, Delta_A_f=dA, y_f=y_f, h=section.h)
+    calc.keep("A_f_eff", A_eff, "mm2")
+    return W, note + "; tension flange reduced for holes (Eq. 6.16 not met)"
+
+
+def _validate_holes(section: Any, A_f_net: Any, W_net: Any) -> tuple[float | None, float | None]:
+    if A_f_net is not None and W_net is not None:
+        raise InputError("W_net", W_net, "None when A_f_net is given (give one of them)")
+    a = None if A_f_net is None else require_in_range("A_f_net", A_f_net, 1e-9, section.b * section.tf, "mm2")
+    w = None if W_net is None else require_in_range("W_net", W_net, 1e-9, section.Wpl_y, "mm3")
+    if a is not None and A_f_net <= 0:
+        raise InputError("A_f_net", A_f_net, "a positive net flange area in mm2")
+    return a, w
+
+
+def W_y_with_holes(section: Any, grade: str, A_f_net: float, na: NationalAnnex = UK_NA) -> float:
+    """Bending modulus (mm3) for M_c,Rd with fastener holes in the tension flange, EN 1993-1-1 6.2.5(4).
+
+    ``A_f_net`` = net area of the tension flange (mm2) at the hole line, e.g.
+    ``(b - n d_0) t_f``. Returns W_pl,y / W_el,y (by class) unchanged when
+    Eq. 6.16 is met, else the modulus with the flange reduced to A_f,eff.
+    Plain-float path for the splice design.
+    """
+    _check_section(section)
+    _check_na(na)
+    a, _ = _validate_holes(section, A_f_net, None)
+    cl = _section_class_fast(section, grade)
+    if cl["section_class"] == 4:
+        _refuse_class_4(section, grade, cl)
+    return _W_y(section, grade, cl["section_class"], a, None, na, Calc())[0]
+
+
+def _M_c_Rd(section: Any, grade: str, na: NationalAnnex, calc: Calc, A_f_net: float | None = None,
+            W_net: float | None = None) -> tuple[float, int, float, str]:
+    cl = _section_class_fast(section, grade)
+    if cl["section_class"] == 4:
+        _refuse_class_4(section, grade, cl)
+    cls = cl["section_class"]
+    W, note = _W_y(section, grade, cls, A_f_net, W_net, na, calc)
+    M = calc(f11.M_c_Rd, W_y=W, f_y=cl["f_y"], gamma_M0=na.gamma_M0)
+    return M, cls, W, note
+
+
+def check_bending(section: Any, grade: str, M_Ed: float, na: NationalAnnex = UK_NA, calc: Calc | None = None, *,
+                  A_f_net: float | None = None, W_net: float | None = None,
+                  location_mm: float | None = None) -> CheckRecord:
+    """Major-axis bending resistance M_c,Rd, EN 1993-1-1 6.2.5 (Eq. 6.12-6.14).
+
+    ``M_Ed`` in N*mm. ``A_f_net`` (mm2): net area of the tension flange where
+    it has fastener holes (6.2.5(4), Eq. 6.16 with gamma_M2 = ``na.gamma_M2_member``);
+    ``W_net`` (mm3): a net modulus given directly instead. Class 4 raises
+    :class:`SlenderSectionError`.
+    """
+    _check_section(section)
+    _check_na(na)
+    calc = _check_calc(calc)
+    M = abs(require_finite("M_Ed", M_Ed))
+    a, w = _validate_holes(section, A_f_net, W_net)
+    loc = _loc(location_mm)
+    M_c, cls, W, note = _M_c_Rd(section, grade, na, calc, a, w)
+    calc.keep("Class", cls)
+    calc.keep("W_y", W, "mm3")
+    calc.keep("M_c_Rd", M_c, "Nmm")
+    return calc.record(id="bending", title=f"Bending resistance, {_name(section)}",
+                       clause="EN 1993-1-1:2005, 6.2.5, Eq. 6.12", demand=M, resistance=M_c, unit="Nmm",
+                       location_mm=loc, note=f"{_ORD[cls]}, {note}")
+
+
+# ------------------------------------------------------------------ shear
+def _V_pl_Rd(section: Any, grade: str, na: NationalAnnex, calc: Calc) -> tuple[float, float, float]:
+    """Shear-buckling limit then V_pl,Rd; returns (V_pl_Rd N, A_v mm2, u_hw)."""
+    f_y, _ = _fy(section, grade)
+    eps = f11.epsilon(f_y=f_y)
+    h_w = _h_w(section)
+    u_hw = calc(f11.shear_buckling_ratio, h_w=h_w, t_w=section.tw, epsilon=eps, eta=na.eta)
+    if u_hw > 1.0:
+        raise ShearBucklingError(
+            "section", _name(section), f"a web with h_w/t_w <= 72 eps/eta = {72 * eps / na.eta:.1f} "
+            "(EN 1993-1-1:2005, 6.2.6(6))",
+            hint=(f"h_w/t_w = {h_w / section.tw:.1f}: the web must be checked for shear buckling to "
+                  "EN 1993-1-5 section 5, which splicecalc does not implement; choose a section with a thicker web"))
+    A_v = calc(A_v_z, A=section.A, b=section.b, t_f=section.tf, t_w=section.tw, r=section.r, h_w=h_w, eta=na.eta)
+    V = calc(f11.V_pl_Rd, A_v=A_v, f_y=f_y, gamma_M0=na.gamma_M0)
+    return V, A_v, u_hw
+
+
+def check_shear(section: Any, grade: str, V_Ed: float, na: NationalAnnex = UK_NA, calc: Calc | None = None, *,
+                location_mm: float | None = None) -> CheckRecord:
+    """Plastic shear resistance V_pl,Rd (6.2.6(2), Eq. 6.18) with A_v from 6.2.6(3)(a).
+
+    ``V_Ed`` in N. First checks the shear-buckling limit h_w/t_w <= 72 eps/eta
+    (6.2.6(6)); beyond it raises :class:`ShearBucklingError`.
+    """
+    _check_section(section)
+    _check_na(na)
+    calc = _check_calc(calc)
+    V = abs(require_finite("V_Ed", V_Ed))
+    loc = _loc(location_mm)
+    V_pl, A_v, u_hw = _V_pl_Rd(section, grade, na, calc)
+    calc.keep("A_v", A_v, "mm2")
+    calc.keep("V_pl_Rd", V_pl, "N")
+    calc.keep("hw_tw_over_limit", u_hw)
+    return calc.record(id="shear", title=f"Shear resistance, {_name(section)}",
+                       clause="EN 1993-1-1:2005, 6.2.6, Eq. 6.17", demand=V, resistance=V_pl, unit="N",
+                       location_mm=loc, note="no shear buckling check needed (6.2.6(6))")
+
+
+# ------------------------------------------------------------------ bending and shear
+def check_bending_shear(section: Any, grade: str, M_Ed: float, V_Ed: float, na: NationalAnnex = UK_NA,
+                        calc: Calc | None = None, *, A_f_net: float | None = None,
+                        location_mm: float | None = None) -> CheckRecord:
+    """Bending with coexisting shear, EN 1993-1-1 6.2.8 (Eq. 6.29, 6.30).
+
+    ``M_Ed`` (N*mm) and ``V_Ed`` (N) act at the same cross-section. When
+    V_Ed <= 0.5 V_pl,Rd there is no reduction. Class 1/2: Eq. 6.30 with
+    A_w = h_w t_w; Class 3: the web at (1 - rho) f_y (6.2.8(3)). rho is capped
+    at 1 (V_Ed > V_pl,Rd fails the shear check itself). ``A_f_net`` as in
+    :func:`check_bending`.
+    """
+    _check_section(section)
+    _check_na(na)
+    calc = _check_calc(calc)
+    M = abs(require_finite("M_Ed", M_Ed))
+    V = abs(require_finite("V_Ed", V_Ed))
+    a, _ = _validate_holes(section, A_f_net, None)
+    loc = _loc(location_mm)
+    fast = Calc()
+    V_pl, _, _ = _V_pl_Rd(section, grade, na, fast)
+    M_c, cls, W, note = _M_c_Rd(section, grade, na, fast, a, None)
+    f_y, _ = _fy(section, grade)
+    calc.keep("V_pl_Rd", V_pl, "N")
+    calc.keep("M_c_Rd", M_c, "Nmm")
+    rho = calc(f11.rho_V, V_Ed=V, V_pl_Rd=V_pl)
+    if rho <= 0.0:
+        calc.note("$V_{Ed} \\le 0.5\\,V_{pl,Rd}$: no reduction of the moment resistance (6.2.8(2)).")
+        M_V = M_c
+    elif cls <= 2:
+        h_w = _h_w(section)
+        M_V = calc(f11.M_y_V_Rd, W_pl_y=W, rho=rho, A_w=h_w * section.tw, t_w=section.tw, f_y=f_y,
+                   gamma_M0=na.gamma_M0, M_c_Rd=M_c)
+    else:
+        M_V = calc(f11.M_y_V_Rd_el, W_el_y=W, rho=rho, t_w=section.tw, h_w=_h_w(section), h=section.h, f_y=f_y,
+                   gamma_M0=na.gamma_M0, M_c_Rd=M_c)
+    calc.keep("rho", rho)
+    calc.keep("M_y_V_Rd", M_V, "Nmm")
+    extra = "; V_Ed > V_pl,Rd (rho capped at 1, see the shear check)" if V > V_pl else ""
+    return calc.record(id="bending_shear", title=f"Bending and shear, {_name(section)}",
+                       clause="EN 1993-1-1:2005, 6.2.8, Eq. 6.30", demand=M, resistance=M_V, unit="Nmm",
+                       location_mm=loc, note=f"{_ORD[cls]}, {note}{extra}")
+
+
+# ------------------------------------------------------------------ lateral-torsional buckling
+def ltb_curve_rolled(h: float, b: float) -> str:
+    """Buckling curve for rolled I/H sections, 6.3.2.3 with UK NA (NA.2.17, from memory).
+
+    h/b <= 2: curve b; 2 < h/b <= 3.1: curve c; h/b > 3.1: curve d.
+    """
+    hb = require_positive("h", h, "mm") / require_positive("b", b, "mm")
+    return "b" if hb <= 2.0 else ("c" if hb <= 3.1 else "d")
+
+
+def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, na: NationalAnnex = UK_NA,
+              calc: Calc | None = None, *, C_1: float | None = None, k_c: float | None = None,
+              L_mm: float | None = None, M: Any = None, q_N_per_mm: Any = 0.0, point_loads: Sequence = (),
+              z_g_mm: float = 0.0, location_mm: float | None = None, segment: str = "") -> CheckRecord:
+    """Lateral-torsional buckling of one segment between lateral restraints, 6.3.2.2 and 6.3.2.3 (UK NA).
+
+    ``M_Ed`` (N*mm) = largest |M| in the segment. ``M_cr`` (N*mm) for the same
+    moment diagram; when None it is computed by :func:`~splicecalc.members.mcr.mcr_numerical`
+    from ``L_mm`` (segment length), ``M`` (moment diagram: callable M(x_mm),
+    constant or (x, M) arrays, x from the segment start), ``q_N_per_mm``,
+    ``point_loads`` and ``z_g_mm`` (load height above the shear centre).
+    ``k_c`` (Table 6.6) or ``C_1`` (k_c = 1/sqrt(C_1), UK NA NA.2.18) set the
+    f-modification; with neither, C_1 is computed numerically when ``M`` is
+    given, else k_c = 1 (no modification, conservative). Rolled sections only
+    (lambda_LT,0 = ``na.lambda_LT_0``, beta = ``na.beta_LT``, curve by h/b).
+    """
+    _check_section(section)
+    _check_na(na)
+    calc = _check_calc(calc)
+    M_E = abs(require_finite("M_Ed", M_Ed))
+    loc = _loc(location_mm)
+    if C_1 is not None and k_c is not None:
+        raise InputError("k_c", k_c, "None when C_1 is given (give one of them)")
+    if C_1 is not None:
+        require_in_range("C_1", C_1, 1.0, 5.0)
+    if k_c is not None:
+        require_in_range("k_c", k_c, 0.5, 1.0)
+    if M_cr is not None:
+        Mcr = require_positive("M_cr", M_cr, "N*mm")
+        if L_mm is not None:
+            require_positive("L_mm", L_mm, "mm")
+        mcr_text = f"$M_{{cr}}$ = {Mcr / 1e6:.1f} kNm (given)."
+    else:
+        if L_mm is None or M is None:
+            raise InputError("M_cr", None, "a positive M_cr in N*mm, or L_mm and the moment diagram M to compute it")
+        require_positive("L_mm", L_mm, "mm")
+        res = mcr_numerical(section, L_mm, M, q_N_per_mm=q_N_per_mm, point_loads=point_loads, z_g_mm=z_g_mm)
+        Mcr = res.M_cr
+        mcr_text = (f"$M_{{cr}}$ = {Mcr / 1e6:.1f} kNm: thin-walled beam finite elements with warping "
+                    f"({res.n_elements} elements), segment length {float(L_mm) / 1e3:.3g} m with fork supports, "
+                    f"loads {float(z_g_mm):+.0f} mm from the shear centre.")
+        if C_1 is None and k_c is None:
+            C_1 = max(C_1_numerical(section, L_mm, M), 1.0)
+            mcr_text += f" $C_1$ = {C_1:.3f} from the same model with the loads at the shear centre."
+    M_c, cls, W, _ = _M_c_Rd(section, grade, na, Calc())
+    f_y, _ = _fy(section, grade)
+    curve = ltb_curve_rolled(section.h, section.b)
+    a_LT = ALPHA_LT[curve]
+    where = f" {segment}" if segment else ""
+    if math.isinf(Mcr):
+        calc.note("$M_{cr}$ is unbounded for this loading (no lateral-torsional buckling).")
+        lam = 0.0
+    else:
+        calc.keep("M_cr", Mcr, "Nmm")
+        calc.note(mcr_text)
+        lam = calc(f11.lambda_LT, W_y=W, f_y=f_y, M_cr=Mcr)
+    lam0 = na.lambda_LT_0
+    calc.keep("lambda_LT", lam)
+    if lam <= lam0 or M_E / Mcr <= lam0**2:
+        calc.note(f"$\\bar\\lambda_{{LT}} \\le {lam0:g}$ or $M_{{Ed}}/M_{{cr}} \\le {lam0**2:g}$: "
+                  "buckling effects may be ignored (6.3.2.2(4)), $\\chi_{LT} = 1$.")
+        chi = 1.0
+        note = "LTB effects ignored (6.3.2.2(4))"
+    else:
+        calc.note(f"Rolled section, $h/b$ = {section.h / section.b:.2f}: curve {curve}, $\\alpha_{{LT}}$ = {a_LT:g} "
+                  "(6.3.2.3, UK NA).")
+        chi0 = calc(f11.chi_LT, lamb_LT=lam, alpha_LT=a_LT, lamb_LT_0=lam0, beta=na.beta_LT)
+        if k_c is None and C_1 is not None:
+            k_c = calc(f11.k_c_from_C1, C_1=C_1)
+        if k_c is None:
+            k_c = 1.0
+            calc.note("$k_c = 1.0$ (moment distribution not given: no modification).")
+        f = calc(f11.f_LT, k_c=k_c, lamb_LT=lam)
+        chi = calc(f11.chi_LT_mod, chi_LT=chi0, f=f, lamb_LT=lam)
+        calc.keep("k_c", k_c)
+        note = f"curve {curve}, k_c = {k_c:.3f}"
+    M_b = calc(f11.M_b_Rd, chi_LT_mod=chi, W_y=W, f_y=f_y, gamma_M1=na.gamma_M1)
+    calc.keep("chi_LT_mod", chi)
+    calc.keep("M_b_Rd", M_b, "Nmm")
+    if L_mm is not None:
+        calc.keep("L", float(L_mm), "mm")
+    return calc.record(id="ltb" + (f"_{segment}" if segment else ""),
+                       title=f"Lateral-torsional buckling{where}, {_name(section)}",
+                       clause="EN 1993-1-1:2005, 6.3.2.1, Eq. 6.54", demand=M_E, resistance=M_b, unit="Nmm",
+                       location_mm=loc, note=f"{_ORD[cls]}, {note}")
+
+
+# ------------------------------------------------------------------ web bearing (EN 1993-1-5 section 6)
+def check_web_bearing(section: Any, grade: str, F_Ed: float, s_s: float, c: float = 0.0,
+                      na: NationalAnnex = UK_NA, calc: Calc | None = None, *, M_Ed: float = 0.0,
+                      location_mm: float | None = None) -> CheckRecord:
+    """Web resistance to a transverse force at an unstiffened beam end, EN 1993-1-5 section 6, type (c).
+
+    ``F_Ed`` (N) is applied through one flange over the stiff bearing length
+    ``s_s`` (mm, 6.3); ``c`` (mm) is the distance from the end of the stiff
+    bearing to the beam end. f_yf and f_yw by element thickness. m_2 depends on
+    lambda_F (Eq. 6.9): computed with m_2 for lambda_F > 0.5, redone with
+    m_2 = 0 if lambda_F <= 0.5. ``M_Ed`` (N*mm) at the same section: when
+    non-zero the 7.2 interaction eta_2 + 0.8 eta_1 <= 1.4 reduces the
+    resistance (eta_1 = M_Ed / M_c,Rd); at a simple support M_Ed = 0.
+    """
+    _check_section(section)
+    _check_na(na)
+    calc = _check_calc(calc)
+    F = abs(require_finite("F_Ed", F_Ed))
+    ss = require_non_negative("s_s", s_s, "mm")
+    c_ = require_non_negative("c", c, "mm")
+    M_E = abs(require_finite("M_Ed", M_Ed))
+    loc = _loc(location_mm)
+    f_yf = steel(grade, section.tf, field="section.tf").f_y
+    f_yw = steel(grade, section.tw, field="section.tw").f_y
+    h_w = _h_w(section)
+    tw, tf = section.tw, section.tf
+    # first pass on floats to settle m_2 (Eq. 6.9 depends on lambda_F)
+    kF = f15.k_F_c(s_s=ss, c=c_, h_w=h_w)
+    Fcr = f15.F_cr(k_F=kF, t_w=tw, h_w=h_w, E=E_MPa)
+    m1 = f15.m_1(f_yf=f_yf, b_f=section.b, f_yw=f_yw, t_w=tw)
+    le = f15.l_e(k_F=kF, t_w=tw, f_yw=f_yw, h_w=h_w, s_s=ss, c=c_, E=E_MPa)
+    ly = f15.l_y_c(l_e=le, t_f=tf, m_1=m1, m_2=f15.m_2(h_w=h_w, t_f=tf, lamb_F=1.0))
+    lam_first = f15.lambda_F(l_y=ly, t_w=tw, f_yw=f_yw, F_cr=Fcr)
+    # rendered pass
+    kF = calc(f15.k_F_c, s_s=ss, c=c_, h_w=h_w)
+    Fcr = calc(f15.F_cr, k_F=kF, t_w=tw, h_w=h_w, E=E_MPa)
+    m1 = calc(f15.m_1, f_yf=f_yf, b_f=section.b, f_yw=f_yw, t_w=tw)
+    m2 = calc(f15.m_2, h_w=h_w, t_f=tf, lamb_F=lam_first)
+    le = calc(f15.l_e, k_F=kF, t_w=tw, f_yw=f_yw, h_w=h_w, s_s=ss, c=c_, E=E_MPa)
+    ly = calc(f15.l_y_c, l_e=le, t_f=tf, m_1=m1, m_2=m2)
+    lam = calc(f15.lambda_F, l_y=ly, t_w=tw, f_yw=f_yw, F_cr=Fcr)
+    chi = calc(f15.chi_F, lamb_F=lam)
+    F_R = calc(f15.F_Rd, f_yw=f_yw, chi_F=chi, l_y=ly, t_w=tw, gamma_M1=na.gamma_M1)
+    calc.keep("F_Rd", F_R, "N")
+    clause_ = "EN 1993-1-5:2006, 6.2, Eq. 6.1"
+    if M_E > 0.0:
+        M_c, _, _, _ = _M_c_Rd(section, grade, na, Calc())
+        F_R = calc(f15.F_Rd_M, F_Rd=F_R, M_Ed=M_E, M_Rd=M_c)
+        calc.keep("M_c_Rd", M_c, "Nmm")
+        note = "with the bending interaction of EN 1993-1-5 7.2 (eta_2 + 0.8 eta_1 <= 1.4)"
+        clause_ = "EN 1993-1-5:2006, 7.2, Eq. 7.2"
+    else:
+        calc.note("$M_{Ed} = 0$ at the support (simple support): the interaction with bending (EN 1993-1-5 7.2) "
+                  "does not apply.")
+        note = "load type (c); M_Ed = 0 at a simple support, no 7.2 interaction"
+    calc.keep("k_F", kF)
+    calc.keep("l_y", ly, "mm")
+    calc.keep("lambda_F", lam)
+    calc.keep("chi_F", chi)
+    return calc.record(id="web_bearing", title=f"Web bearing at the support, {_name(section)}",
+                       clause=clause_, demand=F, resistance=F_R, unit="N", location_mm=loc, note=note)
+
+
+# ------------------------------------------------------------------ deflection
+DEFLECTION_LIMITS: dict[str, float] = {"brittle finishes": 360.0, "other": 200.0, "cantilever": 180.0}
+
+
+def check_deflection(delta_mm: float, span_mm: float, limit_ratio: float = 360.0, which: str = "imposed load",
+                     calc: Calc | None = None, *, location_mm: float | None = None) -> CheckRecord:
+    """Vertical deflection against span / ``limit_ratio`` (EN 1993-1-1 7.2.1; UK NA NA.2.23 suggested limits).
+
+    ``delta_mm`` is the computed deflection (sign ignored) for the SLS
+    combination named by ``which`` (e.g. "imposed load", "total"); UK NA
+    suggested limits (variable actions, characteristic): span/360 for beams
+    carrying brittle finishes, span/200 other beams, span/180 cantilevers
+    (:data:`DEFLECTION_LIMITS`; from memory).
+    """
+    calc = _check_calc(calc)
+    d = abs(require_finite("delta_mm", delta_mm))
+    L = require_positive("span_mm", span_mm, "mm")
+    n = require_in_range("limit_ratio", limit_ratio, 50.0, 1000.0)
+    if not isinstance(which, str):
+        raise InputError("which", which, "a text label for the load case")
+    loc = _loc(location_mm)
+    lim = calc(f11.delta_lim, L=L, n_lim=n)
+    calc.keep("delta_lim", lim, "mm")
+    return calc.record(id="deflection", title=f"Deflection ({which}), span/{n:g}",
+                       clause="UK NA to BS EN 1993-1-1:2008, NA.2.23", demand=d, resistance=lim, unit="mm",
+                       location_mm=loc)
+
+
+__all__ = ["SlenderSectionError", "ShearBucklingError", "ALPHA_LT", "DEFLECTION_LIMITS", "section_class",
+           "classify", "W_y_with_holes", "check_bending", "check_shear", "check_bending_shear",
+           "ltb_curve_rolled", "check_ltb", "check_web_bearing", "check_deflection"]
