@@ -24,6 +24,11 @@ def require_finite(field: str, value: Any) -> float:
     """Return ``value`` as float, or raise if it is not a finite real number."""
     if isinstance(value, bool):
         raise InputError(field, value, "a finite number")
+    if type(value).__name__ == "Physical":
+        # float() of a forallpeople quantity is its *displayed* number (kN, mm...), not SI:
+        # refuse rather than silently read it in the wrong unit.
+        raise InputError(field, value, "a plain float in the documented unit",
+                         "Convert quantities with splicecalc.core.units.to_float(q, unit)")
     try:
         x = float(value)
     except (TypeError, ValueError):
