@@ -35,6 +35,8 @@ FAMILIES: tuple[str, ...] = ("UKB", "UKC", "IPE", "HEA", "HEB")
 LOAD_LEVELS: tuple[str, ...] = ("top flange", "shear centre", "bottom flange")
 #: EN 1990:2002, 6.4.3.2(3): Eq. 6.10, or the less favourable of Eqs. 6.10a and 6.10b
 COMBINATIONS: tuple[str, ...] = ("6.10", "6.10ab")
+#: psi-factor tables (EN 1990 Table A1.1): UK NA values or EN recommended values
+PSI_TABLES: tuple[str, ...] = ("UK NA", "EN recommended")
 #: national-annex parameters a job may override (numbers), see NationalAnnex
 NA_OVERRIDABLE: tuple[str, ...] = tuple(f.name for f in fields(NationalAnnex)
                                         if f.name not in ("name", "combination"))
@@ -88,6 +90,7 @@ class BeamSpec:
     combination: ``"6.10"`` or ``"6.10ab"`` (UK NA default: worse of 6.10a/6.10b).
     na_overrides: national-annex values replacing the UK NA defaults,
         as ``(name, value)`` pairs, e.g. ``(("xi", 0.85),)``.
+    psi_table: ``"UK NA"`` (default) or ``"EN recommended"`` psi factors (EN 1990 Table A1.1).
     """
 
     span: float
@@ -103,6 +106,7 @@ class BeamSpec:
     total_deflection_limit: float | None = None
     combination: str = "6.10ab"
     na_overrides: tuple[tuple[str, float], ...] = ()
+    psi_table: str = "UK NA"
 
     def __post_init__(self) -> None:
         s = object.__setattr__
@@ -170,6 +174,7 @@ class BeamSpec:
             require_choice("beam.national_annex", k, NA_OVERRIDABLE)
             clean_ov[k] = require_positive(f"beam.national_annex.{k}", v)
         s(self, "na_overrides", tuple(sorted(clean_ov.items())))
+        require_choice("beam.psi_table", self.psi_table, PSI_TABLES)
 
     @property
     def is_auto(self) -> bool:
@@ -230,7 +235,9 @@ class Job:
         object.__setattr__(self, "supports", tuple(self.supports))
         object.__setattr__(self, "support_tables", tuple(self.support_tables))
         object.__setattr__(self, "notes", tuple(self.notes))
-        check_section_choice(self.beam)
+        canonical = check_section_choice(self.beam)
+        if canonical is not None and canonical != self.beam.section:
+            object.__setattr__(self, "beam", replace(self.beam, section=canonical))
 
     # ------------------------------------------------------------ derived
     @property
@@ -238,6 +245,12 @@ class Job:
         """UK NA defaults with the job's overrides and combination rule."""
         return replace(UK_NA, **dict(self.beam.na_overrides), combination=self.beam.combination,
                        name=UK_NA.name if not self.beam.na_overrides else f"{UK_NA.name} (modified)")
+
+    @property
+    def psi(self) -> Any:
+        """The psi-factor table (:class:`splicecalc.actions.PsiTable`) named by ``beam.psi_table``."""
+        from ..actions.psi import PSI_EN_RECOMMENDED, PSI_UK_NA
+        return PSI_UK_NA if self.beam.psi_table == "UK NA" else PSI_EN_RECOMMENDED
 
     def with_section(self, designation: str) -> "Job":
         """A copy of the job with a fixed section (e.g. the chosen one)."""
@@ -271,6 +284,8 @@ class Job:
         beam["combination"] = b.combination
         if b.na_overrides:
             beam["national_annex"] = {k: _num(v) for k, v in b.na_overrides}
+        if b.psi_table != "UK NA":
+            beam["psi_table"] = b.psi_table
         out: dict[str, Any] = {}
         if proj:
             out["project"] = proj
@@ -329,15 +344,16 @@ def load_to_dict(ld: Load) -> dict[str, Any]:
     return d
 
 
-def check_section_choice(beam: BeamSpec) -> None:
+def check_section_choice(beam: BeamSpec) -> str | None:
     """Check the section designation exists and that some section meets ``max_depth``.
 
-    Uses :mod:`splicecalc.sections` when it is available (imported lazily).
+    Returns the catalogue spelling of a given designation (e.g. '457x191x67UB' ->
+    '457x191x67 UKB'), None for "auto". Uses :mod:`splicecalc.sections` (imported lazily).
     """
     try:
         from ..sections import get_section, list_sections
     except ImportError:  # sections module not there yet: checked again at design time
-        return
+        return None
     if not beam.is_auto:
         try:
             sec = get_section(beam.section)
@@ -347,13 +363,14 @@ def check_section_choice(beam: BeamSpec) -> None:
             raise InputError("beam.section", beam.section,
                              f"a section no deeper than beam.max_depth = {beam.max_depth:g} mm "
                              f"(h = {sec.h:g} mm)")
-        return
+        return sec.designation
     if beam.max_depth is not None:
         shallowest = min(s.h for f in beam.families for s in list_sections(f))
         if shallowest > beam.max_depth:
             raise InputError("beam.max_depth", _q(beam.max_depth, "mm", "mm"),
                              f"a depth that some section of {', '.join(beam.families)} meets "
                              f"(the shallowest is h = {shallowest:g} mm)")
+    return None
 
 
 def validate_load_on_span(ld: Any, span: float, key: str) -> None:
@@ -373,5 +390,5 @@ def validate_load_on_span(ld: Any, span: float, key: str) -> None:
                              f"a position up to the span {_q(span, 'mm', 'm')}")
 
 
-__all__ = ["FAMILIES", "LOAD_LEVELS", "COMBINATIONS", "NA_OVERRIDABLE", "CATEGORIES", "Project",
+__all__ = ["FAMILIES", "LOAD_LEVELS", "COMBINATIONS", "PSI_TABLES", "NA_OVERRIDABLE", "CATEGORIES", "Project",
            "BeamSpec", "Job", "load_to_dict", "validate_load_on_span"]

@@ -1,0 +1,707 @@
+"""Design of the simply supported beam of a job: all member checks, lightest section search.
+
+:func:`design_beam` takes a :class:`~splicecalc.job.Job` and
+
+* adds the beam self-weight (permanent, full span, from the section's nominal mass);
+* forms every ULS combination (EN 1990 Eq. 6.10, or 6.10a and 6.10b, each variable
+  action leading in turn) and the SLS characteristic combinations, with
+  :mod:`splicecalc.actions`;
+* analyses each exactly with :class:`~splicecalc.analysis.SimpleBeam`;
+* runs the member checks of :mod:`splicecalc.members`, each for its governing
+  combination and position: classification; bending at max |M|; shear at max |V|;
+  bending with shear at the supports, point loads and max-M positions; lateral-torsional
+  buckling of every segment between restraints with the numerical M_cr of the real
+  moment diagram and load height (and the closed-form C_1 value beside it as a
+  cross-check); deflection under variable actions (span/N) and, when asked, total
+  (characteristic) deflection; web bearing at both supports (EN 1993-1-5, type (c)).
+
+With ``section = "auto"`` it searches the job's families (honouring ``max_depth``) on
+the plain-float path, lightest first: cheap checks (bending, shear, deflection) before
+the eigenvalue M_cr solves, failing fast; the analysis is cached per section mass since
+only the self-weight changes. The result names the lightest passing section, the next
+two passing candidates and why every lighter one failed. ``render=True`` re-runs the
+chosen section's checks with handcalcs rendering (only that section).
+
+Units: N, mm, N*mm internally; records in kN, kNm, mm.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field, replace
+from typing import Any, Callable, Sequence
+
+import numpy as np
+
+from ..actions import (Combination, PointLoad, PsiTable, UDL, self_weight_udl, sls_characteristic,
+                       sls_variable_characteristic, uls_combinations)
+from ..analysis import Envelope, SimpleBeam, beam_diagrams, envelope
+from ..core.errors import InputError
+from ..core.record import Calc, CheckRecord
+from ..job.model import Job
+from ..materials import E_MPa, NationalAnnex, steel
+from ..members import en1993_1_1 as f11
+from ..members import (C1_C2_PINNED, C_1_linear, M_cr_C1C2, ShearBucklingError, SlenderSectionError,
+                       check_bending, check_bending_shear, check_deflection, check_ltb, check_shear,
+                       check_web_bearing, classify, section_class)
+from ..sections import Section, get_section, list_sections
+
+#: name of the self-weight load added by the design
+SELF_WEIGHT = "beam self-weight"
+#: C_1 from end moments is used for the closed-form cross-check only when the segment's
+#: largest moment exceeds its larger end moment by at most this fraction
+_LINEAR_TOL = 0.05
+
+
+# ======================================================================== analysis
+class _MassCase:
+    """Combinations and exact analyses for one self-weight (section mass, kg/m).
+
+    Deflections use I = 1 mm4 and are divided by the section's I_y (linear
+    elasticity: w is proportional to 1/(E I)), so one case serves every
+    section of the same mass.
+    """
+
+    __slots__ = ("loads", "uls", "beams", "M", "V", "iM", "iV", "R_A", "R_B", "_char", "_ctx")
+
+    def __init__(self, ctx: "_Context", mass: float) -> None:
+        self._ctx = ctx
+        sw = self_weight_udl(mass, name=SELF_WEIGHT)
+        self.loads = (sw, *ctx.job.loads)
+        self.uls = tuple(uls_combinations(self.loads, ctx.na, ctx.psi))
+        L = ctx.L
+        self.beams = tuple(SimpleBeam(L, c.loads) for c in self.uls)
+        self.M = tuple(b.M_max() for b in self.beams)
+        self.V = tuple(b.V_max() for b in self.beams)
+        self.iM = max(range(len(self.M)), key=lambda i: (abs(self.M[i].value), -i))
+        self.iV = max(range(len(self.V)), key=lambda i: (abs(self.V[i].value), -i))
+        self.R_A = tuple(b.R_A for b in self.beams)
+        self.R_B = tuple(b.R_B for b in self.beams)
+        self._char: tuple | None = None
+
+    def characteristic(self) -> tuple[tuple[Combination, SimpleBeam, float, float], ...]:
+        """SLS characteristic combinations (Eq. 6.14b): (combination, beam with I = 1, w_max * I, x)."""
+        if self._char is None:
+            out = []
+            for c in sls_characteristic(self.loads, self._ctx.psi):
+                b = SimpleBeam(self._ctx.L, c.loads, I=1.0)
+                w = b.w_max()
+                out.append((c, b, abs(w.value), w.x_mm))
+            self._char = tuple(out)
+        return self._char
+
+
+class _Context:
+    """Everything of a job that does not depend on the section."""
+
+    def __init__(self, job: Job, psi: PsiTable) -> None:
+        self.job = job
+        self.beam = job.beam
+        self.L = job.beam.span
+        self.na: NationalAnnex = job.na
+        self.psi = psi
+        self.grade = job.beam.grade
+        self._cases: dict[float, _MassCase] = {}
+        self.point_x = tuple(sorted({ld.x for ld in job.loads if isinstance(ld, PointLoad)
+                                     and 0.0 < ld.x < self.L}))
+        # variable actions only (characteristic, each leading): independent of the section
+        var = []
+        if any(ld.action != "permanent" for ld in job.loads):
+            for c in sls_variable_characteristic(job.loads, psi):
+                b = SimpleBeam(self.L, c.loads, I=1.0)
+                w = b.w_max()
+                var.append((c, b, abs(w.value), w.x_mm))
+        self.variable = tuple(var)
+
+    def case(self, mass: float) -> _MassCase:
+        key = round(float(mass), 9)
+        c = self._cases.get(key)
+        if c is None:
+            c = self._cases[key] = _MassCase(self, key)
+        return c
+
+    def z_g(self, section: Section) -> float:
+        """Height of the load above the shear centre (mm), from the job's load level."""
+        return {"top flange": section.h / 2.0, "shear centre": 0.0,
+                "bottom flange": -section.h / 2.0}[self.beam.load_level]
+
+
+@dataclass(frozen=True)
+class BeamAnalysis:
+    """The analysis of the designed beam (real I_y), for diagrams and the calc package.
+
+    ``loads``: characteristic loads including the self-weight; ``uls`` / ``sls_variable`` /
+    ``sls_characteristic``: (combination, SimpleBeam) pairs; ``governing_M`` etc. index into ``uls``.
+    """
+
+    span_mm: float
+    section: str
+    loads: tuple
+    uls: tuple[tuple[Combination, SimpleBeam], ...]
+    sls_variable: tuple[tuple[Combination, SimpleBeam], ...]
+    sls_characteristic: tuple[tuple[Combination, SimpleBeam], ...]
+    governing_M: int
+    governing_V: int
+    restraints_mm: tuple[float, ...] = ()
+
+    def effects(self) -> list[dict[str, Any]]:
+        """Per ULS combination: reactions, max |V| and max M with positions (unit-tagged keys)."""
+        out = []
+        for c, b in self.uls:
+            m, v = b.M_max(), b.V_max()
+            out.append({"combination": c.name, "expression": c.expression, "R_A_kN": round(b.R_A / 1e3, 6),
+                        "R_B_kN": round(b.R_B / 1e3, 6), "M_max_kNm": round(m.value / 1e6, 6),
+                        "x_M_max_m": round(m.x_mm / 1e3, 6), "V_max_kN": round(abs(v.value) / 1e3, 6),
+                        "x_V_max_m": round(v.x_mm / 1e3, 6)})
+        return out
+
+    def envelope(self, n: int = 201) -> Envelope:
+        """ULS M_Ed and V_Ed envelopes over all combinations (:func:`splicecalc.analysis.envelope`)."""
+        return envelope([c for c, _ in self.uls], self.span_mm, n)
+
+    def diagrams(self, splices_mm: Sequence[float] | None = None) -> Any:
+        """V, M diagrams of the combination governing bending (matplotlib Figure)."""
+        c, b = self.uls[self.governing_M]
+        return beam_diagrams(b, splices_mm=splices_mm, restraints_mm=self.restraints_mm,
+                             title=f"{self.section}: {c.name}")
+
+    def deflection_diagrams(self) -> Any:
+        """V, M, w diagrams of the first variable-action SLS combination (None if there is none)."""
+        if not self.sls_variable:
+            return None
+        c, b = self.sls_variable[0]
+        return beam_diagrams(b, restraints_mm=self.restraints_mm, title=f"{self.section}: {c.name}")
+
+
+# ======================================================================== results
+@dataclass(frozen=True)
+class Candidate:
+    """One section tried by the search: pass/fail and the check that governs it.
+
+    ``governing`` is the id of the check with the highest utilisation among those
+    run (the search stops at the first stage that fails), ``stage`` says how far
+    it got: ``"screen"`` (bending, shear, deflection) or ``"full"``.
+    """
+
+    designation: str
+    family: str
+    mass_kg_per_m: float
+    h_mm: float
+    ok: bool
+    governing: str
+    title: str
+    utilisation: float
+    stage: str
+    note: str = ""
+
+    def to_dict(self) -> dict[str, Any]:
+        return {"designation": self.designation, "family": self.family, "mass_kg_per_m": self.mass_kg_per_m,
+                "h_mm": self.h_mm, "ok": self.ok, "governing_check": self.governing, "title": self.title,
+                "utilisation": None if not math.isfinite(self.utilisation) else round(self.utilisation, 6),
+                "stage": self.stage, **({"note": self.note} if self.note else {})}
+
+    def summary(self) -> str:
+        u = "n/a" if not math.isfinite(self.utilisation) else f"{self.utilisation:.3f}"
+        verdict = "passes" if self.ok else "fails"
+        return (f"{self.designation:<18} {self.mass_kg_per_m:6.1f} kg/m  {verdict:<6} governing: "
+                f"{self.governing} (u = {u})" + (f"  {self.note}" if self.note else ""))
+
+
+@dataclass(frozen=True)
+class BeamDesign:
+    """Result of :func:`design_beam`.
+
+    section: the chosen section (or, when nothing passes, the heaviest candidate);
+    ok: every check passes; records: all check records of ``section``;
+    governing: check id -> name of the governing combination;
+    analysis: :class:`BeamAnalysis` of ``section``; candidates: every section tried,
+    lightest first; alternatives: the next two passing sections after the chosen one;
+    message: one line saying what was found.
+    """
+
+    job: Job
+    section: Section | None
+    ok: bool
+    records: tuple[CheckRecord, ...]
+    governing: dict[str, str]
+    analysis: BeamAnalysis | None
+    candidates: tuple[Candidate, ...] = ()
+    alternatives: tuple[Candidate, ...] = ()
+    message: str = ""
+    combinations: tuple[str, ...] = field(default=())
+
+    @property
+    def governing_record(self) -> CheckRecord | None:
+        """The failing record with the highest utilisation, else the highest-utilised resistance check."""
+        return _Run(list(self.records)).worst()
+
+    @property
+    def lighter_failures(self) -> tuple[Candidate, ...]:
+        """Candidates lighter than the chosen section (all failed), lightest first."""
+        if self.section is None or not self.ok:
+            return tuple(c for c in self.candidates if not c.ok)
+        m = self.section.mass_nominal
+        return tuple(c for c in self.candidates if not c.ok and c.mass_kg_per_m <= m
+                     and c.designation != self.section.designation)
+
+    def record(self, check_id: str) -> CheckRecord:
+        for r in self.records:
+            if r.id == check_id:
+                return r
+        raise KeyError(check_id)
+
+    def summary(self, source: str = "", show_candidates: int = 12) -> str:
+        """Readable summary: section, combinations, every check with clause, demand/resistance,
+        utilisation, verdict, position and governing combination; the heaviest candidates tried."""
+        return _summary(self, source, show_candidates)
+
+    def _repr_markdown_(self) -> str:
+        return "```\n" + self.summary() + "\n```"
+
+    def to_dict(self) -> dict[str, Any]:
+        """JSON-ready result; keys carry units (records via CheckRecord.to_dict)."""
+        return {
+            "ok": self.ok,
+            "message": self.message,
+            "section": self.section.to_dict() if self.section is not None else None,
+            "grade": self.job.beam.grade,
+            "span_m": round(self.job.beam.span / 1000.0, 6),
+            "combinations": list(self.combinations),
+            "uls_effects": self.analysis.effects() if self.analysis is not None else [],
+            "governing_combination": dict(self.governing),
+            "checks": [r.to_dict() for r in self.records],
+            "candidates": [c.to_dict() for c in self.candidates],
+            "alternatives": [c.to_dict() for c in self.alternatives],
+        }
+
+
+def _fmt_x(x_mm: float | None) -> str:
+    return "" if x_mm is None else f"x = {x_mm / 1000.0:.2f} m"
+
+
+def _fmt_num(v: float) -> str:
+    return f"{v:.2f}" if abs(v) < 1e5 else f"{v:.4g}"
+
+
+def _summary(design: "BeamDesign", source: str = "", show_candidates: int = 12) -> str:
+    """Readable multi-line summary of a design (used by ``splicecalc run``)."""
+    job = design.job
+    b = job.beam
+    lines: list[str] = []
+    p = job.project
+    head = " - ".join(t for t in (p.number, p.title) if t) or "splicecalc job"
+    lines.append(head + (f"   ({source})" if source else ""))
+    restr = ", ".join(f"{x / 1000.0:g}" for x in b.restraints)
+    comb = "Eq. 6.10" if b.combination == "6.10" else "worse of Eq. 6.10a and 6.10b"
+    lines.append(f"Beam: span {b.span / 1000.0:g} m, {b.grade}, "
+                 + (f"lateral restraints at {restr} m" if restr else "no intermediate lateral restraint")
+                 + f", loads at the {b.load_level}; ULS {comb} (national annex: {job.na.name}, xi = {job.na.xi:g})")
+    lines.append("")
+    lines.append(("PASS  " if design.ok else "FAIL  ") + design.message)
+    s = design.section
+    if s is not None:
+        lines.append(f"Section: {s.designation} {b.grade}, {s.mass_nominal:g} kg/m, h = {s.h:g} mm, "
+                     f"b = {s.b:g} mm (self-weight included)")
+    lines.append("")
+    lines.append("Combinations:")
+    lines.extend(f"  {c}" for c in design.combinations)
+    lines.append("")
+    lines.append("Checks:")
+    for r in design.records:
+        verdict = "OK" if r.ok else "NOT OK"
+        lines.append(f"  {r.title}")
+        lines.append(f"      {r.clause}")
+        unit = f" {r.unit}" if r.unit else ""
+        where = _fmt_x(r.location_mm)
+        combo = design.governing.get(r.id, "")
+        tail = "; ".join(t for t in (where, combo) if t)
+        lines.append(f"      {_fmt_num(r.demand)} / {_fmt_num(r.resistance)}{unit}   u = {r.utilisation:.3f}   "
+                     f"{verdict}" + (f"   [{tail}]" if tail else ""))
+        if r.note:
+            lines.append(f"      {r.note}")
+    if len(design.candidates) > 1 or design.alternatives:
+        lines.append("")
+        lines.append("Candidates tried (lightest first):")
+        cands = list(design.candidates)
+        if len(cands) > show_candidates:
+            hidden = cands[:len(cands) - show_candidates]
+            lines.append(f"  ... {len(hidden)} lighter sections fail as well (all listed with --json)")
+            cands = cands[len(hidden):]
+        lines.extend(f"  {c.summary()}" for c in cands)
+        if design.alternatives:
+            lines.append("Next passing candidates: " + ", ".join(
+                f"{c.designation} ({c.mass_kg_per_m:g} kg/m, {c.governing} u = {c.utilisation:.3f})"
+                for c in design.alternatives))
+    if job.notes:
+        lines.append("")
+        lines.extend(f"Note: {n}" for n in job.notes)
+    return "\n".join(lines)
+
+
+# ======================================================================== checks
+@dataclass
+class _Run:
+    """Records of one section as they are produced, with the governing combinations."""
+
+    records: list[CheckRecord] = field(default_factory=list)
+    governing: dict[str, str] = field(default_factory=dict)
+
+    def add(self, rec: CheckRecord, combo: str | None = None) -> CheckRecord:
+        self.records.append(rec)
+        if combo:
+            self.governing[rec.id] = combo
+        return rec
+
+    def worst(self) -> CheckRecord | None:
+        """Failing record with the highest utilisation; if all pass, the highest-utilised
+        resistance check (classification, a c/t ratio over its class limit, only when it fails)."""
+        failing = [r for r in self.records if not r.ok]
+        pool = failing or [r for r in self.records if r.id != "classification"] or self.records
+        return max(pool, key=lambda r: r.utilisation, default=None)
+
+    def failed(self) -> bool:
+        return any(not r.ok for r in self.records)
+
+
+def _calc(render: bool) -> Calc:
+    return Calc(render=render)
+
+
+def _segment_M_max(ctx: _Context, case: _MassCase, i: int, x0: float, x1: float) -> tuple[float, float]:
+    """Largest |M| (N*mm) in [x0, x1] for combination i, and where.
+
+    All loads act downwards, so M is concave (M'' = -q <= 0): the maximum over an
+    interval is the span maximum when that lies inside, else at an interval end.
+    """
+    ext = case.M[i]
+    if x0 <= ext.x_mm <= x1:
+        return abs(ext.value), ext.x_mm
+    b = case.beams[i]
+    m0, m1 = abs(float(b.M(x0))), abs(float(b.M(x1)))
+    return (m0, x0) if m0 >= m1 else (m1, x1)
+
+
+def _q_fn(combo: Combination, x0: float) -> Callable[[np.ndarray], np.ndarray] | float:
+    """Factored line load of the combination (N/mm), excluding the self-weight (which acts at
+    the shear centre), as a function of the local segment coordinate."""
+    parts = [(ld.w, ld.x_start, ld.x_end) for ld in combo.loads
+             if isinstance(ld, UDL) and ld.name != SELF_WEIGHT]
+    if not parts:
+        return 0.0
+
+    def q(x: np.ndarray) -> np.ndarray:
+        X = x0 + np.asarray(x, dtype=float)
+        out = np.zeros_like(X)
+        for w, a, b in parts:
+            out = out + w * ((X >= a) & (X <= (math.inf if b is None else b)))
+        return out
+    return q
+
+
+def _M_fn(beam: SimpleBeam, x0: float, L: float) -> Callable[[np.ndarray], np.ndarray]:
+    def M(x: np.ndarray) -> np.ndarray:
+        xa = np.asarray(x, dtype=float)
+        return np.asarray(beam.M(np.clip(x0 + xa.ravel(), 0.0, L)), dtype=float).reshape(xa.shape)
+    return M
+
+
+def _ltb_one(ctx: _Context, section: Section, case: _MassCase, i: int, k: int, x0: float, x1: float,
+             calc: Calc, with_cross_check: bool) -> CheckRecord:
+    """LTB of segment k (1-based) for ULS combination i; numerical M_cr with the load height."""
+    combo, beam = case.uls[i], case.beams[i]
+    L_seg = x1 - x0
+    M_Ed, x_M = _segment_M_max(ctx, case, i, x0, x1)
+    z_g = ctx.z_g(section)
+    pls = [(ld.x - x0, ld.P) for ld in combo.loads
+           if isinstance(ld, PointLoad) and x0 < ld.x < x1]
+    if with_cross_check:
+        _closed_form_cross_check(ctx, section, beam, combo, x0, x1, M_Ed, z_g, calc)
+    rec = check_ltb(section, ctx.grade, M_Ed, None, ctx.na, calc, L_mm=L_seg, M=_M_fn(beam, x0, ctx.L),
+                    q_N_per_mm=_q_fn(combo, x0), point_loads=pls, z_g_mm=z_g, location_mm=x_M,
+                    segment=str(k))
+    where = f"segment {k}, x = {x0 / 1e3:.3g} to {x1 / 1e3:.3g} m"
+    return replace(rec, title=f"Lateral-torsional buckling, {where}, {section.designation}",
+                   note=f"{rec.note}; numerical M_cr, loads at the {ctx.beam.load_level} "
+                        f"(z_g = {z_g:.1f} mm), fork restraints at the segment ends")
+
+
+def _closed_form_cross_check(ctx: _Context, section: Section, beam: SimpleBeam, combo: Combination, x0: float,
+                             x1: float, M_Ed: float, z_g: float, calc: Calc) -> None:
+    """Closed-form M_cr (C_1, C_2, z_g formula) beside the numerical one, kept in the record values.
+
+    Whole span under full-length UDLs only: C_1, C_2 for a UDL (published NCCI values);
+    otherwise, when the moment in the segment is close to linear, C_1 from the end-moment
+    ratio psi and C_2 = 0; else C_1 = 1 (uniform moment, a lower bound for z_g <= 0).
+    """
+    L_seg = x1 - x0
+    one_segment = not ctx.beam.restraints
+    only_full_udl = all(isinstance(ld, UDL) and ld.is_full(ctx.L) for ld in combo.loads)
+    M0, M1 = float(beam.M(x0)), float(beam.M(x1))
+    lead = "Cross-check only (the numerical $M_{cr}$ below governs): closed-form $M_{cr}$ with "
+    if one_segment and only_full_udl:
+        C_1, C_2 = C1_C2_PINNED["udl"]
+        calc.note(lead + f"$C_1$ = {C_1:g}, $C_2$ = {C_2:g} for a UDL on a simple span (published NCCI values).")
+    elif M_Ed <= (1.0 + _LINEAR_TOL) * max(abs(M0), abs(M1)):
+        big, small = (M0, M1) if abs(M0) >= abs(M1) else (M1, M0)
+        psi = small / big if big != 0.0 else 1.0
+        calc.note(lead + f"$C_1$ from the end-moment ratio $\\psi$ = {psi:.3f} (moment close to linear in "
+                  "the segment), $C_2$ = 0.")
+        C_1 = calc(C_1_linear, psi=psi)
+        C_2 = 0.0
+    else:
+        C_1, C_2 = 1.0, 0.0
+        calc.note(lead + "$C_1$ = 1 (uniform moment; the moment in this segment is not linear).")
+    M_cr_cf = calc(M_cr_C1C2, C_1=C_1, C_2=C_2, I_z=section.Iz, I_w=section.Iw, I_t=section.It, L=L_seg,
+                   z_g=z_g if C_2 else 0.0, E=E_MPa)
+    calc.keep("C_1_closed_form", C_1)
+    calc.keep("M_cr_closed_form", M_cr_cf, "Nmm")
+
+
+def _check_section_all(ctx: _Context, section: Section, render: bool = False,
+                       fail_fast: bool = False) -> _Run:
+    """Every member check of ``section``; each check's governing combination found on floats.
+
+    With ``fail_fast`` (search) the cheap checks come first and the run stops at the first
+    stage with a failure; LTB solves stop at the first failing segment.
+    With ``render`` the governing case of each check is re-run with handcalcs rendering.
+    """
+    case = ctx.case(section.mass_nominal)
+    na, grade, L = ctx.na, ctx.grade, ctx.L
+    run = _Run()
+    uls = case.uls
+
+    # --- classification (Table 5.2); Class 4 is refused by the members module
+    run.add(classify(section, grade, na, _calc(render)))
+
+    # --- stage 1: bending, shear, deflection (cheap)
+    iM, Mx = case.iM, case.M[case.iM]
+    run.add(check_bending(section, grade, Mx.value, na, _calc(render), location_mm=Mx.x_mm), uls[iM].name)
+    iV, Vx = case.iV, case.V[case.iV]
+    run.add(check_shear(section, grade, Vx.value, na, _calc(render), location_mm=Vx.x_mm), uls[iV].name)
+    _deflections(ctx, case, section, run, render)
+    if fail_fast and run.failed():
+        return run
+
+    # --- stage 2: web bearing at both supports, bending with shear at the critical points
+    for end, R, x in (("A", case.R_A, 0.0), ("B", case.R_B, L)):
+        i = max(range(len(R)), key=lambda j: (abs(R[j]), -j))
+        rec = check_web_bearing(section, grade, abs(R[i]), ctx.beam.bearing_length, ctx.beam.end_distance, na,
+                                _calc(render), location_mm=x)
+        run.add(replace(rec, id=f"web_bearing_{end}",
+                        title=f"Web bearing at support {end}, {section.designation}",
+                        note=f"{rec.note}; s_s = {ctx.beam.bearing_length:g} mm, c = {ctx.beam.end_distance:g} mm"),
+                uls[i].name)
+    _bending_shear(ctx, case, section, run, render)
+    if fail_fast and run.failed():
+        return run
+
+    # --- stage 3: lateral-torsional buckling per segment (numerical M_cr)
+    segs = ctx.beam.segments
+    order = list(range(len(segs)))
+    if fail_fast:  # most highly stressed segment first
+        order.sort(key=lambda k: -max(_segment_M_max(ctx, case, i, *segs[k])[0] for i in range(len(uls))))
+    ltb: dict[int, tuple[CheckRecord, int]] = {}
+    for k in order:
+        x0, x1 = segs[k]
+        combos = sorted(range(len(uls)), key=lambda i: -_segment_M_max(ctx, case, i, x0, x1)[0])
+        best: tuple[CheckRecord, int] | None = None
+        for i in combos:
+            rec = _ltb_one(ctx, section, case, i, k + 1, x0, x1, Calc(), with_cross_check=False)
+            if best is None or rec.utilisation > best[0].utilisation:
+                best = (rec, i)
+            if fail_fast and not rec.ok:
+                break
+        assert best is not None
+        ltb[k] = best
+        if fail_fast and not best[0].ok:
+            break
+    for k in sorted(ltb):
+        _, i = ltb[k]
+        x0, x1 = segs[k]
+        rec = _ltb_one(ctx, section, case, i, k + 1, x0, x1, _calc(render), with_cross_check=True)
+        run.add(rec, uls[i].name)
+    return run
+
+
+def _deflections(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
+    """Variable-action deflection (span/N) and, when asked, total characteristic deflection."""
+    I = section.Iy
+    L = ctx.L
+    if ctx.variable:
+        j = max(range(len(ctx.variable)), key=lambda t: (ctx.variable[t][2], -t))
+        c, _, w1, x = ctx.variable[j]
+        rec = check_deflection(w1 / I, L, ctx.beam.deflection_limit, which="variable actions",
+                               calc=_calc(render), location_mm=x)
+        run.add(replace(rec, id="deflection",
+                        note=f"{c.name}: {c.expression}; E = {E_MPa:g} MPa, I_y = {I / 1e4:.0f} cm4"),
+                c.name)
+    else:
+        rec = check_deflection(0.0, L, ctx.beam.deflection_limit, which="variable actions",
+                               calc=_calc(render))
+        run.add(replace(rec, id="deflection", note="no variable actions on the beam"))
+    if ctx.beam.total_deflection_limit is not None:
+        ch = case.characteristic()
+        j = max(range(len(ch)), key=lambda t: (ch[t][2], -t))
+        c, _, w1, x = ch[j]
+        rec = check_deflection(w1 / I, L, ctx.beam.total_deflection_limit, which="total, characteristic",
+                               calc=_calc(render), location_mm=x)
+        run.add(replace(rec, id="deflection_total",
+                        note=f"{c.name}: {c.expression}; E = {E_MPa:g} MPa, I_y = {I / 1e4:.0f} cm4"),
+                c.name)
+
+
+def _bending_shear(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
+    """M-V interaction (6.2.8) at the supports, point loads and max-M positions of every combination."""
+    L = ctx.L
+    pts = {0.0, L, *ctx.point_x, *(m.x_mm for m in case.M)}
+    best: tuple[float, int, float, float, float] | None = None   # (u, i, x, M, V)
+    fast = Calc()
+    for i, b in enumerate(case.beams):
+        for x in sorted(pts):
+            M = abs(float(b.M(x)))
+            V = max(abs(float(b.V(x, "left"))), abs(float(b.V(x, "right"))))
+            u = check_bending_shear(section, ctx.grade, M, V, ctx.na, fast).utilisation
+            if best is None or u > best[0] * (1 + 1e-12):
+                best = (u, i, x, M, V)
+    assert best is not None
+    _, i, x, M, V = best
+    rec = check_bending_shear(section, ctx.grade, M, V, ctx.na, _calc(render), location_mm=x)
+    run.add(replace(rec, note=f"{rec.note}; V_Ed = {V / 1e3:.1f} kN at the same section "
+                              "(critical points: supports, point loads, max M)"), case.uls[i].name)
+
+
+# ======================================================================== search
+def _refusal(ctx: _Context, section: Section, err: InputError) -> Candidate:
+    """A section the members module refuses (Class 4, or a web needing a shear-buckling check)."""
+    if isinstance(err, ShearBucklingError):
+        f_y = steel(ctx.grade, section.tf).f_y
+        u = f11.shear_buckling_ratio(h_w=section.hw, t_w=section.tw, epsilon=f11.epsilon(f_y=f_y), eta=ctx.na.eta)
+        return Candidate(section.designation, section.family, section.mass_nominal, section.h, False, "shear",
+                         "web slenderness h_w/t_w over 72 eps/eta (EN 1993-1-1:2005, 6.2.6(6))", u, "screen",
+                         note="shear buckling (EN 1993-1-5 section 5) not covered")
+    return Candidate(section.designation, section.family, section.mass_nominal, section.h, False, "classification",
+                     "Class 4 cross-section (EN 1993-1-1:2005, 5.5.2, Table 5.2)", math.inf, "screen",
+                     note="Class 4 (effective properties, EN 1993-1-5) not covered")
+
+
+def _candidate(section: Section, run: _Run, stage: str) -> Candidate:
+    gov = run.worst()
+    assert gov is not None
+    return Candidate(section.designation, section.family, section.mass_nominal, section.h, not run.failed(),
+                     gov.id, gov.title, gov.utilisation, stage)
+
+
+def _try(ctx: _Context, section: Section) -> tuple[Candidate, _Run | None]:
+    """Fail-fast checks of one section on floats."""
+    if section_class(section, ctx.grade) == 4:
+        try:
+            classify(section, ctx.grade, ctx.na)
+        except InputError as err:
+            return _refusal(ctx, section, err), None
+    try:
+        run = _check_section_all(ctx, section, render=False, fail_fast=True)
+    except (SlenderSectionError, ShearBucklingError) as err:
+        return _refusal(ctx, section, err), None
+    stage = "full" if any(r.id.startswith("ltb") for r in run.records) else "screen"
+    return _candidate(section, run, stage), run
+
+
+def search_candidates(job: Job) -> list[Section]:
+    """Sections of the job's families with h <= max_depth, lightest first (mass, then depth)."""
+    secs = [s for f in job.beam.families for s in list_sections(f)
+            if job.beam.max_depth is None or s.h <= job.beam.max_depth + 1e-9]
+    if not secs:
+        raise InputError("beam.max_depth", job.beam.max_depth,
+                         f"a depth that some section of {', '.join(job.beam.families)} meets")
+    return sorted(secs, key=lambda s: (s.mass_nominal, s.h, s.designation))
+
+
+def _analysis(ctx: _Context, section: Section) -> BeamAnalysis:
+    case = ctx.case(section.mass_nominal)
+    I = section.Iy
+    uls = tuple((c, SimpleBeam(ctx.L, c.loads, I=I)) for c in case.uls)
+    var = tuple((c, SimpleBeam(ctx.L, c.loads, I=I)) for c, _, _, _ in ctx.variable)
+    char = tuple((c, SimpleBeam(ctx.L, c.loads, I=I)) for c in sls_characteristic(case.loads, ctx.psi))
+    return BeamAnalysis(ctx.L, section.designation, case.loads, uls, var, char, case.iM, case.iV,
+                        ctx.beam.restraints)
+
+
+def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None) -> BeamDesign:
+    """Design (``section = "auto"``) or check (a designation) the job's beam; see the module docstring.
+
+    ``render``: render the chosen section's checks with handcalcs (LaTeX in each record).
+    ``psi``: combination factors; None (default) takes the job's ``beam.psi_table`` (UK NA unless set).
+    Raises :class:`InputError` for bad input; a failing design is a result (``ok`` False).
+    """
+    if not isinstance(job, Job):
+        raise InputError("job", type(job).__name__, "a splicecalc.job.Job")
+    if not isinstance(render, bool):
+        raise InputError("render", render, "True or False")
+    if psi is None:
+        psi = job.psi
+    if not isinstance(psi, PsiTable):
+        raise InputError("psi", psi, "a splicecalc.actions.PsiTable")
+    ctx = _Context(job, psi)
+
+    if not job.beam.is_auto:
+        try:
+            section = get_section(job.beam.section)
+        except InputError as err:
+            raise InputError("beam.section", job.beam.section, err.allowed, err.hint) from None
+        run = _check_section_all(ctx, section, render=render)
+        cand = _candidate(section, run, "full")
+        msg = (f"{section.designation} {job.beam.grade}: " +
+               ("all checks pass" if cand.ok else f"fails {cand.governing} (u = {cand.utilisation:.3f})"))
+        return _result(ctx, section, run, (cand,), (), msg)
+
+    secs = search_candidates(job)
+    tried: list[Candidate] = []
+    chosen: tuple[Section, _Run] | None = None
+    alternatives: list[Candidate] = []
+    for s in secs:
+        cand, run = _try(ctx, s)
+        tried.append(cand)
+        if cand.ok:
+            if chosen is None:
+                chosen = (s, run)  # type: ignore[assignment]
+            else:
+                alternatives.append(cand)
+                if len(alternatives) == 2:
+                    break
+    fams = ", ".join(job.beam.families)
+    depth = f" with h <= {job.beam.max_depth:g} mm" if job.beam.max_depth is not None else ""
+    if chosen is None:
+        heaviest = max(secs, key=lambda s: (s.mass_nominal, s.h))
+        last = next(c for c in tried if c.designation == heaviest.designation)
+        try:
+            run = _check_section_all(ctx, heaviest, render=render)
+        except (SlenderSectionError, ShearBucklingError):
+            run = _Run()
+        msg = (f"No section of {fams}{depth} passes: the heaviest, {heaviest.designation}, is stopped by "
+               f"{last.governing} ({last.title}, u = {last.utilisation:.3f})")
+        return _result(ctx, heaviest, run, tuple(tried), (), msg, force_fail=True)
+    section, _ = chosen
+    run = _check_section_all(ctx, section, render=render)   # full set of records, all combinations
+    gov = run.worst()
+    assert gov is not None
+    msg = (f"Lightest passing section of {fams}{depth}: {section.designation} {job.beam.grade} "
+           f"({section.mass_nominal:g} kg/m), governed by {gov.id} (u = {gov.utilisation:.3f})")
+    # the passing record of the chosen section replaces its fail-fast entry
+    tried = [(_candidate(section, run, "full") if c.designation == section.designation else c) for c in tried]
+    return _result(ctx, section, run, tuple(tried), tuple(alternatives), msg)
+
+
+def _result(ctx: _Context, section: Section, run: _Run, candidates: tuple[Candidate, ...],
+            alternatives: tuple[Candidate, ...], message: str, force_fail: bool = False) -> BeamDesign:
+    case = ctx.case(section.mass_nominal)
+    combos = tuple(f"{c.name}: {c.expression}" for c in case.uls)
+    combos += tuple(f"{c.name}: {c.expression}" for c, _, _, _ in ctx.variable)
+    if ctx.beam.total_deflection_limit is not None:
+        combos += tuple(f"{c.name}: {c.expression}" for c, _, _, _ in case.characteristic())
+    ok = (not force_fail) and bool(run.records) and not run.failed()
+    return BeamDesign(job=ctx.job, section=section, ok=ok, records=tuple(run.records),
+                      governing=dict(run.governing), analysis=_analysis(ctx, section), candidates=candidates,
+                      alternatives=alternatives, message=message, combinations=combos)
+
+
+__all__ = ["SELF_WEIGHT", "BeamAnalysis", "BeamDesign", "Candidate", "design_beam", "search_candidates"]
