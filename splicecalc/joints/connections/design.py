@@ -1,0 +1,267 @@
+"""Design of one end connection of the new beam: choose the detail, run every check.
+
+:func:`design_end_connection` takes the beam, its grade, the design reaction and a
+:class:`~.spec.SupportSpec`. Items the user left out (rows, plate thickness, gauge,
+weld leg) are chosen automatically: candidate details are tried from the lightest
+plate up, and the first one that passes every check is kept, with a short text
+saying which lighter options failed and on which check.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Any
+
+from ...core.errors import InputError, require_positive
+from ...core.record import Calc, CheckRecord
+from ...materials.historic import EXISTING_STEEL_CAUTION
+from ...materials.partial_factors import UK_NA, NationalAnnex
+from ...materials.steel import normalise_grade, steel
+from ..bolts import get_bolt
+from ..welds import full_strength_fillet
+from .detail import Context, Detail, ceil_to, detailing_checks
+from .endplate import end_plate_checks
+from .existing import ExistingResult, existing_checks, existing_material
+from .finplate import fin_plate_checks
+from .notch import check_notch
+from .spec import SupportSpec
+
+#: standard fillet leg sizes (mm)
+WELD_LEGS = (4.0, 5.0, 6.0, 8.0, 10.0, 12.0, 15.0)
+#: plate thicknesses tried when not given (mm)
+END_PLATE_T = (10.0, 12.0, 15.0)
+FIN_PLATE_T = (8.0, 10.0, 12.0, 15.0)
+#: gauges tried for an end plate when not given (mm); 90-140 mm is the usual range
+GAUGES = (90.0, 100.0, 120.0, 140.0)
+#: gap between the beam end and the support face for a fin plate (mm)
+FIN_GAP = 10.0
+MAX_ROWS = 12
+
+
+@dataclass(frozen=True)
+class ConnectionDesign:
+    """Result of :func:`design_end_connection`.
+
+    ``records``: every CheckRecord (detailing, connection, notch, existing member);
+    ``existing``: the existing-member result (its records are also in ``records``),
+    with the added moment for the column / supporting beam check; ``choice``: how the
+    detail was chosen; ``caution``: text to print in the calc; ``beam``: the new beam's Section.
+    """
+
+    spec: SupportSpec
+    detail: Detail
+    V_Ed: float
+    records: tuple[CheckRecord, ...]
+    existing: ExistingResult
+    choice: str
+    caution: str = EXISTING_STEEL_CAUTION
+    warnings: tuple[str, ...] = ()
+    beam: Any = None
+
+    @property
+    def ok(self) -> bool:
+        return all(r.ok for r in self.records)
+
+    @property
+    def governing(self) -> CheckRecord:
+        return max(self.records, key=lambda r: r.utilisation)
+
+    def failing(self) -> list[CheckRecord]:
+        return [r for r in self.records if not r.ok]
+
+    def summary(self) -> str:
+        lines = [f"Support {self.spec.index} ({self.spec.at}): {self.detail.describe()}",
+                 f"V_Ed = {self.V_Ed / 1e3:.1f} kN, tying force = {self.spec.tying_force / 1e3:.1f} kN",
+                 self.choice, self.existing.text]
+        lines += [r.summary_line() for r in self.records]
+        lines += list(self.warnings)
+        lines.append(self.caution)
+        return "\n".join(lines)
+
+    def to_dict(self) -> dict[str, Any]:
+        return {"support": self.spec.index, "at": self.spec.at, "connection": self.spec.connection,
+                "V_Ed_kN": self.V_Ed / 1e3, "tying_force_kN": self.spec.tying_force / 1e3,
+                "detail": self.detail.to_dict(), "ok": self.ok, "choice": self.choice,
+                "existing": {"material": self.existing.material.label, "f_y_MPa": self.existing.material.f_y,
+                             "f_u_MPa": self.existing.material.f_u, "historic": self.existing.material.historic,
+                             "M_add_kNm": self.existing.M_add_Nmm / 1e6, "e_mm": self.existing.e_mm,
+                             "axis": self.existing.axis, "text": self.existing.text},
+                "checks": [r.to_dict() for r in self.records], "warnings": list(self.warnings),
+                "caution": self.caution}
+
+
+# ------------------------------------------------------------------ candidates
+
+def _pitch(bolt) -> float:
+    return max(70.0, ceil_to(2.5 * bolt.d_0, 5.0))
+
+
+def _weld_leg(s_req: float) -> float:
+    for s in WELD_LEGS:
+        if s >= s_req - 1e-9:
+            return s
+    return WELD_LEGS[-1]
+
+
+def _candidates(ctx: Context, spec: SupportSpec, bolt) -> tuple[list[Detail], str]:
+    """Candidate details, lightest plate first, and a note on the row range."""
+    kind = spec.connection
+    d, d0 = bolt.d, bolt.d_0
+    p_1 = spec.pitch or _pitch(bolt)
+    if kind == "end plate":
+        e_1 = max(40.0, ceil_to(1.5 * d0, 5.0))
+        e_2 = max(30.0, ceil_to(1.25 * d0, 5.0))
+        thick = (spec.plate_t,) if spec.plate_t else END_PLATE_T
+        gauges = (spec.gauge,) if spec.gauge else GAUGES
+    else:
+        e_1 = ceil_to(2.5 * d, 5.0)
+        e_2 = ceil_to(2.5 * d, 5.0)
+        thick = (spec.plate_t,) if spec.plate_t else FIN_PLATE_T
+        gauges = (0.0,)
+    top = ctx.web_top
+    n_lo = 1 if kind == "end plate" else 2
+    if spec.rows:
+        rows = [spec.rows]
+        note = f"{spec.rows} rows as specified"
+    else:
+        n_min = max(n_lo, math.ceil((0.6 * ctx.beam.h - 2.0 * e_1) / p_1 - 1e-9) + 1)
+        n_fit = math.floor((ctx.web_bottom - top - 2.0 * e_1) / p_1 + 1e-9) + 1
+        n_max = min(MAX_ROWS, max(n_min, n_fit))
+        rows = list(range(n_min, n_max + 1))
+        note = (f"rows tried {n_min} to {n_max} (fewer than {n_min} would make h_p < 0.6 h_b; more than "
+                f"{max(n_fit, n_min)} would not fit the web)")
+    out: list[Detail] = []
+    for n in rows:
+        for t in thick:
+            for g in gauges:
+                if kind == "end plate":
+                    s = spec.weld_leg or _weld_leg(full_strength_fillet(ctx.beam.tw, ctx.beam_grade,
+                                                                        grade_other=spec.plate_grade,
+                                                                        t_other=t, na=ctx.na).s_req)
+                    out.append(Detail(kind, bolt, n, p_1, e_1, e_2, t, spec.plate_grade, s, top, p_3=g))
+                else:
+                    ex_grade = None if ctx.existing_mat.historic else ctx.existing_mat.material.grade
+                    s = spec.weld_leg or _weld_leg(full_strength_fillet(t, spec.plate_grade, grade_other=ex_grade,
+                                                                        t_other=ctx.t_supp if ex_grade else None,
+                                                                        na=ctx.na).s_req)
+                    e_2b = ceil_to(2.0 * d, 5.0)
+                    out.append(Detail(kind, bolt, n, p_1, e_1, e_2, t, spec.plate_grade, s, top, gap=FIN_GAP,
+                                      e_2b=e_2b))
+    out.sort(key=lambda det: (round(det.mass_kg, 6), det.n_b, det.t_p))
+    return out, note
+
+
+def evaluate(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> tuple[list[CheckRecord], ExistingResult]:
+    """Every check of one detail: detailing, connection, notch, existing member."""
+    recs = detailing_checks(ctx, det, calc)
+    if det.kind == "end plate":
+        recs += end_plate_checks(ctx, det, V_Ed, calc)
+    else:
+        recs += fin_plate_checks(ctx, det, V_Ed, calc)
+    if ctx.notched:
+        lever = ctx.notch_length + (det.t_p if det.kind == "end plate" else det.gap)
+        recs += check_notch(ctx.beam, ctx.beam_mat.f_y, V_Ed, ctx.notch_depth, ctx.notch_length, lever, na=ctx.na,
+                            calc=calc)
+    ex = existing_checks(ctx, det, V_Ed, calc)
+    recs += list(ex.records)
+    return recs, ex
+
+
+def _label(det: Detail) -> str:
+    s = f"{det.n_1} rows, {det.t_p:g} mm plate"
+    if det.kind == "end plate":
+        s += f", gauge {det.p_3:g} mm"
+    return s
+
+
+def _validate(beam_section: Any, beam_grade: str, V_Ed: float, spec: Any, na: Any) -> tuple[float, str]:
+    if not isinstance(spec, SupportSpec):
+        raise InputError("spec", spec, "a SupportSpec from parse_support(table, index)")
+    for k in ("h", "b", "tw", "tf", "r", "Av_z", "d"):
+        if not hasattr(beam_section, k):
+            raise InputError("beam_section", beam_section, "a Section (splicecalc.sections.get_section)")
+    if not isinstance(na, NationalAnnex):
+        raise InputError("na", na, "a NationalAnnex (e.g. splicecalc.materials.UK_NA)")
+    try:
+        V = require_positive("V_Ed", V_Ed, "N")
+    except InputError:
+        raise InputError(f"{spec.field}.V_Ed", V_Ed, "a design reaction > 0 N",
+                         "A connection with no reaction cannot be designed: check the load case and the "
+                         "support position") from None
+    g = normalise_grade(beam_grade)
+    if spec.notched:
+        lim = beam_section.h - beam_section.tf - beam_section.r
+        if spec.notch_depth >= lim:
+            raise InputError(f"{spec.field}.notch_top", spec.notch_depth,
+                             f"a notch depth less than h - t_f - r = {lim:g} mm of the beam (and normally "
+                             f"at most h/2 = {beam_section.h / 2:g} mm)")
+    return V, g
+
+
+def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec: SupportSpec,
+                          na: NationalAnnex = UK_NA, render: bool = False) -> ConnectionDesign:
+    """Design one end connection (partial-depth end plate or fin plate) of the new beam.
+
+    ``beam_section``: Section of the new beam; ``beam_grade``: e.g. "S355"; ``V_Ed``: design
+    reaction (N, > 0); ``spec``: from :func:`~.spec.parse_support`. Returns the chosen detail
+    with every CheckRecord (each citing its clause), the existing-member result and the caution.
+    ``render=True`` renders the chosen detail's checks with handcalcs.
+    """
+    V, grade = _validate(beam_section, beam_grade, V_Ed, spec, na)
+    bolt = get_bolt(spec.bolt_size, spec.bolt_class)
+    mat = existing_material(spec.existing_member, spec.existing_face, spec.existing_steel)
+    ctx = Context(beam=beam_section, beam_grade=grade, beam_mat=steel(grade, beam_section.tf),
+                  existing=spec.existing_member, face=spec.existing_face, existing_mat=mat, na=na,
+                  tie=spec.tying_force, notch_depth=spec.notch_depth, notch_length=spec.notch_length)
+    cands, row_note = _candidates(ctx, spec, bolt)
+    rejected: list[str] = []
+    chosen = None
+    best = None
+    for det in cands:
+        recs, _ = evaluate(ctx, det, V, Calc())
+        worst = max(recs, key=lambda r: r.utilisation)
+        if best is None or worst.utilisation < best[1]:
+            best = (det, worst.utilisation)
+        if worst.ok:
+            chosen = det
+            break
+        rejected.append(f"{_label(det)}: fails '{worst.title}' (u = {worst.utilisation:.2f})")
+    auto = [k for k, v in (("rows", spec.rows), ("plate thickness", spec.plate_t), ("weld leg", spec.weld_leg))
+            if v is None]
+    if spec.connection == "end plate" and spec.gauge is None:
+        auto.append("gauge")
+    if chosen is not None:
+        head = f"Chosen: {_label(chosen)}, {chosen.weld_leg:g} mm welds ({chosen.mass_kg:.1f} kg plate)"
+        head += (", the lightest candidate that passes every check" if auto else ", as specified")
+    else:
+        chosen = best[0]
+        head = (f"NO candidate passes every check; shown: {_label(chosen)} (lowest governing utilisation "
+                f"{best[1]:.2f}). Change the connection type, bolt size, plate grade or the existing-member "
+                "assumptions")
+    parts = [head + "."]
+    if auto:
+        parts.append("Chosen automatically: " + ", ".join(auto) + f"; {row_note}; weld leg = smallest standard "
+                     "leg giving a full-strength weld (EN 1993-1-8 4.5.3.2).")
+    if rejected:
+        shown = rejected[:8]
+        more = f" (and {len(rejected) - 8} more)" if len(rejected) > 8 else ""
+        parts.append("Lighter options rejected: " + "; ".join(shown) + more + ".")
+    calc = Calc(render=render)
+    recs, ex = evaluate(ctx, chosen, V, calc)
+    warnings = []
+    if spec.connection == "fin plate":
+        warnings.append("The fin plate is WELDED to the existing member: confirm the weldability of the existing "
+                        "steel before specifying it (or use a bolted end plate).")
+    if mat.historic:
+        warnings.append(f"Existing steel strength from the era band {mat.label} (f_y = {mat.f_y:g} MPa, "
+                        f"f_u = {mat.f_u:g} MPa): values from memory of published appraisal guidance; verify.")
+    if spec.existing_face == "column web" and spec.connection == "end plate":
+        warnings.append("Supporting column web: yield lines of the web under the tying force are not checked.")
+    if spec.existing_face != "column flange" and spec.connection == "fin plate":
+        warnings.append("Supporting web under the tying force (fin plate pulling the web) is not checked.")
+    return ConnectionDesign(spec=spec, detail=chosen, V_Ed=V, records=tuple(recs), existing=ex,
+                            choice=" ".join(parts), warnings=tuple(warnings), beam=beam_section)
+
+
+__all__ = ["ConnectionDesign", "design_end_connection", "evaluate", "WELD_LEGS"]
