@@ -198,11 +198,17 @@ def is_protected(pdf: str | Path) -> bool:
 
 def write_sidecar(pdf: str | Path, nb: Any, notebook_path: str | Path | None, issued: bool = False) -> dict:
     """Record the PDF's hash and the sign-off state it was built with."""
+    import hashlib
+
+    from .digest import canonical_json, job_inputs
+
     st = status_of(nb)
     meta = ledger_of(nb)
+    job = job_inputs(nb)
     data = {
         "pdf_sha256": file_sha256(pdf),
         "digest": st.current_digest,
+        "job_sha256": hashlib.sha256(canonical_json(job).encode("utf-8")).hexdigest() if job else None,
         "status": st.label,
         "signatures": meta["signatures"],
         "revisions": meta["revisions"],
