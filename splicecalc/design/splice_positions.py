@@ -1,0 +1,312 @@
+"""Where the beam is cut: splice positions on a simply supported span (plain-float path).
+
+Inputs are the design envelopes ``|M|(x)`` and ``|V|(x)`` (governing ULS
+combination at each x), the resistances ``M_c,Rd`` and ``V_c,Rd`` used to
+normalise them, and the places splices must keep clear of (supports, point
+loads, restraints) by ``spec.clearance``.
+
+Positions come from (in this order of precedence):
+
+* ``spec.positions`` - explicit, checked as given (failing CheckRecords for a
+  splice inside a clearance or a piece over a limit);
+* ``spec.pieces`` - that many pieces, positions optimised; without an access
+  limit no piece may exceed ``PIECES_SLACK`` (1.25) x L / n, so "3 pieces" keeps
+  pieces of about equal handling length;
+* ``spec.max_piece_length`` / ``spec.max_piece_mass`` - the fewest pieces that
+  meet the access limits, positions optimised.
+
+Optimisation: minimise the worst splice demand
+``D(x) = |M(x)|/M_c,Rd + |V(x)|/V_c,Rd`` over a grid of candidate cuts
+(dynamic programming, minimax with the sum as a tie-break), subject to
+``L_min <= piece length <= L_max`` and the clearances. The piece mass is
+``m' L`` plus, for every splice at its ends, the full mass of the splice plates
+and bolts (conservative: either piece may be lifted with the splice kit bolted
+on). ``L_min`` is the splice zone: no piece may be shorter than one cover
+plate length plus twice the clearance zone kept by the splice itself.
+The result is compared with equal-length cutting.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from typing import Callable, Sequence
+
+import numpy as np
+
+from ..core.errors import InputError, require_non_negative, require_positive
+from ..core.record import Calc, CheckRecord
+
+_CL = "EN 1993-1-8:2005, 2.5(1)"
+#: with ``pieces = n`` and no access limit, no piece may be longer than this factor x L / n
+PIECES_SLACK = 1.25
+
+
+@dataclass(frozen=True)
+class SplicePoint:
+    """One splice: position (mm), forces from the governing combination (N, N*mm)."""
+
+    x: float
+    M_Ed: float
+    V_Ed: float
+    N_Ed: float
+    demand: float
+    combination: str = ""
+
+
+@dataclass(frozen=True)
+class SplicePositions:
+    """Chosen positions with their forces, piece lengths/masses and the equal-length comparison."""
+
+    splices: tuple[SplicePoint, ...]
+    pieces_mm: tuple[float, ...]
+    piece_mass_kg: tuple[float, ...]
+    worst_demand: float
+    equal_positions: tuple[float, ...]
+    equal_worst_demand: float
+    equal_feasible: bool
+    method: str
+    records: tuple[CheckRecord, ...] = field(default_factory=tuple)
+
+    @property
+    def positions(self) -> tuple[float, ...]:
+        return tuple(s.x for s in self.splices)
+
+    def to_dict(self) -> dict:
+        """JSON-ready summary; keys carry units."""
+        return {
+            "method": self.method,
+            "splices": [{"x_m": round(s.x / 1000, 4), "M_Ed_kNm": s.M_Ed / 1e6, "V_Ed_kN": s.V_Ed / 1e3,
+                         "N_Ed_kN": s.N_Ed / 1e3, "demand": round(s.demand, 4), "combination": s.combination}
+                        for s in self.splices],
+            "pieces_m": [round(p / 1000, 4) for p in self.pieces_mm],
+            "piece_mass_kg": [round(m, 1) for m in self.piece_mass_kg],
+            "worst_demand": round(self.worst_demand, 4),
+            "equal_length": {"x_m": [round(x / 1000, 4) for x in self.equal_positions],
+                             "worst_demand": round(self.equal_worst_demand, 4),
+                             "clear_of_supports_loads_restraints": self.equal_feasible},
+            "checks": [r.to_dict() for r in self.records],
+        }
+
+
+def _piece_masses(xs: Sequence[float], L: float, m_per_mm: float, m_splice: float) -> list[float]:
+    cuts = [0.0, *xs, L]
+    n = len(cuts) - 1
+    out = []
+    for i in range(n):
+        ends = (1 if i > 0 else 0) + (1 if i < n - 1 else 0)
+        out.append((cuts[i + 1] - cuts[i]) * m_per_mm + ends * m_splice)
+    return out
+
+
+def envelope(beams: Sequence, names: Sequence[str] | None = None,
+             N_Ed: Sequence[float] | float = 0.0) -> tuple[Callable, Callable, Callable]:
+    """Envelope callables from per-combination beams (objects with ``M(x)`` and ``V(x)``).
+
+    Returns ``(M_abs(x), V_abs(x), at(x) -> (M, V, N, name))``: the envelopes of
+    |M| and |V| over the combinations, and the forces of the combination that
+    governs |M| at x (ties: the larger |V|).
+    """
+    beams = list(beams)
+    if not beams:
+        raise InputError("beams", beams, "at least one analysed combination")
+    names = list(names) if names is not None else [f"combination {i + 1}" for i in range(len(beams))]
+    Ns = [float(N_Ed)] * len(beams) if isinstance(N_Ed, (int, float)) else [float(v) for v in N_Ed]
+
+    def M_abs(x):
+        return np.max(np.abs(np.vstack([np.atleast_1d(b.M(x)) for b in beams])), axis=0)
+
+    def V_abs(x):
+        return np.max(np.abs(np.vstack([np.atleast_1d(np.maximum(np.abs(b.V(x, "left")), np.abs(b.V(x, "right"))))
+                                        for b in beams])), axis=0)
+
+    def at(x: float):
+        best = None
+        for b, nm, n in zip(beams, names, Ns):
+            M = float(b.M(x))
+            V = max(abs(float(b.V(x, "left"))), abs(float(b.V(x, "right"))))
+            key = (abs(M), V)
+            if best is None or key > best[0]:
+                best = (key, (M, V, n, nm))
+        return best[1]
+
+    return M_abs, V_abs, at
+
+
+def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Callable, M_c_Rd: float,
+                            V_c_Rd: float, mass_per_m: float, avoid: Sequence[float] = (),
+                            at: Callable | None = None, splice_mass_kg: float = 0.0,
+                            splice_zone_mm: float = 600.0, grid_mm: float = 25.0,
+                            max_pieces: int = 20) -> SplicePositions:
+    """Choose splice positions on a span (see the module docstring).
+
+    span_mm: span (mm); M_abs, V_abs: envelope callables of x (mm) -> N*mm, N
+    (vectorised); M_c_Rd (N*mm), V_c_Rd (N) normalise the demand; mass_per_m:
+    beam mass (kg/m); avoid: x (mm) of point loads and restraints (supports at
+    0 and L are always added); at(x) -> (M, V, N, name) gives the governing
+    combination's forces at a splice (default: the envelopes with N = 0);
+    splice_mass_kg: plates + bolts of one splice; splice_zone_mm: shortest
+    piece allowed (about one cover-plate length).
+    """
+    L = require_positive("span_mm", span_mm, "mm")
+    require_positive("M_c_Rd", M_c_Rd, "Nmm")
+    require_positive("V_c_Rd", V_c_Rd, "N")
+    m_mm = require_positive("mass_per_m", mass_per_m, "kg/m") / 1000.0
+    m_sp = require_non_negative("splice_mass_kg", splice_mass_kg, "kg")
+    zone = require_positive("splice_zone_mm", splice_zone_mm, "mm")
+    clr = float(spec.clearance)
+    pts = sorted({0.0, L, *[require_non_negative("avoid", a, "mm") for a in avoid]})
+    if any(a > L for a in pts):
+        raise InputError("avoid", list(avoid), f"positions within the span 0 .. {L:g} mm")
+    at = at or (lambda x: (float(M_abs(np.array([x]))[0]), float(V_abs(np.array([x]))[0]), 0.0, "envelope"))
+
+    def demand(x):
+        x = np.atleast_1d(np.asarray(x, dtype=float))
+        return np.asarray(M_abs(x), float) / M_c_Rd + np.asarray(V_abs(x), float) / V_c_Rd
+
+    def clear_dist(x: float) -> float:
+        return min(abs(x - p) for p in pts)
+
+    L_max_len = spec.max_piece_length if spec.max_piece_length else math.inf
+    if spec.pieces and not spec.max_piece_length and not spec.max_piece_mass and spec.pieces > 1:
+        L_max_len = PIECES_SLACK * L / spec.pieces     # "n pieces" = pieces of about equal handling length
+
+    def finish(xs: list[float], method: str, records: list[CheckRecord]) -> SplicePositions:
+        xs = [float(x) for x in xs]
+        cuts = [0.0, *xs, L]
+        lengths = tuple(b - a for a, b in zip(cuts, cuts[1:]))
+        masses = tuple(_piece_masses(xs, L, m_mm, m_sp))
+        sps = []
+        for x in xs:
+            M, V, N, nm = at(x)
+            sps.append(SplicePoint(x=x, M_Ed=M, V_Ed=V, N_Ed=N, demand=float(demand(x)[0]), combination=nm))
+        n = len(xs) + 1
+        eq = [L * i / n for i in range(1, n)]
+        eq_d = float(np.max(demand(eq))) if eq else 0.0
+        eq_ok = all(clear_dist(x) >= clr for x in eq)
+        recs = list(records) + _records(xs, lengths, masses, clr, clear_dist, spec, zone)
+        return SplicePositions(splices=tuple(sps), pieces_mm=lengths, piece_mass_kg=masses,
+                               worst_demand=max((s.demand for s in sps), default=0.0), equal_positions=tuple(eq),
+                               equal_worst_demand=eq_d, equal_feasible=eq_ok, method=method, records=tuple(recs))
+
+    # ---------------------------------------------------------------- explicit
+    if spec.positions:
+        xs = list(spec.positions)
+        if xs[-1] >= L:
+            raise InputError("splices.positions", [f"{x / 1000:g} m" for x in xs],
+                             f"positions inside the span (0 < x < {L / 1000:g} m)")
+        return finish(xs, "explicit positions (checked as given)", [])
+
+    # ----------------------------------------------------- number of pieces
+    if spec.pieces:
+        n_list = [spec.pieces]
+    else:
+        n_lo = 1
+        if spec.max_piece_length:
+            n_lo = max(n_lo, math.ceil(L / spec.max_piece_length - 1e-9))
+        if spec.max_piece_mass:
+            n_lo = max(n_lo, math.ceil(L * m_mm / spec.max_piece_mass - 1e-9))
+        n_list = list(range(n_lo, max_pieces + 1))
+    for n in n_list:
+        if n == 1:
+            ok_len = L <= L_max_len
+            ok_mass = (not spec.max_piece_mass) or L * m_mm <= spec.max_piece_mass
+            if ok_len and ok_mass:
+                return finish([], "one piece (no splice needed)", [])
+            continue
+        xs = _optimise(L, n, demand, pts, clr, zone, L_max_len, spec.max_piece_mass, m_mm, m_sp, grid_mm)
+        if xs is not None:
+            how = f"{n} pieces, positions minimising the worst splice demand |M|/M_c,Rd + |V|/V_c,Rd"
+            return finish(xs, how, [])
+    lim = []
+    if spec.max_piece_length:
+        lim.append(f"max_piece_length = {spec.max_piece_length / 1000:g} m")
+    if spec.max_piece_mass:
+        lim.append(f"max_piece_mass = {spec.max_piece_mass:g} kg")
+    what = (f"pieces = {spec.pieces}" if spec.pieces else " and ".join(lim))
+    raise InputError("splices", what,
+                     f"limits that can be met on a {L / 1000:g} m span with splices at least {clr:g} mm clear of "
+                     f"supports, point loads and restraints at {[round(p) for p in pts]} mm and pieces no shorter "
+                     f"than the splice zone {zone:g} mm (beam {m_mm * 1000:.1f} kg/m, splice kit {m_sp:.0f} kg)",
+                     "Relax the piece limits, reduce the clearance, or give explicit positions.")
+
+
+def _optimise(L, n, demand, pts, clr, zone, L_max_len, m_max, m_mm, m_sp, grid):
+    """Minimax DP over grid cuts; returns positions or None when infeasible."""
+    G = max(int(math.ceil(L / grid)), 4 * n)
+    xg = np.linspace(0.0, L, G + 1)
+    ok = np.ones_like(xg, dtype=bool)
+    for p in pts:
+        ok &= np.abs(xg - p) >= clr - 1e-9
+    # refine: add the exact clearance boundaries as candidates
+    extra = [p + s * clr for p in pts for s in (-1.0, 1.0) if 0.0 < p + s * clr < L]
+    xc = np.unique(np.concatenate([xg[ok], np.array(extra, dtype=float)]))
+    xc = xc[(xc > 0.0) & (xc < L)]
+    if xc.size == 0:
+        return None
+    dist = np.min(np.abs(xc[:, None] - np.array(pts)[None, :]), axis=1)
+    xc = xc[dist >= clr - 1e-6]
+    if xc.size < n - 1:
+        return None
+    d = demand(xc)
+    K = xc.size
+
+    def lmax(ends: int) -> float:
+        lm = L_max_len
+        if m_max:
+            lm = min(lm, (m_max - ends * m_sp) / m_mm)
+        return lm
+
+    # first piece: 0 -> xc[j]
+    INF = math.inf
+    lm1 = lmax(1)
+    val = np.where((xc >= zone) & (xc <= lm1 + 1e-9), d, INF)
+    tot = np.where(np.isfinite(val), d, INF)
+    back = []
+    lm2 = lmax(2)
+    eps = 1e-6
+    for _ in range(n - 2):
+        span = xc[None, :] - xc[:, None]            # i -> j
+        feas = (span >= zone) & (span <= lm2 + 1e-9) & np.isfinite(val)[:, None]
+        cand = np.where(feas, np.maximum(val[:, None], d[None, :]) + eps * (tot[:, None] + d[None, :]), INF)
+        i_best = np.argmin(cand, axis=0)
+        best = cand[i_best, np.arange(K)]
+        new_val = np.where(np.isfinite(best), np.maximum(val[i_best], d), INF)
+        new_tot = np.where(np.isfinite(best), tot[i_best] + d, INF)
+        back.append(i_best)
+        val, tot = new_val, new_tot
+    lm_last = lmax(1)
+    last_len = L - xc
+    feas = (last_len >= zone) & (last_len <= lm_last + 1e-9) & np.isfinite(val)
+    if not feas.any():
+        return None
+    score = np.where(feas, val + eps * tot, INF)
+    j = int(np.argmin(score))
+    xs = [float(xc[j])]
+    for b in reversed(back):
+        j = int(b[j])
+        xs.append(float(xc[j]))
+    return sorted(xs)
+
+
+def _records(xs, lengths, masses, clr, clear_dist, spec, zone) -> list[CheckRecord]:
+    recs = []
+    calc = Calc()
+    for k, x in enumerate(xs):
+        recs.append(calc.record(id=f"splice{k + 1}_clearance", title=f"Splice {k + 1} clear of supports, loads, restraints",
+                                clause=_CL, demand=clr, resistance=clear_dist(x), unit="mm", location_mm=x,
+                                note="distance to the nearest support, point load or restraint >= clearance"))
+    for k, (Lp, mp) in enumerate(zip(lengths, masses)):
+        if spec.max_piece_length:
+            recs.append(calc.record(id=f"piece{k + 1}_length", title=f"Piece {k + 1} length (access limit)",
+                                    clause=_CL, demand=Lp, resistance=spec.max_piece_length, unit="mm"))
+        if spec.max_piece_mass:
+            recs.append(calc.record(id=f"piece{k + 1}_mass", title=f"Piece {k + 1} mass incl. splice kit (access limit)",
+                                    clause=_CL, demand=mp, resistance=spec.max_piece_mass, unit="kg"))
+        if len(lengths) > 1:
+            recs.append(calc.record(id=f"piece{k + 1}_min_length", title=f"Piece {k + 1} longer than the splice zone",
+                                    clause=_CL, demand=zone, resistance=Lp, unit="mm"))
+    return recs
+
+
+__all__ = ["SplicePoint", "SplicePositions", "choose_splice_positions", "envelope"]

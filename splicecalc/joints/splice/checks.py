@@ -1,0 +1,504 @@
+"""EN 1993-1-8 checks of a bolted cover-plate beam splice (plain floats N, mm, MPa, N*mm).
+
+Every check is a :class:`~splicecalc.core.record.CheckRecord` with its clause. The
+formulas are the fastener owner's (:mod:`splicecalc.joints.bolts`, ``plates``,
+``spacing``) and the member owner's (:mod:`splicecalc.members`); the only
+splice-specific formula here is the bearing interaction of a web bolt loaded in
+two directions, :func:`U_b_xz`.
+
+Methods (stated on the calc sheet):
+
+* Flange bolt group (concentric, force ``F_f``): shear per bolt ``F_f/n`` over 1
+  (outer plate) or 2 (outer + inner) shear planes, with beta_Lf (3.8, L_j =
+  (rows - 1) p1) and beta_p (3.6.1(12), flange packing). Bearing per bolt and per
+  ply with k1 and alpha_b by position (end / inner row, edge / inner line; the
+  end row of the beam flange is the one nearest the beam end, of a plate the
+  one nearest the plate end), force per ply split by area between the outer and
+  inner plates; group resistance by 3.7(1) with each bolt's resistance the least
+  of its plies. Rows = 1 with outer plates only: single-lap cap 3.6.1(10).
+* Web bolt group: elastic polar forces (see :mod:`.forces`); shear per bolt
+  over 2 planes; bearing on the beam web and on the two web plates checked per
+  direction with ``(F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2 <= 1``, each F_b,Rd from
+  Table 3.4 with e1/p1 taken in that direction and k1 from the distances across it.
+  In the beam web the top and bottom rows take as "end distance" the distance to
+  the flange face (conservative: the web is not free there); every bolt is taken
+  as an end bolt towards the nearest free edge whatever the sign of its force.
+* Slip: category B with serviceability forces and gamma_M3,ser, category C with
+  ULS forces and gamma_M3 (3.4.1, 3.9); bearing at ULS is checked for all
+  categories, category C adds the net section at f_y (EN 1993-1-1 6.2.3(4)).
+* Table 3.3 minima for every ply; maxima p <= min(14 t, 200 mm) (compression
+  flange and web, either flange may be in compression under reversal) and
+  4 t + 40 mm edges when ``exposed``.
+* Plates: tension gross/net (6.2.3), block tearing (3.10.2), compression with
+  buckling between fasteners over max(p1, gap + 2 e1) (the plate strip across
+  the joint is the longest unsupported length); web plates: shear gross/net,
+  block tearing (eccentric, Eq. 3.10), in-plane bending at the first bolt column.
+* Beam at the splice: bending with tension-flange holes (EN 1993-1-1 6.2.5(4)),
+  web net shear (6.2.6(7)), shear, beam-web block tearing under axial tension.
+
+A layout that does not fit yields failing detailing records (never an exception):
+dependent checks whose inputs are then meaningless report "not checked" as failures.
+"""
+
+from __future__ import annotations
+
+import math
+from typing import Callable
+
+from ...core.clause import clause
+from ...core.errors import InputError
+from ...core.record import Calc, CheckRecord
+from ...core.units import convert
+from ...materials.partial_factors import NationalAnnex
+from ...materials.steel import steel
+from .. import bolts as B
+from .. import plates as P
+from .. import spacing as S
+from ...members.en1993_1_1 import rho_V
+from .geometry import Geometry
+
+CL_DETAIL = "EN 1993-1-8:2005, 3.5(1)"
+CL_BEAR = "EN 1993-1-8:2005, 3.6.1, Table 3.4"
+
+
+@clause(CL_BEAR, units={"F_x_Ed": "N", "F_b_x_Rd": "N", "F_z_Ed": "N", "F_b_z_Rd": "N"}, returns="",
+        example=dict(F_x_Ed=60e3, F_b_x_Rd=100e3, F_z_Ed=30e3, F_b_z_Rd=90e3))
+def U_b_xz(F_x_Ed: float, F_b_x_Rd: float, F_z_Ed: float, F_b_z_Rd: float) -> float:
+    """Bearing of a bolt loaded in two directions: (F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2 <= 1.
+
+    Each F_b,Rd is Table 3.4 with e_1/p_1 in that direction (splice method, stated)."""
+    U_b = (F_x_Ed / F_b_x_Rd) ** 2 + (F_z_Ed / F_b_z_Rd) ** 2
+    return U_b
+
+
+@clause("EN 1993-1-1:2005, 6.2.5(5)", units={"t": "mm", "h": "mm", "d_0": "mm", "p": "mm"}, returns="mm3",
+        example=dict(t=10.0, h=280.0, n_r=4, d_0=22.0, p=70.0))
+def W_el_net_plate(t: float, h: float, n_r: int, d_0: float, p: float) -> float:
+    """Elastic modulus of a plate t x h bent in its plane, net of one column of n_r holes d_0
+    at pitch p symmetric about mid-depth (mm3): I_net = t h^3/12 - t d_0 p^2 n_r (n_r^2 - 1)/12
+    - n_r t d_0^3/12, W = I_net / (h/2)."""
+    I_net = t * h ** 3 / 12 - t * d_0 * p ** 2 * n_r * (n_r ** 2 - 1) / 12 - n_r * t * d_0 ** 3 / 12
+    W_el_net = I_net / (h / 2)
+    return W_el_net
+
+
+@clause("EN 1993-1-1:2005, 6.2.8(3)", units={"W": "mm3", "f_y": "MPa"}, returns="Nmm",
+        example=dict(rho=0.1, W=100e3, f_y=355.0, gamma_M0=1.0))
+def M_V_Rd_plate(rho: float, W: float, f_y: float, gamma_M0: float) -> float:
+    """Bending resistance of a rectangular plate (all shear area) with the yield strength
+    reduced to (1 - rho) f_y for coexisting shear, 6.2.8(3) (N*mm)."""
+    M_V_Rd = (1 - rho) * W * f_y / gamma_M0
+    return M_V_Rd
+
+
+def _fail(id: str, title: str, clause_: str, err: Exception, location_mm=None) -> CheckRecord:
+    """A failing record for a check that cannot be made (layout does not fit)."""
+    return CheckRecord(id=id, title=title, clause=clause_, demand=1.0, resistance=0.0, unit="",
+                       utilisation=math.inf, ok=False, location_mm=location_mm,
+                       note=f"not checked: {err}")
+
+
+def _safe(out: list, fn: Callable, *, fid: str, ftitle: str, fclause: str, **kw):
+    """Run a check; append its record(s); turn InputError (unfit geometry) into a failing record."""
+    try:
+        r = fn(**kw)
+    except (InputError, ZeroDivisionError, ValueError) as e:
+        out.append(_fail(fid, ftitle, fclause, e, kw.get("location_mm")))
+        return None
+    if isinstance(r, list):
+        out.extend(r)
+    else:
+        out.append(r)
+    return r
+
+
+def _kN(rec: CheckRecord) -> float:
+    """Resistance of a record in N (records hold report units)."""
+    return convert(rec.resistance, "kN", "N") if rec.unit == "kN" else rec.resistance
+
+
+def _fb(bolt, t, fu, e1, p1, e2, p2, gM2, hole, calc=None) -> float:
+    """Table 3.4 bearing of one bolt position; non-positive distances -> 0 (does not fit)."""
+    for v in (e1, p1, e2, p2):
+        if v is not None and v <= 0.0:
+            return 0.0
+    if e1 is None and p1 is None:
+        e1 = 1e6
+    try:
+        return max(B.bearing_resistance(bolt, t, fu, e1, e2, p1, p2, hole=hole, gamma_M2=gM2, calc=calc), 0.0)
+    except InputError:          # below the Table 3.3 minima: reported by the spacing records
+        return 0.0
+
+
+def _record(calc: Calc, **kw) -> CheckRecord:
+    return calc.record(**kw)
+
+
+# ======================================================================== detailing
+def detailing_records(section, bolt, g: Geometry, spec, loc=None) -> list[CheckRecord]:
+    """Fit of the layout: bolt lines in the flange width, clear of the root radius, web plates
+    between the fillets, inner plates beside the root; every dimension positive."""
+    c = Calc()
+    d0 = bolt.d_0
+    emin = S.e_min(d_0=d0)
+    out = [
+        _record(c, id="fit_flange_width", title="Flange bolt lines fit the flange width", clause=CL_DETAIL,
+                demand=g.g_f + 2 * g.p2o_f + 2 * emin, resistance=section.b, unit="mm", location_mm=loc,
+                note="gauge + 2 gauge_outer + 2 x 1.2 d0 <= b"),
+        _record(c, id="fit_flange_root", title="Flange bolts clear of the root radius", clause=CL_DETAIL,
+                demand=g.washer_clear_gauge, resistance=g.g_f, unit="mm", location_mm=loc,
+                note=f"gauge >= t_w + 2 r + washer OD ({bolt.washer_od:g} mm): washer and nut clear of the fillet"),
+        _record(c, id="fit_web_depth", title="Web plates fit between the root fillets", clause=CL_DETAIL,
+                demand=g.h_wp, resistance=g.d_web, unit="mm", location_mm=loc,
+                note="h_wp = (rows - 1) p + 2 e_v <= d = h - 2 t_f - 2 r"),
+        _record(c, id="fit_web_washer", title="Web bolts: washer clear of the flange fillet", clause=CL_DETAIL,
+                demand=bolt.washer_od / 2, resistance=g.e_v + (g.d_web - g.h_wp) / 2, unit="mm", location_mm=loc),
+    ]
+    if g.t_pi > 0.0:
+        out.append(_record(c, id="fit_inner_plate", title="Inner flange plates fit beside the root radius",
+                           clause=CL_DETAIL, demand=emin, resistance=min(g.e2_pi_in, g.e2_pi_out), unit="mm",
+                           location_mm=loc, note=f"inner plates {g.b_pi:g} mm wide, 5 mm clear of the root radius"))
+    return out
+
+
+# ======================================================================== flange group
+def flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na: NationalAnnex, calc: Calc,
+                   F_f_ser: float | None = None, loc=None, fast: bool = False) -> list[CheckRecord]:
+    """Flange bolts, flange cover plates and the beam flange for the flange force F_f (N).
+
+    ``fast``: return as soon as a group of checks fails (layout search)."""
+    out: list[CheckRecord] = []
+    fy_b, fu_b = steel(grade, section.tf).f_y, steel(grade, section.tf).f_u
+    pg = spec.plate_grade
+    fu_o = steel(pg, g.t_po).f_u
+    inner = g.t_pi > 0.0
+    fu_i = steel(pg, g.t_pi).f_u if inner else 0.0
+    d0 = bolt.d_0
+    n = g.n_f
+    rows = n // (2 if g.p2o_f == 0 else 4)
+    cols = 2 if g.p2o_f == 0 else 4
+    hole = spec.holes
+    gM2 = na.gamma_M2
+    F_b = F_f / n
+    n_s = 2 if inner else 1
+    L_j = (rows - 1) * g.p1_f
+    # -- shear
+    rs = _safe(out, B.check_bolt_shear, fid="flange_bolt_shear", ftitle="Flange bolts: shear", fclause=CL_BEAR,
+               bolt=bolt, F_v_Ed=F_b, n_s=n_s, threads_in_shear_plane=spec.threads_in_shear_plane, L_j=L_j,
+               t_pack=spec.packing, na=na, calc=calc, id="flange_bolt_shear", title="Flange bolts: shear",
+               location_mm=loc)
+    F_v = _kN(rs) if rs is not None else 0.0
+    # -- bearing per bolt and ply
+    p1 = g.p1_f if rows > 1 else None
+    if cols == 2:
+        lines_b = [(g.e2_bf, g.g_f)] * 2
+        lines_o = [(g.e2_po, g.g_f)] * 2
+        lines_i = [(min(g.e2_pi_in, g.e2_pi_out), None)] * 2
+    else:
+        p2i = min(g.g_f, g.p2o_f)
+        lines_b = [(g.e2_bf, g.p2o_f), (None, p2i), (None, p2i), (g.e2_bf, g.p2o_f)]
+        lines_o = [(g.e2_po, g.p2o_f), (None, p2i), (None, p2i), (g.e2_po, g.p2o_f)]
+        lines_i = [(g.e2_pi_out, g.p2o_f), (g.e2_pi_in, g.p2o_f), (g.e2_pi_in, g.p2o_f), (g.e2_pi_out, g.p2o_f)]
+    share_o = g.share_o
+    share_i = 1.0 - share_o
+    lap = (rows == 1 and not inner)
+    per_bolt: list[float] = []
+    worst = {"beam flange": math.inf, "outer plate": math.inf, "inner plates": math.inf}
+    cache: dict = {}
+
+    def fb(key, t, fu, e1, pp1, e2, p2):
+        k = (key, e1, pp1, e2, p2)
+        if k not in cache:
+            v = _fb(bolt, t, fu, e1, pp1, e2, p2, gM2, hole)
+            if lap:
+                v = min(v, B.F_b_Rd_lap(f_u=fu, d=bolt.d, t=t, gamma_M2=gM2))
+            cache[k] = v
+        return cache[k]
+
+    for i in range(rows):                      # i = 0 nearest the joint
+        beam_end = i == 0
+        plate_end = i == rows - 1
+        for j in range(cols):
+            e2b, p2b = lines_b[j]
+            v_b = fb("b", section.tf, fu_b, g.e1_f if beam_end else None, None if beam_end else p1, e2b, p2b)
+            e2o, p2o = lines_o[j]
+            v_o = fb("o", g.t_po, fu_o, g.e1_f if plate_end else None, None if plate_end else p1, e2o, p2o)
+            worst["beam flange"] = min(worst["beam flange"], v_b)
+            worst["outer plate"] = min(worst["outer plate"], v_o / share_o)
+            v = min(v_b, v_o / share_o)
+            if inner:
+                e2i, p2ii = lines_i[j]
+                v_i = fb("i", g.t_pi, fu_i, g.e1_f if plate_end else None, None if plate_end else p1, e2i, p2ii)
+                worst["inner plates"] = min(worst["inner plates"], v_i / share_i)
+                v = min(v, v_i / share_i)
+            per_bolt.append(v)
+    gov = min((k for k in worst if math.isfinite(worst[k])), key=lambda k: worst[k])
+    if calc.render:
+        calc.note(f"Bearing, governing ply: {gov} (force per bolt divided by the ply's share of the flange force)")
+        e2b, p2b = lines_b[0]
+        calc.note("Beam flange, end bolt (row at the beam end, edge line), Table 3.4:")
+        _fb(bolt, section.tf, fu_b, g.e1_f, None, e2b, p2b, gM2, hole, calc=calc)
+        e2o, p2o_ = lines_o[0]
+        calc.note("Outer plate, end bolt (row at the plate end, edge line), Table 3.4:")
+        _fb(bolt, g.t_po, fu_o, g.e1_f, None, e2o, p2o_, gM2, hole, calc=calc)
+    if F_v > 0.0 and min(per_bolt) > 0.0:
+        _safe(out, B.check_bolt_group, fid="flange_bolt_group", ftitle="Flange bolt group: bearing and shear (3.7)",
+              fclause="EN 1993-1-8:2005, 3.7(1)", F_Ed=F_f, F_v_Rd_each=F_v, F_b_Rd_each=per_bolt, calc=calc,
+              id="flange_bolt_group", title=f"Flange bolt group: bearing and shear (3.7), governing ply {gov}",
+              location_mm=loc)
+    else:
+        out.append(_fail("flange_bolt_group", "Flange bolt group: bearing and shear (3.7)", "EN 1993-1-8:2005, 3.7(1)",
+                         InputError("flange layout", "edge or end distance <= 0", "a layout that fits"), loc))
+    if fast and not all(r.ok for r in out):
+        return out
+    # -- slip
+    if spec.category in ("B", "C"):
+        Fs = F_b if spec.category == "C" else (F_f_ser if F_f_ser is not None else F_f) / n
+        _safe(out, B.check_slip, fid="flange_bolt_slip", ftitle="Flange bolts: slip", fclause="EN 1993-1-8:2005, 3.9.1, Eq. 3.6",
+              bolt=bolt, F_v_Ed=Fs, category=spec.category, n=n_s, surface_class=spec.friction_class, hole=hole,
+              na=na, calc=calc, id="flange_bolt_slip", location_mm=loc)
+    # -- spacing, Table 3.3
+    t_out = min(g.t_po, g.t_pi) if inner else min(g.t_po, section.tf)
+    p2 = g.g_f if cols == 2 else min(g.g_f, g.p2o_f)
+    for where, e2 in (("outer flange plate", g.e2_po), ("beam flange", g.e2_bf)) + (
+            (("inner flange plates", min(g.e2_pi_in, g.e2_pi_out)),) if inner else ()):
+        _safe(out, S.check_spacing, fid="flange_spacing", ftitle=f"Flange bolts spacing, {where}",
+              fclause="EN 1993-1-8:2005, 3.5, Table 3.3", d_0=d0, t=t_out, e_1=g.e1_f, e_2=e2, p_1=p1,
+              p_2=p2 if where != "inner flange plates" or cols == 4 else None, exposed=spec.exposed,
+              compression=True, calc=calc, id="flange_spacing_" + where.split()[0], where=f"Flange, {where}",
+              location_mm=loc)
+    # -- plates in tension
+    F_o = F_f * share_o
+    _safe(out, P.check_plate_tension, fid="outer_plate_tension", ftitle="Outer flange plate: tension",
+          fclause="EN 1993-1-1:2005, 6.2.3", N_Ed=F_o, b=g.b_po, t=g.t_po, grade=pg, n_holes=cols, d_0=d0,
+          category_C=spec.category == "C", na=na, calc=calc, id="outer_plate_tension",
+          title="Outer flange plate: tension (gross, net)", location_mm=loc)
+    if inner:
+        _safe(out, P.check_plate_tension, fid="inner_plate_tension", ftitle="Inner flange plates: tension",
+              fclause="EN 1993-1-1:2005, 6.2.3", N_Ed=F_f * share_i / 2, b=g.b_pi, t=g.t_pi, grade=pg,
+              n_holes=cols // 2, d_0=d0, category_C=spec.category == "C", na=na, calc=calc,
+              id="inner_plate_tension", title="Inner flange plate (each): tension (gross, net)", location_mm=loc)
+    if spec.category == "C":
+        A_fn = (section.b - cols * d0) * section.tf
+        if A_fn > 0:
+            N_n = calc(P.N_net_Rd, A_net=A_fn, f_y=fy_b, gamma_M0=na.gamma_M0)
+            out.append(calc.record(id="beam_flange_net_C", title="Beam flange: net section at f_y (category C)",
+                                   clause="EN 1993-1-8:2005, 3.4.1(1)", demand=F_f, resistance=N_n, unit="N",
+                                   location_mm=loc, note="N_net,Rd = A_f,net f_y / gamma_M0, EN 1993-1-1 6.2.3(4)"))
+    if fast and not all(r.ok for r in out):
+        return out
+    # -- block tearing (concentric, Eq. 3.9): centre block and both edge strips
+    L_v = g.e1_f + (rows - 1) * g.p1_f - (rows - 0.5) * d0
+    spread = g.g_f + 2 * g.p2o_f
+    for who, t, e2, grade_, F in (("outer plate", g.t_po, g.e2_po, pg, F_o),
+                                  ("beam flange", section.tf, g.e2_bf, grade, F_f)):
+        A_nv = 2 * t * L_v
+        for pat, A_nt in (("centre block", t * (spread - (cols - 1) * d0)), ("edge strips", 2 * t * (e2 - d0 / 2))):
+            if A_nt <= 0 or A_nv <= 0:
+                out.append(_fail(f"block_{who}_{pat}", f"Block tearing, {who}, {pat}", "EN 1993-1-8:2005, 3.10.2(2), Eq. 3.9",
+                                 InputError("block areas", (A_nt, A_nv), "positive net areas"), loc))
+                continue
+            _safe(out, P.check_block_tearing, fid=f"block_{who}", ftitle=f"Block tearing, {who}",
+                  fclause="EN 1993-1-8:2005, 3.10.2(2), Eq. 3.9", F_Ed=F, A_nt=A_nt, A_nv=A_nv, grade=grade_, t=t,
+                  eccentric=False, na=na, calc=calc, id=f"block_{who.replace(' ', '_')}_{pat.split()[0]}",
+                  title=f"Block tearing, {who}, {pat}", location_mm=loc)
+    if inner:
+        cols_i = cols // 2
+        e2i = min(g.e2_pi_in, g.e2_pi_out)
+        A_nt = g.t_pi * (e2i + (cols_i - 1) * g.p2o_f - (cols_i - 0.5) * d0)
+        A_nv = g.t_pi * L_v
+        if A_nt > 0 and A_nv > 0:
+            _safe(out, P.check_block_tearing, fid="block_inner", ftitle="Block tearing, inner plate",
+                  fclause="EN 1993-1-8:2005, 3.10.2(3), Eq. 3.10", F_Ed=F_f * share_i / 2, A_nt=A_nt, A_nv=A_nv,
+                  grade=pg, t=g.t_pi, eccentric=True, na=na, calc=calc, id="block_inner_plate",
+                  title="Block tearing, inner plate (each; one shear plane, eccentric Eq. 3.10)", location_mm=loc)
+        else:
+            out.append(_fail("block_inner_plate", "Block tearing, inner plate", "EN 1993-1-8:2005, 3.10.2(3), Eq. 3.10",
+                             InputError("block areas", (A_nt, A_nv), "positive net areas"), loc))
+    # -- compression: buckling between fasteners and across the joint
+    p_free = max(g.p1_f if rows > 1 else 0.0, spec.gap + 2 * g.e1_f)
+    _safe(out, P.check_plate_compression, fid="outer_plate_compression", ftitle="Outer flange plate: compression",
+          fclause="EN 1993-1-8:2005, 3.5, Table 3.3", N_Ed=F_o, b=g.b_po, t=g.t_po, p_1=p_free, grade=pg, na=na,
+          calc=calc, id="outer_plate_compression",
+          title="Outer flange plate: compression, buckling over max(p1, gap + 2 e1)", location_mm=loc)
+    if inner:
+        _safe(out, P.check_plate_compression, fid="inner_plate_compression", ftitle="Inner flange plates: compression",
+              fclause="EN 1993-1-8:2005, 3.5, Table 3.3", N_Ed=F_f * share_i / 2, b=g.b_pi, t=g.t_pi, p_1=p_free,
+              grade=pg, na=na, calc=calc, id="inner_plate_compression",
+              title="Inner flange plate (each): compression, buckling over max(p1, gap + 2 e1)", location_mm=loc)
+    return out
+
+
+# ======================================================================== web group
+def web_bolt_bearing(bolt, g: Geometry, section, t: float, fu: float, ply: str, gM2: float,
+                     bolt_forces, calc: Calc | None = None, hole: str = "normal") -> tuple[float, tuple]:
+    """Worst bearing interaction U over the web bolts for ``ply`` 'beam' (the beam web,
+    thickness t) or 'plates' (both web plates, t = 2 t_wp). Returns (U, governing
+    (x, z, F_x, F_z, F_b_x, F_b_z))."""
+    n_r, n_c = g.n_r, g.n_c
+    p = g.p_w if n_r > 1 else None
+    gg = g.g_w if n_c > 1 else None
+    e_fl = (section.h - 2 * section.tf - (n_r - 1) * g.p_w) / 2   # top bolt to the flange face
+    worst = (-1.0, None)
+    cache: dict = {}
+    for k, (x, z, Fx, Fz, Fr) in enumerate(bolt_forces):
+        i, j = divmod(k, n_c)                                     # i row from the top, j column from the joint
+        edge_row = i == 0 or i == n_r - 1
+        if ply == "beam":
+            endc = j == 0                                         # column nearest the beam end
+            kx = (endc, edge_row)
+            if kx not in cache:
+                fbx = _fb(bolt, t, fu, g.e1_w if endc else None, None if endc else gg,
+                          e_fl if edge_row else None, p, gM2, hole)
+                fbz = _fb(bolt, t, fu, e_fl if edge_row else None, None if edge_row else p,
+                          g.e1_w if endc else None, gg, gM2, hole)
+                cache[kx] = (fbx, fbz)
+        else:
+            endc = j == n_c - 1                                   # column nearest the plate end
+            kx = (endc, edge_row)
+            if kx not in cache:
+                fbx = _fb(bolt, t, fu, g.e1_w if endc else None, None if endc else gg,
+                          g.e_v if edge_row else None, p, gM2, hole)
+                fbz = _fb(bolt, t, fu, g.e_v if edge_row else None, None if edge_row else p,
+                          g.e1_w if endc else None, gg, gM2, hole)
+                cache[kx] = (fbx, fbz)
+        fbx, fbz = cache[kx]
+        if fbx <= 0 or fbz <= 0:
+            return math.inf, (x, z, Fx, Fz, fbx, fbz)
+        U = U_b_xz(F_x_Ed=Fx, F_b_x_Rd=fbx, F_z_Ed=Fz, F_b_z_Rd=fbz)
+        if U > worst[0]:
+            worst = (U, (x, z, Fx, Fz, fbx, fbz))
+    return worst
+
+
+def web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: NationalAnnex, calc: Calc,
+                ser_ratio: float | None = None, loc=None, fast: bool = False) -> list[CheckRecord]:
+    """Web bolts (elastic polar forces), web plates and the beam web.
+
+    ``fast``: return as soon as a bolt check fails (layout search)."""
+    out: list[CheckRecord] = []
+    pg = spec.plate_grade
+    mat_w = steel(grade, section.tw)
+    mat_p = steel(pg, g.t_wp)
+    d0 = bolt.d_0
+    F_r = forces.F_web_max
+    L_j = max((g.n_r - 1) * g.p_w, (g.n_c - 1) * g.g_w)
+    if math.isfinite(F_r):
+        _safe(out, B.check_bolt_shear, fid="web_bolt_shear", ftitle="Web bolts: shear", fclause=CL_BEAR, bolt=bolt,
+              F_v_Ed=F_r, n_s=2, threads_in_shear_plane=spec.threads_in_shear_plane, L_j=L_j, na=na, calc=calc,
+              id="web_bolt_shear", title="Web bolts: shear (resultant, elastic polar method)", location_mm=loc)
+    else:
+        out.append(_fail("web_bolt_shear", "Web bolts: shear", CL_BEAR,
+                         InputError("web.rows x web.columns", 1, "at least 2 bolts to resist the web moment"), loc))
+        return out
+    for ply, t, fu, what in (("beam", section.tw, mat_w.f_u, "beam web"),
+                             ("plates", 2 * g.t_wp, mat_p.f_u, "web plates (pair)")):
+        U, gv = web_bolt_bearing(bolt, g, section, t, fu, ply, na.gamma_M2, forces.bolt_forces, hole=spec.holes)
+        c = calc
+        if c.render and math.isfinite(U):
+            x, z, Fx, Fz, fbx, fbz = gv
+            c.note(f"Governing bolt at x = {x:g} mm, z = {z:g} mm from the group centroid; "
+                   f"F_b,Rd in x (e1 along the beam) and in z (e1 vertical), Table 3.4")
+            c(U_b_xz, F_x_Ed=abs(Fx), F_b_x_Rd=fbx, F_z_Ed=abs(Fz), F_b_z_Rd=fbz)
+        if gv is not None:
+            c.keep("F_x_Ed", abs(gv[2]), "N")
+            c.keep("F_z_Ed", abs(gv[3]), "N")
+            c.keep("F_b_x_Rd", gv[4], "N")
+            c.keep("F_b_z_Rd", gv[5], "N")
+        out.append(c.record(id=f"web_bearing_{ply}", title=f"Web bolts: bearing on the {what}, two directions",
+                            clause=CL_BEAR, demand=U, resistance=1.0, unit="", location_mm=loc,
+                            note="(F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2 <= 1, worst bolt"))
+        if fast and not out[-1].ok:
+            return out
+    if spec.category in ("B", "C"):
+        Fs = F_r if spec.category == "C" else F_r * (ser_ratio if ser_ratio is not None else 1.0)
+        _safe(out, B.check_slip, fid="web_bolt_slip", ftitle="Web bolts: slip", fclause="EN 1993-1-8:2005, 3.9.1, Eq. 3.6",
+              bolt=bolt, F_v_Ed=Fs, category=spec.category, n=2, surface_class=spec.friction_class,
+              hole=spec.holes, na=na, calc=calc, id="web_bolt_slip", location_mm=loc)
+    p1 = g.p_w if g.n_r > 1 else None
+    p2 = g.g_w if g.n_c > 1 else None
+    _safe(out, S.check_spacing, fid="web_spacing", ftitle="Web bolts spacing", fclause="EN 1993-1-8:2005, 3.5, Table 3.3",
+          d_0=d0, t=min(section.tw, g.t_wp), e_1=g.e1_w, e_2=g.e_v, p_1=p1, p_2=p2, exposed=spec.exposed,
+          compression=True, calc=calc, id="web_spacing", where="Web", location_mm=loc)
+    V = abs(forces.V_Ed)
+    _safe(out, P.check_plate_shear, fid="web_plate_shear", ftitle="Web plates: shear", fclause="EN 1993-1-1:2005, 6.2.6",
+          V_Ed=V / 2, h=g.h_wp, t=g.t_wp, grade=pg, n_holes=g.n_r, d_0=d0, na=na, calc=calc,
+          id="web_plate_shear", title="Web plate (each of 2): shear, gross and net", location_mm=loc)
+    e_v_bt = g.e_v
+    try:
+        ba = P.block_tearing_areas(t=g.t_wp, d_0=d0, n_1=g.n_r, e_1=e_v_bt, p_1=g.p_w if g.n_r > 1 else 0.0,
+                                   n_2=g.n_c, e_2=g.e1_w, p_2=g.g_w if g.n_c > 1 else 0.0, pattern="one_side")
+        _safe(out, P.check_block_tearing, fid="web_plate_block", ftitle="Web plates: block tearing",
+              fclause="EN 1993-1-8:2005, 3.10.2(3), Eq. 3.10", F_Ed=V / 2, A_nt=ba.A_nt, A_nv=ba.A_nv, grade=pg,
+              t=g.t_wp, eccentric=True, na=na, calc=calc, id="web_plate_block",
+              title="Web plate (each of 2): block tearing under shear", location_mm=loc)
+    except InputError as e:
+        out.append(_fail("web_plate_block", "Web plates: block tearing", "EN 1993-1-8:2005, 3.10.2(3), Eq. 3.10", e, loc))
+    M_pl = abs(forces.M_w_Ed) + V * (spec.gap / 2 + g.e1_w)
+    try:
+        fy_p = mat_p.f_y
+        V_pl = calc(P.V_Rd_g, A_v=g.h_wp * g.t_wp, f_y=fy_p, gamma_M0=na.gamma_M0)
+        rho = calc(rho_V, V_Ed=V / 2, V_pl_Rd=V_pl)
+        W_n = calc(W_el_net_plate, t=g.t_wp, h=g.h_wp, n_r=g.n_r, d_0=d0, p=g.p_w if g.n_r > 1 else 0.0)
+        if W_n <= 0.0:
+            raise InputError("web plate", g.h_wp, "a plate deeper than its holes")
+        M_Rd = calc(M_V_Rd_plate, rho=rho, W=W_n, f_y=fy_p, gamma_M0=na.gamma_M0)
+        calc.keep("W_el_net", W_n, "mm3")
+        calc.keep("rho", rho)
+        out.append(calc.record(id="web_plate_bending", title="Web plate (each of 2): in-plane bending at the first "
+                               "bolt column, net section, with shear", clause="EN 1993-1-1:2005, 6.2.8(3)",
+                               demand=M_pl / 2, resistance=M_Rd, unit="Nmm", location_mm=loc,
+                               note="M = (M_w + V (gap/2 + e1))/2 per plate; W_el,net; f_y reduced by (1 - rho)"))
+    except InputError as e:
+        out.append(_fail("web_plate_bending", "Web plates: bending", "EN 1993-1-1:2005, 6.2.8(3)", e, loc))
+    return out
+
+
+# ======================================================================== member at the splice
+def member_records(section, grade: str, bolt, g: Geometry, spec, forces, na: NationalAnnex, calc: Calc,
+                   loc=None) -> list[CheckRecord]:
+    """The beam at the splice: bending with flange holes (6.2.5(4)), web net shear, axial block tearing."""
+    from ...members import check_bending, check_shear
+    out: list[CheckRecord] = []
+    d0 = bolt.d_0
+    cols = 2 if g.p2o_f == 0 else 4
+    A_f_net = (section.b - cols * d0) * section.tf
+    if A_f_net <= 0:
+        out.append(_fail("beam_bending_holes", "Beam at the splice: bending with flange holes",
+                         "EN 1993-1-1:2005, 6.2.5(4)", InputError("flange holes", cols * d0, "less than b"), loc))
+    else:
+        _safe(out, check_bending, fid="beam_bending_holes", ftitle="Beam at the splice: bending with flange holes",
+              fclause="EN 1993-1-1:2005, 6.2.5(4)", section=section, grade=grade, M_Ed=forces.M_j_Ed, na=na,
+              calc=calc, A_f_net=A_f_net, location_mm=loc)
+        out[-1] = _retitle(out[-1], "beam_bending_holes", "Beam at the splice: bending with tension-flange holes (6.2.5(4))")
+    _safe(out, check_shear, fid="beam_shear", ftitle="Beam at the splice: shear", fclause="EN 1993-1-1:2005, 6.2.6",
+          section=section, grade=grade, V_Ed=abs(forces.V_Ed), na=na, calc=calc, location_mm=loc)
+    out[-1] = _retitle(out[-1], "beam_shear", "Beam at the splice: shear (gross)")
+    mat = steel(grade, section.tw)
+    A_vn = section.Av_z - g.n_r * d0 * section.tw
+    if A_vn > 0:
+        V_n = calc(P.V_Rd_n, A_v_net=A_vn, f_u=mat.f_u, gamma_M2=na.gamma_M2_member)
+        calc.keep("A_v_net", A_vn, "mm2")
+        out.append(calc.record(id="beam_web_net_shear", title="Beam web at the splice: net shear",
+                               clause="EN 1993-1-1:2005, 6.2.6(7)", demand=abs(forces.V_Ed), resistance=V_n, unit="N",
+                               location_mm=loc, note=f"A_v,net = A_v - {g.n_r} d0 t_w"))
+    else:
+        out.append(_fail("beam_web_net_shear", "Beam web at the splice: net shear", "EN 1993-1-1:2005, 6.2.6(7)",
+                         InputError("web holes", g.n_r * d0, "less than the shear depth"), loc))
+    if forces.N_w_Ed > 0.0 and g.n_r > 1:
+        A_nt = section.tw * (g.n_r - 1) * (g.p_w - d0)
+        A_nv = 2 * section.tw * (g.e1_w + (g.n_c - 1) * g.g_w - (g.n_c - 0.5) * d0)
+        if A_nt > 0 and A_nv > 0:
+            _safe(out, P.check_block_tearing, fid="beam_web_block", ftitle="Beam web: block tearing (axial)",
+                  fclause="EN 1993-1-8:2005, 3.10.2(2), Eq. 3.9", F_Ed=forces.N_w_Ed, A_nt=A_nt, A_nv=A_nv,
+                  grade=grade, t=section.tw, eccentric=False, na=na, calc=calc, id="beam_web_block",
+                  title="Beam web: block tearing under the web's axial tension", location_mm=loc)
+    return out
+
+
+def _retitle(rec: CheckRecord, id: str, title: str) -> CheckRecord:
+    from dataclasses import replace
+    return replace(rec, id=id, title=title)
+
+
+__all__ = ["U_b_xz", "W_el_net_plate", "M_V_Rd_plate", "detailing_records", "flange_records", "web_records", "member_records", "web_bolt_bearing"]

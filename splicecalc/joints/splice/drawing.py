@@ -1,0 +1,141 @@
+"""Dimensioned elevation and plan of a cover-plate splice, to scale (matplotlib).
+
+``draw_splice(design)`` returns a :class:`matplotlib.figure.Figure` with two
+axes at equal scale (mm): the elevation (beam ends, gap, flange cover plates,
+web plates, web bolt holes, pitches and end distances) and the plan of the top
+flange (flange, outer plate, holes, gauge, pitch, e1, e2). No state is left in
+pyplot (the figure is built with the object API).
+"""
+
+from __future__ import annotations
+
+from matplotlib.figure import Figure
+from matplotlib.patches import Circle, Rectangle
+
+_DIM = dict(color="0.25", lw=0.6)
+
+
+def _dim(ax, x1, y1, x2, y2, text, off=0.0, vertical=False, fs=6):
+    """A dimension line with end ticks and its text (mm)."""
+    if vertical:
+        x = x1 + off
+        ax.annotate("", xy=(x, y1), xytext=(x, y2), arrowprops=dict(arrowstyle="<->", **_DIM))
+        ax.text(x + 3, (y1 + y2) / 2, text, fontsize=fs, va="center", ha="left", rotation=90)
+    else:
+        y = y1 + off
+        ax.annotate("", xy=(x1, y), xytext=(x2, y), arrowprops=dict(arrowstyle="<->", **_DIM))
+        ax.text((x1 + x2) / 2, y + 3, text, fontsize=fs, ha="center", va="bottom")
+
+
+def draw_splice(design, title: str | None = None) -> Figure:
+    """Elevation and plan of ``design`` (a SpliceDesign), drawn to scale; returns the Figure."""
+    s = design.section
+    g = design.geometry
+    lay = design.layout
+    gap = g.L_fp - 2 * (2 * g.e1_f + (lay.flange.rows - 1) * g.p1_f)
+    d_hole = design.layout and _d0(design)
+    h, b, tf, tw = s.h, s.b, s.tf, s.tw
+    ext = max(g.L_fp, g.L_wp) / 2 + 80.0
+    fig = Figure(figsize=(10, 7.5))
+    ax1 = fig.add_subplot(2, 1, 1)
+    ax2 = fig.add_subplot(2, 1, 2)
+    # ----------------------------------------------------------- elevation (x along beam, z up; joint at x = 0)
+    ax = ax1
+    for sgn in (-1, 1):
+        x0 = sgn * gap / 2
+        x1 = sgn * ext
+        lo, hi = min(x0, x1), max(x0, x1)
+        ax.add_patch(Rectangle((lo, -h / 2), hi - lo, tf, fc="0.85", ec="k", lw=0.8))
+        ax.add_patch(Rectangle((lo, h / 2 - tf), hi - lo, tf, fc="0.85", ec="k", lw=0.8))
+        ax.add_patch(Rectangle((lo, -h / 2 + tf), hi - lo, h - 2 * tf, fc="0.95", ec="k", lw=0.5))
+    # flange plates
+    Lf = g.L_fp
+    ax.add_patch(Rectangle((-Lf / 2, h / 2), Lf, g.t_po, fc="#7fa7d9", ec="k", lw=0.8))
+    ax.add_patch(Rectangle((-Lf / 2, -h / 2 - g.t_po), Lf, g.t_po, fc="#7fa7d9", ec="k", lw=0.8))
+    if g.t_pi > 0:
+        ax.add_patch(Rectangle((-Lf / 2, h / 2 - tf - g.t_pi), Lf, g.t_pi, fc="#a9c6ea", ec="k", lw=0.6, ls="--"))
+        ax.add_patch(Rectangle((-Lf / 2, -h / 2 + tf), Lf, g.t_pi, fc="#a9c6ea", ec="k", lw=0.6, ls="--"))
+    # flange bolts (centre lines)
+    for sgn in (-1, 1):
+        for i in range(lay.flange.rows):
+            x = sgn * (gap / 2 + g.e1_f + i * g.p1_f)
+            for zc in (h / 2 + g.t_po, -h / 2 - g.t_po):
+                ax.plot([x, x], [zc + (8 if zc > 0 else -8), zc - (tf + g.t_po + g.t_pi + 8) * (1 if zc > 0 else -1)],
+                        color="k", lw=1.2)
+    # web plate and bolts
+    Lw, hw = g.L_wp, g.h_wp
+    ax.add_patch(Rectangle((-Lw / 2, -hw / 2), Lw, hw, fc="#f2c48d", ec="k", lw=0.8, alpha=0.9))
+    for sgn in (-1, 1):
+        for i in range(g.n_r):
+            for j in range(g.n_c):
+                x = sgn * (gap / 2 + g.e1_w + j * g.g_w)
+                z = hw / 2 - g.e_v - i * g.p_w
+                ax.add_patch(Circle((x, z), d_hole / 2, fc="white", ec="k", lw=0.8))
+    # dimensions (right half)
+    x_first = gap / 2 + g.e1_w
+    top_b = hw / 2 - g.e_v
+    _dim(ax, -gap / 2, -h / 2 - g.t_po - 25, gap / 2, -h / 2 - g.t_po - 25, f"gap {gap:g}")
+    _dim(ax, gap / 2, -hw / 2 - 12, x_first, -hw / 2 - 12, f"e1 {g.e1_w:g}")
+    if g.n_c > 1:
+        _dim(ax, x_first, -hw / 2 - 12, x_first + g.g_w, -hw / 2 - 12, f"{g.g_w:g}")
+    if g.n_r > 1:
+        _dim(ax, Lw / 2 + 15, top_b, Lw / 2 + 15, top_b - g.p_w, f"p {g.p_w:g}", vertical=True)
+    _dim(ax, Lw / 2 + 15, hw / 2, Lw / 2 + 15, top_b, f"ev {g.e_v:g}", vertical=True)
+    _dim(ax, -Lw / 2 - 40, -hw / 2, -Lw / 2 - 40, hw / 2, f"{hw:g}", vertical=True)
+    _dim(ax, -Lf / 2, h / 2 + g.t_po + 20, Lf / 2, h / 2 + g.t_po + 20, f"flange plate {Lf:g}")
+    _dim(ax, -Lw / 2, -hw / 2 + 12, Lw / 2, -hw / 2 + 12, f"web plates {Lw:g}")
+    ax.set_aspect("equal")
+    ax.set_xlim(-ext, ext)
+    ax.set_ylim(-h / 2 - g.t_po - 60, h / 2 + g.t_po + 60)
+    ax.set_title(f"Elevation: {getattr(s, 'designation', '')}, web plates 2 x {g.h_wp:g} x {g.t_wp:g}", fontsize=8)
+    ax.axvline(0.0, color="0.5", lw=0.5, ls="-.")
+    ax.tick_params(labelsize=6)
+    # ------------------------------------------------------------------- plan of the top flange (y across)
+    ax = ax2
+    for sgn in (-1, 1):
+        x0, x1 = sgn * gap / 2, sgn * ext
+        lo, hi = min(x0, x1), max(x0, x1)
+        ax.add_patch(Rectangle((lo, -b / 2), hi - lo, b, fc="0.85", ec="k", lw=0.8))
+        ax.plot([lo, hi], [tw / 2, tw / 2], color="0.4", lw=0.5, ls="--")
+        ax.plot([lo, hi], [-tw / 2, -tw / 2], color="0.4", lw=0.5, ls="--")
+    ax.add_patch(Rectangle((-Lf / 2, -g.b_po / 2), Lf, g.b_po, fc="#7fa7d9", ec="k", lw=0.8, zorder=2))
+    ys = _flange_lines(g, lay.flange.columns)
+    for sgn in (-1, 1):
+        for i in range(lay.flange.rows):
+            x = sgn * (gap / 2 + g.e1_f + i * g.p1_f)
+            for y in ys:
+                ax.add_patch(Circle((x, y), d_hole / 2, fc="white", ec="k", lw=0.8, zorder=3))
+    xr = gap / 2 + g.e1_f
+    _dim(ax, gap / 2, -b / 2 - 12, xr, -b / 2 - 12, f"e1 {g.e1_f:g}")
+    if lay.flange.rows > 1:
+        _dim(ax, xr, -b / 2 - 12, xr + g.p1_f, -b / 2 - 12, f"p1 {g.p1_f:g}")
+    xd = Lf / 2 + 15
+    _dim(ax, xd, -g.g_f / 2, xd, g.g_f / 2, f"gauge {g.g_f:g}", vertical=True)
+    _dim(ax, xd + 35, max(ys), xd + 35, g.b_po / 2, f"e2 {g.e2_po:g}", vertical=True)
+    _dim(ax, -Lf / 2 - 30, -b / 2, -Lf / 2 - 30, b / 2, f"b {b:g}", vertical=True)
+    ax.set_aspect("equal")
+    ax.set_xlim(-ext, ext)
+    ax.set_ylim(-b / 2 - 40, b / 2 + 30)
+    inner = f" + 2 inner {g.b_pi:g} x {g.t_pi:g}" if g.t_pi > 0 else ""
+    ax.set_title(f"Plan on top flange: outer plate {g.b_po:g} x {g.t_po:g} x {Lf:g}{inner}; "
+                 f"{lay.bolt_size} {lay.bolt_class} in {d_hole:g} mm holes", fontsize=8)
+    ax.axvline(0.0, color="0.5", lw=0.5, ls="-.")
+    ax.tick_params(labelsize=6)
+    fig.suptitle(title or "Bolted cover-plate splice (dimensions in mm, drawn to scale)", fontsize=9)
+    fig.tight_layout()
+    return fig
+
+
+def _d0(design) -> float:
+    from ..bolts import get_bolt
+    return get_bolt(design.layout.bolt_size, design.layout.bolt_class).d_0
+
+
+def _flange_lines(g, cols: int) -> list[float]:
+    y = g.g_f / 2
+    if cols == 2:
+        return [-y, y]
+    return [-y - g.p2o_f, -y, y, y + g.p2o_f]
+
+
+__all__ = ["draw_splice"]
