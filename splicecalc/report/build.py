@@ -1,0 +1,191 @@
+"""Build a calc-package PDF from a notebook: execute, export, compile, write atomically.
+
+>>> report = build_pdf("notebooks/demo_cross_section.ipynb", "out/demo_cross_section.pdf")  # doctest: +SKIP
+>>> report.pages, report.wide_boxes                                                          # doctest: +SKIP
+(6, [])
+
+An issued revision is never overwritten: the sign-off step writes a sidecar
+``<name>.pdf.json`` with ``{"issued": true}`` next to the PDF and
+:func:`is_protected` reads it.
+"""
+
+from __future__ import annotations
+
+import json
+import os
+import re
+import shutil
+import sys
+import tempfile
+import time
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any
+
+import nbformat
+
+from ..core.errors import InputError, require_non_negative, require_positive
+from .compile import LatexRun, require_tool
+from .errors import CalcBuildError, ProtectedPDFError
+from .execute import execute_notebook
+from .latexfix import BadBox
+from .metadata import calc_metadata
+
+#: overfull boxes up to this width are typographic noise; wider ones are layout faults
+OVERFULL_LIMIT_PT = 5.0
+
+
+@dataclass
+class BuildReport:
+    """What a build did and how long each part took (seconds)."""
+
+    pdf_path: Path
+    log_path: Path
+    tex_path: Path
+    pages: int
+    latex_passes: int
+    execution_s: float = 0.0
+    kernel_start_s: float = 0.0
+    cells_s: float = 0.0
+    latex_s: float = 0.0
+    total_s: float = 0.0
+    overfull: list[BadBox] = field(default_factory=list)
+    overfull_limit_pt: float = OVERFULL_LIMIT_PT
+
+    @property
+    def overhead_s(self) -> float:
+        """Our own work: reading, metadata, nbconvert/pandoc export, writing."""
+        return max(self.total_s - self.execution_s - self.latex_s, 0.0)
+
+    @property
+    def wide_boxes(self) -> list[BadBox]:
+        """Overfull hboxes wider than :attr:`overfull_limit_pt` (should be none)."""
+        return [b for b in self.overfull if b.kind == "hbox" and b.amount_pt > self.overfull_limit_pt]
+
+    def summary(self) -> str:
+        wide = self.wide_boxes
+        return (f"{self.pdf_path} ({self.pages} sheets): execution {self.execution_s:.1f} s "
+                f"(kernel {self.kernel_start_s:.1f} s), LaTeX {self.latex_passes} passes {self.latex_s:.1f} s, "
+                f"own {self.overhead_s:.1f} s; "
+                + ("no overfull box" if not wide else
+                   f"{len(wide)} overfull box(es) > {self.overfull_limit_pt:g} pt, see {self.log_path}"))
+
+
+def sidecar_path(pdf_path: str | Path) -> Path:
+    """``<name>.pdf.json`` next to the PDF."""
+    p = Path(pdf_path)
+    return p.with_name(p.name + ".json")
+
+
+def is_protected(pdf_path: str | Path) -> bool:
+    """True when the PDF is a signed / issued revision (sidecar ``{"issued": true}``).
+
+    A sidecar that exists but cannot be read also protects the PDF: when in
+    doubt, an issued document is not overwritten.
+    """
+    side = sidecar_path(pdf_path)
+    if not side.exists():
+        return False
+    try:
+        data = json.loads(side.read_text(encoding="utf-8"))
+    except (OSError, ValueError):
+        return True
+    return bool(isinstance(data, dict) and data.get("issued") is True) or not isinstance(data, dict)
+
+
+def write_atomic(path: str | Path, data: bytes) -> None:
+    """Write ``data`` to a temporary file in the target folder, then ``os.replace`` it."""
+    path = Path(path)
+    fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".part")
+    try:
+        with os.fdopen(fd, "wb") as fh:
+            fh.write(data)
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.replace(tmp, path)
+    except BaseException:
+        try:
+            os.unlink(tmp)
+        except OSError:
+            pass
+        raise
+
+
+_PAGES_RE = re.compile(r"Output written on .*?\((\d+) pages?")
+
+
+def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = True, progress: bool = True,
+              timeout: float = 300.0, overfull_limit_pt: float = OVERFULL_LIMIT_PT,
+              build_dir: str | Path | None = None, executed_path: str | Path | None = None) -> BuildReport:
+    """Execute ``notebook_path`` (unless ``execute=False``) and write the calc package to ``pdf_path``.
+
+    The PDF appears under its final name only when complete (temporary file
+    + ``os.replace``); an issued PDF (:func:`is_protected`) is refused before
+    any work. The LaTeX source and log stay in ``build_dir`` (default
+    ``<pdf folder>/.build/<pdf stem>/``). ``executed_path``, if given,
+    receives the executed notebook (written atomically). ``timeout`` (s) is
+    per cell.
+    """
+    t0 = time.perf_counter()
+    nb_path = Path(notebook_path)
+    out = Path(pdf_path)
+    if nb_path.suffix != ".ipynb" or not nb_path.is_file():
+        raise InputError("notebook_path", str(notebook_path), "an existing .ipynb file")
+    if out.suffix.lower() != ".pdf":
+        raise InputError("pdf_path", str(pdf_path), "a file name ending in .pdf")
+    require_positive("timeout", timeout, "s")
+    require_non_negative("overfull_limit_pt", overfull_limit_pt, "pt")
+    if is_protected(out):
+        raise ProtectedPDFError(str(out))
+    require_tool("xelatex")
+    require_tool("pandoc")
+
+    nb = nbformat.read(nb_path, as_version=4)
+    calc_metadata(nb.metadata, default_title=nb_path.stem)   # bad metadata fails before the kernel starts
+    out.parent.mkdir(parents=True, exist_ok=True)
+    if build_dir is not None:
+        work = Path(build_dir)            # the caller's folder: never emptied
+    else:
+        work = out.parent / ".build" / out.stem
+        if work.exists():
+            shutil.rmtree(work)           # ours: start clean so no stale .aux/.toc is read
+    work.mkdir(parents=True, exist_ok=True)
+
+    timings: dict[str, float] = {}
+    execution_s = 0.0
+    if execute:
+        t = time.perf_counter()
+        nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings)
+        execution_s = time.perf_counter() - t
+        if executed_path is not None:
+            ep = Path(executed_path)
+            ep.parent.mkdir(parents=True, exist_ok=True)
+            write_atomic(ep, nbformat.writes(nb).encode("utf-8"))
+
+    from .exporter import CalcPackageExporter
+
+    exporter = CalcPackageExporter(progress=progress, build_directory=str(work))
+    resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
+    pdf_bytes, resources = exporter.from_notebook_node(nb, resources)
+    run: LatexRun = resources["latex_run"]
+
+    if is_protected(out):   # signed while we were building
+        raise ProtectedPDFError(str(out))
+    write_atomic(out, pdf_bytes)
+
+    log_text = run.log_path.read_text(encoding="utf-8", errors="replace")
+    m = _PAGES_RE.search(log_text)
+    report = BuildReport(pdf_path=out, log_path=run.log_path, tex_path=run.log_path.with_suffix(".tex"),
+                         pages=int(m.group(1)) if m else 0, latex_passes=run.passes,
+                         execution_s=execution_s, kernel_start_s=timings.get("kernel_start_s", 0.0),
+                         cells_s=timings.get("cells_s", 0.0), latex_s=run.seconds,
+                         total_s=time.perf_counter() - t0, overfull=run.overfull,
+                         overfull_limit_pt=overfull_limit_pt)
+    if report.wide_boxes and progress:
+        print(f"warning: {len(report.wide_boxes)} overfull box(es) wider than {overfull_limit_pt:g} pt:\n  "
+              + "\n  ".join(str(b) for b in report.wide_boxes), file=sys.stderr)
+    return report
+
+
+__all__ = ["BuildReport", "build_pdf", "is_protected", "sidecar_path", "write_atomic", "OVERFULL_LIMIT_PT",
+           "CalcBuildError"]

@@ -1,0 +1,208 @@
+"""Notebook outputs for calc sheets: one call per check keeps the templates small.
+
+``show_check(record)`` displays a :class:`~splicecalc.core.record.CheckRecord`
+as title + clause, the rendered handcalcs steps and a verdict line
+("utilisation 0.73 — OK"). ``show_summary(records)`` displays all records
+sorted by utilisation, ``show_table`` any small data table.
+
+Each output carries a splicecalc MIME type with the data (JSON) that our PDF
+exporter lays out, plus ``text/markdown`` for Jupyter and other exporters and
+``text/plain`` for consoles. The layout therefore lives in one place, the
+LaTeX template, and the notebook stays plain data.
+"""
+
+from __future__ import annotations
+
+import math
+from typing import Any, Iterable, Sequence
+
+from ..core.record import CheckRecord
+
+CHECK_MIME = "application/vnd.splicecalc.check+json"
+TABLE_MIME = "application/vnd.splicecalc.table+json"
+
+#: report unit -> LaTeX (text mode, inside $...$ via \mathrm)
+UNIT_TEX = {
+    "kN": r"\mathrm{kN}", "kNm": r"\mathrm{kN\,m}", "kN/m": r"\mathrm{kN/m}", "mm": r"\mathrm{mm}",
+    "mm2": r"\mathrm{mm^{2}}", "mm3": r"\mathrm{mm^{3}}", "mm4": r"\mathrm{mm^{4}}", "mm6": r"\mathrm{mm^{6}}",
+    "MPa": r"\mathrm{MPa}", "kg": r"\mathrm{kg}", "kg/m": r"\mathrm{kg/m}", "": "",
+    "cm2": r"\mathrm{cm^{2}}", "cm3": r"\mathrm{cm^{3}}", "cm4": r"\mathrm{cm^{4}}", "cm": r"\mathrm{cm}",
+    "dm6": r"\mathrm{dm^{6}}", "N": r"\mathrm{N}", "Nmm": r"\mathrm{N\,mm}",
+}
+
+
+def fmt_number(x: float | None) -> str:
+    """A number as an engineer writes it: 3-4 significant figures, no exponent for usual sizes."""
+    if x is None or (isinstance(x, float) and math.isnan(x)):
+        return "-"
+    if isinstance(x, float) and math.isinf(x):
+        return r"$\infty$"
+    a = abs(x)
+    if a >= 100:
+        return f"{x:.1f}"
+    if a >= 1:
+        return f"{x:.2f}"
+    if a == 0:
+        return "0"
+    return f"{x:.3f}"
+
+
+def fmt_utilisation(u: float) -> str:
+    """Utilisation to two decimals (``inf`` when the resistance is nil)."""
+    return r"$\infty$" if math.isinf(u) else f"{u:.2f}"
+
+
+def _finite(x: float) -> float | None:
+    return None if x is None or not math.isfinite(x) else float(x)
+
+
+def check_payload(record: CheckRecord) -> dict[str, Any]:
+    """The JSON data of one check output: ``record.to_dict()`` (unit-tagged keys, used by the
+    sign-off digest) plus the rendered ``steps``, plain ``demand``/``resistance`` in ``unit`` and
+    the ``verdict`` for the PDF layout."""
+    p = record.to_dict()
+    p.update({
+        "steps": list(record.latex), "demand": _finite(record.demand),
+        "resistance": _finite(record.resistance), "utilisation": _finite(record.utilisation),
+        "ok": bool(record.ok), "verdict": record.verdict,
+    })
+    return p
+
+
+def _utilisation_of(p: dict[str, Any]) -> float:
+    u = p.get("utilisation")
+    return math.inf if u is None else u
+
+
+def _unit_md(unit: str) -> str:
+    return f" {unit}" if unit else ""
+
+
+class CheckOutput:
+    """Rich display of one check (Jupyter calls ``_repr_mimebundle_``)."""
+
+    def __init__(self, record: CheckRecord) -> None:
+        if not isinstance(record, CheckRecord):
+            raise TypeError(f"show_check expects a CheckRecord, got {type(record).__name__}")
+        self.record = record
+
+    def _repr_mimebundle_(self, include: Any = None, exclude: Any = None) -> dict[str, Any]:
+        r = self.record
+        p = check_payload(r)
+        u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf")
+        md = [f"**{r.title}** — *{r.clause}*", ""]
+        md += [s.strip() + "\n" for s in r.latex]
+        if r.note:
+            md.append(f"*{r.note}*\n")
+        md.append(f"$E_d$ = {fmt_number(r.demand)}{_unit_md(r.unit)}, $R_d$ = {fmt_number(r.resistance)}"
+                  f"{_unit_md(r.unit)}: utilisation **{u}** — **{r.verdict}**")
+        return {CHECK_MIME: p, "text/markdown": "\n".join(md), "text/plain": r.summary_line()}
+
+
+class TableOutput:
+    """Rich display of a small table. Cells written as ``$...$`` are LaTeX math, others text."""
+
+    def __init__(self, columns: Sequence[str], rows: Sequence[Sequence[Any]], title: str = "",
+                 align: str = "", kind: str = "data", notes: str = "") -> None:
+        cols = [str(c) for c in columns]
+        if not cols:
+            raise ValueError("a table needs at least one column")
+        body = [[("" if c is None else str(c)) for c in row] for row in rows]
+        for i, row in enumerate(body):
+            if len(row) != len(cols):
+                raise ValueError(f"table row {i + 1} has {len(row)} cells, expected {len(cols)}")
+        al = align or ("l" * len(cols))
+        if len(al) != len(cols) or set(al) - set("lrc"):
+            raise ValueError(f"align {align!r} must give one of l, r, c per column ({len(cols)})")
+        self.payload = {"title": title, "columns": cols, "rows": body, "align": al, "kind": kind,
+                        "notes": notes}
+
+    def _repr_mimebundle_(self, include: Any = None, exclude: Any = None) -> dict[str, Any]:
+        p = self.payload
+        md = [f"**{p['title']}**", ""] if p["title"] else []
+        md.append("| " + " | ".join(p["columns"]) + " |")
+        md.append("|" + "|".join({"l": ":--", "r": "--:", "c": ":-:"}[a] for a in p["align"]) + "|")
+        md += ["| " + " | ".join(c.replace("|", "\\|") for c in row) + " |" for row in p["rows"]]
+        if p["notes"]:
+            md += ["", f"*{p['notes']}*"]
+        text = "\n".join(["\t".join(p["columns"])] + ["\t".join(r) for r in p["rows"]])
+        return {TABLE_MIME: p, "text/markdown": "\n".join(md), "text/plain": text}
+
+
+def summary_output(records: Iterable[CheckRecord], title: str = "Summary of checks") -> TableOutput:
+    """Table of records, highest utilisation first."""
+    recs = list(records)
+    for r in recs:
+        if not isinstance(r, CheckRecord):
+            raise TypeError(f"summary expects CheckRecords, got {type(r).__name__}")
+    recs.sort(key=lambda r: (-r.utilisation, r.title))
+    rows = []
+    for r in recs:
+        unit = f"${UNIT_TEX.get(r.unit, r.unit)}$" if r.unit else ""
+        rows.append([r.title, r.clause, fmt_number(r.demand), fmt_number(r.resistance), unit,
+                     fmt_utilisation(r.utilisation), r.verdict])
+    n_bad = sum(not r.ok for r in recs)
+    notes = ("All checks pass." if n_bad == 0 else f"{n_bad} check(s) NOT OK.") if recs else "No checks."
+    return TableOutput(["Check", "Clause", "$E_d$", "$R_d$", "Unit", "Util.", "Verdict"], rows,
+                       title=title, align="llrrlrl", kind="summary", notes=notes)
+
+
+def _display(obj: Any) -> None:
+    from IPython.display import display as _ipy_display
+
+    _ipy_display(obj)
+
+
+def show_check(record: CheckRecord) -> None:
+    """Display one check: title and clause, rendered steps, verdict line."""
+    _display(CheckOutput(record))
+
+
+def show_summary(records: Iterable[CheckRecord], title: str = "Summary of checks") -> None:
+    """Display the checks sorted by utilisation (highest first)."""
+    _display(summary_output(records, title))
+
+
+def show_table(columns: Sequence[str], rows: Sequence[Sequence[Any]], title: str = "",
+               align: str = "", notes: str = "") -> None:
+    """Display a small data table (e.g. section properties)."""
+    _display(TableOutput(columns, rows, title=title, align=align, notes=notes))
+
+
+def section_table(section: Any, grade: str) -> TableOutput:
+    """Dimensions and properties of a rolled section with its steel strengths.
+
+    f_y and f_u are taken for the flange thickness (the thickest element of a
+    rolled I section), EN 10025-2 Table 7 via :func:`splicecalc.materials.steel`,
+    as the member checks do.
+    """
+    from ..materials import steel
+
+    mat = steel(grade, section.tf, field="section.tf")
+    src = getattr(section, "standard", "") or section.family
+    rows = [
+        ["Depth", "$h$", f"{section.h:.1f}", "mm", src],
+        ["Width", "$b$", f"{section.b:.1f}", "mm", src],
+        ["Web thickness", "$t_w$", f"{section.tw:.1f}", "mm", src],
+        ["Flange thickness", "$t_f$", f"{section.tf:.1f}", "mm", src],
+        ["Root radius", "$r$", f"{section.r:.1f}", "mm", src],
+        ["Area", "$A$", f"{section.A / 1e2:.1f}", "cm2", "from geometry"],
+        ["Second moment", "$I_y$", f"{section.Iy / 1e4:.0f}", "cm4", "from geometry"],
+        ["Plastic modulus", "$W_{pl,y}$", f"{section.Wpl_y / 1e3:.0f}", "cm3", "from geometry"],
+        ["Elastic modulus", "$W_{el,y}$", f"{section.Wel_y / 1e3:.0f}", "cm3", "from geometry"],
+        ["Yield strength", "$f_y$", f"{mat.f_y:.0f}", "MPa", f"EN 10025-2, {mat.grade}, t = {section.tf:g} mm"],
+        ["Tensile strength", "$f_u$", f"{mat.f_u:.0f}", "MPa", f"EN 10025-2, {mat.grade}"],
+    ]
+    for row in rows:
+        row[3] = f"${UNIT_TEX[row[3]]}$" if row[3] else ""
+    return TableOutput(["Property", "Symbol", "Value", "Unit", "Source"], rows,
+                       title=f"Section {section.designation}, grade {mat.grade}", align="llrll")
+
+
+def show_section(section: Any, grade: str) -> None:
+    """Display :func:`section_table`."""
+    _display(section_table(section, grade))
+
+
+__all__ = ["CHECK_MIME", "TABLE_MIME", "CheckOutput", "TableOutput", "check_payload", "fmt_number",
+           "fmt_utilisation", "section_table", "show_section", "show_check", "show_summary", "show_table", "summary_output", "UNIT_TEX"]
