@@ -22,13 +22,13 @@ from __future__ import annotations
 import importlib
 import math
 import os
-import tempfile
 import tomllib
 from pathlib import Path
 from typing import Any
 
 from ..actions.loads import ACTIONS, CATEGORIES, PointLoad, UDL
 from ..core.errors import InputError, require_choice
+from ..core.files import write_atomic
 from ..core.units import parse_quantity
 from .model import BeamSpec, Job, NA_OVERRIDABLE, PROJECT_KEYS, Project
 
@@ -331,22 +331,8 @@ def _dumps_small(doc: dict[str, Any]) -> str:
 
 
 def write_text_atomic(path: str | os.PathLike, text: str) -> Path:
-    """Write ``text`` to ``path`` atomically (temp file in the same folder + os.replace)."""
-    p = Path(path)
-    fd, tmp = tempfile.mkstemp(prefix=f".{p.name}.", suffix=".tmp", dir=p.parent or ".")
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as fh:
-            fh.write(text)
-            fh.flush()
-            os.fsync(fh.fileno())
-        os.replace(tmp, p)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise
-    return p
+    """Write ``text`` to ``path`` atomically (see :func:`splicecalc.core.files.write_atomic`)."""
+    return write_atomic(path, text)
 
 
 def save_job(job: Job, path: str | os.PathLike) -> Path:

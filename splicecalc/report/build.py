@@ -11,12 +11,9 @@ An issued revision is never overwritten: the sign-off step writes a sidecar
 
 from __future__ import annotations
 
-import json
-import os
 import re
 import shutil
 import sys
-import tempfile
 import time
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -25,6 +22,8 @@ from typing import Any
 import nbformat
 
 from ..core.errors import InputError, require_non_negative, require_positive
+from ..core.files import write_atomic
+from ..signoff.ledger import is_protected, sidecar_path
 from .compile import LatexRun, require_tool
 from .errors import CalcBuildError, ProtectedPDFError
 from .execute import execute_notebook
@@ -69,46 +68,6 @@ class BuildReport:
                 f"own {self.overhead_s:.1f} s; "
                 + ("no overfull box" if not wide else
                    f"{len(wide)} overfull box(es) > {self.overfull_limit_pt:g} pt, see {self.log_path}"))
-
-
-def sidecar_path(pdf_path: str | Path) -> Path:
-    """``<name>.pdf.json`` next to the PDF."""
-    p = Path(pdf_path)
-    return p.with_name(p.name + ".json")
-
-
-def is_protected(pdf_path: str | Path) -> bool:
-    """True when the PDF is a signed / issued revision (sidecar ``{"issued": true}``).
-
-    A sidecar that exists but cannot be read also protects the PDF: when in
-    doubt, an issued document is not overwritten.
-    """
-    side = sidecar_path(pdf_path)
-    if not side.exists():
-        return False
-    try:
-        data = json.loads(side.read_text(encoding="utf-8"))
-    except (OSError, ValueError):
-        return True
-    return bool(isinstance(data, dict) and data.get("issued") is True) or not isinstance(data, dict)
-
-
-def write_atomic(path: str | Path, data: bytes) -> None:
-    """Write ``data`` to a temporary file in the target folder, then ``os.replace`` it."""
-    path = Path(path)
-    fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".part")
-    try:
-        with os.fdopen(fd, "wb") as fh:
-            fh.write(data)
-            fh.flush()
-            os.fsync(fh.fileno())
-        os.replace(tmp, path)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise
 
 
 _PAGES_RE = re.compile(r"Output written on .*?\((\d+) pages?")

@@ -14,14 +14,13 @@ from __future__ import annotations
 
 import datetime as _dt
 import json
-import os
 import re
-import tempfile
 from dataclasses import asdict, dataclass
 from pathlib import Path
 from typing import Any
 
 from ..core.errors import InputError
+from ..core.files import write_atomic
 from .digest import compute_digest, file_sha256
 
 #: sign-off roles in the order they must be given
@@ -75,20 +74,6 @@ def _read_nb(path: str | Path):
     if not p.is_file():
         raise InputError("notebook", str(path), "an existing .ipynb file")
     return nbformat.read(str(p), as_version=4)
-
-
-def write_atomic(path: str | Path, text: str) -> None:
-    """Write text to ``path`` via a temporary file in the same folder and os.replace."""
-    p = Path(path)
-    fd, tmp = tempfile.mkstemp(prefix=f".{p.name}.", suffix=".tmp", dir=str(p.parent))
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8") as f:
-            f.write(text)
-        os.replace(tmp, p)
-    except BaseException:
-        if os.path.exists(tmp):
-            os.unlink(tmp)
-        raise
 
 
 def _write_nb(nb: Any, path: str | Path) -> None:
@@ -182,18 +167,25 @@ def add_revision(path: str | Path, letter: str, description: str, date: str | No
 
 # ----------------------------------------------------------------- PDF sidecar
 def sidecar_path(pdf: str | Path) -> Path:
-    return Path(str(pdf) + ".json")
+    """``<name>.pdf.json`` next to the PDF."""
+    p = Path(pdf)
+    return p.with_name(p.name + ".json")
 
 
 def is_protected(pdf: str | Path) -> bool:
-    """True when the PDF is an issued revision (must never be overwritten)."""
+    """True when the PDF is an issued revision (sidecar ``{"issued": true}``): never overwrite it.
+
+    A sidecar that exists but cannot be read, or is not a JSON object, also
+    protects the PDF: when in doubt, an issued document is not overwritten.
+    """
     sc = sidecar_path(pdf)
     if not sc.is_file():
         return False
     try:
-        return bool(json.loads(sc.read_text(encoding="utf-8")).get("issued"))
+        data = json.loads(sc.read_text(encoding="utf-8"))
     except (OSError, ValueError):
-        return True  # unreadable sidecar: be safe
+        return True
+    return not isinstance(data, dict) or data.get("issued") is True
 
 
 def write_sidecar(pdf: str | Path, nb: Any, notebook_path: str | Path | None, issued: bool = False) -> dict:

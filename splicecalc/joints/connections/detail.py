@@ -166,7 +166,7 @@ def _rec(calc: Calc, id: str, title: str, clause: str, demand: float, resistance
 
 def detailing_checks(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]:
     """Detailing rules of the connection and its fit on the existing member (CheckRecords in mm)."""
-    b, beam, ex = det.bolt, ctx.beam, ctx.existing
+    b, beam = det.bolt, ctx.beam
     d0 = b.d_0
     out: list[CheckRecord] = []
     pre = "ep" if det.kind == "end plate" else "fp"

@@ -38,7 +38,7 @@ Layout words (used throughout the splice package):
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from typing import Any
 
 from ...core.errors import InputError, require_choice, require_in_range

@@ -1,0 +1,31 @@
+"""Atomic file writes: the one implementation every module uses.
+
+Nothing half-written is ever left under the final name: data go to a temporary
+file in the target folder, are flushed and fsync'ed, then ``os.replace``'d.
+"""
+
+from __future__ import annotations
+
+import os
+import tempfile
+from pathlib import Path
+
+
+def write_atomic(path: str | os.PathLike, data: bytes | str) -> Path:
+    """Write ``data`` (bytes, or text written as UTF-8 with LF newlines) to ``path`` atomically."""
+    p = Path(path)
+    raw = data.encode("utf-8") if isinstance(data, str) else bytes(data)
+    fd, tmp = tempfile.mkstemp(prefix=f".{p.name}.", suffix=".part", dir=str(p.parent) if str(p.parent) else ".")
+    try:
+        with os.fdopen(fd, "wb") as fh:
+            fh.write(raw)
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.replace(tmp, p)
+    except BaseException:
+        try:
+            os.unlink(tmp)
+        except OSError:
+            pass
+        raise
+    return p
