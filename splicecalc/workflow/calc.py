@@ -1,0 +1,401 @@
+"""The full beam-and-splice calculation of one job: :func:`run_calc` -> :class:`CalcResult`.
+
+Chain (each part calls the module that owns its method; nothing is re-derived here):
+
+1. inputs: the validated :class:`~splicecalc.job.Job`;
+2. actions and analysis, member checks and the lightest section:
+   :func:`splicecalc.design.beam.design_beam` (EN 1990 combinations with the beam
+   self-weight, exact analysis, EN 1993-1-1 / 1-5 checks);
+3. splice positions: :func:`splicecalc.design.splice_positions.choose_splice_positions`
+   on the ULS envelopes of the chosen section, compared with equal cutting;
+4. each splice: :func:`splicecalc.design.splice_layout.design_splice` for the forces
+   of the governing combination at its position (forces, layout, drawing, checks);
+5. each end connection and the existing member it lands on:
+   :func:`splicecalc.joints.connections.design_end_connection` for the largest ULS
+   reaction at that end;
+6. summary (every record sorted by utilisation), references (distinct clauses
+   cited plus the standards list) and cautions.
+
+Splice positions and splice layouts depend on each other (the piece mass includes
+the splice plates; the shortest piece is one cover-plate length): positions are
+found first with no splice kit, the splices are designed, and the positions are
+found again with the heaviest splice kit and the longest cover plate, until they
+no longer change (at most :data:`MAX_ROUNDS` rounds).
+
+A part whose module is missing or raises stops the calculation with that error:
+nothing is skipped silently. A design that fails a check is a result (``ok`` False).
+Internal units N, mm, N*mm, kg; records in report units.
+"""
+
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass, field, replace
+from typing import Any
+
+from ..actions import PointLoad
+from ..core.errors import InputError
+from ..core.record import CheckRecord
+from ..core.units import convert
+from ..design.beam import BeamDesign, design_beam
+from ..job.model import Job
+from .references import CAUTIONS, Reference, cited_clauses, standards_list
+
+#: rounds of (positions -> splice design -> positions) before giving up on convergence
+MAX_ROUNDS = 3
+#: shortest piece when no splice has been designed yet (mm): about one cover-plate length
+FIRST_SPLICE_ZONE_MM = 600.0
+#: end letters used for the supports (as in the member checks: support A at x = 0)
+END_LETTER = {"start": "A", "end": "B"}
+
+
+class CalcError(RuntimeError):
+    """A part of the calculation cannot be carried out (module missing, input unusable)."""
+
+
+# ======================================================================== results
+class PackageRecords:
+    """References, standards, cautions and the summary order of a package's records.
+
+    Needs ``records``, ``splices`` and ``connections`` on the class it is mixed into.
+    """
+
+    records: tuple[CheckRecord, ...]
+    splices: tuple
+    connections: tuple
+
+    @property
+    def summary_records(self) -> tuple[CheckRecord, ...]:
+        """Every record, highest utilisation first (ties by title)."""
+        return tuple(sorted(self.records, key=lambda r: (-r.utilisation, r.title)))
+
+    @property
+    def governing(self) -> CheckRecord | None:
+        return max(self.records, key=lambda r: r.utilisation, default=None)
+
+    @property
+    def historic_steel_used(self) -> bool:
+        return any(c.design.existing.material.historic for c in self.connections)
+
+    @property
+    def references(self) -> tuple[Reference, ...]:
+        """Distinct clauses cited by all records, grouped by standard."""
+        return cited_clauses(self.records)
+
+    @property
+    def standards(self) -> tuple[tuple[str, str], ...]:
+        return standards_list(self.historic_steel_used)
+
+    @property
+    def cautions(self) -> tuple[str, ...]:
+        """The general cautions, then the ones raised by this job's parts (distinct, in order)."""
+        out = list(CAUTIONS)
+        for c in self.connections:
+            for w in c.design.warnings:
+                t = f"End {c.end}: {w}"
+                if t not in out:
+                    out.append(t)
+        if any(getattr(s.spec, "category", "") == "A" for s in self.splices):
+            out.append("The splices are bearing-type (category A) joints in normal clearance holes: slip in the "
+                       "holes adds deflection and a kink at each splice. Where that matters, use preloaded bolts "
+                       "(category B or C, EN 1993-1-8 3.4.1) or fitted bolts.")
+        return tuple(out)
+
+
+@dataclass(frozen=True)
+class SplicePart:
+    """One splice of the beam: its position and forces, the designed splice and its records.
+
+    ``records`` are the splice's check records with ids prefixed ``S<k>.`` and titles
+    ``Splice S<k>: ...`` so that they stay distinct in the package.
+    """
+
+    index: int
+    x_mm: float
+    M_Ed: float
+    V_Ed: float
+    N_Ed: float
+    combination: str
+    design: Any
+    records: tuple[CheckRecord, ...]
+    M_Ed_ser: float | None = None
+    V_Ed_ser: float | None = None
+    spec: Any = None
+
+    @property
+    def label(self) -> str:
+        return f"S{self.index}"
+
+
+@dataclass(frozen=True)
+class ConnectionPart:
+    """One end connection: the support spec, the design reaction, the connection design.
+
+    ``records``: checks of the connection itself (detailing, bolts, plate, welds,
+    beam web, tying); ``existing_records``: checks of the existing member it lands on.
+    Ids are prefixed ``A.`` / ``B.`` and titles ``End A: ...``.
+    """
+
+    index: int
+    end: str
+    V_Ed: float
+    combination: str
+    design: Any
+    records: tuple[CheckRecord, ...]
+    existing_records: tuple[CheckRecord, ...]
+
+    @property
+    def spec(self) -> Any:
+        return self.design.spec
+
+
+@dataclass(frozen=True)
+class CalcResult(PackageRecords):
+    """Everything a calc package shows, in the order it is shown."""
+
+    job: Job
+    design: BeamDesign
+    positions: Any = None
+    splices: tuple[SplicePart, ...] = ()
+    connections: tuple[ConnectionPart, ...] = ()
+    splice_rounds: int = 0
+    splice_kit_mass_kg: float = 0.0
+    splice_zone_mm: float = 0.0
+    notes: tuple[str, ...] = field(default=())
+    member_checks: tuple[CheckRecord, ...] = ()
+
+    # ------------------------------------------------------------ records
+    @property
+    def section(self) -> Any:
+        return self.design.section
+
+    @property
+    def member_records(self) -> tuple[CheckRecord, ...]:
+        """Member checks, each note naming its governing combination."""
+        return self.member_checks or tuple(self.design.records)
+
+    @property
+    def position_records(self) -> tuple[CheckRecord, ...]:
+        return tuple(self.positions.records) if self.positions is not None else ()
+
+    @property
+    def records(self) -> tuple[CheckRecord, ...]:
+        """Every check record of the package, in the order the parts show them."""
+        out = list(self.member_records) + list(self.position_records)
+        for s in self.splices:
+            out += s.records
+        for c in self.connections:
+            out += c.records
+        for c in self.connections:
+            out += c.existing_records
+        return tuple(out)
+
+    @property
+    def ok(self) -> bool:
+        return self.design.ok and all(r.ok for r in self.records)
+
+    @property
+    def headline(self) -> str:
+        """One line naming what the package designs."""
+        out = f"Beam {self.section.designation} {self.job.beam.grade}, span {self.job.beam.span / 1000:g} m"
+        if self.splices:
+            out += (f", {len(self.splices)} splice(s) at "
+                    + ", ".join(f"{s.x_mm / 1000:.3f} m" for s in self.splices))
+        if self.connections:
+            out += f", {len(self.connections)} end connection(s)"
+        return out
+
+
+# ======================================================================== helpers
+#: capital Greek letters LaTeX does not define (they look like Latin letters): handcalcs turns a
+#: symbol part such as "Mu" of ``gamma_Mu`` into ``\Mu``, which stops XeLaTeX. Stop-gap until the
+#: symbol is renamed at its source (reported); the letters are written back as typed.
+_NO_TEX_GREEK = re.compile(r"\\(Alpha|Beta|Epsilon|Zeta|Eta|Iota|Kappa|Mu|Nu|Omicron|Rho|Tau|Chi)(?![A-Za-z])")
+
+
+def tex_safe(rec: CheckRecord) -> CheckRecord:
+    """The record with Greek capitals unknown to LaTeX written as the Latin letters typed."""
+    if not any(_NO_TEX_GREEK.search(s) for s in rec.latex):
+        return rec
+    return replace(rec, latex=tuple(_NO_TEX_GREEK.sub(lambda m: m.group(1), s) for s in rec.latex))
+
+
+def _relabel(rec: CheckRecord, id_prefix: str, title_prefix: str) -> CheckRecord:
+    return tex_safe(replace(rec, id=f"{id_prefix}.{rec.id}", title=f"{title_prefix}: {rec.title}"))
+
+
+def _resistance(design: BeamDesign, check_id: str, unit_from: str, unit_to: str) -> float:
+    try:
+        rec = design.record(check_id)
+    except KeyError:
+        raise CalcError(f"the member checks returned no '{check_id}' record: cannot normalise the splice "
+                        "demand") from None
+    return convert(rec.resistance, unit_from, unit_to)
+
+
+def _require_spec(job: Job) -> None:
+    """Stop when the job kept raw tables because a joint module was missing."""
+    if isinstance(job.splices, dict):
+        raise CalcError("[splices] could not be read: the splice module (splicecalc.joints.splice) is not "
+                        "available, so the splices cannot be designed")
+    seen: dict[str, int] = {}
+    for i, s in enumerate(job.supports):
+        if isinstance(s, dict):
+            raise CalcError(f"support[{i + 1}] could not be read: the connection module "
+                            "(splicecalc.joints.connections) is not available")
+        if s.at in seen:
+            raise InputError(f"support[{i + 1}].at", s.at, f"an end not already given by support[{seen[s.at]}] "
+                             "(one [[support]] table per end: 'start' and 'end')")
+        seen[s.at] = i + 1
+
+
+def _sls_at(design: BeamDesign, x: float) -> tuple[float, float]:
+    """Largest characteristic |M| at x (N*mm) and the |V| of that combination (N)."""
+    best = (0.0, 0.0)
+    for _, b in design.analysis.sls_characteristic:
+        M = abs(float(b.M(x)))
+        V = max(abs(float(b.V(x, "left"))), abs(float(b.V(x, "right"))))
+        if M > best[0]:
+            best = (M, V)
+    return best
+
+
+# ======================================================================== parts
+def design_member(job: Job, render: bool = True) -> BeamDesign:
+    """Actions, analysis, member checks and (``section = "auto"``) the lightest section."""
+    design = design_beam(job, render=render)
+    if design.section is None or design.analysis is None:
+        raise CalcError(f"the member design gave no section: {design.message}")
+    return design
+
+
+def member_checks(design: BeamDesign) -> tuple[CheckRecord, ...]:
+    """The member records with the governing combination added to each note."""
+    out = []
+    for r in design.records:
+        combo = design.governing.get(r.id)
+        if combo:
+            r = replace(r, note=f"{r.note}; governing combination: {combo}" if r.note
+                        else f"governing combination: {combo}")
+        out.append(tex_safe(r))
+    return tuple(out)
+
+
+def splice_positions(job: Job, design: BeamDesign, splice_mass_kg: float = 0.0,
+                     splice_zone_mm: float = FIRST_SPLICE_ZONE_MM) -> Any:
+    """Splice positions on the ULS envelopes of the designed section (None when no [splices])."""
+    if job.splices is None:
+        return None
+    from ..design.splice_positions import choose_splice_positions, envelope
+
+    uls = design.analysis.uls
+    M_abs, V_abs, at = envelope([b for _, b in uls], [c.name for c, _ in uls])
+    avoid = sorted({ld.x for ld in job.loads if isinstance(ld, PointLoad) and 0.0 < ld.x < job.beam.span}
+                   | set(job.beam.restraints))
+    return choose_splice_positions(
+        job.beam.span, job.splices, M_abs=M_abs, V_abs=V_abs,
+        M_c_Rd=_resistance(design, "bending", "kNm", "Nmm"), V_c_Rd=_resistance(design, "shear", "kN", "N"),
+        mass_per_m=design.section.mass_nominal, avoid=avoid, at=at, splice_mass_kg=splice_mass_kg,
+        splice_zone_mm=splice_zone_mm)
+
+
+def design_splices(job: Job, design: BeamDesign, positions: Any, render: bool = True) -> tuple[SplicePart, ...]:
+    """Design every splice at its position for the governing combination's forces there."""
+    if positions is None or not positions.splices:
+        return ()
+    from ..design.splice_layout import design_splice
+
+    spec = job.splices
+    M_c_Rd = _resistance(design, "bending", "kNm", "Nmm")
+    out = []
+    for k, sp in enumerate(positions.splices, start=1):
+        M_ser = V_ser = None
+        if spec.category == "B":
+            M_ser, V_ser = _sls_at(design, sp.x)
+        d = design_splice(design.section, job.beam.grade, sp.M_Ed, abs(sp.V_Ed), sp.N_Ed, spec, job.na,
+                          render=render, M_Ed_ser=M_ser, V_Ed_ser=V_ser, location_mm=sp.x, M_c_Rd=M_c_Rd)
+        recs = tuple(_relabel(r, f"S{k}", f"Splice S{k}") for r in d.records)
+        out.append(SplicePart(index=k, x_mm=sp.x, M_Ed=sp.M_Ed, V_Ed=sp.V_Ed, N_Ed=sp.N_Ed,
+                              combination=sp.combination, design=d, records=recs, M_Ed_ser=M_ser,
+                              V_Ed_ser=V_ser, spec=spec))
+    return tuple(out)
+
+
+def _kit(splices: tuple[SplicePart, ...]) -> tuple[float, float]:
+    """(heaviest splice plate mass kg, longest cover plate mm) of designed splices."""
+    mass = max((s.design.plate_mass for s in splices), default=0.0)
+    zone = max((max(s.design.geometry.L_fp, s.design.geometry.L_wp) for s in splices), default=0.0)
+    return mass, zone
+
+
+def design_connections(job: Job, design: BeamDesign, render: bool = True) -> tuple[ConnectionPart, ...]:
+    """Design every ``[[support]]`` connection for the largest ULS reaction at its end."""
+    if not job.supports:
+        return ()
+    from ..joints.connections import design_end_connection
+
+    uls = design.analysis.uls
+    out = []
+    for spec in job.supports:
+        end = END_LETTER[spec.at]
+        reactions = [(abs(b.R_A if end == "A" else b.R_B), c.name) for c, b in uls]
+        V, combo = max(reactions, key=lambda t: t[0])
+        d = design_end_connection(design.section, job.beam.grade, V, spec, job.na, render=render)
+        existing_ids = {id(r) for r in d.existing.records}
+        own = tuple(_relabel(r, end, f"End {end}") for r in d.records if id(r) not in existing_ids)
+        ex = tuple(_relabel(r, end, f"End {end}") for r in d.existing.records)
+        if len(own) + len(ex) != len(d.records):
+            # existing records not shared by identity: split by id instead
+            ex_ids = {r.id for r in d.existing.records}
+            own = tuple(_relabel(r, end, f"End {end}") for r in d.records if r.id not in ex_ids)
+            ex = tuple(_relabel(r, end, f"End {end}") for r in d.records if r.id in ex_ids)
+        out.append(ConnectionPart(index=spec.index, end=end, V_Ed=V, combination=combo, design=d, records=own,
+                                  existing_records=ex))
+    return tuple(out)
+
+
+def run_calc(job: Job, render: bool = True) -> CalcResult:
+    """Run every part of the beam-and-splice calculation of ``job`` (see the module docstring).
+
+    ``render``: render every check with handcalcs (the calc package); ``False`` runs
+    the same checks on plain floats (tests, quick looks). Raises
+    :class:`~splicecalc.core.errors.InputError` for bad input and :class:`CalcError`
+    when a part cannot be carried out.
+    """
+    if not isinstance(job, Job):
+        raise InputError("job", type(job).__name__, "a splicecalc.job.Job (load_job('job.toml'))")
+    if not isinstance(render, bool):
+        raise InputError("render", render, "True or False")
+    _require_spec(job)
+    design = design_member(job, render=render)
+    notes: list[str] = list(job.notes)
+
+    positions = None
+    splices: tuple[SplicePart, ...] = ()
+    rounds = 0
+    kit_mass, zone = 0.0, FIRST_SPLICE_ZONE_MM
+    if job.splices is not None:
+        used = (kit_mass, zone)
+        for rounds in range(1, MAX_ROUNDS + 1):
+            positions = splice_positions(job, design, *used)
+            # search layouts on floats; render only the final ones
+            splices = design_splices(job, design, positions, render=False)
+            need = _kit(splices)
+            need = (need[0], max(need[1], FIRST_SPLICE_ZONE_MM) if splices else used[1])
+            if need[0] <= used[0] + 1e-9 and need[1] <= used[1] + 1e-9:
+                break
+            used = (max(used[0], need[0]), max(used[1], need[1]))
+        else:
+            raise CalcError(f"splice positions and splice layouts did not settle in {MAX_ROUNDS} rounds "
+                            "(piece limits too tight for the splice kit): give explicit positions")
+        kit_mass, zone = used
+        if render:
+            splices = design_splices(job, design, positions, render=True)
+    connections = design_connections(job, design, render=render)
+    return CalcResult(job=job, design=design, positions=positions, splices=splices, connections=connections,
+                      splice_rounds=rounds, splice_kit_mass_kg=kit_mass, splice_zone_mm=zone, notes=tuple(notes),
+                      member_checks=member_checks(design))
+
+
+__all__ = ["CalcError", "CalcResult", "ConnectionPart", "SplicePart", "design_connections", "design_member",
+           "design_splices", "member_checks", "run_calc", "splice_positions", "END_LETTER", "MAX_ROUNDS"]

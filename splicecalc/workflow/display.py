@@ -1,0 +1,571 @@
+"""One call per part of the calc sheet: the notebook templates stay short.
+
+Every check is displayed once with :func:`splicecalc.report.display.show_check`,
+whose output carries the record under the sign-off MIME type
+(:data:`splicecalc.signoff.digest.CHECK_MIME`); the job's canonical inputs are
+published once by :func:`show_inputs` under
+:data:`splicecalc.signoff.digest.JOB_MIME`. Tables, headings, figures and
+rendered equations are plain display data laid out by the PDF exporter.
+
+Numbers shown here are results of the owning modules (design, splice, connection
+results); nothing is recomputed for display.
+"""
+
+from __future__ import annotations
+
+import base64
+import io
+import math
+import os
+import sys
+from typing import Any, Iterable, Sequence
+
+from ..actions import PointLoad, UDL
+from ..core.record import CheckRecord
+from ..report.display import (TABLE_MIME, UNIT_TEX, TableOutput, fmt_utilisation, show_check,
+                              show_section, show_table, summary_output)
+from ..signoff.digest import CHECK_MIME, JOB_MIME
+from .calc import CalcResult
+
+#: environment variable set by headless builds (``splicecalc build``): interactive parts stay hidden
+HEADLESS_ENV = "SPLICECALC_HEADLESS"
+
+
+def _u(unit: str) -> str:
+    """A unit as a LaTeX math table cell."""
+    return f"${UNIT_TEX.get(unit, unit)}$" if unit else ""
+
+
+def _m(x_mm: float | None) -> str:
+    return "-" if x_mm is None else f"{x_mm / 1000.0:.3f}"
+
+
+def _display(obj: Any) -> None:
+    from IPython.display import display
+
+    display(obj)
+
+
+class _Bundle:
+    """Any MIME bundle as a displayable object."""
+
+    def __init__(self, data: dict[str, Any], metadata: dict[str, Any] | None = None) -> None:
+        self.data = data
+        self.metadata = metadata or {}
+
+    def _repr_mimebundle_(self, include: Any = None, exclude: Any = None) -> tuple[dict, dict]:
+        return self.data, self.metadata
+
+
+# ======================================================================== generic outputs
+def show_heading(text: str, level: int = 1) -> None:
+    """A heading in the output (level 1 = a numbered section of the package)."""
+    _display(_Bundle({"text/markdown": "#" * level + " " + text, "text/plain": text}))
+
+
+def contents_depth(depth: int = 1) -> None:
+    """Limit the PDF contents list to ``depth`` (1: sections only) from here on.
+
+    A long package lists every check as a subsection; the contents then runs to
+    several sheets. This output carries only LaTeX (nothing shows in Jupyter).
+    """
+    if isinstance(depth, bool) or depth not in (0, 1, 2, 3):
+        raise ValueError(f"contents depth must be 0, 1, 2 or 3, not {depth!r}")
+    _display(_Bundle({"text/latex": f"\\addtocontents{{toc}}{{\\protect\\setcounter{{tocdepth}}{{{depth}}}}}",
+                      "text/markdown": "", "text/plain": ""}))
+
+
+def show_text(text: str) -> None:
+    """A paragraph of Markdown text."""
+    _display(_Bundle({"text/markdown": text, "text/plain": text}))
+
+
+def show_list(items: Iterable[str], title: str = "") -> None:
+    """A bulleted list (Markdown)."""
+    md = ([f"**{title}**", ""] if title else []) + [f"- {t}" for t in items]
+    _display(_Bundle({"text/markdown": "\n".join(md), "text/plain": "\n".join(md)}))
+
+
+def show_steps(latex: Sequence[str], intro: str = "") -> None:
+    """Rendered handcalcs steps (LaTeX) that are not a check of their own."""
+    from .calc import _NO_TEX_GREEK
+
+    steps = [_NO_TEX_GREEK.sub(lambda m: m.group(1), s) for s in latex if s.strip()]
+    if not steps:
+        return
+    body = "\n".join(s if s.lstrip().startswith(("\\[", "$$", "\\begin")) else f"\\par{{\\small {s}}}\\par"
+                     for s in steps)
+    md = "\n\n".join(([intro] if intro else []) + list(steps))
+    if intro:
+        body = f"\\par{{{_tex_text(intro)}}}\\par\n" + body
+    _display(_Bundle({"text/latex": body, "text/markdown": md, "text/plain": intro or "(rendered steps)"}))
+
+
+def _tex_text(text: str) -> str:
+    from ..report.latexout import escape_tex
+
+    return escape_tex(text)
+
+
+def figure_bundle(fig: Any, caption: str = "", dpi: int = 150) -> dict[str, Any]:
+    """PDF (vector, used by the calc package) and PNG (Jupyter) of a matplotlib Figure."""
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+
+    if fig.canvas is None or not hasattr(fig.canvas, "print_png"):
+        FigureCanvasAgg(fig)
+    out: dict[str, Any] = {"text/plain": caption or "figure"}
+    for mime, fmt in (("application/pdf", "pdf"), ("image/png", "png")):
+        buf = io.BytesIO()
+        fig.savefig(buf, format=fmt, dpi=dpi, bbox_inches="tight", pad_inches=0.04,
+                    metadata={"CreationDate": None} if fmt == "pdf" else None)
+        out[mime] = base64.b64encode(buf.getvalue()).decode("ascii")
+    return out
+
+
+def show_figure(fig: Any, caption: str = "") -> None:
+    """Display a matplotlib Figure (vector PDF for the package, PNG for Jupyter), caption below."""
+    _display(_Bundle(figure_bundle(fig, caption)))
+    if caption:
+        show_text(f"*{caption}*")
+
+
+def show_checks(records: Iterable[CheckRecord]) -> None:
+    """Display each record once (rendered steps and verdict; publishes CHECK_MIME)."""
+    for r in records:
+        show_check(r)
+
+
+# ======================================================================== inputs
+def job_tables(job: Any) -> list[TableOutput]:
+    """Tables of the job's inputs: beam, loads, splices, supports (values as the job holds them)."""
+    b = job.beam
+    restr = ", ".join(f"{x / 1000:g}" for x in b.restraints) or "none (fork supports at the ends only)"
+    rows = [
+        ["Span (bearing centres)", f"{b.span / 1000:g}", "m"],
+        ["Steel grade", b.grade, ""],
+        ["Section", b.section if not b.is_auto else f"lightest of {', '.join(b.families)}", ""],
+        ["Headroom limit on depth", "-" if b.max_depth is None else f"{b.max_depth:g}", "mm"],
+        ["Stiff bearing length at each support", f"{b.bearing_length:g}", "mm"],
+        ["Lateral-torsional restraints at", restr, "m"],
+        ["Load level", b.load_level, ""],
+        ["Deflection limit, variable actions", f"span / {b.deflection_limit:g}", ""],
+        ["Deflection limit, total", "-" if b.total_deflection_limit is None else
+         f"span / {b.total_deflection_limit:g}", ""],
+        ["ULS combination rule", "Eq. 6.10" if b.combination == "6.10" else "worse of Eq. 6.10a and 6.10b", ""],
+        ["National Annex", job.na.name, ""],
+    ]
+    beam = TableOutput(["Item", "Value", "Unit"], rows, title="Beam", align="lll")
+    lrows = []
+    for ld in job.loads:
+        cat = ld.category or "-"
+        if isinstance(ld, UDL):
+            extent = "full span" if ld.x_start == 0.0 and ld.x_end is None else \
+                f"{ld.x_start / 1000:g} to {(ld.x_end if ld.x_end is not None else job.beam.span) / 1000:g} m"
+            lrows.append([ld.name, ld.action, cat, "line load", f"{ld.w:g}", _u("kN/m"), extent])
+        else:
+            lrows.append([ld.name, ld.action, cat, "point load", f"{ld.P / 1000:g}", _u("kN"),
+                          f"at {ld.x / 1000:g} m"])
+    loads = TableOutput(["Load", "Action", "Cat.", "Type", "Value", "Unit", "Where"], lrows,
+                        title="Characteristic loads (beam self-weight added by the design)", align="lllrrll")
+    out = [beam, loads]
+    if job.splices is not None and not isinstance(job.splices, dict):
+        s = job.splices
+        srows = []
+        if s.positions:
+            srows.append(["Splice positions", ", ".join(f"{x / 1000:g} m" for x in s.positions)])
+        if s.pieces:
+            srows.append(["Number of pieces", str(s.pieces)])
+        if s.max_piece_length:
+            srows.append(["Longest piece allowed (access)", f"{s.max_piece_length / 1000:g} m"])
+        if s.max_piece_mass:
+            srows.append(["Heaviest piece allowed (access)", f"{s.max_piece_mass:g} kg"])
+        srows += [["Bolts", s.bolts], ["Category (EN 1993-1-8, 3.4.1)", s.category],
+                  ["Flange cover plates", s.flange_plates], ["Plate grade", s.plate_grade],
+                  ["Clearance to supports, point loads, restraints", f"{s.clearance:g} mm"],
+                  ["Gap between beam ends", f"{s.gap:g} mm"],
+                  ["Minimum design moment", f"{s.min_design_moment:g} x M_c,Rd"]]
+        if s.category in ("B", "C"):
+            srows.append(["Slip surface class", s.friction_class])
+        out.append(TableOutput(["Splice option", "Value"], srows, title="Splices", align="ll"))
+    for spec in job.supports:
+        if isinstance(spec, dict):
+            continue
+        m = spec.existing_member
+        rows = [["End", f"{spec.at} ({'A' if spec.at == 'start' else 'B'})"],
+                ["Connection", spec.connection], ["Bolts", f"{spec.bolt_size} {spec.bolt_class}"],
+                ["Plate", (f"{spec.plate_t:g} mm " if spec.plate_t else "thickness chosen, ") + spec.plate_grade],
+                ["Existing member", getattr(m, "designation", str(m))],
+                ["Existing member dimensions h x b x tw x tf x r",
+                 f"{m.h:g} x {m.b:g} x {m.tw:g} x {m.tf:g} x {m.r:g} mm"],
+                ["Face connected to", spec.existing_face], ["Existing steel", spec.existing_steel],
+                ["Tying force", f"{spec.tying_force / 1000:g} kN"]]
+        if spec.notched:
+            rows.append(["Top notch depth x length", f"{spec.notch_depth:g} x {spec.notch_length:g} mm"])
+        out.append(TableOutput(["Support item", "Value"], rows, title=f"End connection, support[{spec.index}]",
+                               align="ll"))
+    return out
+
+
+def show_inputs(job: Any) -> None:
+    """Publish the canonical job inputs once (JOB_MIME, for the sign-off digest) with the input tables."""
+    tables = job_tables(job)
+    first = tables[0]
+    bundle = first._repr_mimebundle_()
+    bundle[JOB_MIME] = job.to_canonical_dict()
+    _display(_Bundle(bundle))
+    for t in tables[1:]:
+        _display(t)
+    p = job.project
+    rows = [[k.replace("_", " ").capitalize(), getattr(p, k)] for k in
+            ("number", "title", "client", "location", "prepared_by", "checked_by", "date", "revision")
+            if getattr(p, k)]
+    if rows:
+        show_table(["Project item", "Value"], rows, title="Project (from the job file)", align="ll")
+    if job.notes:
+        show_list(job.notes, "Notes on the job file")
+
+
+def show_joint_inputs(result: Any) -> None:
+    """Inputs of a one-joint package: publishes the canonical inputs once (JOB_MIME), then the tables."""
+    inp = result.inputs
+    rows = [[k.replace("_", " "), str(v)] for k, v in inp.items() if not isinstance(v, dict) and k != "template"]
+    table = TableOutput(["Input", "Value"], rows, title="Design data", align="ll")
+    bundle = table._repr_mimebundle_()
+    bundle[JOB_MIME] = inp
+    _display(_Bundle(bundle))
+    for key in ("splices", "support"):
+        sub = inp.get(key)
+        if isinstance(sub, dict) and sub:
+            show_table(["Option", "Value"], [[k, _flat(v)] for k, v in sub.items()],
+                       title=f"[{key}] options as typed", align="ll")
+    show_section(result.section, result.grade)
+
+
+def _flat(v: Any) -> str:
+    if isinstance(v, dict):
+        return ", ".join(f"{k} = {_flat(x)}" for k, x in v.items())
+    if isinstance(v, (list, tuple)):
+        return ", ".join(_flat(x) for x in v)
+    return str(v)
+
+
+# ======================================================================== actions, analysis
+def show_actions(result: CalcResult) -> None:
+    """Characteristic loads with the self-weight, every ULS combination and the governing one rendered."""
+    from ..actions import PSI_UK_NA, render_line_load
+    from ..core.record import Calc
+
+    d = result.design
+    an = d.analysis
+    rows = []
+    for ld in an.loads:
+        if isinstance(ld, UDL):
+            ext = "full span" if ld.is_full(an.span_mm) else \
+                f"{ld.x_start / 1000:g} to {(ld.x_end or an.span_mm) / 1000:g} m"
+            rows.append([ld.name, ld.action + (f" ({ld.category})" if ld.category else ""), f"{ld.w:.2f}",
+                         _u("kN/m"), ext])
+        elif isinstance(ld, PointLoad):
+            rows.append([ld.name, ld.action + (f" ({ld.category})" if ld.category else ""), f"{ld.P / 1000:.2f}",
+                         _u("kN"), f"at {ld.x / 1000:g} m"])
+    show_table(["Load", "Action", "Value", "Unit", "Where"], rows, align="llrll",
+               title=f"Characteristic actions on the beam ({d.section.designation}, self-weight "
+                     f"{d.section.mass_nominal:g} kg/m)")
+    crow = []
+    for i, (c, b) in enumerate(an.uls):
+        M, V = b.M_max(), b.V_max()
+        gov = ", ".join(t for t, j in (("M", an.governing_M), ("V", an.governing_V)) if i == j) or "-"
+        crow.append([f"C{i + 1}", c.name, f"{abs(M.value) / 1e6:.1f}", f"{abs(V.value) / 1e3:.1f}", gov])
+    show_table(["No.", "Combination", r"$\max M_{Ed}\ (\mathrm{kN\,m})$", r"$\max V_{Ed}\ (\mathrm{kN})$",
+                "Governs"], crow, align="llrrl", title="ULS combinations (EN 1990:2002, 6.4.3.2 with the UK NA)",
+               notes="Every variable action leads in turn; the beam self-weight is a permanent action.")
+    show_table(["No.", "Factors (ULS)"], [[f"C{i + 1}", c.expression] for i, (c, _) in enumerate(an.uls)],
+               align="ll", title="Factors of each ULS combination")
+    sls = list(an.sls_variable)
+    if result.job.beam.total_deflection_limit is not None:
+        sls += list(an.sls_characteristic)
+    if sls:
+        show_table(["No.", "Combination", "Factors (SLS)"],
+                   [[f"D{i + 1}", c.name, c.expression] for i, (c, _) in enumerate(sls)], align="lll",
+                   title="SLS combinations for deflection (EN 1990:2002, 6.5.3)")
+    gov, _ = an.uls[an.governing_M]
+    calc = Calc(render=True)
+    render_line_load(gov, an.loads, an.span_mm, result.job.na, PSI_UK_NA, calc)
+    show_steps(calc.latex, intro=f"Governing combination for bending, {gov.name}, applied to the full-span "
+                                 "line loads (partial-length and point loads are factored the same way):")
+
+
+def show_analysis(result: CalcResult) -> None:
+    """Diagrams of the governing combination with restraints and splices marked, and the reactions."""
+    d = result.design
+    an = d.analysis
+    xs = [s.x_mm for s in result.splices] or (list(result.positions.positions) if result.positions else [])
+    from ..analysis import SimpleBeam, beam_diagrams
+
+    c, b = an.uls[an.governing_M]
+    fig = beam_diagrams(SimpleBeam(an.span_mm, c.loads), splices_mm=xs or None, restraints_mm=an.restraints_mm,
+                        title=f"{an.section}: {c.name}")
+    show_figure(fig,
+                f"Loads, shear force and bending moment for {c.name} (design values); restraints R, "
+                "splices S and supports A, B marked.")
+    rows = []
+    for (cc, bb) in an.uls:
+        rows.append([cc.name, f"{bb.R_A / 1e3:.1f}", f"{bb.R_B / 1e3:.1f}", f"{abs(bb.M_max().value) / 1e6:.1f}",
+                     _m(bb.M_max().x_mm)])
+    show_table(["Combination", r"$R_A\ (\mathrm{kN})$", r"$R_B\ (\mathrm{kN})$", r"$\max M\ (\mathrm{kN\,m})$",
+                r"$x\ (\mathrm{m})$"], rows, align="lrrrr",
+               title="Reactions and maximum moment, every ULS combination")
+    if an.sls_variable:
+        fig = an.deflection_diagrams()
+        if fig is not None:
+            show_figure(fig, f"Variable actions only ({an.sls_variable[0][0].name}): deflection with "
+                             f"$I_y$ of {d.section.designation}.")
+
+
+# ======================================================================== member
+def show_member(result: CalcResult) -> None:
+    """The chosen section, the section search and every member check."""
+    d = result.design
+    show_section(d.section, result.job.beam.grade)
+    show_text(("**Result.** " if d.ok else "**Result (FAILS).** ") + d.message + ".")
+    if len(d.candidates) > 1:
+        lighter = list(d.lighter_failures)[-6:]
+        rows = [[c.designation, f"{c.mass_kg_per_m:g}", "fails", c.governing, fmt_utilisation(c.utilisation)]
+                for c in lighter]
+        rows.append([d.section.designation, f"{d.section.mass_nominal:g}", "chosen" if d.ok else "fails",
+                     (d.governing_record.id if d.governing_record else "-"),
+                     fmt_utilisation(d.governing_record.utilisation) if d.governing_record else "-"])
+        rows += [[c.designation, f"{c.mass_kg_per_m:g}", "passes", c.governing, fmt_utilisation(c.utilisation)]
+                 for c in d.alternatives]
+        show_table(["Section", "kg/m", "Verdict", "Governing check", "Util."], rows, align="lrlll",
+                   title="Section search (the heaviest lighter sections tried, the chosen one, the next passing)")
+    show_checks(result.member_records)
+
+
+# ======================================================================== splices
+def show_splice_positions(result: CalcResult) -> None:
+    """Where the beam is cut: positions, pieces, the comparison with equal cutting, position checks."""
+    pos = result.positions
+    if pos is None:
+        show_text("No `[splices]` table in the job: the beam is delivered in one piece and has no splice.")
+        return
+    show_text(f"**Method.** {pos.method}. Splice kit mass used for the piece masses: "
+              f"{result.splice_kit_mass_kg:.1f} kg (cover plates of the heaviest splice, bolts carried "
+              f"separately); shortest piece {result.splice_zone_mm:g} mm; "
+              f"{result.splice_rounds} round(s) of positions and splice layout.")
+    if pos.splices:
+        rows = [[f"S{k}", f"{s.x / 1000:.3f}", f"{s.M_Ed / 1e6:.1f}", f"{abs(s.V_Ed) / 1e3:.1f}",
+                 f"{s.N_Ed / 1e3:.1f}", f"{s.demand:.3f}", s.combination]
+                for k, s in enumerate(pos.splices, start=1)]
+        show_table(["Splice", r"$x\ (\mathrm{m})$", r"$M_{Ed}\ (\mathrm{kN\,m})$", r"$V_{Ed}\ (\mathrm{kN})$",
+                    r"$N_{Ed}\ (\mathrm{kN})$", "Demand", "Combination"],
+                   rows, align="lrrrrrl", title="Splice positions and design forces",
+                   notes="Demand = |M|/M_c,Rd + |V|/V_c,Rd of the beam at the splice (the quantity minimised).")
+    cuts = [0.0, *pos.positions, result.job.beam.span]
+    prow = [[str(i + 1), f"{cuts[i] / 1000:.3f}", f"{cuts[i + 1] / 1000:.3f}", f"{L / 1000:.3f}", f"{m:.0f}"]
+            for i, (L, m) in enumerate(zip(pos.pieces_mm, pos.piece_mass_kg))]
+    show_table(["Piece", "from (m)", "to (m)", "Length (m)", "Mass (kg)"], prow, align="lrrrr",
+               title="Pieces as delivered (mass includes the splice plates at each end)")
+    if pos.splices:
+        eq = ", ".join(f"{x / 1000:.3f}" for x in pos.equal_positions)
+        chosen = ", ".join(f"{x / 1000:.3f}" for x in pos.positions)
+        rows = [["Chosen positions", chosen, f"{pos.worst_demand:.3f}", "yes"],
+                ["Equal cutting", eq, f"{pos.equal_worst_demand:.3f}",
+                 "yes" if pos.equal_feasible else "no (inside a clearance zone)"]]
+        show_table(["Cutting", "Positions (m)", "Worst demand", "Clear of supports, loads, restraints"], rows,
+                   align="llrl", title="Comparison with equal cutting")
+    show_checks(result.position_records)
+
+
+def splice_layout_rows(part: Any, plate_grade: str = "") -> list[list[str]]:
+    """Layout of one designed splice as table rows (from the splice design's own data)."""
+    d = part.design
+    g, lay = d.geometry, d.layout
+    f, w = lay.flange, lay.web
+    rows = [
+        ["Bolts", f"{lay.bolt_size} {lay.bolt_class}, {d.n_bolts} in all"],
+        ["Flange bolts, each side of the joint", f"{f.rows} rows x {f.columns} lines, pitch {g.p1_f:g}, "
+                                                  f"gauge {g.g_f:g}" + (f", outer gauge {g.p2o_f:g}" if g.p2o_f else "")
+                                                  + f", end distance {g.e1_f:g} mm"],
+        ["Outer flange plates (2)", f"{g.b_po:g} x {g.t_po:g} x {g.L_fp:g} mm {plate_grade}".rstrip()],
+    ]
+    if g.t_pi > 0:
+        rows.append(["Inner flange plates (4)", f"{g.b_pi:g} x {g.t_pi:g} x {g.L_fp:g} mm {plate_grade}".rstrip()])
+    rows += [
+        ["Web bolts, each side of the joint", f"{w.rows} rows x {w.columns} columns, pitch {g.p_w:g}"
+                                               + (f", gauge {g.g_w:g}" if w.columns > 1 else "")
+                                               + f", end distance {g.e1_w:g}, edge {g.e_v:g} mm"],
+        ["Web plates (2)", f"{g.h_wp:g} x {g.t_wp:g} x {g.L_wp:g} mm {plate_grade}".rstrip()],
+        ["Plate mass of the splice", f"{d.plate_mass:.1f} kg"],
+        ["Stated cost (per bolt + per kg)", f"{d.cost:.1f}"],
+    ]
+    return rows
+
+
+def show_splice(result: CalcResult, part: Any) -> None:
+    """One splice: heading, forces (rendered), layout, drawing, alternatives, checks."""
+    d = part.design
+    if math.isfinite(part.x_mm):
+        show_heading(f"Splice {part.label} at x = {part.x_mm / 1000:.3f} m")
+    else:
+        show_heading("Splice design" + (f": {part.combination}" if part.combination else ""))
+    fo = d.forces
+    rows = [["Design moment (governing combination)", "$M_{Ed}$", f"{fo.M_Ed / 1e6:.1f}", _u("kNm")],
+            ["Shear force", "$V_{Ed}$", f"{abs(fo.V_Ed) / 1e3:.1f}", _u("kN")],
+            ["Axial force (tension +)", "$N_{Ed}$", f"{fo.N_Ed / 1e3:.1f}", _u("kN")],
+            ["Splice design moment", "$M_{j,Ed}$", f"{fo.M_j_Ed / 1e6:.1f}", _u("kNm")],
+            ["Web share of the moment", "$M_{w,Ed}$", f"{fo.M_w_Ed / 1e6:.1f}", _u("kNm")],
+            ["Flange force", "$F_{f,Ed}$", f"{fo.F_f_Ed / 1e3:.1f}", _u("kN")],
+            ["Moment on the web bolt group", "$M_{g,Ed}$", f"{fo.M_g_Ed / 1e6:.2f}", _u("kNm")],
+            ["Largest web bolt force", "$F_{r,Ed}$", f"{fo.F_web_max / 1e3:.1f}", _u("kN")]]
+    if part.M_Ed_ser is not None:
+        rows.append(["Characteristic moment (slip, category B)", "$M_{Ed,ser}$", f"{part.M_Ed_ser / 1e6:.1f}",
+                     _u("kNm")])
+    show_table(["Force", "Symbol", "Value", "Unit"], rows, align="llrl",
+               title=f"Forces at splice {part.label} ({part.combination})")
+    show_steps(d.force_latex, intro="Share of the forces between flanges and web, and the web bolt group:")
+    rows = splice_layout_rows(part, getattr(part.spec, "plate_grade", ""))
+    show_table(["Item", "Layout"], rows, align="ll", title=f"Layout of splice {part.label}")
+    fig = d.figure
+    if fig is None:
+        from ..joints.splice.drawing import draw_splice
+
+        fig = draw_splice(d)
+    show_figure(fig, f"Splice {part.label}: elevation and plan of the top flange, to scale, dimensions in mm.")
+    if d.notes:
+        show_list(d.notes, "Notes")
+    if d.alternatives:
+        rows = [[a.layout.bolt_size + " " + a.layout.bolt_class, str(a.n_bolts), f"{a.plate_mass:.1f}",
+                 f"{a.cost:.1f}", f"{a.max_utilisation:.2f}"] for a in d.alternatives]
+        show_table(["Bolts", "No. of bolts", "Plates (kg)", "Cost", "Max util."], rows, align="lrrrr",
+                   title="Alternatives considered (also passing)")
+    show_checks(part.records)
+
+
+def show_splices(result: CalcResult) -> None:
+    """Every splice of the beam, one section each."""
+    if not result.splices:
+        show_text("No splice: the beam is delivered in one piece.")
+        return
+    for part in result.splices:
+        show_splice(result, part)
+
+
+# ======================================================================== connections, existing
+def show_connection(result: CalcResult, part: Any) -> None:
+    """One end connection: heading, reaction, chosen detail, checks, warnings."""
+    d = part.design
+    spec = part.spec
+    show_heading(f"End connection at support {part.end} ({spec.connection})")
+    rows = [["Design reaction (largest ULS)", f"{part.V_Ed / 1e3:.1f} kN", part.combination],
+            ["Tying force (accidental, structural integrity)", f"{spec.tying_force / 1e3:.1f} kN",
+             "user value or the 75 kN minimum"],
+            ["Existing member", getattr(spec.existing_member, "designation", ""), spec.existing_face]]
+    show_table(["Item", "Value", "Source"], rows, align="lll", title=f"Support {part.end} actions")
+    desc = d.detail.describe()
+    show_text(f"**Detail.** {desc[:1].upper() + desc[1:]}.\n\n{d.choice}")
+    show_checks(part.records)
+    if d.warnings:
+        show_list(d.warnings, "Warnings")
+
+
+def show_connections(result: CalcResult) -> None:
+    """Every end connection."""
+    if not result.connections:
+        show_text("No `[[support]]` table in the job: the end connections are not designed in this package.")
+        return
+    for part in result.connections:
+        show_connection(result, part)
+
+
+def show_existing(result: CalcResult) -> None:
+    """The existing member at each end: material, local checks, the moment the reaction adds."""
+    if not result.connections:
+        show_text("No existing member: no `[[support]]` table in the job.")
+        return
+    for part in result.connections:
+        ex = part.design.existing
+        m = part.spec.existing_member
+        show_heading(f"Existing member at support {part.end}: {getattr(m, 'designation', '')}", level=2)
+        rows = [["Material", ex.material.label, ""],
+                ["Yield strength", f"{ex.material.f_y:g}", _u("MPa")],
+                ["Ultimate strength", f"{ex.material.f_u:g}", _u("MPa")],
+                ["Dimensions h x b x tw x tf x r", f"{m.h:g} x {m.b:g} x {m.tw:g} x {m.tf:g} x {m.r:g}", _u("mm")],
+                ["Face connected to", part.spec.existing_face, ""],
+                ["Added moment", f"{ex.M_add_Nmm / 1e6:.2f}", _u("kNm")],
+                ["Eccentricity", f"{ex.e_mm:.1f}", _u("mm")]]
+        show_table(["Item", "Value", "Unit"], rows, align="lrl", title=f"Existing member at support {part.end}",
+                   notes=ex.material.note)
+        show_text(ex.text[0].upper() + ex.text[1:] + ("." if not ex.text.endswith(".") else ""))
+        show_checks(part.existing_records)
+
+
+# ======================================================================== summary, references, cautions
+def show_summary(result: CalcResult) -> None:
+    """Every record of the package, highest utilisation first (each listed once)."""
+    recs = result.summary_records
+    n_bad = sum(not r.ok for r in recs)
+    gov = result.governing
+    show_text(("**All checks pass.** " if n_bad == 0 else f"**{n_bad} check(s) NOT OK.** ")
+              + (f"Governing: {gov.title} (utilisation {fmt_utilisation(gov.utilisation)}). " if gov else "")
+              + result.headline + ".")
+    _display(summary_output(recs, title=f"Summary of the {len(recs)} checks (highest utilisation first)"))
+
+
+def show_references(result: CalcResult) -> None:
+    """Clauses cited by the checks (by standard) and the standards and guidance used."""
+    rows = []
+    for r in result.references:
+        if not r.clauses:
+            rows.append([r.standard, "-", str(r.checks)])
+        for i, (c, n) in enumerate(zip(r.clauses, r.counts)):
+            rows.append([r.standard if i == 0 else "", c, str(n)])
+    show_table(["Standard", "Clause cited", "Checks citing it"], rows, align="llr",
+               title="Clauses cited by the checks of this package")
+    show_list([f"**{doc}**: {title}" for doc, title in result.standards],
+              "Standards and guidance (the UK National Annexes apply throughout)")
+
+
+def show_cautions(result: CalcResult) -> None:
+    """The cautions of the package (general ones, then those raised by this job)."""
+    show_list(result.cautions)
+
+
+# ======================================================================== form (live sessions only)
+def is_live_session() -> bool:
+    """True in an interactive Jupyter session, False in headless builds and plain Python."""
+    if os.environ.get(HEADLESS_ENV):
+        return False
+    ip = sys.modules.get("IPython")
+    if ip is None:
+        return False
+    try:
+        from IPython import get_ipython
+
+        shell = get_ipython()
+    except Exception:  # pragma: no cover - IPython without a shell
+        return False
+    return shell is not None and getattr(shell, "kernel", None) is not None and "ipykernel" in sys.modules
+
+
+def show_form(job_file: str) -> Any:
+    """The job form bound to ``job_file``, only in a live Jupyter session (never in a build).
+
+    Returns the form (or None when not shown).
+    """
+    if not is_live_session():
+        return None
+    try:
+        from ..form import JobForm
+    except (ImportError, AttributeError) as err:
+        show_text(f"The job form is not available in this installation ({err}); edit `{job_file}` instead.")
+        return None
+    form = JobForm(job_file)
+    _display(form)
+    return form
+
+
+__all__ = ["HEADLESS_ENV", "contents_depth", "figure_bundle", "is_live_session", "job_tables", "show_actions", "show_analysis",
+           "show_cautions", "show_checks", "show_connection", "show_connections", "show_existing", "show_figure",
+           "show_form", "show_heading", "show_inputs", "show_joint_inputs", "show_list", "show_member", "show_references",
+           "show_splice", "show_splice_positions", "show_splices", "show_steps", "show_summary", "show_text",
+           "CHECK_MIME", "TABLE_MIME"]

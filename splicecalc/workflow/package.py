@@ -1,0 +1,345 @@
+"""Calc packages on disk: templates, a new package folder, building a PDF, the demo.
+
+* :func:`new_package` copies a template into a project folder with the project
+  fields in ``nb.metadata["splicecalc"]`` and the job file beside it;
+* :func:`build_package` executes a notebook (or a job file through the default
+  template) headless, writes the executed notebook next to the PDF (it is what
+  is signed and verified), the PDF (atomically) and its sidecar record
+  (:func:`splicecalc.signoff.ledger.write_sidecar`). A PDF that is issued, or that
+  was built signed, is never overwritten. Signatures and revisions already in the
+  executed notebook are kept, so a rebuild after an input change shows as
+  changed since signed;
+* :func:`build_demo` builds the demo package from ``examples/demo_*.toml``.
+"""
+
+from __future__ import annotations
+
+import json
+import os
+from contextlib import contextmanager
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any, Iterator
+
+import nbformat
+
+from ..core.errors import InputError
+from ..report.errors import CalcBuildError
+from .display import HEADLESS_ENV  # set by a headless build for the kernel: the form stays hidden
+
+#: templates shipped in the repository's ``templates/`` folder
+TEMPLATES: tuple[str, ...] = ("beam_splice", "splice_only", "end_connection")
+DEFAULT_TEMPLATE = "beam_splice"
+#: the job file name a new beam_splice package uses
+JOB_FILE = "job.toml"
+EXAMPLES_DIR = Path(__file__).resolve().parents[2] / "examples"
+DEMO_GLOB = "demo_*.toml"
+
+
+class SignedPDFError(CalcBuildError):
+    """The target PDF was built from a signed notebook (or is issued): it is a record, never overwritten."""
+
+    def __init__(self, path: str, reason: str) -> None:
+        self.path = path
+        super().__init__(f"{path} is {reason} (see {path}.json); it will not be overwritten. "
+                         "Build the new revision under another file name (-o NEW.pdf).")
+
+
+@dataclass(frozen=True)
+class PackageBuild:
+    """What :func:`build_package` wrote: the PDF, the executed notebook, the sidecar, the build report."""
+
+    pdf: Path
+    notebook: Path
+    sidecar: Path
+    report: Any
+    status: str
+
+    def summary(self) -> str:
+        return (f"{self.report.summary()}\nexecuted notebook: {self.notebook}\nstatus: {self.status} "
+                f"(record {self.sidecar})")
+
+
+# ======================================================================== templates and metadata
+def template_path(name: str) -> Path:
+    """The template ``<name>.ipynb`` (one of :data:`TEMPLATES`, or any name found on the template path)."""
+    from ..report.demo import template_path as _find
+
+    if not isinstance(name, str) or not name.strip():
+        raise InputError("template", name, "one of " + ", ".join(TEMPLATES))
+    try:
+        return _find(name.strip().removesuffix(".ipynb"))
+    except InputError:
+        raise InputError("template", name, "one of " + ", ".join(TEMPLATES)) from None
+
+
+def metadata_from_job(job: Any) -> dict[str, str]:
+    """Title-block fields of ``nb.metadata["splicecalc"]`` from the job's ``[project]`` table."""
+    p = job.project
+    place = ", ".join(t for t in (p.client, p.location) if t)
+    out = {"project": place or p.title, "job_number": p.number, "title": p.title, "prepared_by": p.prepared_by,
+           "checked_by": p.checked_by, "revision": p.revision, "date": p.date}
+    return {k: v for k, v in out.items() if v}
+
+
+def set_parameter(nb: Any, name: str, value: str) -> None:
+    """Set ``name = "value"`` on its own line of the ``parameters`` cell (the comment before it kept)."""
+    from ..report.demo import fill_template
+
+    fill_template(nb, {name: value})
+
+
+def _read(path: Path) -> Any:
+    return nbformat.read(str(path), as_version=4)
+
+
+def _write(nb: Any, path: Path) -> None:
+    from ..report.build import write_atomic
+
+    write_atomic(path, nbformat.writes(nb).encode("utf-8"))
+
+
+# ======================================================================== new package
+@dataclass(frozen=True)
+class NewPackage:
+    notebook: Path
+    job_file: Path | None
+
+
+def new_package(template: str, folder: str | os.PathLike, *, project: str = "", number: str = "",
+                title: str = "", job: str | os.PathLike | None = None) -> NewPackage:
+    """Copy ``template`` into ``folder`` as ``<template>.ipynb`` with the project fields filled in.
+
+    For ``beam_splice`` the job file is copied (``job``) or a starter job written,
+    as ``folder/job.toml``; an existing notebook or job file is never overwritten.
+    """
+    src = template_path(template)
+    name = src.stem
+    for field, v in (("--project", project), ("--number", number), ("--title", title)):
+        if not isinstance(v, str):
+            raise InputError(field, v, "a text")
+    dest = Path(folder)
+    nb_path = dest / f"{name}.ipynb"
+    if nb_path.exists():
+        raise InputError("FOLDER", str(dest), f"a folder without {nb_path.name} (a package is never overwritten)")
+    nb = _read(src)
+    job_path = None
+    if name == DEFAULT_TEMPLATE:
+        job_path = dest / JOB_FILE
+        if job_path.exists():
+            raise InputError("FOLDER", str(dest), f"a folder without {JOB_FILE} (it would be overwritten)")
+    meta = dict(nb.metadata.get("splicecalc", {}))
+    if job is not None:
+        if name != DEFAULT_TEMPLATE:
+            raise InputError("--job", str(job), f"no job file for the {name} template (its inputs are typed in "
+                             "the parameters cell)")
+        from ..job import load_job
+
+        j = load_job(job)                      # validated before anything is written
+        meta.update(metadata_from_job(j))
+    fields = {"project": project, "job_number": number, "title": title}
+    meta.update({k: v.strip() for k, v in fields.items() if v and v.strip()})
+    meta["template"] = name
+    nb.metadata["splicecalc"] = meta
+    dest.mkdir(parents=True, exist_ok=True)
+    if job_path is not None:
+        from ..job.loader import write_text_atomic
+
+        if job is not None:
+            write_text_atomic(job_path, Path(job).read_text(encoding="utf-8"))
+        else:
+            write_text_atomic(job_path, starter_job(project=project, number=number, title=title))
+        set_parameter(nb, "job_file", JOB_FILE)
+    _write(nb, nb_path)
+    return NewPackage(nb_path, job_path)
+
+
+def starter_job(project: str = "", number: str = "", title: str = "") -> str:
+    """A starter job file: the first demo job with the project fields replaced."""
+    import tomllib
+
+    from ..job import dumps_toml, job_from_dict
+
+    src = demo_job_path()
+    data = tomllib.loads(src.read_text(encoding="utf-8"))
+    proj = {"number": number, "title": title, "location": project}
+    data["project"] = {k: v for k, v in proj.items() if v}
+    job_from_dict(data)                         # still valid
+    head = ("# splicecalc job file: edit the values (quantities carry their units), then\n"
+            "# `splicecalc build beam_splice.ipynb` (or run the notebook in Jupyter).\n"
+            f"# Started from {src.name}: replace every value with the job's own.\n")
+    return head + dumps_toml(data)
+
+
+# ======================================================================== build
+def _sidecar(pdf: Path) -> Path:
+    return Path(str(pdf) + ".json")
+
+
+#: sidecar statuses of a PDF built from a notebook whose signatures were valid
+SIGNED_STATUSES = ("PREPARED", "CHECKED", "APPROVED", "ISSUED")
+
+
+def protection(pdf: str | os.PathLike) -> str | None:
+    """Why ``pdf`` must not be overwritten (an issued revision, a signed package), or None.
+
+    A PDF is signed when its build record shows a valid sign-off status; one built
+    after its inputs changed (status "DRAFT - CHANGED SINCE SIGNED") is a draft.
+    """
+    from ..report.build import is_protected
+
+    p = Path(pdf)
+    if is_protected(p):
+        return "an issued revision"
+    sc = _sidecar(p)
+    if sc.is_file():
+        try:
+            data = json.loads(sc.read_text(encoding="utf-8"))
+        except (OSError, ValueError):
+            return "recorded in an unreadable build record"
+        if not isinstance(data, dict):
+            return "recorded in an unreadable build record"
+        if str(data.get("status", "")).upper() in SIGNED_STATUSES:
+            return f"a signed calc package (status {data['status']})"
+    return None
+
+
+def notebook_for_job(job_file: str | os.PathLike, notebook: str | os.PathLike,
+                     template: str = DEFAULT_TEMPLATE) -> Path:
+    """Write (or refresh) the notebook that builds ``job_file`` with ``template``.
+
+    The parameters cell points to the job file by a path relative to the
+    notebook; the title block comes from the job's ``[project]`` table. Signatures
+    and revisions of an existing notebook at that path are kept.
+    """
+    from ..job import load_job
+
+    jp = Path(job_file)
+    job = load_job(jp)                      # bad input stops here, before any file is written
+    nbp = Path(notebook)
+    nb = _read(template_path(template))
+    rel = os.path.relpath(jp.resolve(), nbp.resolve().parent)
+    set_parameter(nb, "job_file", Path(rel).as_posix())
+    meta = dict(nb.metadata.get("splicecalc", {}))
+    meta.update(metadata_from_job(job))
+    meta["template"] = template
+    if nbp.is_file():
+        old = _read(nbp).metadata.get("splicecalc", {})
+        for key in ("signatures", "revisions"):
+            if old.get(key):
+                meta[key] = old[key]
+    nb.metadata["splicecalc"] = meta
+    nbp.parent.mkdir(parents=True, exist_ok=True)
+    _write(nb, nbp)
+    return nbp
+
+
+@contextmanager
+def _headless() -> Iterator[None]:
+    old = os.environ.get(HEADLESS_ENV)
+    os.environ[HEADLESS_ENV] = "1"
+    try:
+        yield
+    finally:
+        if old is None:
+            os.environ.pop(HEADLESS_ENV, None)
+        else:
+            os.environ[HEADLESS_ENV] = old
+
+
+def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = None, *, progress: bool = True,
+                  timeout: float = 600.0) -> PackageBuild:
+    """Build the calc package of ``source`` (a notebook, or a ``.toml`` job file) into ``pdf``.
+
+    Default ``pdf``: the source's name with ``.pdf``. The executed notebook is
+    written next to the PDF (same name, ``.ipynb``); for a job file that is also
+    the notebook built. Raises InputError for bad paths or inputs,
+    :class:`SignedPDFError` when the PDF must not be overwritten, and
+    :class:`~splicecalc.report.errors.CalcBuildError` (failing cell, missing tool, LaTeX) otherwise.
+    """
+    from ..report.build import build_pdf
+    from ..signoff.ledger import write_sidecar
+
+    src = Path(source)
+    if not src.is_file():
+        raise InputError("NOTEBOOK_OR_JOB", str(source), "an existing .ipynb notebook or .toml job file")
+    if src.suffix not in (".ipynb", ".toml"):
+        raise InputError("NOTEBOOK_OR_JOB", str(source), "a .ipynb notebook or a .toml job file")
+    out = Path(pdf) if pdf is not None else src.with_suffix(".pdf")
+    if out.suffix.lower() != ".pdf":
+        raise InputError("-o", str(pdf), "a file name ending in .pdf")
+    why = protection(out)
+    if why:
+        raise SignedPDFError(str(out), why)
+    from ..report.compile import require_tool
+
+    require_tool("xelatex")                 # missing tools stop the build before any file is written
+    require_tool("pandoc")
+    executed = out.with_suffix(".ipynb")
+    if executed.resolve() == src.resolve() and src.suffix == ".toml":  # pragma: no cover - suffixes differ
+        raise InputError("-o", str(out), "a PDF name other than the job file's")
+    out.parent.mkdir(parents=True, exist_ok=True)
+
+    staged: Path | None = None
+    if src.suffix == ".toml":
+        nb_source = notebook_for_job(src, executed)
+    elif executed.resolve() == src.resolve():
+        nb_source = src
+    else:
+        # execute in the source's folder (relative job paths), keep the ledger of the executed copy
+        nb = _read(src)
+        meta = nb.metadata.setdefault("splicecalc", {})
+        meta.setdefault("title", src.stem)
+        if executed.is_file():
+            old = _read(executed).metadata.get("splicecalc", {})
+            for key in ("signatures", "revisions"):
+                if old.get(key) and not meta.get(key):
+                    meta[key] = old[key]
+        staged = src.with_name(f".{src.stem}.build.ipynb")
+        _write(nb, staged)
+        nb_source = staged
+    try:
+        with _headless():
+            report = build_pdf(nb_source, out, execute=True, progress=progress, timeout=timeout,
+                               executed_path=executed)
+    finally:
+        if staged is not None and staged.exists():
+            staged.unlink()
+    nb_exec = _read(executed)
+    data = write_sidecar(out, nb_exec, executed.resolve())
+    return PackageBuild(pdf=out, notebook=executed, sidecar=_sidecar(out), report=report, status=data["status"])
+
+
+# ======================================================================== demo
+def demo_job_path() -> Path:
+    """The demo job file (first ``examples/demo_*.toml``)."""
+    found = sorted(EXAMPLES_DIR.glob(DEMO_GLOB))
+    if not found:
+        raise InputError("demo", str(EXAMPLES_DIR / DEMO_GLOB), "a demo job file in the repository's examples/")
+    return found[0]
+
+
+def build_demo(out_dir: str | os.PathLike = "out", *, progress: bool = True) -> PackageBuild:
+    """Copy the demo job into ``out_dir`` and build its package there (``<demo name>.pdf``).
+
+    An existing job file in ``out_dir`` is replaced by the demo's (it is the demo);
+    a signed or issued demo PDF there is never overwritten.
+    """
+    job_src = demo_job_path()
+    out = Path(out_dir)
+    pdf = out / f"{job_src.stem}.pdf"
+    why = protection(pdf)
+    if why:
+        raise SignedPDFError(str(pdf), why)
+    out.mkdir(parents=True, exist_ok=True)
+    job = out / job_src.name
+    if job.resolve() != job_src.resolve():
+        from ..job.loader import write_text_atomic
+
+        write_text_atomic(job, job_src.read_text(encoding="utf-8"))
+    return build_package(job, pdf, progress=progress)
+
+
+__all__ = ["SIGNED_STATUSES", "DEFAULT_TEMPLATE", "HEADLESS_ENV", "JOB_FILE", "NewPackage", "PackageBuild", "SignedPDFError",
+           "TEMPLATES", "build_demo", "build_package", "demo_job_path", "metadata_from_job", "new_package",
+           "notebook_for_job", "protection", "starter_job", "template_path"]

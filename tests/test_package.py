@@ -1,0 +1,211 @@
+"""The demo calc package as printed, and the package commands (new / build / demo / sign / verify).
+
+The demo PDF is built once per module (``splicecalc demo``); its pages are read
+back with poppler (``pdftotext``, ``pdfinfo``, ``pdftoppm``), tools outside the
+project, and compared with the job file (title block: number and title as typed
+there) and with the check records the executed notebook carries
+(``splicecalc.signoff.digest.collect_records``). The sign/verify and protection
+tests use a smaller job (the demo without splices) to keep the builds short.
+"""
+
+from __future__ import annotations
+
+import copy
+import os
+import re
+import subprocess
+import sys
+import tomllib
+from pathlib import Path
+
+import nbformat
+import pytest
+
+from splicecalc.signoff.digest import collect_records
+from splicecalc.workflow.package import build_demo, demo_job_path
+
+pytestmark = pytest.mark.pdf
+
+DEMO = demo_job_path()
+JOB_DOC = tomllib.loads(DEMO.read_text(encoding="utf-8"))
+CLI = [sys.executable, "-m", "splicecalc.cli.main"]
+
+
+def cli(*args: str, cwd: Path | None = None, env: dict | None = None) -> subprocess.CompletedProcess:
+    return subprocess.run([*CLI, *args], cwd=cwd, env=env, capture_output=True, text=True, timeout=600)
+
+
+def pdf_pages(pdf: Path) -> list[str]:
+    """Text of every page (pdftotext -layout, pages split on form feeds)."""
+    out = subprocess.run(["pdftotext", "-layout", str(pdf), "-"], capture_output=True, text=True, check=True)
+    pages = out.stdout.split("\f")
+    return pages[:-1] if pages and not pages[-1].strip() else pages
+
+
+def pdf_page_count(pdf: Path) -> int:
+    out = subprocess.run(["pdfinfo", str(pdf)], capture_output=True, text=True, check=True).stdout
+    return int(re.search(r"^Pages:\s+(\d+)", out, re.M).group(1))
+
+
+@pytest.fixture(scope="module")
+def demo(tmp_path_factory):
+    out = tmp_path_factory.mktemp("demo")
+    b = build_demo(out, progress=False)
+    r = b.report
+    print(f"\ndemo build: {r.pages} sheets; execution {r.execution_s:.1f} s (kernel {r.kernel_start_s:.1f} s, "
+          f"cells {r.cells_s:.1f} s), LaTeX {r.latex_passes} passes {r.latex_s:.1f} s, "
+          f"own {r.overhead_s:.1f} s, total {r.total_s:.1f} s")
+    return b
+
+
+@pytest.fixture(scope="module")
+def pages(demo):
+    return pdf_pages(demo.pdf)
+
+
+# ------------------------------------------------------------------ the printed package
+def test_title_block_on_every_page(demo, pages):
+    number, title = JOB_DOC["project"]["number"], JOB_DOC["project"]["title"]   # as typed in the job file
+    assert len(pages) == pdf_page_count(demo.pdf) == demo.report.pages > 10
+    for i, text in enumerate(pages, start=1):
+        head = "\n".join(text.splitlines()[:8])
+        assert number in head and title in head and "PROJECT" in head, f"sheet {i}: no title block"
+
+
+def test_sheet_numbering_runs_1_to_M(pages):
+    M = len(pages)
+    for i, text in enumerate(pages, start=1):
+        found = re.findall(r"Sheet (\d+) of (\d+)", text)
+        assert len(found) == 2, f"sheet {i}: header and footer numbers expected, found {found}"
+        assert all((int(n), int(m)) == (i, M) for n, m in found), f"sheet {i}: {found}"
+
+
+def test_summary_lists_every_check(demo, pages):
+    nb = nbformat.read(demo.notebook, as_version=4)
+    records = collect_records(nb)
+    assert len(records) > 100
+    ids = [r["id"] for r in records]
+    assert len(ids) == len(set(ids))                                     # each check published once
+    # the summary table in the executed notebook holds exactly those checks
+    tables = [o["data"]["application/vnd.splicecalc.table+json"] for c in nb.cells if c.cell_type == "code"
+              for o in c.get("outputs", []) if "application/vnd.splicecalc.table+json" in o.get("data", {})]
+    summary = [t for t in tables if t.get("kind") == "summary"]
+    assert len(summary) == 1
+    assert sorted(row[0] for row in summary[0]["rows"]) == sorted(r["title"] for r in records)
+    # and the printed summary has one row per check, highest utilisation first
+    text = "\n".join(pages)
+    start = text.index(f"Summary of the {len(records)} checks")
+    end = text.index("References", start)
+    rows = re.findall(r"\s(\d+\.\d\d)\s+(OK|NOT OK)\s*$", text[start:end], re.M)
+    assert len(rows) == len(records)
+    us = [float(u) for u, _ in rows]
+    assert us == sorted(us, reverse=True)
+    worst = max(records, key=lambda r: r["utilisation"])
+    assert float(rows[0][0]) == pytest.approx(worst["utilisation"], abs=0.005)
+
+
+def test_cautions_and_references_printed(pages):
+    text = re.sub(r"\s+", " ", "\n".join(pages))
+    caut = text[text.rindex("Cautions"):]
+    for phrase in ("competent engineer", "National Annex", "verified on site", "Cast iron and wrought iron are not "
+                   "steel", "weldability"):
+        assert phrase in caut
+    refs = text[text.rindex("References"):text.rindex("Cautions")]
+    for std in ("EN 1990:2002", "EN 1991-1-1:2002", "EN 1993-1-1:2005", "EN 1993-1-5:2006", "EN 1993-1-8:2005",
+                "EN 10025-2:2004", "EN 1090-2", "appraisal guidance"):
+        assert std in refs
+    assert "3.6.1, Table 3.4" in refs                                    # a clause the bolt checks cite
+
+
+def test_pages_render_not_blank(demo, tmp_path):
+    from PIL import Image
+
+    M = demo.report.pages
+    for page in (1, M // 2):
+        stem = tmp_path / f"p{page}"
+        subprocess.run(["pdftoppm", "-png", "-r", "50", "-f", str(page), "-l", str(page), "-singlefile",
+                        str(demo.pdf), str(stem)], check=True)
+        im = Image.open(f"{stem}.png").convert("L")
+        dark = sum(im.histogram()[:160]) / (im.width * im.height)
+        assert 0.005 < dark < 0.6, f"sheet {page}: {dark:.3%} dark pixels"
+
+
+# ------------------------------------------------------------------ sign, verify, protection
+@pytest.fixture(scope="module")
+def small(tmp_path_factory):
+    """A short package: the demo job without splices, built from its job file."""
+    from splicecalc.job import dumps_toml
+
+    d = tmp_path_factory.mktemp("small")
+    doc = copy.deepcopy(JOB_DOC)
+    del doc["splices"]
+    (d / "job.toml").write_text(dumps_toml(doc), encoding="utf-8")
+    r = cli("build", "job.toml", "-o", "calc.pdf", "--quiet", cwd=d)
+    assert r.returncode == 0, r.stderr
+    return d
+
+
+def test_edit_after_signing_is_detected_and_issued_pdf_kept(small):
+    d = small
+    assert cli("sign", "calc.ipynb", "--role", "prepared", "--name", "A. Preparer", cwd=d).returncode == 0
+    assert cli("verify", "calc.ipynb", cwd=d).returncode == 0
+    job = d / "job.toml"
+    text = job.read_text(encoding="utf-8")
+    edited = text.replace('udl = "4.0 kN/m"', 'udl = "4.5 kN/m"', 1)
+    assert edited != text
+    job.write_text(edited, encoding="utf-8")                             # one input changed after signing
+    r = cli("build", "job.toml", "-o", "calc.pdf", "--quiet", cwd=d)
+    assert r.returncode == 0, r.stderr
+    v = cli("verify", "calc.ipynb", cwd=d)
+    assert v.returncode == 1 and "CHANGED" in v.stdout
+    assert cli("verify", "calc.pdf", cwd=d).returncode == 1
+    # an issued PDF is never overwritten
+    assert cli("issue", "calc.pdf", cwd=d).returncode == 0
+    before = (d / "calc.pdf").read_bytes()
+    r = cli("build", "job.toml", "-o", "calc.pdf", "--quiet", cwd=d)
+    assert r.returncode == 2 and "will not be overwritten" in r.stderr
+    assert (d / "calc.pdf").read_bytes() == before
+
+
+def test_signed_pdf_not_overwritten(small):
+    d = small
+    r = cli("sign", "calc.ipynb", "--role", "prepared", "--name", "A. Preparer", cwd=d)
+    assert r.returncode == 0, r.stderr
+    r = cli("build", "calc.ipynb", "-o", "signed.pdf", "--quiet", cwd=d)
+    assert r.returncode == 0, r.stderr
+    assert cli("verify", "signed.pdf", cwd=d).returncode == 0
+    before = (d / "signed.pdf").read_bytes()
+    r = cli("build", "calc.ipynb", "-o", "signed.pdf", "--quiet", cwd=d)
+    assert r.returncode == 2 and "signed calc package" in r.stderr
+    assert (d / "signed.pdf").read_bytes() == before
+
+
+def test_failing_cell_is_named(tmp_path):
+    nb = nbformat.v4.new_notebook()
+    p = nbformat.v4.new_code_cell('x = 1')
+    p.metadata["tags"] = ["parameters"]
+    nb.cells = [nbformat.v4.new_markdown_cell("# A calc"), p,
+                nbformat.v4.new_code_cell('raise ValueError("deliberate failure for the test")')]
+    nbformat.write(nb, tmp_path / "bad.ipynb")
+    r = cli("build", "bad.ipynb", "--quiet", cwd=tmp_path)
+    assert r.returncode == 1
+    assert "cell 3 failed" in r.stderr and "raise ValueError" in r.stderr
+    assert "ValueError: deliberate failure for the test" in r.stderr
+    assert not (tmp_path / "bad.pdf").exists()
+
+
+def test_missing_tex_gives_install_command(tmp_path):
+    env = dict(os.environ, PATH=str(tmp_path))                            # no xelatex, no pandoc
+    (tmp_path / "job.toml").write_text(DEMO.read_text(encoding="utf-8"), encoding="utf-8")
+    r = cli("build", "job.toml", "--quiet", cwd=tmp_path, env=env)
+    assert r.returncode == 1
+    assert "apt-get install -y texlive-xetex" in r.stderr
+    assert not (tmp_path / "job.ipynb").exists()
+
+
+def test_bad_input_exit_2(tmp_path):
+    r = cli("build", "missing.toml", cwd=tmp_path)
+    assert r.returncode == 2 and "NOTEBOOK_OR_JOB" in r.stderr
+    (tmp_path / "bad.toml").write_text('[beam]\nspan = "-3 m"\n', encoding="utf-8")
+    r = cli("build", "bad.toml", cwd=tmp_path)
+    assert r.returncode == 2 and "beam.span" in r.stderr
