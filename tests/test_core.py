@@ -75,3 +75,19 @@ def test_record_json_keys_carry_units():
     assert d["demand_kN"] == 50.0 and d["resistance_kN"] == 94.08
     assert d["values"]["F_v_Rd_kN"] == 94.08
     assert d["ok"] is True
+
+
+def test_write_atomic_leaves_no_temp_and_uses_umask(tmp_path):
+    import os
+    import stat
+
+    from splicecalc.core.files import write_atomic
+
+    p = tmp_path / "job.toml"
+    write_atomic(p, "a = 1\n")
+    write_atomic(p, b"a = 2\n")
+    assert p.read_text() == "a = 2\n"
+    assert [f.name for f in tmp_path.iterdir()] == ["job.toml"]
+    mask = os.umask(0)
+    os.umask(mask)
+    assert stat.S_IMODE(p.stat().st_mode) == 0o666 & ~mask  # POSIX open() default mode

@@ -21,6 +21,8 @@ def write_atomic(path: str | os.PathLike, data: bytes | str) -> Path:
             fh.write(raw)
             fh.flush()
             os.fsync(fh.fileno())
+        # mkstemp creates 0600; give the file the mode an ordinary open() would (0666 & ~umask)
+        os.chmod(tmp, 0o666 & ~_umask())
         os.replace(tmp, p)
     except BaseException:
         try:
@@ -29,3 +31,9 @@ def write_atomic(path: str | os.PathLike, data: bytes | str) -> Path:
             pass
         raise
     return p
+
+
+def _umask() -> int:
+    mask = os.umask(0)
+    os.umask(mask)
+    return mask

@@ -8,6 +8,7 @@ a missing or stale ``python3`` kernelspec cannot break a build.
 from __future__ import annotations
 
 import copy
+import os
 import subprocess
 import sys
 import time
@@ -122,7 +123,8 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
     t0 = time.perf_counter()
     try:
         # the kernel's own stderr only carries transport chatter; cell errors come back as messages
-        client.execute(stderr=subprocess.DEVNULL)
+        # SPLICECALC_HEADLESS tells templates that nobody is looking (the input form stays hidden)
+        client.execute(stderr=subprocess.DEVNULL, env={**os.environ, "SPLICECALC_HEADLESS": "1"})
     except CellExecutionError as exc:
         idx = client.current_index if client.current_index is not None else -1
         cell = node.cells[idx] if 0 <= idx < len(node.cells) else NotebookNode(source="", outputs=[])

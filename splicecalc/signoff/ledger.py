@@ -243,6 +243,8 @@ def verify_path(path: str | Path) -> SignStatus:
         return SignStatus("changed", "CHANGED SINCE BUILT", digest, sigs[-1].digest if sigs else None, sigs,
                           "the PDF's bytes differ from those recorded at build time")
     nb_path = data.get("notebook")
+    if nb_path and not Path(nb_path).is_absolute():
+        nb_path = str(p.parent / nb_path)  # recorded relative to the PDF's folder
     if nb_path and Path(nb_path).is_file():
         now = compute_digest(_read_nb(nb_path))
         if now != digest:
