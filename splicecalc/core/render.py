@@ -14,6 +14,7 @@ and decorators. The renderer itself (``LatexRenderer``) is handcalcs'.
 from __future__ import annotations
 
 import ast
+import re
 import inspect
 import textwrap
 from functools import lru_cache
@@ -23,6 +24,16 @@ import innerscope
 from handcalcs.handcalcs import LatexRenderer
 
 from .units import is_quantity, to_float, to_quantity
+
+
+#: capital Greek letters that look like Latin ones have no LaTeX macro; handcalcs still writes
+#: them for names such as ``gamma_Mu`` (-> ``\gamma_{\Mu}``). They are put back as the letters typed.
+_UNDEFINED_GREEK = re.compile(r"\\(Alpha|Beta|Epsilon|Zeta|Eta|Iota|Kappa|Mu|Nu|Omicron|Rho|Tau|Chi)(?![A-Za-z])")
+
+
+def tex_clean(latex: str) -> str:
+    """Replace macros handcalcs writes that LaTeX does not define (see :data:`_UNDEFINED_GREEK`)."""
+    return _UNDEFINED_GREEK.sub(lambda m: m.group(1), latex)
 
 
 @lru_cache(maxsize=None)
@@ -67,7 +78,7 @@ def render(fn: Callable, precision: int = 3, **kwargs: Any) -> tuple[str, float]
     scope = innerscope.call(fn, **qargs)
     line_args = {"override": "", "precision": precision, "sci_not": None}
     latex = LatexRenderer(_body_source(fn), scope, line_args).render()
-    latex = "".join(latex.replace("\\[", "", 1).rsplit("\\]", 1)).strip()
+    latex = tex_clean("".join(latex.replace("\\[", "", 1).rsplit("\\]", 1)).strip())
     result = scope.return_value
     unit = fn.__clause__.returns
     if isinstance(result, tuple):

@@ -100,6 +100,17 @@ def _normalise_era(text: str) -> str | None:
     return None
 
 
+def _era_hint(text: str) -> str:
+    """Advice for a text that is neither a known era band nor a grade."""
+    first, last = min(b.first_year for b in ERA_BANDS.values()), max(b.last_year for b in ERA_BANDS.values())
+    years = [int(p) for p in text.replace("\u2013", "-").replace(" ", "").split("-") if p.isdigit()]
+    if len(years) == 2 and first <= min(years) and max(years) <= last:
+        return ("The years cross two era bands: give the band of the earliest year (the lower strength) "
+                "unless records date the steel")
+    return (f"Era bands cover {first} to {last}; for later steel give its grade (e.g. 'S275'), for earlier "
+            "or unidentified material have it identified and tested (it may be iron, not steel)")
+
+
 @dataclass(frozen=True)
 class ExistingSteel:
     """Material of an existing member: label, Steel (fy, fu at the thickness), historic flag, note."""
@@ -124,7 +135,7 @@ def historic_steel(era: str, t_mm: float, field: str = "existing_steel") -> Stee
         raise InputError(field, era, allowed_materials())
     name = _normalise_era(era)
     if name is None:
-        raise InputError(field, era, allowed_materials())
+        raise InputError(field, era, allowed_materials(), _era_hint(era))
     t = require_positive(field + " thickness", t_mm, "mm")
     band = ERA_BANDS[name]
     for t_max, fy in band.fy_steps:
@@ -156,7 +167,7 @@ def existing_steel(text: str, t_mm: float, field: str = "existing_steel") -> Exi
                              "existing steel grade as stated by the user: verify by records or testing")
     name = _normalise_era(text)
     if name is None:
-        raise InputError(field, text, allowed_materials())
+        raise InputError(field, text, allowed_materials(), _era_hint(text))
     return ExistingSteel(f"historic steel {name}", historic_steel(name, t_mm, field), True, HISTORIC_NOTE)
 
 

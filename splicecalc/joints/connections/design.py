@@ -20,12 +20,12 @@ from ...materials.partial_factors import UK_NA, NationalAnnex
 from ...materials.steel import normalise_grade, steel
 from ..bolts import get_bolt
 from ..welds import full_strength_fillet
-from .detail import Context, Detail, ceil_to, detailing_checks
+from .detail import Context, Detail, ceil_to, detailing_checks, weld_grade_existing
 from .endplate import end_plate_checks
 from .existing import ExistingResult, existing_checks, existing_material
 from .finplate import fin_plate_checks
 from .notch import check_notch
-from .spec import SupportSpec
+from .spec import TYING_MIN_N, SupportSpec
 
 #: standard fillet leg sizes (mm)
 WELD_LEGS = (4.0, 5.0, 6.0, 8.0, 10.0, 12.0, 15.0)
@@ -141,10 +141,9 @@ def _candidates(ctx: Context, spec: SupportSpec, bolt) -> tuple[list[Detail], st
                                                                         t_other=t, na=ctx.na).s_req)
                     out.append(Detail(kind, bolt, n, p_1, e_1, e_2, t, spec.plate_grade, s, top, p_3=g))
                 else:
-                    ex_grade = None if ctx.existing_mat.historic else ctx.existing_mat.material.grade
-                    s = spec.weld_leg or _weld_leg(full_strength_fillet(t, spec.plate_grade, grade_other=ex_grade,
-                                                                        t_other=ctx.t_supp if ex_grade else None,
-                                                                        na=ctx.na).s_req)
+                    s = spec.weld_leg or _weld_leg(full_strength_fillet(t, spec.plate_grade,
+                                                                        grade_other=weld_grade_existing(ctx),
+                                                                        t_other=ctx.t_supp, na=ctx.na).s_req)
                     e_2b = ceil_to(2.0 * d, 5.0)
                     out.append(Detail(kind, bolt, n, p_1, e_1, e_2, t, spec.plate_grade, s, top, gap=FIN_GAP,
                                       e_2b=e_2b))
@@ -192,10 +191,14 @@ def _validate(beam_section: Any, beam_grade: str, V_Ed: float, spec: Any, na: An
     g = normalise_grade(beam_grade)
     if spec.notched:
         lim = beam_section.h - beam_section.tf - beam_section.r
-        if spec.notch_depth >= lim:
+        if not beam_section.tf <= spec.notch_depth < lim:
             raise InputError(f"{spec.field}.notch_top", spec.notch_depth,
-                             f"a notch depth less than h - t_f - r = {lim:g} mm of the beam (and normally "
-                             f"at most h/2 = {beam_section.h / 2:g} mm)")
+                             f"a notch depth from t_f = {beam_section.tf:g} mm (a notch removes the top flange) to "
+                             f"less than h - t_f - r = {lim:g} mm of the beam (and normally at most h/2 = "
+                             f"{beam_section.h / 2:g} mm)")
+    if spec.connection == "fin plate" and spec.rows is not None and spec.rows < 2:
+        raise InputError(f"{spec.field}.rows", spec.rows, "at least 2 bolt rows for a fin plate",
+                         "One bolt cannot resist the moment V_Ed z of the eccentric bolt group")
     return V, g
 
 
@@ -253,11 +256,16 @@ def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec:
     if spec.connection == "fin plate":
         warnings.append("The fin plate is WELDED to the existing member: confirm the weldability of the existing "
                         "steel before specifying it (or use a bolted end plate).")
+    if spec.tying_force < TYING_MIN_N - 1e-6:
+        warnings.append(f"Tying force {spec.tying_force / 1e3:g} kN is below the {TYING_MIN_N / 1e3:g} kN minimum of UK "
+                        "practice (from memory of the UK NA to EN 1991-1-7): confirm that the building's "
+                        "consequence class allows it.")
     if mat.historic:
         warnings.append(f"Existing steel strength from the era band {mat.label} (f_y = {mat.f_y:g} MPa, "
                         f"f_u = {mat.f_u:g} MPa): values from memory of published appraisal guidance; verify.")
-    if spec.existing_face == "column web" and spec.connection == "end plate":
-        warnings.append("Supporting column web: yield lines of the web under the tying force are not checked.")
+    if spec.existing_face != "column flange" and spec.connection == "end plate":
+        warnings.append(f"Supporting {spec.existing_face}: yield lines of the web under the tying force are not "
+                        "checked (only bolt punching is).")
     if spec.existing_face != "column flange" and spec.connection == "fin plate":
         warnings.append("Supporting web under the tying force (fin plate pulling the web) is not checked.")
     return ConnectionDesign(spec=spec, detail=chosen, V_Ed=V, records=tuple(recs), existing=ex,

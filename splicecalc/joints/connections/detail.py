@@ -15,7 +15,10 @@ Detailing rules and their sources:
 * fin plate t_p <= 0.5 d and end/edge distances >= 2 d (ductility, bolt bearing
   before bolt shear): published guidance (from memory);
 * long fin plate when z > t_p / 0.15: published guidance (from memory);
-* Table 3.3 minimum spacing: :mod:`splicecalc.joints.spacing`.
+* Table 3.3 minimum spacing: :mod:`splicecalc.joints.spacing`;
+* fit on the existing member: bolts on its flange (edge distance, clear of the root fillet), plate
+  width and depth within its web between the root fillets and, for a notched beam on an existing
+  beam web (top flanges level), the plate bottom above the existing bottom root fillet.
 """
 
 from __future__ import annotations
@@ -27,7 +30,7 @@ from typing import Any
 from ...core.record import Calc, CheckRecord
 from ...materials.historic import ExistingSteel
 from ...materials.partial_factors import NationalAnnex
-from ...materials.steel import DENSITY_kg_per_m3, Steel
+from ...materials.steel import DENSITY_kg_per_m3, Steel, steel
 from ..bolts import Bolt
 from ..spacing import check_spacing
 from .formulas import t_p_max_ductility
@@ -151,11 +154,29 @@ class Context:
 
     @property
     def web_top(self) -> float:
-        """Depth from the beam top to the top of the usable web (mm): below the top root fillet, or
-        10 mm below a top notch."""
+        """Depth from the beam top to the top of the usable web (mm): below the top root fillet, and
+        at least 10 mm below a top notch."""
         if self.notched:
-            return max(self.notch_depth + 10.0, 0.0)
+            return max(self.notch_depth + 10.0, self.beam.tf + self.beam.r)
         return self.beam.tf + self.beam.r
+
+
+def weld_grade_existing(ctx: Context) -> str:
+    """Grade taken for the existing member as a part joined by a weld (EN 1993-1-8:2005, 4.5.3.2(6):
+    the weaker part governs f_u and beta_w).
+
+    A modern grade is used as stated. Historic steel has no Table 4.1 beta_w: it is taken as the
+    strongest EN 10025-2 grade (S235, S275, S355) whose f_u at the member thickness does not exceed
+    the era f_u, i.e. a lower bound (an era f_u below every grade's falls back to S235).
+    """
+    mat = ctx.existing_mat
+    if not mat.historic:
+        return mat.material.grade
+    best = "S235"
+    for g in ("S235", "S275", "S355"):
+        if steel(g, ctx.t_supp).f_u <= mat.f_u + 1e-9:
+            best = g
+    return best
 
 
 def _rec(calc: Calc, id: str, title: str, clause: str, demand: float, resistance: float, note: str = "",
@@ -252,6 +273,12 @@ def fit_checks(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]:
                             ctx.beam.b, space, "b of the new beam <= h - 2 t_f of the column: else notch the "
                             "beam flanges"))
         if ctx.face == "beam web" and ctx.notched:
+            low = ex.h - ex.tf - ex.r
+            out.append(_rec(calc, "ex_fit_web_bottom", "Plate bottom above the existing beam's bottom root fillet "
+                            "(top flanges level)", CL_PINNED, det.top + det.h_p, low,
+                            f"plate from {det.top:g} to {det.top + det.h_p:g} mm below the top; the existing web is "
+                            f"flat down to h - t_f - r = {low:.1f} mm: use fewer rows, a smaller pitch or a "
+                            "shallower notch"))
             need = ex.tf + ex.r
             out.append(_rec(calc, "ex_fit_notch", "Top notch clears the existing top flange and fillet "
                             "(top flanges level)", CL_PINNED, need, ctx.notch_depth,
@@ -267,5 +294,5 @@ def ceil_to(x: float, step: float) -> float:
     return math.ceil(x / step - 1e-9) * step
 
 
-__all__ = ["Detail", "Context", "detailing_checks", "fit_checks", "GUIDANCE", "CL_PINNED", "E_NOMINAL_COLUMN",
-           "ceil_to"]
+__all__ = ["Detail", "Context", "detailing_checks", "fit_checks", "weld_grade_existing", "GUIDANCE", "CL_PINNED",
+           "E_NOMINAL_COLUMN", "ceil_to"]

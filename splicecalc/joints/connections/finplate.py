@@ -16,24 +16,30 @@ Shear V_Ed
       developing t_p f_y/gamma_M0 transversely: a >= beta_w gamma_M2 f_y t_p / (sqrt 2 f_u gamma_M0)).
 
 Tying (gamma_Mu; published guidance, from memory)
-    * bolt shear and bearing (plate and beam web) in the direction of the beam;
+    * bolt shear and bearing (plate and beam web) in the direction of the beam; the bearing is
+      capped at 1.5 f_u d t / gamma_Mu (single lap, one bolt row across the load, EN 1993-1-8:2005,
+      3.6.1(10));
     * plate and beam web net tension; block tearing of plate and web.
 """
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 from ...core.record import Calc, CheckRecord
 from ...materials.steel import steel
 from ...members.en1993_1_1 import V_pl_Rd
-from ..bolts import F_v_Rd, bearing_resistance, shear_factor_alpha_v
+from ..bolts import F_b_Rd_lap, F_v_Rd, bearing_resistance, shear_factor_alpha_v
 from ..plates import (M_c_Rd, V_Rd_n, W_el_plate, block_tearing_areas, check_block_tearing, check_plate_shear,
                       check_plate_tension)
 from ..welds import check_full_strength_fillet
-from .detail import GUIDANCE, Context, Detail
+from .detail import GUIDANCE, Context, Detail, weld_grade_existing
 from .formulas import (A_tee, A_v_net_web, A_v_tee, F_hor_Ed, F_v_Ed_res, F_ver_Ed, I_p_bolts, U_bearing_2d, V_Rd_M,
                        V_Rd_fin_LTB, f_p_LT, lambda_LT_fin)
 
 NOTE_TIE = "tying: gamma_Mu in place of gamma_M2 (published simple-joint guidance, from memory)"
+NOTE_LAP = ("single-lap joint with one bolt row across the tie force: F_b,Rd <= 1.5 f_u d t / gamma "
+            "(EN 1993-1-8 3.6.1(10)), and washers under both the bolt head and the nut")
 
 
 def web_end_distance_vertical(ctx: Context, det: Detail) -> float | None:
@@ -41,6 +47,21 @@ def web_end_distance_vertical(ctx: Context, det: Detail) -> float | None:
     if not ctx.notched:
         return None
     return det.top + det.e_1 - ctx.notch_depth
+
+
+def _bearing_2d(calc: Calc, F_ver: float, Fb_ver: float, F_hor: float, Fb_hor: float) -> float:
+    """Utilisation of a bolt bearing in two directions; +inf when a bearing resistance is nil (a distance
+    below the Table 3.3 minima, where Table 3.4 gives 0): the check then fails instead of dividing by zero."""
+    if Fb_ver <= 0.0 or Fb_hor <= 0.0:
+        calc.note("A bearing resistance is 0 (spacing below the Table 3.3 minima): the check fails.")
+        return float("inf")
+    return calc(U_bearing_2d, F_ver=F_ver, F_b_ver_Rd=Fb_ver, F_hor=F_hor, F_b_hor_Rd=Fb_hor)
+
+
+def _lap_capped(calc: Calc, F_b: float, f_u: float, d: float, t: float, gamma: float) -> float:
+    """Bearing of a bolt in a single-lap joint with one bolt row across the load, capped at
+    1.5 f_u d t / gamma (EN 1993-1-8:2005, 3.6.1(10), Eq. 3.2)."""
+    return min(F_b, calc(F_b_Rd_lap, f_u=f_u, d=d, t=t, gamma_M2=gamma))
 
 
 def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list[CheckRecord]:
@@ -72,7 +93,7 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
                               calc=calc)
     Fb_h = bearing_resistance(b, det.t_p, plate.f_u, det.e_2, det.e_1, None, det.p_1, gamma_M2=na.gamma_M2,
                               calc=calc)
-    U_p = calc(U_bearing_2d, F_ver=F_ver, F_b_ver_Rd=Fb_v, F_hor=F_hor, F_b_hor_Rd=Fb_h)
+    U_p = _bearing_2d(calc, F_ver, Fb_v, F_hor, Fb_h)
     calc.keep("F_b_ver_Rd", Fb_v, "N")
     calc.keep("F_b_hor_Rd", Fb_h, "N")
     out.append(calc.record(id="fp_bearing_plate", title="Bolt bearing on the fin plate (two directions)",
@@ -81,7 +102,7 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     # bearing on the beam web
     Fbw_v = bearing_resistance(b, beam.tw, fu_b, e1b, det.e_2b, det.p_1, None, gamma_M2=na.gamma_M2, calc=calc)
     Fbw_h = bearing_resistance(b, beam.tw, fu_b, det.e_2b, e1b, None, det.p_1, gamma_M2=na.gamma_M2, calc=calc)
-    U_w = calc(U_bearing_2d, F_ver=F_ver, F_b_ver_Rd=Fbw_v, F_hor=F_hor, F_b_hor_Rd=Fbw_h)
+    U_w = _bearing_2d(calc, F_ver, Fbw_v, F_hor, Fbw_h)
     calc.keep("F_b_ver_Rd", Fbw_v, "N")
     calc.keep("F_b_hor_Rd", Fbw_h, "N")
     out.append(calc.record(id="fp_bearing_web", title="Bolt bearing on the beam web (two directions)",
@@ -141,11 +162,15 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
                                        title="Beam web block tearing (notched beam)"))
 
     # welds to the support: full strength for the fin plate
-    ex_grade = None if ctx.existing_mat.historic else ctx.existing_mat.material.grade
-    out.append(check_full_strength_fillet(det.weld_leg, det.t_p, det.plate_grade, grade_other=ex_grade,
-                                          t_other=ctx.t_supp if ex_grade else None, na=na, calc=calc,
-                                          id="fp_weld_full_strength",
-                                          title="Welds to the support: full strength for the fin plate"))
+    ex_grade = weld_grade_existing(ctx)
+    w = check_full_strength_fillet(det.weld_leg, det.t_p, det.plate_grade, grade_other=ex_grade, t_other=ctx.t_supp,
+                                   na=na, calc=calc, id="fp_weld_full_strength",
+                                   title="Welds to the support: full strength for the fin plate")
+    if ctx.existing_mat.historic:
+        w = replace(w, note=w.note + f"; existing {ctx.existing_mat.label} (f_u = {ctx.existing_mat.f_u:g} MPa) "
+                                     f"taken as {ex_grade} for f_u and beta_w (lower bound, EN 1993-1-8 4.5.3.2(6)); "
+                                     "weldability of the old steel to be confirmed")
+    out.append(w)
 
     # tying
     gMu = na.gamma_Mu
@@ -154,13 +179,15 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     out.append(calc.record(id="fp_tie_bolts", title="Tying: bolt shear", clause="EN 1993-1-8:2005, 3.6.1, Table 3.4",
                            demand=T1, resistance=Fv_u, unit="N", note=NOTE_TIE))
     Fbp_u = bearing_resistance(b, det.t_p, plate.f_u, det.e_2, det.e_1, None, det.p_1, gamma_M2=gMu, calc=calc)
+    Fbp_u = _lap_capped(calc, Fbp_u, plate.f_u, b.d, det.t_p, gMu)
     out.append(calc.record(id="fp_tie_bearing_plate", title="Tying: bolt bearing on the fin plate",
                            clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=T1, resistance=Fbp_u, unit="N",
-                           note=NOTE_TIE))
+                           note=NOTE_TIE + "; " + NOTE_LAP))
     Fbw_u = bearing_resistance(b, beam.tw, fu_b, det.e_2b, e1b, None, det.p_1, gamma_M2=gMu, calc=calc)
+    Fbw_u = _lap_capped(calc, Fbw_u, fu_b, b.d, beam.tw, gMu)
     out.append(calc.record(id="fp_tie_bearing_web", title="Tying: bolt bearing on the beam web",
                            clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=T1, resistance=Fbw_u, unit="N",
-                           note=NOTE_TIE))
+                           note=NOTE_TIE + "; " + NOTE_LAP))
     out.append(check_plate_tension(ctx.tie, det.h_p, det.t_p, det.plate_grade, n_holes=n, d_0=d0, gamma_M2=gMu,
                                    na=na, calc=calc, id="fp_tie_plate_tension",
                                    title="Tying: fin plate in tension, gross and net"))
@@ -181,4 +208,4 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     return out
 
 
-__all__ = ["fin_plate_checks", "web_end_distance_vertical", "NOTE_TIE"]
+__all__ = ["fin_plate_checks", "web_end_distance_vertical", "NOTE_TIE", "NOTE_LAP"]

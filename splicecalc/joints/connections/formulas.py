@@ -11,7 +11,7 @@ written FROM MEMORY; each is flagged in its docstring and in the CheckRecord
 note of the check that uses it:
 
 * 1.27 reduction on gross shear of plates for the bending that coexists with shear;
-* 0.8 allowance on the bolt group of an end plate for tension coexisting on the support side;
+* 0.8 allowance on the bolt shear resistance of an end plate for tension coexisting on the support side;
 * 0.9 h_p t_w shear area of the beam web at a partial-depth end plate;
 * long fin plate: z > t_p/0.15, lambda_LT = 2.8 sqrt(z h_p/(1.5 t_p^2)), BS 5950-1 Annex B
   Perry strength, resistance W_el f_pLT/(0.6 gamma_M1);
@@ -53,16 +53,18 @@ def A_v_net_web(A_v: float, n_1: float, d_0: float, t_w: float) -> float:
 # ------------------------------------------------------------------ bolt groups
 
 
-@clause("EN 1993-1-8:2005, 3.7(1)", units={"F_Rd_end": "N", "F_Rd_inner": "N"}, returns="N",
-        example=dict(n_end=2, F_Rd_end=74000.0, n_inner=4, F_Rd_inner=94080.0, k_t=0.8))
-def V_Rd_bolts_ep(n_end: float, F_Rd_end: float, n_inner: float, F_Rd_inner: float, k_t: float = 0.8) -> float:
-    """Shear resistance of an end-plate bolt group (N): k_t (n_end F_Rd,end + n_inner F_Rd,inner).
+@clause("EN 1993-1-8:2005, 3.6.1, Table 3.4", units={"F_v_Rd": "N"}, returns="N",
+        example=dict(F_v_Rd=94080.0, k_t=0.8))
+def F_v_Rd_ep(F_v_Rd: float, k_t: float = 0.8) -> float:
+    """Shear resistance of one end-plate bolt allowing for coexisting tension (N): k_t F_v,Rd.
 
-    F_Rd = min(F_v,Rd, F_b,Rd plate, F_b,Rd support) per bolt position; k_t = 0.8 allows for the
-    tension that coexists in the bolts (published simple-joint guidance, from memory).
+    k_t = 0.8 (published simple-joint guidance, from memory) reduces the bolt SHEAR resistance
+    only: tension in a bolt lowers its shear resistance (Table 3.4 interaction), not the
+    bearing resistance of the plies. The group then follows 3.7(1) with k_t F_v,Rd in place
+    of F_v,Rd (:func:`splicecalc.joints.bolts.F_Rd_group`).
     """
-    V_Rd = k_t * (n_end * F_Rd_end + n_inner * F_Rd_inner)
-    return V_Rd
+    F_v_Rd_red = k_t * F_v_Rd
+    return F_v_Rd_red
 
 
 @clause("EN 1993-1-8:2005, 3.7(1)", units={"p_1": "mm", "p_2": "mm"}, returns="mm2",

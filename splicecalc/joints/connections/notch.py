@@ -5,7 +5,8 @@ Checks at the notch root, where the section is a tee (bottom flange + remaining 
 * shear of the tee, EN 1993-1-1:2005, 6.2.6 (A_v of the tee by the rolled-section rule on one flange);
 * bending of the tee under M = V (c + g) with the elastic modulus of the tee, reduced for high
   shear as 6.2.8 (conservative, whole tee at (1 - rho) f_y);
-* the notch depth d_n <= h_b / 2 (published notched-beam guidance, from memory);
+* the notch depth d_n <= h_b / 2 (published notched-beam guidance, from memory); a notch shallower
+  than t_f (not through the flange) or reaching the bottom root fillet is refused (InputError);
 * local stability of the notched length: c <= c_lim from the published limits for restrained
   beams (from memory, see :func:`~splicecalc.joints.connections.formulas.c_lim_notch`). A longer
   notch fails the check: shorten it, or stiffen the notch (a detailed check of the notched length
@@ -37,6 +38,9 @@ def check_notch(beam, f_y: float, V_Ed: float, d_n: float, c: float, lever: floa
     d_n = require_positive("notch depth", d_n, "mm")
     c = require_positive("notch length", c, "mm")
     lever = require_positive("lever", lever, "mm")
+    if d_n < beam.tf:
+        raise InputError("notch depth", d_n, f"at least t_f = {beam.tf:g} mm of the beam (a notch removes the top "
+                                             "flange; the checks take the section at the notch as a tee)")
     if d_n >= beam.h - beam.tf - beam.r:
         raise InputError("notch depth", d_n, f"less than h - t_f - r = {beam.h - beam.tf - beam.r:g} mm of the "
                                               "beam (the notch would cut into the bottom flange)")
