@@ -29,7 +29,6 @@ Internal units N, mm, N*mm, kg; records in report units.
 
 from __future__ import annotations
 
-import re
 from dataclasses import dataclass, field, replace
 from typing import Any
 
@@ -207,21 +206,8 @@ class CalcResult(PackageRecords):
 
 
 # ======================================================================== helpers
-#: capital Greek letters LaTeX does not define (they look like Latin letters): handcalcs turns a
-#: symbol part such as "Mu" of ``gamma_Mu`` into ``\Mu``, which stops XeLaTeX. Stop-gap until the
-#: symbol is renamed at its source (reported); the letters are written back as typed.
-_NO_TEX_GREEK = re.compile(r"\\(Alpha|Beta|Epsilon|Zeta|Eta|Iota|Kappa|Mu|Nu|Omicron|Rho|Tau|Chi)(?![A-Za-z])")
-
-
-def tex_safe(rec: CheckRecord) -> CheckRecord:
-    """The record with Greek capitals unknown to LaTeX written as the Latin letters typed."""
-    if not any(_NO_TEX_GREEK.search(s) for s in rec.latex):
-        return rec
-    return replace(rec, latex=tuple(_NO_TEX_GREEK.sub(lambda m: m.group(1), s) for s in rec.latex))
-
-
 def _relabel(rec: CheckRecord, id_prefix: str, title_prefix: str) -> CheckRecord:
-    return tex_safe(replace(rec, id=f"{id_prefix}.{rec.id}", title=f"{title_prefix}: {rec.title}"))
+    return replace(rec, id=f"{id_prefix}.{rec.id}", title=f"{title_prefix}: {rec.title}")
 
 
 def _resistance(design: BeamDesign, check_id: str, unit_from: str, unit_to: str) -> float:
@@ -277,7 +263,7 @@ def member_checks(design: BeamDesign) -> tuple[CheckRecord, ...]:
         if combo:
             r = replace(r, note=f"{r.note}; governing combination: {combo}" if r.note
                         else f"governing combination: {combo}")
-        out.append(tex_safe(r))
+        out.append(r)
     return tuple(out)
 
 
