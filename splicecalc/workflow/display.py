@@ -88,9 +88,7 @@ def show_list(items: Iterable[str], title: str = "") -> None:
 
 def show_steps(latex: Sequence[str], intro: str = "") -> None:
     """Rendered handcalcs steps (LaTeX) that are not a check of their own."""
-    from .calc import _NO_TEX_GREEK
-
-    steps = [_NO_TEX_GREEK.sub(lambda m: m.group(1), s) for s in latex if s.strip()]
+    steps = [s for s in latex if s.strip()]
     if not steps:
         return
     body = "\n".join(s if s.lstrip().startswith(("\\[", "$$", "\\begin")) else f"\\par{{\\small {s}}}\\par"
