@@ -38,7 +38,7 @@ from ..actions import (Combination, PointLoad, PsiTable, UDL, self_weight_udl, s
 from ..analysis import Envelope, SimpleBeam, beam_diagrams, envelope
 from ..core.errors import InputError
 from ..core.record import Calc, CheckRecord
-from ..job.model import Job
+from ..job.model import SELF_WEIGHT_NAME, Job
 from ..materials import E_MPa, NationalAnnex, steel
 from ..members import en1993_1_1 as f11
 from ..members import (C1_C2_PINNED, C_1_linear, M_cr_C1C2, ShearBucklingError, SlenderSectionError,
@@ -46,8 +46,8 @@ from ..members import (C1_C2_PINNED, C_1_linear, M_cr_C1C2, ShearBucklingError, 
                        check_web_bearing, classify, section_class)
 from ..sections import Section, get_section, list_sections
 
-#: name of the self-weight load added by the design
-SELF_WEIGHT = "beam self-weight"
+#: name of the self-weight load added by the design (reserved in job loads)
+SELF_WEIGHT = SELF_WEIGHT_NAME
 #: C_1 from end moments is used for the closed-form cross-check only when the segment's
 #: largest moment exceeds its larger end moment by at most this fraction
 _LINEAR_TOL = 0.05
@@ -166,10 +166,11 @@ class BeamAnalysis:
                              title=f"{self.section}: {c.name}")
 
     def deflection_diagrams(self) -> Any:
-        """V, M, w diagrams of the first variable-action SLS combination (None if there is none)."""
+        """V, M, w diagrams of the variable-action SLS combination with the largest deflection
+        (the one the deflection check uses; None if there is none)."""
         if not self.sls_variable:
             return None
-        c, b = self.sls_variable[0]
+        c, b = max(self.sls_variable, key=lambda cb: cb[1].w_max().abs)
         return beam_diagrams(b, restraints_mm=self.restraints_mm, title=f"{self.section}: {c.name}")
 
 
@@ -574,7 +575,7 @@ def _bending_shear(ctx: _Context, case: _MassCase, section: Section, run: _Run, 
 def _refusal(ctx: _Context, section: Section, err: InputError) -> Candidate:
     """A section the members module refuses (Class 4, or a web needing a shear-buckling check)."""
     if isinstance(err, ShearBucklingError):
-        f_y = steel(ctx.grade, section.tf).f_y
+        f_y = steel(ctx.grade, section.tw).f_y   # 6.2.6(6): epsilon of the web
         u = f11.shear_buckling_ratio(h_w=section.hw, t_w=section.tw, epsilon=f11.epsilon(f_y=f_y), eta=ctx.na.eta)
         return Candidate(section.designation, section.family, section.mass_nominal, section.h, False, "shear",
                          "web slenderness h_w/t_w over 72 eps/eta (EN 1993-1-1:2005, 6.2.6(6))", u, "screen",

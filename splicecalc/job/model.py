@@ -41,6 +41,9 @@ PSI_TABLES: tuple[str, ...] = ("UK NA", "EN recommended")
 NA_OVERRIDABLE: tuple[str, ...] = tuple(f.name for f in fields(NationalAnnex)
                                         if f.name not in ("name", "combination"))
 
+#: name of the beam self-weight load the design adds (reserved: a job load may not use it)
+SELF_WEIGHT_NAME: str = "beam self-weight"
+
 PROJECT_KEYS: tuple[str, ...] = ("number", "title", "prepared_by", "checked_by", "client",
                                  "location", "date", "revision")
 
@@ -230,6 +233,10 @@ class Job:
             validate_load_on_span(ld, L, f"load[{i + 1}]")
             if ld.name in names:
                 raise InputError(f"load[{i + 1}].name", ld.name, "a name not used by another load")
+            if ld.name.strip().lower() == SELF_WEIGHT_NAME:
+                raise InputError(f"load[{i + 1}].name", ld.name,
+                                 f"a name other than '{SELF_WEIGHT_NAME}' (reserved for the self-weight the "
+                                 "design adds itself, which it treats as acting at the shear centre)")
             names.add(ld.name)
         object.__setattr__(self, "loads", lds)
         object.__setattr__(self, "supports", tuple(self.supports))

@@ -14,8 +14,11 @@ lengths in mm, areas in mm2 (records show kN, kNm, mm). Signs of ``M_Ed`` and
 ``h, b, tw, tf, r`` (mm), ``A`` (mm2), ``Iy, Iz, It`` (mm4), ``Iw`` (mm6),
 ``Wel_y, Wpl_y`` (mm3) and ``designation``. The yield strength is taken for
 the flange thickness (the thickest element, EN 10025-2 via
-:func:`splicecalc.materials.steel`) for every check except web bearing, which
-uses f_yf and f_yw separately as EN 1993-1-5 Eq. 6.8 does.
+:func:`splicecalc.materials.steel`) for the resistances (the lower value,
+conservative). The epsilon of each element is from its own thickness: Table 5.2
+classifies the web with f_y for t_w, and the shear-buckling limit of 6.2.6(6)
+uses the web's epsilon; web bearing uses f_yf and f_yw separately as
+EN 1993-1-5 Eq. 6.8 does.
 
 Not covered (refused with :class:`SlenderSectionError` /
 :class:`ShearBucklingError`, both :class:`~splicecalc.core.errors.InputError`):
@@ -119,22 +122,34 @@ def _class_of(ratio: float, lims: Sequence[float]) -> int:
     return 4
 
 
+def _fy_web(section: Any, grade: str) -> float:
+    """f_y (MPa) of the web, for its own thickness t_w (EN 10025-2 via :func:`steel`)."""
+    return steel(grade, section.tw, field="section.tw").f_y
+
+
 def _classification(section: Any, grade: str, N_Ed: float, calc: Calc) -> dict[str, Any]:
-    """Run Table 5.2 for flange and web through ``calc``; return classes, ratios and limits."""
+    """Run Table 5.2 for flange and web through ``calc``; return classes, ratios and limits.
+
+    Each element is classified with the epsilon of its own yield strength: the flange with
+    f_y for t_f, the web with f_y for t_w (a thinner web may be in a higher-strength
+    thickness band, EN 10025-2, which gives it a smaller epsilon).
+    """
     f_y, _ = _fy(section, grade)
+    f_yw = _fy_web(section, grade)
     eps = calc(f11.epsilon, f_y=f_y)
     fl = calc(f11.c_t_flange, c_f=_c_flange(section), t_f=section.tf, epsilon=eps)
+    eps_w = eps if f_yw == f_y else calc(f11.epsilon, f_y=f_yw)
     if N_Ed > 0.0:
-        alpha = calc(f11.alpha_web, N_Ed=N_Ed, c_w=_c_web(section), t_w=section.tw, f_y=f_y)
+        alpha = calc(f11.alpha_web, N_Ed=N_Ed, c_w=_c_web(section), t_w=section.tw, f_y=f_yw)
         psi = calc(f11.psi_web, N_Ed=N_Ed, A=section.A, f_y=f_y)
     else:
         alpha, psi = 0.5, -1.0
-    wb = calc(f11.c_t_web, c_w=_c_web(section), t_w=section.tw, epsilon=eps, alpha=alpha, psi=psi)
+    wb = calc(f11.c_t_web, c_w=_c_web(section), t_w=section.tw, epsilon=eps_w, alpha=alpha, psi=psi)
     fl = tuple(float(x) for x in fl)
     wb = tuple(float(x) for x in wb)
     cf, cw = _class_of(fl[0], fl[1:]), _class_of(wb[0], wb[1:])
-    return dict(f_y=f_y, epsilon=eps, flange=fl, web=wb, class_flange=cf, class_web=cw,
-                section_class=max(cf, cw), alpha=alpha, psi=psi)
+    return dict(f_y=f_y, f_yw=f_yw, epsilon=eps, epsilon_w=eps_w, flange=fl, web=wb, class_flange=cf,
+                class_web=cw, section_class=max(cf, cw), alpha=alpha, psi=psi)
 
 
 def _refuse_class_4(section: Any, grade: str, cl: dict[str, Any]) -> None:
@@ -196,6 +211,9 @@ def classify(section: Any, grade: str, na: NationalAnnex = UK_NA, calc: Calc | N
     calc.note(f"Flange {_ORD[cl['class_flange']]}, web {_ORD[cl['class_web']]}: section {_ORD[k]}.")
     calc.keep("f_y", cl["f_y"], "MPa")
     calc.keep("epsilon", cl["epsilon"])
+    if cl["f_yw"] != cl["f_y"]:
+        calc.keep("f_yw", cl["f_yw"], "MPa")
+        calc.keep("epsilon_w", cl["epsilon_w"])
     calc.keep("c_t_flange", cl["flange"][0])
     calc.keep("c_t_web", cl["web"][0])
     calc.keep("Class_flange", cl["class_flange"])
@@ -303,7 +321,7 @@ def check_bending(section: Any, grade: str, M_Ed: float, na: NationalAnnex = UK_
 def _V_pl_Rd(section: Any, grade: str, na: NationalAnnex, calc: Calc) -> tuple[float, float, float]:
     """Shear-buckling limit then V_pl,Rd; returns (V_pl_Rd N, A_v mm2, u_hw)."""
     f_y, _ = _fy(section, grade)
-    eps = f11.epsilon(f_y=f_y)
+    eps = f11.epsilon(f_y=_fy_web(section, grade))     # 6.2.6(6): epsilon of the web, f_y for t_w
     h_w = _h_w(section)
     u_hw = calc(f11.shear_buckling_ratio, h_w=h_w, t_w=section.tw, epsilon=eps, eta=na.eta)
     if u_hw > 1.0:
@@ -445,6 +463,11 @@ def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, 
         calc.note("$M_{cr}$ is unbounded for this loading (no lateral-torsional buckling).")
         lam = 0.0
     else:
+        if Mcr < 1e-12 * W * f_y:   # lambda_LT > 1e6: no meaningful resistance (and Eq. 6.57 overflows)
+            raise InputError("M_cr", Mcr, f"an elastic critical moment above 1e-12 W_y f_y = {1e-12 * W * f_y:.3g} "
+                             "N*mm (lambda_LT <= 1e6)",
+                             hint="the segment buckles under a negligible moment: check the loads, their "
+                                  "height z_g and the moment diagram")
         calc.keep("M_cr", Mcr, "Nmm")
         calc.note(mcr_text)
         lam = calc(f11.lambda_LT, W_y=W, f_y=f_y, M_cr=Mcr)
@@ -486,12 +509,15 @@ def check_web_bearing(section: Any, grade: str, F_Ed: float, s_s: float, c: floa
     """Web resistance to a transverse force at an unstiffened beam end, EN 1993-1-5 section 6, type (c).
 
     ``F_Ed`` (N) is applied through one flange over the stiff bearing length
-    ``s_s`` (mm, 6.3); ``c`` (mm) is the distance from the end of the stiff
+    ``s_s`` (mm, 6.3; taken not more than h_w, 6.3(1)); ``c`` (mm) is the distance from the end of the stiff
     bearing to the beam end. f_yf and f_yw by element thickness. m_2 depends on
     lambda_F (Eq. 6.9): computed with m_2 for lambda_F > 0.5, redone with
     m_2 = 0 if lambda_F <= 0.5. ``M_Ed`` (N*mm) at the same section: when
     non-zero the 7.2 interaction eta_2 + 0.8 eta_1 <= 1.4 reduces the
     resistance (eta_1 = M_Ed / M_c,Rd); at a simple support M_Ed = 0.
+    7.2(1) is for a force on the compression flange; for a force on the tension
+    flange (e.g. a reaction under a sagging span) 7.2(2) asks only for section 6
+    and EN 1993-1-1 6.2.1(5): pass M_Ed = 0 and check bending separately.
     """
     _check_section(section)
     _check_na(na)
@@ -505,6 +531,9 @@ def check_web_bearing(section: Any, grade: str, F_Ed: float, s_s: float, c: floa
     f_yw = steel(grade, section.tw, field="section.tw").f_y
     h_w = _h_w(section)
     tw, tf = section.tw, section.tf
+    if ss > h_w:   # 6.3(1): s_s not more than h_w
+        ss = calc(f15.s_s_eff, s_s=ss, h_w=h_w)
+        calc.note("The stiff bearing length is limited to $h_w$ (EN 1993-1-5 6.3(1)).")
     # first pass on floats to settle m_2 (Eq. 6.9 depends on lambda_F)
     kF = f15.k_F_c(s_s=ss, c=c_, h_w=h_w)
     Fcr = f15.F_cr(k_F=kF, t_w=tw, h_w=h_w, E=E_MPa)

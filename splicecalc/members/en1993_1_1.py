@@ -138,10 +138,11 @@ def W_pl_y_net(W_pl_y: float, Delta_A_f: float, y_f: float, t_w: float) -> float
 @clause("EN 1993-1-1:2005, 6.2.5(4)", units={"I_y": "mm4", "A": "mm2", "Delta_A_f": "mm2", "y_f": "mm", "h": "mm"},
         returns="mm3", example=dict(I_y=29380e4, A=8550.0, Delta_A_f=200.0, y_f=220.35, h=453.4))
 def W_el_y_net(I_y: float, A: float, Delta_A_f: float, y_f: float, h: float) -> float:
-    """Elastic modulus (compression fibre) with the tension-flange area reduced by Delta_A_f (mm3).
+    """Elastic modulus with the tension-flange area reduced by Delta_A_f (mm3), the smaller of the two fibres.
 
     Centroid shift e = Delta_A_f y_f / (A - Delta_A_f) towards the compression
-    flange; I_net = I_y - Delta_A_f y_f^2 - (A - Delta_A_f) e^2; W = I_net/(h/2 + e).
+    flange; I_net = I_y - Delta_A_f y_f^2 - (A - Delta_A_f) e^2; the tension fibre
+    is now the farther one (h/2 + e), so W = I_net/(h/2 + e) governs first yield.
     """
     e_c = Delta_A_f * y_f / (A - Delta_A_f)
     I_y_net = I_y - Delta_A_f * y_f**2 - (A - Delta_A_f) * e_c**2
@@ -172,9 +173,13 @@ def shear_buckling_ratio(h_w: float, t_w: float, epsilon: float, eta: float) -> 
 @clause("EN 1993-1-1:2005, 6.2.8(3), Eq. 6.29", units={"V_Ed": "N", "V_pl_Rd": "N"}, returns="",
         example=dict(V_Ed=600e3, V_pl_Rd=839e3))
 def rho_V(V_Ed: float, V_pl_Rd: float) -> float:
-    """rho = (2 V_Ed / V_pl,Rd - 1)^2 when V_Ed > 0.5 V_pl,Rd, else 0 (6.2.8(2)); capped at 1."""
+    """rho = (2 V_Ed / V_pl,Rd - 1)^2 when V_Ed > 0.5 V_pl,Rd, else 0 (6.2.8(2)); capped at 1.
+
+    The cap is applied to the base (2 V_Ed / V_pl,Rd - 1 <= 1, i.e. V_Ed <= V_pl,Rd), which is the
+    same for every V_Ed and cannot overflow.
+    """
     if V_Ed <= 0.5 * V_pl_Rd: rho = 0.0
-    else: rho = min((2 * V_Ed / V_pl_Rd - 1)**2, 1.0)
+    else: rho = min(2 * V_Ed / V_pl_Rd - 1, 1.0)**2
     return rho
 
 

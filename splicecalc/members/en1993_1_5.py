@@ -13,6 +13,14 @@ from math import sqrt
 from ..core.clause import clause
 
 
+@clause("EN 1993-1-5:2006, 6.3(1)", units={"s_s": "mm", "h_w": "mm"}, returns="mm",
+        example=dict(s_s=500.0, h_w=428.0))
+def s_s_eff(s_s: float, h_w: float) -> float:
+    """Stiff bearing length used in section 6: s_s, but not more than h_w (mm), 6.3(1)."""
+    s_s_eff = min(s_s, h_w)
+    return s_s_eff
+
+
 @clause("EN 1993-1-5:2006, 6.1(4), Figure 6.1", units={"s_s": "mm", "c": "mm", "h_w": "mm"}, returns="",
         example=dict(s_s=100.0, c=0.0, h_w=428.0))
 def k_F_c(s_s: float, c: float, h_w: float) -> float:
@@ -102,4 +110,4 @@ def F_Rd_M(F_Rd: float, M_Ed: float, M_Rd: float) -> float:
     return F_Rd_M
 
 
-__all__ = ["k_F_c", "F_cr", "m_1", "m_2", "l_e", "l_y_c", "lambda_F", "chi_F", "F_Rd", "F_Rd_M"]
+__all__ = ["s_s_eff", "k_F_c", "F_cr", "m_1", "m_2", "l_e", "l_y_c", "lambda_F", "chi_F", "F_Rd", "F_Rd_M"]

@@ -36,6 +36,7 @@ from typing import Any, Callable, Sequence
 
 import numpy as np
 import scipy.linalg
+import scipy.optimize
 
 from ..core.clause import clause
 from ..core.errors import InputError, require_finite, require_in_range, require_positive
@@ -235,10 +236,19 @@ def mcr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, p
     Mg = Mfn(xg)
     if not np.all(np.isfinite(Mg)):
         raise InputError("M", "non-finite values", "a finite moment diagram")
-    xs = np.linspace(0.0, L, 8 * ne + 1)
+    # max |M|: a fine grid plus the point-load positions (the peaks of a kinked diagram), then a
+    # bounded local refinement around the best sample (a sampled peak alone under-reads M_max
+    # and so M_cr = alpha_cr M_max, by up to ~1 % for a point load between grid points)
+    xs = np.unique(np.concatenate((np.linspace(0.0, L, 8 * ne + 1), [p[0] for p in pls])))
     Ms = np.abs(Mfn(xs))
     i_max = int(np.argmax(Ms))
     M_max, x_M_max = float(Ms[i_max]), float(xs[i_max])
+    lo, hi = xs[max(i_max - 1, 0)], xs[min(i_max + 1, xs.size - 1)]
+    if hi > lo:
+        ref = scipy.optimize.minimize_scalar(lambda t: -float(np.abs(Mfn(np.array([t])))[0]), bounds=(lo, hi),
+                                             method="bounded", options={"xatol": 1e-9 * L})
+        if -ref.fun > M_max:
+            M_max, x_M_max = float(-ref.fun), float(ref.x)
     if M_max == 0.0:   # no bending in the segment: no lateral-torsional buckling
         return McrResult(float("inf"), float("inf"), 0.0, 0.0, ne)
     Ce = np.einsum("g,eg,ga,gb->eab", w, Mg, d2N, N)          # v rows, phi columns
