@@ -47,7 +47,9 @@ def test_polar_method_matches_direct_stiffness(rows, cols, p, g):
     f = splice_forces(SEC, M_Ed=250e6, V_Ed=180e3, N_Ed=60e3, gap=10.0, web_rows=rows, web_columns=cols,
                       web_pitch=p, web_gauge=g, web_e1=40.0)
     coords = web_bolt_coordinates(rows, cols, p, g)
-    ref = direct_stiffness(coords, V=180e3, N=f.N_w_Ed, M=f.M_g_Ed)
+    # x is measured away from the joint: V acts at the joint line x = -e, so the group moment is -M_g
+    # (V e and the web moment turn the same way on the governing side)
+    ref = direct_stiffness(coords, V=180e3, N=f.N_w_Ed, M=-f.M_g_Ed)
     for (x, z, fx, fz, fr), (rx, rz, rr) in zip(f.bolt_forces, ref):
         assert fx == pytest.approx(rx, rel=1e-9, abs=1e-6)
         assert fz == pytest.approx(rz, rel=1e-9, abs=1e-6)
@@ -70,11 +72,12 @@ def test_equilibrium_exact(M, V, N):
     assert f.F_f_M * f.z + f.M_w_Ed == pytest.approx(abs(M), rel=1e-12, abs=1e-3)
     # axial: two flanges + web = N
     assert 2 * f.N_f_Ed + f.N_w_Ed == pytest.approx(N, rel=1e-12, abs=1e-6)
-    # bolt group equilibrium on one side: sum F_z = V, sum F_x = N_w, sum moments = M_w + V e
+    # bolt group equilibrium on one side: sum F_z = V, sum F_x = N_w, sum moments = -(M_w + V e)
+    # (x away from the joint, V acting at x = -e)
     assert sum(b[3] for b in f.bolt_forces) == pytest.approx(abs(V), rel=1e-9, abs=1e-6)
     assert sum(b[2] for b in f.bolt_forces) == pytest.approx(f.N_w_Ed, rel=1e-9, abs=1e-6)
     mom = sum(b[0] * b[3] - b[1] * b[2] for b in f.bolt_forces)
-    assert mom == pytest.approx(abs(f.M_w_Ed) + abs(V) * f.e_w, rel=1e-9, abs=1e-3)
+    assert mom == pytest.approx(-(abs(f.M_w_Ed) + abs(V) * f.e_w), rel=1e-9, abs=1e-3)
 
 
 def test_web_share_and_lever_arm_hand_calculation():

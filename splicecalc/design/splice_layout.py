@@ -33,8 +33,9 @@ from ..materials.steel import steel
 from ..joints import bolts as B
 from ..joints import plates as P
 from ..joints.bolts import PRELOAD_CLASSES
-from ..joints.splice.checks import detailing_records, flange_records, web_records
-from ..joints.splice.design import SpliceDesign, check_splice, moment_resistance, splice_bolt, validate_inputs
+from ..joints.splice.checks import detailing_records, flange_records, member_records, web_records
+from ..joints.splice.design import (SpliceDesign, check_splice, moment_resistance, serviceability_forces, splice_bolt,
+                                    validate_inputs)
 from ..joints.splice.forces import splice_forces
 from ..joints.splice.geometry import default_edge, geometry, round_down, round_up
 from ..joints.splice.spec import FlangeLayout, SpliceLayout, SpliceSpec, WebLayout
@@ -189,9 +190,26 @@ def _first_passing(cands, test, k: int = 2, limit: int = 400):
     return found
 
 
+#: member checks at the splice that depend only on the flange group / only on the web group
+_MEMBER_FLANGE = ("beam_bending_holes",)
+_MEMBER_WEB = ("beam_shear", "beam_web_net_shear", "beam_web_block")
+
+
+def _member_ok(recs, ids) -> bool:
+    return all(r.ok for r in recs if r.id in ids)
+
+
 def search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, spec: SpliceSpec,
-                   na: NationalAnnex = UK_NA, M_c_Rd: float | None = None, n_keep: int = 3):
-    """Cheapest passing layouts (list of SpliceDesign, cheapest first)."""
+                   na: NationalAnnex = UK_NA, M_c_Rd: float | None = None, n_keep: int = 3, *,
+                   M_Ed_ser: float | None = None, V_Ed_ser: float | None = None):
+    """Cheapest passing layouts (list of SpliceDesign, cheapest first).
+
+    Every check of :func:`check_splice` belongs to the flange group or to the web group
+    (the member checks at the splice too: flange holes in bending with the flange, web
+    net shear and block tearing with the web), so the cheapest passing flange plus the
+    cheapest passing web is the cheapest passing splice for a bolt. ``M_Ed_ser``,
+    ``V_Ed_ser``: serviceability forces for category B slip, as in :func:`check_splice`.
+    """
     grade, M_Ed, V_Ed, N_Ed = validate_inputs(section, grade, M_Ed, V_Ed, N_Ed, spec, na)
     if spec.bolts != "auto":
         bolts = [(spec.bolt_size, spec.bolt_class)]
@@ -219,7 +237,12 @@ def search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, s
                 recs += detailing_records(section, bolt, g, spec)[4:]
             if not all(r.ok for r in recs):
                 return False
-            return all(r.ok for r in flange_records(section, grade, bolt, g, spec, F_f, na, Calc(), fast=True))
+            F_f_ser, _, _ = serviceability_forces(section, spec, dummy_web, default_edge(bolt.d_0), base, M_Ed, V_Ed,
+                                                  M_Ed_ser, V_Ed_ser)
+            if not all(r.ok for r in flange_records(section, grade, bolt, g, spec, F_f, na, Calc(), F_f_ser,
+                                                    fast=True)):
+                return False
+            return _member_ok(member_records(section, grade, bolt, g, spec, base, na, Calc()), _MEMBER_FLANGE)
 
         def forces_fn(w: WebLayout):
             e1 = default_edge(bolt.d_0)
@@ -237,7 +260,10 @@ def search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, s
             recs = detailing_records(section, bolt, g, spec)[2:4]
             if not all(r.ok for r in recs):
                 return False
-            return all(r.ok for r in web_records(section, grade, bolt, g, spec, fo, na, Calc(), fast=True))
+            _, ratio, _ = serviceability_forces(section, spec, w, g.e1_w, fo, M_Ed, V_Ed, M_Ed_ser, V_Ed_ser)
+            if not all(r.ok for r in web_records(section, grade, bolt, g, spec, fo, na, Calc(), ratio, fast=True)):
+                return False
+            return _member_ok(member_records(section, grade, bolt, g, spec, fo, na, Calc()), _MEMBER_WEB)
 
         fl = _first_passing(_flange_candidates(section, bolt, spec), flange_test, k=2)
         if not fl:
@@ -251,7 +277,8 @@ def search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, s
     combos.sort(key=lambda c: c[0])
     out: list[SpliceDesign] = []
     for cost, lay in combos:
-        d = check_splice(section, grade, M_Ed, V_Ed, N_Ed, spec=spec, layout=lay, na=na, M_c_Rd=M_c_Rd)
+        d = check_splice(section, grade, M_Ed, V_Ed, N_Ed, spec=spec, layout=lay, na=na, M_c_Rd=M_c_Rd,
+                         M_Ed_ser=M_Ed_ser, V_Ed_ser=V_Ed_ser)
         if d.ok:
             out.append(d)
     # alternatives: prefer another bolt size, then another group layout (never the same geometry)
@@ -300,7 +327,8 @@ def design_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0
         lay = SpliceLayout(spec.bolt_size, spec.bolt_class, spec.flange, spec.web)
         d = check_splice(section, grade, M_Ed, V_Ed, N_Ed, spec=spec, layout=lay, render=render, **kw)
     else:
-        found = search_layouts(section, grade, M_Ed, V_Ed, N_Ed, spec, na, M_c_Rd)
+        found = search_layouts(section, grade, M_Ed, V_Ed, N_Ed, spec, na, M_c_Rd, M_Ed_ser=M_Ed_ser,
+                               V_Ed_ser=V_Ed_ser)
         if not found:
             raise InputError("splices", f"M_Ed = {M_Ed / 1e6:.1f} kNm, V_Ed = {V_Ed / 1e3:.1f} kN on "
                              f"{getattr(section, 'designation', section)}",

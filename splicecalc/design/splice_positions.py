@@ -104,8 +104,11 @@ def envelope(beams: Sequence, names: Sequence[str] | None = None,
     """Envelope callables from per-combination beams (objects with ``M(x)`` and ``V(x)``).
 
     Returns ``(M_abs(x), V_abs(x), at(x) -> (M, V, N, name))``: the envelopes of
-    |M| and |V| over the combinations, and the forces of the combination that
-    governs |M| at x (ties: the larger |V|).
+    |M| and |V| over the combinations, and the splice design forces at x: M and N
+    of the combination that governs |M| (ties: the larger |V|) with V the envelope
+    |V| at x (the largest over the combinations, which may come from another
+    combination, e.g. a partial imposed load; designing for both maxima together is
+    conservative and matches the demand |M|/M_c,Rd + |V|/V_c,Rd used to place the splice).
     """
     beams = list(beams)
     if not beams:
@@ -122,13 +125,19 @@ def envelope(beams: Sequence, names: Sequence[str] | None = None,
 
     def at(x: float):
         best = None
+        v_best = None
         for b, nm, n in zip(beams, names, Ns):
             M = float(b.M(x))
             V = max(abs(float(b.V(x, "left"))), abs(float(b.V(x, "right"))))
             key = (abs(M), V)
             if best is None or key > best[0]:
                 best = (key, (M, V, n, nm))
-        return best[1]
+            if v_best is None or V > v_best[0]:
+                v_best = (V, nm)
+        M, V, n, nm = best[1]
+        if v_best[0] > V:
+            return M, v_best[0], n, f"{nm} (M), {v_best[1]} (V)"
+        return M, V, n, nm
 
     return M_abs, V_abs, at
 

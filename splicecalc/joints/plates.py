@@ -376,14 +376,16 @@ def check_plate_bending(M_Ed: float, h: float, t: float, grade: str, *, plastic:
 
 
 def check_plate_compression(N_Ed: float, b: float, t: float, p_1: float, grade: str, *, curve: str = "c",
-                            na: NationalAnnex = UK_NA, calc: Calc | None = None, id: str = "plate_compression",
-                            title: str = "Plate in compression between fasteners",
+                            A_net: float | None = None, na: NationalAnnex = UK_NA, calc: Calc | None = None,
+                            id: str = "plate_compression", title: str = "Plate in compression between fasteners",
                             location_mm: float | None = None) -> CheckRecord:
     """Plate b x t (mm) in compression N_Ed (N) with fastener pitch p_1 (mm) along the load.
 
-    EN 1993-1-8:2005, 3.5, Table 3.3 note 2: if p_1/t < 9 eps the gross yield
-    resistance N_pl,Rd governs (holes filled by bolts, EN 1993-1-1 6.2.4); otherwise
-    flexural buckling of the strip, EN 1993-1-1 6.3.1 with L_cr = 0.6 p_1 and curve c.
+    EN 1993-1-8:2005, 3.5, Table 3.3 note 2: if p_1/t < 9 eps the cross-section
+    resistance governs; otherwise also flexural buckling of the strip, EN 1993-1-1
+    6.3.1 with L_cr = 0.6 p_1 and curve c. The cross-section resistance is on the
+    gross area (holes filled by bolts, EN 1993-1-1 6.2.4), or on ``A_net`` (mm2)
+    when given: oversize and slotted holes must be allowed for in compression too.
     """
     na = _na(na)
     N_Ed = require_non_negative("N_Ed", N_Ed, "N")
@@ -391,10 +393,14 @@ def check_plate_compression(N_Ed: float, b: float, t: float, p_1: float, grade: 
     t = require_positive("t", t, "mm")
     p_1 = require_positive("p_1", p_1, "mm")
     require_choice("curve", curve, tuple(ALPHA_IMP))
+    if A_net is not None:
+        A_net = require_positive("A_net", A_net, "mm2")
+        if A_net > b * t:
+            raise InputError("A_net", A_net, f"at most the gross area {b * t:g} mm2")
     mat = steel(grade, t, field="t")
     calc = calc if calc is not None else Calc()
     lim = calc(p_1_t_lim, f_y=mat.f_y)
-    Npl = calc(N_pl_Rd, A=b * t, f_y=mat.f_y, gamma_M0=na.gamma_M0)
+    Npl = calc(N_pl_Rd, A=b * t if A_net is None else A_net, f_y=mat.f_y, gamma_M0=na.gamma_M0)
     calc.keep("p_1_t", p_1 / t)
     calc.keep("p_1_t_lim", lim)
     N_Rd = Npl

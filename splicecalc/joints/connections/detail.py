@@ -37,7 +37,7 @@ from .formulas import t_p_max_ductility
 
 GUIDANCE = "published simple-joint guidance (from memory)"
 #: clause cited for the detailing rules that keep a joint nominally pinned
-CL_PINNED = "EN 1993-1-8:2005, 5.2.2.1"
+CL_PINNED = "EN 1993-1-8:2005, 5.2.2.2 (rotation capacity of a nominally pinned joint)"
 CL_SPACING = "EN 1993-1-8:2005, 3.5, Table 3.3"
 #: nominal eccentricity of a beam reaction from the face of a column in simple construction (mm),
 #: published UK guidance for simple columns (from memory)

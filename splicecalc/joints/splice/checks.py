@@ -8,8 +8,10 @@ two directions, :func:`U_b_xz`.
 
 Methods (stated on the calc sheet):
 
-* Flange bolt group (concentric, force ``F_f``): shear per bolt ``F_f/n`` over 1
-  (outer plate) or 2 (outer + inner) shear planes, with beta_Lf (3.8, L_j =
+* Flange bolt group (concentric, force ``F_f``): shear per bolt ``F_f/n``, on 1
+  plane (outer plate) or, with outer + inner plates, on the more loaded of the two
+  planes, which passes its plate's area share of the bolt force (the same for the
+  friction surfaces of slip-resistant bolts), with beta_Lf (3.8, L_j =
   (rows - 1) p1) and beta_p (3.6.1(12), flange packing). Bearing per bolt and per
   ply with k1 and alpha_b by position (end / inner row, edge / inner line; the
   end row of the beam flange is the one nearest the beam end, of a plate the
@@ -28,11 +30,14 @@ Methods (stated on the calc sheet):
   categories, category C adds the net section at f_y (EN 1993-1-1 6.2.3(4)).
 * Table 3.3 minima for every ply; maxima p <= min(14 t, 200 mm) (compression
   flange and web, either flange may be in compression under reversal) and
-  4 t + 40 mm edges when ``exposed``.
+  4 t + 40 mm edges when ``exposed``; t is the thinner outer connected part
+  (note 3). Web bolts are loaded both ways, so the web spacing is checked for a
+  horizontal and a vertical load (pitch and gauge each >= 2.4 d0).
 * Plates: tension gross/net (6.2.3), block tearing (3.10.2), compression with
   buckling between fasteners over max(p1, gap + 2 e1) (the plate strip across
   the joint is the longest unsupported length); web plates: shear gross/net,
-  block tearing (eccentric, Eq. 3.10), in-plane bending at the first bolt column.
+  block tearing (eccentric, Eq. 3.10), in-plane bending at the first bolt column,
+  with the web's axial share by the linear interaction of EN 1993-1-1 6.2.1(7).
 * Beam at the splice: bending with tension-flange holes (EN 1993-1-1 6.2.5(4)),
   web net shear (6.2.6(7)), shear, beam-web block tearing under axial tension.
 
@@ -54,7 +59,7 @@ from ...materials.steel import steel
 from .. import bolts as B
 from .. import plates as P
 from .. import spacing as S
-from ...members.en1993_1_1 import rho_V
+from ...members.en1993_1_1 import c_t_flange, epsilon, rho_V
 from .geometry import Geometry
 
 CL_DETAIL = "EN 1993-1-8:2005, 3.5(1)"
@@ -89,6 +94,14 @@ def M_V_Rd_plate(rho: float, W: float, f_y: float, gamma_M0: float) -> float:
     reduced to (1 - rho) f_y for coexisting shear, 6.2.8(3) (N*mm)."""
     M_V_Rd = (1 - rho) * W * f_y / gamma_M0
     return M_V_Rd
+
+
+@clause("EN 1993-1-1:2005, 6.2.1(7), Eq. 6.2", units={"N_Ed": "N", "N_Rd": "N", "M_Ed": "Nmm", "M_Rd": "Nmm"},
+        returns="", example=dict(N_Ed=50e3, N_Rd=800e3, M_Ed=20e6, M_Rd=40e6))
+def U_NM(N_Ed: float, N_Rd: float, M_Ed: float, M_Rd: float) -> float:
+    """Linear interaction of axial force and bending, Eq. 6.2 (conservative): N/N_Rd + M/M_Rd <= 1."""
+    U_NM = N_Ed / N_Rd + M_Ed / M_Rd
+    return U_NM
 
 
 def _fail(id: str, title: str, clause_: str, err: Exception, location_mm=None) -> CheckRecord:
@@ -180,14 +193,17 @@ def flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na:
     hole = spec.holes
     gM2 = na.gamma_M2
     F_b = F_f / n
-    n_s = 2 if inner else 1
     L_j = (rows - 1) * g.p1_f
-    # -- shear
+    # -- shear. With outer + inner plates each shear plane (and friction surface) passes the force of
+    # its own plate, shared by area: the most loaded plane carries max(share) of the bolt force, so
+    # the bolt is checked on that plane (equal to double shear only when the areas are equal).
+    share_max = max(g.share_o, 1.0 - g.share_o) if inner else 1.0
+    plane = "most loaded shear plane, share by plate area" if inner else "single shear"
     rs = _safe(out, B.check_bolt_shear, fid="flange_bolt_shear", ftitle="Flange bolts: shear", fclause=CL_BEAR,
-               bolt=bolt, F_v_Ed=F_b, n_s=n_s, threads_in_shear_plane=spec.threads_in_shear_plane, L_j=L_j,
-               t_pack=spec.packing, na=na, calc=calc, id="flange_bolt_shear", title="Flange bolts: shear",
+               bolt=bolt, F_v_Ed=F_b * share_max, n_s=1, threads_in_shear_plane=spec.threads_in_shear_plane, L_j=L_j,
+               t_pack=spec.packing, na=na, calc=calc, id="flange_bolt_shear", title=f"Flange bolts: shear ({plane})",
                location_mm=loc)
-    F_v = _kN(rs) if rs is not None else 0.0
+    F_v = _kN(rs) / share_max if rs is not None else 0.0      # resistance of one bolt to its whole force
     # -- bearing per bolt and ply
     p1 = g.p1_f if rows > 1 else None
     if cols == 2:
@@ -255,8 +271,9 @@ def flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na:
     if spec.category in ("B", "C"):
         Fs = F_b if spec.category == "C" else (F_f_ser if F_f_ser is not None else F_f) / n
         _safe(out, B.check_slip, fid="flange_bolt_slip", ftitle="Flange bolts: slip", fclause="EN 1993-1-8:2005, 3.9.1, Eq. 3.6",
-              bolt=bolt, F_v_Ed=Fs, category=spec.category, n=n_s, surface_class=spec.friction_class, hole=hole,
-              na=na, calc=calc, id="flange_bolt_slip", location_mm=loc)
+              bolt=bolt, F_v_Ed=Fs * share_max, category=spec.category, n=1, surface_class=spec.friction_class,
+              hole=hole, na=na, calc=calc, id="flange_bolt_slip", location_mm=loc,
+              title=f"Flange bolts: slip, category {spec.category} ({plane.replace('shear plane', 'friction surface').replace('single shear', 'one friction surface')})")
     # -- spacing, Table 3.3
     t_out = min(g.t_po, g.t_pi) if inner else min(g.t_po, section.tf)
     p2 = g.g_f if cols == 2 else min(g.g_f, g.p2o_f)
@@ -317,15 +334,33 @@ def flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na:
                              InputError("block areas", (A_nt, A_nv), "positive net areas"), loc))
     # -- compression: buckling between fasteners and across the joint
     p_free = max(g.p1_f if rows > 1 else 0.0, spec.gap + 2 * g.e1_f)
+    # oversize holes are not "filled by fasteners": net area in compression too (EN 1993-1-1 6.2.4)
+    over = hole == "oversize"
+    A_no = (g.b_po - cols * d0) * g.t_po if over else None
+    A_ni = (g.b_pi - (cols // 2) * d0) * g.t_pi if (over and inner) else None
     _safe(out, P.check_plate_compression, fid="outer_plate_compression", ftitle="Outer flange plate: compression",
           fclause="EN 1993-1-8:2005, 3.5, Table 3.3", N_Ed=F_o, b=g.b_po, t=g.t_po, p_1=p_free, grade=pg, na=na,
-          calc=calc, id="outer_plate_compression",
+          A_net=A_no, calc=calc, id="outer_plate_compression",
           title="Outer flange plate: compression, buckling over max(p1, gap + 2 e1)", location_mm=loc)
     if inner:
         _safe(out, P.check_plate_compression, fid="inner_plate_compression", ftitle="Inner flange plates: compression",
               fclause="EN 1993-1-8:2005, 3.5, Table 3.3", N_Ed=F_f * share_i / 2, b=g.b_pi, t=g.t_pi, p_1=p_free,
-              grade=pg, na=na, calc=calc, id="inner_plate_compression",
+              grade=pg, na=na, A_net=A_ni, calc=calc, id="inner_plate_compression",
               title="Inner flange plate (each): compression, buckling over max(p1, gap + 2 e1)", location_mm=loc)
+    # Table 3.3 note 2: in compression the edge distance must also meet the outstand limit of
+    # EN 1993-1-1 Table 5.2 (c = e2 beyond the outer bolt line, Class 3: c/t <= 14 eps, full A f_y)
+    plies = [("outer", "Outer flange plate", g.e2_po, g.t_po)]
+    if inner:
+        plies.append(("inner", "Inner flange plates", max(g.e2_pi_in, g.e2_pi_out), g.t_pi))
+    for key, what, c_f, t_p in plies:
+        if c_f <= 0.0:
+            continue                    # does not fit: reported by the detailing and spacing records
+        eps = calc(epsilon, f_y=steel(pg, t_p).f_y)
+        ratio, _, _, lim3 = calc(c_t_flange, c_f=c_f, t_f=t_p, epsilon=eps)
+        out.append(calc.record(id=f"{key}_plate_outstand", title=f"{what}: edge outstand in compression",
+                               clause="EN 1993-1-8:2005, 3.5, Table 3.3", demand=ratio, resistance=lim3, unit="",
+                               location_mm=loc, note="Table 3.3 note 2: e2 / t <= 14 eps (EN 1993-1-1 Table 5.2, "
+                                                     "outstand in compression, Class 3)"))
     return out
 
 
@@ -415,11 +450,18 @@ def web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Nation
         _safe(out, B.check_slip, fid="web_bolt_slip", ftitle="Web bolts: slip", fclause="EN 1993-1-8:2005, 3.9.1, Eq. 3.6",
               bolt=bolt, F_v_Ed=Fs, category=spec.category, n=2, surface_class=spec.friction_class,
               hole=spec.holes, na=na, calc=calc, id="web_bolt_slip", location_mm=loc)
-    p1 = g.p_w if g.n_r > 1 else None
-    p2 = g.g_w if g.n_c > 1 else None
+    # Table 3.3 for a group loaded both ways: horizontal (e1 = beam/plate end distance, p1 = gauge,
+    # p2 = pitch) and vertical (p1 = pitch, p2 = gauge), so both spacings meet 2.4 d0; t is the
+    # thinner outer connected part (note 3): the web plates, the beam web being the middle ply.
+    p_v = g.p_w if g.n_r > 1 else None
+    p_h = g.g_w if g.n_c > 1 else None
     _safe(out, S.check_spacing, fid="web_spacing", ftitle="Web bolts spacing", fclause="EN 1993-1-8:2005, 3.5, Table 3.3",
-          d_0=d0, t=min(section.tw, g.t_wp), e_1=g.e1_w, e_2=g.e_v, p_1=p1, p_2=p2, exposed=spec.exposed,
-          compression=True, calc=calc, id="web_spacing", where="Web", location_mm=loc)
+          d_0=d0, t=g.t_wp, e_1=g.e1_w, e_2=g.e_v, p_1=p_h, p_2=p_v, exposed=spec.exposed,
+          compression=True, calc=calc, id="web_spacing_x", where="Web, horizontal load", location_mm=loc)
+    if p_v is not None or p_h is not None:
+        _safe(out, S.check_spacing, fid="web_spacing", ftitle="Web bolts spacing",
+              fclause="EN 1993-1-8:2005, 3.5, Table 3.3", d_0=d0, t=g.t_wp, p_1=p_v, p_2=p_h, exposed=spec.exposed,
+              compression=True, calc=calc, id="web_spacing_z", where="Web, vertical load", location_mm=loc)
     V = abs(forces.V_Ed)
     _safe(out, P.check_plate_shear, fid="web_plate_shear", ftitle="Web plates: shear", fclause="EN 1993-1-1:2005, 6.2.6",
           V_Ed=V / 2, h=g.h_wp, t=g.t_wp, grade=pg, n_holes=g.n_r, d_0=d0, na=na, calc=calc,
@@ -449,6 +491,20 @@ def web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Nation
                                "bolt column, net section, with shear", clause="EN 1993-1-1:2005, 6.2.8(3)",
                                demand=M_pl / 2, resistance=M_Rd, unit="Nmm", location_mm=loc,
                                note="M = (M_w + V (gap/2 + e1))/2 per plate; W_el,net; f_y reduced by (1 - rho)"))
+        N_p = abs(forces.N_w_Ed) / 2
+        if N_p > 0.0:
+            # the web plates also carry the web's axial share: linear interaction, EN 1993-1-1 6.2.1(7)
+            A_g = g.h_wp * g.t_wp
+            N_Rd = calc(P.N_pl_Rd, A=A_g, f_y=fy_p, gamma_M0=na.gamma_M0)
+            if forces.N_w_Ed > 0.0:     # tension: net section at the bolt column (holes filled in compression)
+                N_u = calc(P.N_u_Rd, A_net=(g.h_wp - g.n_r * d0) * g.t_wp, f_u=mat_p.f_u,
+                           gamma_M2=na.gamma_M2_member)
+                N_Rd = min(N_Rd, N_u)
+            U = calc(U_NM, N_Ed=N_p, N_Rd=N_Rd, M_Ed=M_pl / 2, M_Rd=M_Rd)
+            out.append(calc.record(id="web_plate_bending_axial", title="Web plate (each of 2): bending with the "
+                                   "web's axial force", clause="EN 1993-1-1:2005, 6.2.1(7), Eq. 6.2", demand=U,
+                                   resistance=1.0, unit="", location_mm=loc,
+                                   note="N_w/2 per plate; N_Rd gross (net f_u in tension); M_Rd as above"))
     except InputError as e:
         out.append(_fail("web_plate_bending", "Web plates: bending", "EN 1993-1-1:2005, 6.2.8(3)", e, loc))
     return out
@@ -501,4 +557,4 @@ def _retitle(rec: CheckRecord, id: str, title: str) -> CheckRecord:
     return replace(rec, id=id, title=title)
 
 
-__all__ = ["U_b_xz", "W_el_net_plate", "M_V_Rd_plate", "detailing_records", "flange_records", "web_records", "member_records", "web_bolt_bearing"]
+__all__ = ["U_b_xz", "U_NM", "W_el_net_plate", "M_V_Rd_plate", "detailing_records", "flange_records", "web_records", "member_records", "web_bolt_bearing"]

@@ -123,6 +123,26 @@ def validate_inputs(section, grade, M_Ed, V_Ed, N_Ed, spec, na) -> tuple[str, fl
     return g, M, V, N
 
 
+def serviceability_forces(section, spec: SpliceSpec, web, web_e1: float, forces: SpliceForces, M_Ed: float,
+                          V_Ed: float, M_Ed_ser: float | None, V_Ed_ser: float | None):
+    """Category B slip forces: (flange force F_f,ser (N) or None, web ratio F_r,ser/F_r or None, note).
+
+    With no serviceability forces the ULS forces are used (conservative, noted); a
+    missing one of the two is taken at its ULS value. Used by :func:`check_splice`
+    and by the layout search, so both check slip with the same forces.
+    """
+    if spec.category != "B":
+        return None, None, ""
+    if M_Ed_ser is None and V_Ed_ser is None:
+        return None, None, "Category B slip checked with the ULS forces (no serviceability forces given): conservative."
+    Ms = abs(require_finite("M_Ed_ser", M_Ed_ser if M_Ed_ser is not None else M_Ed))
+    Vs = abs(require_finite("V_Ed_ser", V_Ed_ser if V_Ed_ser is not None else V_Ed))
+    fs = splice_forces(section, Ms, Vs, 0.0, gap=spec.gap, web_rows=web.rows, web_columns=web.columns,
+                       web_pitch=web.pitch, web_gauge=web.gauge, web_e1=web_e1)
+    ratio = fs.F_web_max / forces.F_web_max if forces.F_web_max > 0 else 1.0
+    return fs.F_f_Ed, ratio, ""
+
+
 def check_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0.0, *, spec: SpliceSpec,
                  layout: SpliceLayout, na: NationalAnnex = UK_NA, render: bool = False,
                  M_Ed_ser: float | None = None, V_Ed_ser: float | None = None, location_mm: float | None = None,
@@ -153,18 +173,9 @@ def check_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0.
                            M_c_Rd=M_c_Rd or 0.0, calc=calc)
     force_latex = tuple(calc.latex)
     calc.latex = []
-    F_f_ser = None
-    ser_ratio = None
-    if spec.category == "B":
-        if M_Ed_ser is None and V_Ed_ser is None:
-            notes.append("Category B slip checked with the ULS forces (no serviceability forces given): conservative.")
-        else:
-            Ms = abs(require_finite("M_Ed_ser", M_Ed_ser if M_Ed_ser is not None else M_Ed))
-            Vs = abs(require_finite("V_Ed_ser", V_Ed_ser if V_Ed_ser is not None else V_Ed))
-            fs = splice_forces(section, Ms, Vs, 0.0, gap=spec.gap, web_rows=w.rows, web_columns=w.columns,
-                               web_pitch=w.pitch, web_gauge=w.gauge, web_e1=g.e1_w)
-            F_f_ser = fs.F_f_Ed
-            ser_ratio = fs.F_web_max / forces.F_web_max if forces.F_web_max > 0 else 1.0
+    F_f_ser, ser_ratio, note = serviceability_forces(section, spec, w, g.e1_w, forces, M_Ed, V_Ed, M_Ed_ser, V_Ed_ser)
+    if note:
+        notes.append(note)
     if k_min > 0:
         notes.append(f"Design moment includes the minimum {k_min:g} M_c,Rd (user setting).")
     notes.append("Moment shared by stiffness (web M I_web/I_y, h_w = h - 2 t_f); flange force lever arm "
@@ -186,4 +197,4 @@ def check_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0.
                         loc, force_latex, tuple(notes))
 
 
-__all__ = ["SpliceDesign", "check_splice", "splice_bolt", "splice_cost", "moment_resistance", "validate_inputs"]
+__all__ = ["SpliceDesign", "check_splice", "serviceability_forces", "splice_bolt", "splice_cost", "moment_resistance", "validate_inputs"]

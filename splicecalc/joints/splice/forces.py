@@ -18,8 +18,12 @@ Method (stated in every calc sheet):
   moment ``M_w + V e`` with ``e`` from the joint line (centre of the gap) to
   the centroid of the bolt group. Elastic polar method, EN 1993-1-8:2005,
   3.12(3): a rigid plate rotating about the group centroid on equally stiff
-  bolts; per bolt ``F_x = N_w/n - M_g z_i / I_p``, ``F_z = V/n + M_g x_i / I_p``,
-  resultant = vector sum.
+  bolts; per bolt ``F_x = N_w/n + M_g z_i / I_p``, ``F_z = V/n - M_g x_i / I_p``,
+  resultant = vector sum. ``x_i`` is measured away from the joint, so the
+  shear acts at ``x = -e`` and the moment ``M_g`` turns in the sense of
+  ``V e``: the column nearest the joint (the beam-end column of the beam web)
+  takes the largest vertical force (on the side where ``M_w`` and ``V e`` add,
+  the governing side).
 * Optional minimum design moment ``M = max(|M_Ed|, k_min M_c,Rd)`` (user-set
   fraction; no codified minimum is known for a simply supported beam splice,
   default 0).
@@ -122,16 +126,18 @@ def I_p(n_r: int, n_c: int, p_1: float, p_2: float) -> float:
 @clause(CIT_POLAR, units={"N_w_Ed": "N", "M_g_Ed": "Nmm", "z_i": "mm", "I_p": "mm2"}, returns="N",
         example=dict(N_w_Ed=0.0, n=10, M_g_Ed=80e6, z_i=140.0, I_p=108500.0))
 def F_x_Ed(N_w_Ed: float, n: int, M_g_Ed: float, z_i: float, I_p: float) -> float:
-    """Horizontal force on a web bolt at height z_i above the group centroid (N)."""
-    F_x_Ed = N_w_Ed / n - M_g_Ed * z_i / I_p
+    """Horizontal force on a web bolt at height z_i above the group centroid (N); M_g turns in the
+    sense of the shear acting at the joint line (x = -e)."""
+    F_x_Ed = N_w_Ed / n + M_g_Ed * z_i / I_p
     return F_x_Ed
 
 
 @clause(CIT_POLAR, units={"V_Ed": "N", "M_g_Ed": "Nmm", "x_i": "mm", "I_p": "mm2"}, returns="N",
         example=dict(V_Ed=300e3, n=10, M_g_Ed=80e6, x_i=30.0, I_p=108500.0))
 def F_z_Ed(V_Ed: float, n: int, M_g_Ed: float, x_i: float, I_p: float) -> float:
-    """Vertical force on a web bolt at distance x_i from the group centroid (N)."""
-    F_z_Ed = V_Ed / n + M_g_Ed * x_i / I_p
+    """Vertical force on a web bolt at distance x_i (away from the joint) from the group centroid (N):
+    the column nearest the joint (x_i < 0) takes V/n plus the moment share."""
+    F_z_Ed = V_Ed / n - M_g_Ed * x_i / I_p
     return F_z_Ed
 
 
@@ -198,8 +204,8 @@ def splice_forces(section, M_Ed: float, V_Ed: float, N_Ed: float, *, gap: float,
     forces = []
     for (x, zz) in web_bolt_coordinates(web_rows, web_columns, web_pitch, web_gauge):
         if Ip > 0.0:
-            fx = Nw / n - Mg * zz / Ip
-            fz = V / n + Mg * x / Ip
+            fx = F_x_Ed(N_w_Ed=Nw, n=n, M_g_Ed=Mg, z_i=zz, I_p=Ip)
+            fz = F_z_Ed(V_Ed=V, n=n, M_g_Ed=Mg, x_i=x, I_p=Ip)
         else:  # a single bolt cannot carry a moment
             fx, fz = Nw / n, V / n
             if Mg > 0.0:
