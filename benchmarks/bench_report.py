@@ -1,4 +1,4 @@
-"""Time the demo calc-package build, split into its parts.
+"""Time the demo calc-package build (the full beam-and-splice package), split into its parts.
 
     /tmp/venv/bin/python benchmarks/bench_report.py [--repeat 3] [--out DIR]
 
@@ -27,13 +27,13 @@ def main(argv: list[str] | None = None) -> int:
     if args.repeat < 1:
         ap.error("--repeat must be >= 1")
 
-    from splicecalc.report.demo import build_demo_report
+    from splicecalc.workflow.package import build_demo
 
     rows = []
     with tempfile.TemporaryDirectory(prefix="bench-report-") as td:
         root = args.out or Path(td)
         for i in range(args.repeat):
-            r = build_demo_report(root / "out", notebook_dir=root / "notebooks", progress=False)
+            r = build_demo(root / f"out{i}", progress=False).report
             rows.append(r)
             print(f"run {i + 1}: total {r.total_s:6.2f} s | kernel {r.kernel_start_s:5.2f} | cells {r.cells_s:5.2f} "
                   f"| LaTeX {r.latex_passes}x {r.latex_s:5.2f} | own {r.overhead_s:5.2f} | {r.pages} sheets",

@@ -14,17 +14,75 @@ and decorators. The renderer itself (``LatexRenderer``) is handcalcs'.
 from __future__ import annotations
 
 import ast
-import re
+import atexit
+import copy
 import inspect
+import os
+import pickle
+import re
 import textwrap
 from functools import lru_cache
+from pathlib import Path
 from typing import Any, Callable
 
+import handcalcs.handcalcs as _hc
 import innerscope
 from handcalcs.handcalcs import LatexRenderer
 
+from .files import write_atomic
 from .units import is_quantity, to_float, to_quantity
 
+
+# handcalcs rebuilds its pyparsing grammar and re-parses every source line on every render; the
+# lines of a clause function never change, so the parse is memoised per line (a deep copy is
+# handed out because handcalcs mutates the deques it gets), in memory and in a small pickle in
+# the user's cache folder so that a fresh kernel does not parse again. Same output, faster.
+_expr_parser_uncached = _hc.expr_parser
+_PARSED: dict[str, object] = {}
+_PARSE_STATE = {"loaded": False, "dirty": False}
+
+
+def _parse_cache_file() -> Path:
+    import handcalcs
+
+    base = Path(os.environ.get("XDG_CACHE_HOME") or Path.home() / ".cache")
+    return base / "splicecalc" / f"handcalcs-{getattr(handcalcs, '__version__', 'x')}-lines.pickle"
+
+
+def _load_parse_cache() -> None:
+    _PARSE_STATE["loaded"] = True
+    try:
+        with open(_parse_cache_file(), "rb") as fh:
+            data = pickle.load(fh)
+        if isinstance(data, dict):
+            _PARSED.update(data)
+    except (OSError, ValueError, EOFError, pickle.UnpicklingError, AttributeError, ImportError):
+        pass  # no cache yet, or an unreadable one: parse afresh
+
+
+@atexit.register
+def _save_parse_cache() -> None:
+    if not _PARSE_STATE["dirty"]:
+        return
+    try:
+        path = _parse_cache_file()
+        path.parent.mkdir(parents=True, exist_ok=True)
+        write_atomic(path, pickle.dumps(_PARSED, protocol=pickle.HIGHEST_PROTOCOL))
+    except OSError:
+        pass  # a read-only home only costs speed
+
+
+def _expr_parser_memo(line: str):
+    if not _PARSE_STATE["loaded"]:
+        _load_parse_cache()
+    parsed = _PARSED.get(line)
+    if parsed is None:
+        parsed = _PARSED[line] = _expr_parser_uncached(line)
+        _PARSE_STATE["dirty"] = True
+    return copy.deepcopy(parsed)
+
+
+_hc.expr_parser = _expr_parser_memo
 
 #: capital Greek letters that look like Latin ones have no LaTeX macro; handcalcs still writes
 #: them for names such as ``gamma_Mu`` (-> ``\gamma_{\Mu}``). They are put back as the letters typed.

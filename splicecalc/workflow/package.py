@@ -172,8 +172,7 @@ def starter_job(project: str = "", number: str = "", title: str = "") -> str:
 
 
 # ======================================================================== build
-def _sidecar(pdf: Path) -> Path:
-    return Path(str(pdf) + ".json")
+from ..signoff.ledger import sidecar_path as _sidecar  # noqa: E402  (one definition of the record's name)
 
 
 #: sidecar statuses of a PDF built from a notebook whose signatures were valid
