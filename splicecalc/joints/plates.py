@@ -8,6 +8,10 @@ BS EN 1993-1-1: 1.10) for fracture of net sections in tension and shear and for
 block tearing, since EN 1993-1-8 Table 2.1 refers the resistance of members and
 cross-sections to EN 1993-1-1. Every check accepts ``gamma_M2=`` to override
 (e.g. 1.25, the EN 1993-1-8 bolt/weld/bearing value, for a more cautious result).
+Checker's note: the UK NA to BS EN 1993-1-8 sets 1.25 for bolts, welds, pins and
+plates *in bearing*; net-section and block-tearing fracture of plates is a
+cross-section resistance, for which published UK joint guidance uses 1.10 (from
+memory). Accepted; ``EN_RECOMMENDED`` (1.25 throughout) gives the cautious value.
 
 Clause formulas (``@clause``)
     :func:`A_net_plate`, :func:`A_net_stagger`, :func:`N_pl_Rd`, :func:`N_u_Rd`, :func:`N_net_Rd`,

@@ -500,13 +500,16 @@ def web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Nation
                 N_u = calc(P.N_u_Rd, A_net=(g.h_wp - g.n_r * d0) * g.t_wp, f_u=mat_p.f_u,
                            gamma_M2=na.gamma_M2_member)
                 N_Rd = min(N_Rd, N_u)
+            if N_Rd <= 0.0 or M_Rd <= 0.0:
+                raise InputError("web plate", (N_Rd, M_Rd), "positive axial and bending resistances")
             U = calc(U_NM, N_Ed=N_p, N_Rd=N_Rd, M_Ed=M_pl / 2, M_Rd=M_Rd)
             out.append(calc.record(id="web_plate_bending_axial", title="Web plate (each of 2): bending with the "
                                    "web's axial force", clause="EN 1993-1-1:2005, 6.2.1(7), Eq. 6.2", demand=U,
                                    resistance=1.0, unit="", location_mm=loc,
                                    note="N_w/2 per plate; N_Rd gross (net f_u in tension); M_Rd as above"))
     except InputError as e:
-        out.append(_fail("web_plate_bending", "Web plates: bending", "EN 1993-1-1:2005, 6.2.8(3)", e, loc))
+        fid = "web_plate_bending_axial" if any(r.id == "web_plate_bending" for r in out) else "web_plate_bending"
+        out.append(_fail(fid, "Web plates: bending", "EN 1993-1-1:2005, 6.2.8(3)", e, loc))
     return out
 
 

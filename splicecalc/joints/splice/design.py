@@ -157,6 +157,11 @@ def check_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0.
     grade, M_Ed, V_Ed, N_Ed = validate_inputs(section, grade, M_Ed, V_Ed, N_Ed, spec, na)
     if not isinstance(layout, SpliceLayout):
         raise InputError("layout", layout, "a SpliceLayout")
+    fl = layout.flange
+    if fl.columns not in (2, 4):
+        raise InputError("layout.flange.columns", fl.columns, "2 or 4 (bolt lines symmetric about the web)")
+    if fl.columns == 4 and not fl.gauge_outer > 0.0:
+        raise InputError("layout.flange.gauge_outer", fl.gauge_outer, "a length > 0 mm when columns = 4")
     bolt = splice_bolt(layout.bolt_size, layout.bolt_class, spec)
     if spec.category in ("B", "C") and bolt.bolt_class not in PRELOAD_CLASSES:
         raise InputError("splices.bolts", f"{bolt.size} {bolt.bolt_class}",

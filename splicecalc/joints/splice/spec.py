@@ -189,6 +189,8 @@ def _parse_flange(t: dict) -> FlangeLayout:
     cols = _int(f"{f}.columns", t["columns"], 2, 4)
     if cols == 3:
         raise InputError(f"{f}.columns", cols, "2 or 4 (bolt lines symmetric about the web)")
+    if cols == 4 and "gauge_outer" not in t:
+        raise InputError(f"{f}.gauge_outer", None, "a length > 0 (the second bolt line's spacing) when columns = 4")
     return FlangeLayout(
         rows=_int(f"{f}.rows", t["rows"], 1, 12), columns=cols,
         pitch=_length(f"{f}.pitch", t["pitch"], hi=400.0), gauge=_length(f"{f}.gauge", t["gauge"], hi=600.0),
