@@ -37,7 +37,8 @@ import numpy as np
 from ..core.errors import InputError, require_non_negative, require_positive
 from ..core.record import Calc, CheckRecord
 
-_CL = "EN 1993-1-8:2005, 2.5(1)"
+#: not a code clause: these records check the limits the engineer set in the job file
+_CL = "Project requirement (access limits and clearances in the job file)"
 #: with ``pieces = n`` and no access limit, no piece may be longer than this factor x L / n
 PIECES_SLACK = 1.25
 
