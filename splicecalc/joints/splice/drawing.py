@@ -36,9 +36,11 @@ def draw_splice(design, title: str | None = None) -> Figure:
     d_hole = design.layout and _d0(design)
     h, b, tf, tw = s.h, s.b, s.tf, s.tw
     ext = max(g.L_fp, g.L_wp) / 2 + 80.0
-    fig = Figure(figsize=(10, 7.5))
-    ax1 = fig.add_subplot(2, 1, 1)
-    ax2 = fig.add_subplot(2, 1, 2)
+    # side by side: the elevation is about as tall as it is wide, the plan much flatter, so
+    # stacking them (equal aspect) leaves the elevation tiny on an A4 sheet
+    fig = Figure(figsize=(9.0, 5.2))
+    ax1 = fig.add_subplot(1, 2, 1)
+    ax2 = fig.add_subplot(1, 2, 2)
     # ----------------------------------------------------------- elevation (x along beam, z up; joint at x = 0)
     ax = ax1
     for sgn in (-1, 1):
