@@ -68,3 +68,11 @@ def require_choice(field: str, value: Any, choices: list | tuple | dict) -> Any:
     if value not in choices:
         raise InputError(field, value, "one of " + ", ".join(repr(c) for c in choices))
     return value
+
+
+def require_count(field: str, value: Any, minimum: int = 1) -> int:
+    """A whole number >= minimum (counts of bolts, planes, holes)."""
+    x = require_non_negative(field, value)
+    if x < minimum or not float(x).is_integer():
+        raise InputError(field, value, f"a whole number >= {minimum}")
+    return int(x)

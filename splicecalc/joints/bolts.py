@@ -31,6 +31,13 @@ from ..core.clause import clause
 from ..core.errors import InputError, require_choice, require_non_negative, require_positive
 from ..core.record import Calc, CheckRecord
 from ..materials.partial_factors import UK_NA, NationalAnnex
+from ..core.errors import require_count
+from ..materials.partial_factors import require_national_annex
+
+# shared validators (one definition each)
+_count = require_count
+_na = require_national_annex
+
 
 # --------------------------------------------------------------------------- data
 #: size -> (d, A_s, d_0 normal, d_0 oversize, washer OD, nut across flats ISO 4032, nut AF EN 14399-4)
@@ -339,18 +346,6 @@ def _bolt(bolt) -> Bolt:
     return bolt
 
 
-def _count(name: str, v, minimum: int = 1) -> int:
-    """A whole number >= minimum (counts of bolts, planes, holes)."""
-    x = require_non_negative(name, v)
-    if x < minimum or not float(x).is_integer():
-        raise InputError(name, v, f"a whole number >= {minimum}")
-    return int(x)
-
-
-def _na(na) -> NationalAnnex:
-    if not isinstance(na, NationalAnnex):
-        raise InputError("na", na, "a NationalAnnex (e.g. splicecalc.materials.UK_NA)")
-    return na
 
 
 def check_bolt_shear(bolt: Bolt, F_v_Ed: float, *, n_s: int = 1, threads_in_shear_plane: bool = True,

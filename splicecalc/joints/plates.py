@@ -36,6 +36,13 @@ from ..core.errors import InputError, require_choice, require_non_negative, requ
 from ..core.record import Calc, CheckRecord
 from ..materials.partial_factors import UK_NA, NationalAnnex
 from ..materials.steel import E_MPa, steel
+from ..core.errors import require_count
+from ..materials.partial_factors import require_national_annex
+
+# shared validators (one definition each)
+_count = require_count
+_na = require_national_annex
+
 
 #: imperfection factor alpha by buckling curve, EN 1993-1-1:2005, 6.3.1.2, Table 6.1
 ALPHA_IMP: dict[str, float] = {"a0": 0.13, "a": 0.21, "b": 0.34, "c": 0.49, "d": 0.76}
@@ -237,18 +244,6 @@ def block_tearing_areas(t: float, d_0: float, n_1: int, e_1: float, p_1: float, 
     return BlockAreas(A_nt=A_nt, A_nv=A_nv, pattern=pattern)
 
 
-def _count(name: str, v, minimum: int = 1) -> int:
-    """A whole number >= minimum (counts of bolts, planes, holes)."""
-    x = require_non_negative(name, v)
-    if x < minimum or not float(x).is_integer():
-        raise InputError(name, v, f"a whole number >= {minimum}")
-    return int(x)
-
-
-def _na(na) -> NationalAnnex:
-    if not isinstance(na, NationalAnnex):
-        raise InputError("na", na, "a NationalAnnex (e.g. splicecalc.materials.UK_NA)")
-    return na
 
 
 def _gM2(na: NationalAnnex, gamma_M2: float | None) -> float:

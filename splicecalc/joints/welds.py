@@ -26,10 +26,15 @@ from dataclasses import dataclass
 from math import cos, pi, sqrt
 
 from ..core.clause import clause
-from ..core.errors import InputError, require_choice, require_in_range, require_non_negative, require_positive
+from ..core.errors import require_choice, require_in_range, require_non_negative, require_positive
 from ..core.record import Calc, CheckRecord
 from ..materials.partial_factors import UK_NA, NationalAnnex
 from ..materials.steel import normalise_grade, steel
+from ..materials.partial_factors import require_national_annex
+
+# shared validator (one definition)
+_na = require_national_annex
+
 
 #: correlation factor beta_w, EN 1993-1-8:2005, 4.5.3.2, Table 4.1 (S420/S460: EN 10025-3/-4 rows)
 BETA_W: dict[str, float] = {"S235": 0.80, "S275": 0.85, "S355": 0.90, "S420": 1.00, "S460": 1.00}
@@ -141,10 +146,6 @@ def a_full_strength_simple(t: float, f_y: float, f_u: float, beta_w: float, gamm
 
 
 # ------------------------------------------------------------------------ checks
-def _na(na) -> NationalAnnex:
-    if not isinstance(na, NationalAnnex):
-        raise InputError("na", na, "a NationalAnnex (e.g. splicecalc.materials.UK_NA)")
-    return na
 
 
 def check_fillet_weld(F_w_Ed: float, s: float, grade: str, t: float, *, grade_other: str | None = None,

@@ -50,3 +50,12 @@ UK_NA = NationalAnnex()
 #: EN recommended values where they differ from the UK NA
 EN_RECOMMENDED = NationalAnnex(name="EN recommended", gamma_M2_member=1.25, lambda_LT_0=0.4,
                                beta_LT=0.75, eta=1.2, xi=0.85, combination="6.10ab")
+
+
+def require_national_annex(na: object, field: str = "na") -> NationalAnnex:
+    """``na`` itself when it is a :class:`NationalAnnex`, else an InputError naming ``field``."""
+    if not isinstance(na, NationalAnnex):
+        from ..core.errors import InputError
+
+        raise InputError(field, na, "a NationalAnnex (e.g. splicecalc.materials.UK_NA)")
+    return na
