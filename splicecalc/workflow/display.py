@@ -112,7 +112,10 @@ def figure_bundle(fig: Any, caption: str = "", dpi: int = 150) -> dict[str, Any]
     if fig.canvas is None or not hasattr(fig.canvas, "print_png"):
         FigureCanvasAgg(fig)
     out: dict[str, Any] = {"text/plain": caption or "figure"}
-    for mime, fmt in (("application/pdf", "pdf"), ("image/png", "png")):
+    # a headless build only prints the vector PDF; the PNG is for a person in Jupyter
+    formats = (("application/pdf", "pdf"),) if os.environ.get(HEADLESS_ENV) else \
+        (("application/pdf", "pdf"), ("image/png", "png"))
+    for mime, fmt in formats:
         buf = io.BytesIO()
         fig.savefig(buf, format=fmt, dpi=dpi, bbox_inches="tight", pad_inches=0.04,
                     metadata={"CreationDate": None} if fmt == "pdf" else None)
