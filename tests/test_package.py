@@ -72,6 +72,11 @@ def test_title_block_on_every_page(demo, pages):
         assert number in head and title in head and "PROJECT" in head, f"sheet {i}: no title block"
 
 
+def test_no_line_wider_than_the_sheet(demo):
+    # the criterion: no overfull box wider than 5 pt in the demo's XeTeX log (TeX's own report)
+    assert demo.report.wide_boxes == [], [str(b) for b in demo.report.wide_boxes]
+
+
 def test_sheet_numbering_runs_1_to_M(pages):
     M = len(pages)
     for i, text in enumerate(pages, start=1):
