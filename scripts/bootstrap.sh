@@ -18,7 +18,7 @@ _missing_system() {
     command -v pdftotext >/dev/null 2>&1 || missing=1
     command -v pdftoppm >/dev/null 2>&1 || missing=1
     if command -v kpsewhich >/dev/null 2>&1; then
-        for sty in fancyhdr.sty lastpage.sty xcolor.sty booktabs.sty tcolorbox.sty adjustbox.sty mathtools.sty; do
+        for sty in fontspec.sty fancyhdr.sty lastpage.sty xcolor.sty booktabs.sty longtable.sty tabularx.sty hyperref.sty amsmath.sty fancyvrb.sty; do
             [ -n "$(kpsewhich "$sty" 2>/dev/null)" ] || missing=1
         done
     fi
