@@ -38,7 +38,7 @@ from ..core.errors import InputError, require_non_negative, require_positive
 from ..core.record import Calc, CheckRecord
 
 #: not a code clause: these records check the limits the engineer set in the job file
-_CL = "Job file, access limits and clearances"
+_CL = "Job file (access limits and clearances)"
 #: with ``pieces = n`` and no access limit, no piece may be longer than this factor x L / n
 PIECES_SLACK = 1.25
 
