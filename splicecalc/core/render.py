@@ -130,8 +130,42 @@ def quantity_args(fn: Callable, kwargs: dict[str, Any]) -> dict[str, Any]:
     return out
 
 
+#: plain argument types whose ``repr`` identifies the rendered text exactly (``-0.0`` and ``0.0``,
+#: ``1`` and ``1.0`` render differently, so the key holds the type and the repr, never the value)
+_PLAIN = (float, int, str, bool, type(None))
+_RENDERED: dict[tuple, tuple[str, Any]] = {}
+_RENDERED_MAX = 4096
+
+
+def _render_key(fn: Callable, precision: int, kwargs: dict[str, Any]) -> tuple | None:
+    if not all(type(v) in _PLAIN for v in kwargs.values()):
+        return None
+    return (fn, precision, tuple(sorted((k, type(v).__name__, repr(v)) for k, v in kwargs.items())))
+
+
 def render(fn: Callable, precision: int = 3, **kwargs: Any) -> tuple[str, float]:
-    """Return ``(latex, result_as_float)`` for ``fn(**kwargs)`` rendered by handcalcs."""
+    """Return ``(latex, result_as_float)`` for ``fn(**kwargs)`` rendered by handcalcs.
+
+    The searches check the same candidate with the same plain arguments more than
+    once; the rendering is a pure function of ``fn``, ``precision`` and those
+    arguments, so it is memoised in memory (plain float/int/str arguments and
+    results only; anything else is rendered afresh). Same text, same numbers.
+    """
+    key = _render_key(fn, precision, kwargs)
+    if key is not None:
+        hit = _RENDERED.get(key)
+        if hit is not None:
+            return hit
+    out = _render_uncached(fn, precision, kwargs)
+    res = out[1]
+    if key is not None and all(type(v) in _PLAIN for v in (res if isinstance(res, tuple) else (res,))):
+        if len(_RENDERED) >= _RENDERED_MAX:
+            _RENDERED.clear()
+        _RENDERED[key] = out
+    return out
+
+
+def _render_uncached(fn: Callable, precision: int, kwargs: dict[str, Any]) -> tuple[str, Any]:
     qargs = quantity_args(fn, kwargs)
     scope = innerscope.call(fn, **qargs)
     line_args = {"override": "", "precision": precision, "sci_not": None}

@@ -1,0 +1,62 @@
+"""The speed-ups of rendering and export give the same text and numbers as the plain paths."""
+
+from __future__ import annotations
+
+import shutil
+
+import nbformat
+import pytest
+
+from splicecalc.core import render
+from splicecalc.core.units import to_quantity
+from splicecalc.joints.bolts import F_v_Rd
+
+
+def test_render_memo_same_as_uncached():
+    kw = dict(alpha_v=0.6, f_ub=800.0, A_s=245.0, gamma_M2=1.25)
+    first = render.render(F_v_Rd, precision=3, **kw)
+    assert first == render._render_uncached(F_v_Rd, 3, kw)
+    assert render.render(F_v_Rd, precision=3, **kw) == first           # memoised answer, same text
+    assert render.render(F_v_Rd, precision=2, **kw) == render._render_uncached(F_v_Rd, 2, kw)
+
+
+def test_render_key_tells_types_and_signed_zero_apart():
+    a = render._render_key(F_v_Rd, 3, {"A_s": 0.0})
+    assert a != render._render_key(F_v_Rd, 3, {"A_s": -0.0})
+    assert render._render_key(F_v_Rd, 3, {"A_s": 1}) != render._render_key(F_v_Rd, 3, {"A_s": 1.0})
+    assert render._render_key(F_v_Rd, 3, {"A_s": to_quantity(1.0, "mm2")}) is None   # rendered afresh
+
+
+def test_forallpeople_getters_are_stable():
+    import forallpeople as si
+
+    env = si.environment
+    assert env.units_by_factor is env.units_by_factor
+    assert env.units_by_dimension() is env._units_by_dimension
+    assert repr(to_quantity(94080.0, "N")) == repr(to_quantity(94080.0, "N"))
+
+
+@pytest.mark.skipif(shutil.which("pandoc") is None, reason="pandoc not installed")
+def test_pandoc_prefetch_gives_the_same_latex(tmp_path):
+    from contextlib import contextmanager
+
+    from splicecalc.report import exporter
+
+    nb = nbformat.v4.new_notebook()
+    nb.cells = [nbformat.v4.new_markdown_cell("# Scope\n\nA *beam* with $M_{Ed}$ and a list:\n\n- one\n- two"),
+                nbformat.v4.new_code_cell("x = 1", outputs=[nbformat.v4.new_output(
+                    "display_data", data={"text/markdown": "**Result.** $u = 0.5$", "text/plain": "r"})]),
+                nbformat.v4.new_markdown_cell("## Scope\n\nSame heading again.")]
+    res = {"metadata": {"name": "t", "path": str(tmp_path)}}
+    fast, _ = exporter.CalcPackageExporter().to_latex(nb, dict(res))
+
+    @contextmanager
+    def plain(*_a):
+        yield
+
+    orig, exporter._pandoc_prefetched = exporter._pandoc_prefetched, plain
+    try:
+        slow, _ = exporter.CalcPackageExporter().to_latex(nb, dict(res))
+    finally:
+        exporter._pandoc_prefetched = orig
+    assert fast == slow
