@@ -1,0 +1,39 @@
+"""Warm the rendering cache once after installing: ``python -m splicecalc.cli.warm``.
+
+Renders every registered clause formula with its example, which fills the
+per-line parse cache (``~/.cache/splicecalc``, see splicecalc.core.render) the
+way ``compileall`` fills ``__pycache__``: later calc builds skip handcalcs'
+grammar work for lines they share. It doubles as a smoke test: it exits 1
+naming any formula that no longer renders.
+"""
+
+from __future__ import annotations
+
+import importlib
+import pkgutil
+import sys
+
+
+def main() -> int:
+    import splicecalc
+    from splicecalc.core.clause import REGISTRY
+    from splicecalc.core.record import Calc
+
+    for mod in pkgutil.walk_packages(splicecalc.__path__, "splicecalc."):
+        if mod.name.startswith(("splicecalc.cli", "splicecalc.report", "splicecalc.form")):
+            continue
+        importlib.import_module(mod.name)
+    failed = []
+    for fn in REGISTRY:
+        try:
+            Calc(render=True)(fn, **fn.__clause__.example)
+        except Exception as exc:  # noqa: BLE001 - reported, not hidden
+            failed.append(f"{fn.__module__}.{fn.__name__}: {type(exc).__name__}: {exc}")
+    print(f"splicecalc: rendered {len(REGISTRY) - len(failed)} of {len(REGISTRY)} clause formulas", file=sys.stderr)
+    for line in failed:
+        print(f"  failed: {line}", file=sys.stderr)
+    return 1 if failed else 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
