@@ -339,3 +339,19 @@ def test_fillet_directional_resistance_meets_eq_4_1_exactly(theta):
     lhs = np.sqrt(sigma ** 2 + 3 * (tau_perp ** 2 + tau_par ** 2))
     assert lhs == pytest.approx(fu / (bw * g), rel=1e-12)          # first condition of Eq. 4.1, just met
     assert abs(sigma) <= 0.9 * fu / g                             # second condition holds (beta_w >= 0.56)
+
+
+def test_clearance_is_at_least_half_the_cover_plate():
+    """A cover plate must not reach over a point load or restraint: the clearance used by the
+    position choice is max(job clearance, half the longest plate). Geometry, hand check."""
+    from splicecalc.design.splice_positions import choose_splice_positions
+    from splicecalc.joints.splice.spec import parse_splices
+
+    spec = parse_splices({"positions": ["3.0 m"], "clearance": "100 mm"})
+    flat = lambda x: 0.0 * x + 1.0  # noqa: E731 - uniform demand
+    common = dict(M_abs=flat, V_abs=flat, M_c_Rd=10.0, V_c_Rd=10.0, mass_per_m=50.0, avoid=[3200.0])
+    ok = choose_splice_positions(8000.0, spec, **common)
+    assert all(r.ok for r in ok.records if r.id.endswith("_clearance"))      # 200 mm >= 100 mm
+    long_plate = choose_splice_positions(8000.0, spec, plate_half_length_mm=250.0, **common)
+    rec = next(r for r in long_plate.records if r.id.endswith("_clearance"))
+    assert not rec.ok and rec.demand == 250.0 and rec.resistance == 200.0     # plate would reach the load

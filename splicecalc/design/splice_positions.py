@@ -147,7 +147,7 @@ def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Cal
                             V_c_Rd: float, mass_per_m: float, avoid: Sequence[float] = (),
                             at: Callable | None = None, splice_mass_kg: float = 0.0,
                             splice_zone_mm: float = 600.0, grid_mm: float = 25.0,
-                            max_pieces: int = 20) -> SplicePositions:
+                            max_pieces: int = 20, plate_half_length_mm: float = 0.0) -> SplicePositions:
     """Choose splice positions on a span (see the module docstring).
 
     span_mm: span (mm); M_abs, V_abs: envelope callables of x (mm) -> N*mm, N
@@ -156,7 +156,9 @@ def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Cal
     0 and L are always added); at(x) -> (M, V, N, name) gives the governing
     combination's forces at a splice (default: the envelopes with N = 0);
     splice_mass_kg: plates + bolts of one splice; splice_zone_mm: shortest
-    piece allowed (about one cover-plate length).
+    piece allowed (about one cover-plate length); plate_half_length_mm: half the
+    longest cover plate, so that the clearance used is at least that much and no
+    cover plate reaches over a point load, a restraint or a support.
     """
     L = require_positive("span_mm", span_mm, "mm")
     require_positive("M_c_Rd", M_c_Rd, "Nmm")
@@ -164,7 +166,7 @@ def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Cal
     m_mm = require_positive("mass_per_m", mass_per_m, "kg/m") / 1000.0
     m_sp = require_non_negative("splice_mass_kg", splice_mass_kg, "kg")
     zone = require_positive("splice_zone_mm", splice_zone_mm, "mm")
-    clr = float(spec.clearance)
+    clr = max(float(spec.clearance), require_non_negative("plate_half_length_mm", plate_half_length_mm, "mm"))
     pts = sorted({0.0, L, *[require_non_negative("avoid", a, "mm") for a in avoid]})
     if any(a > L for a in pts):
         raise InputError("avoid", list(avoid), f"positions within the span 0 .. {L:g} mm")
@@ -305,7 +307,8 @@ def _records(xs, lengths, masses, clr, clear_dist, spec, zone) -> list[CheckReco
     for k, x in enumerate(xs):
         recs.append(calc.record(id=f"splice{k + 1}_clearance", title=f"Splice {k + 1} clear of supports, loads, restraints",
                                 clause=_CL, demand=clr, resistance=clear_dist(x), unit="mm", location_mm=x,
-                                note="distance to the nearest support, point load or restraint >= clearance"))
+                                note="distance to the nearest support, point load or restraint >= clearance "
+                                     "(the job's clearance, and not less than half the longest cover plate)"))
     for k, (Lp, mp) in enumerate(zip(lengths, masses)):
         if spec.max_piece_length:
             recs.append(calc.record(id=f"piece{k + 1}_length", title=f"Piece {k + 1} length (access limit)",

@@ -282,7 +282,7 @@ def splice_positions(job: Job, design: BeamDesign, splice_mass_kg: float = 0.0,
         job.beam.span, job.splices, M_abs=M_abs, V_abs=V_abs,
         M_c_Rd=_resistance(design, "bending", "kNm", "Nmm"), V_c_Rd=_resistance(design, "shear", "kN", "N"),
         mass_per_m=design.section.mass_nominal, avoid=avoid, at=at, splice_mass_kg=splice_mass_kg,
-        splice_zone_mm=splice_zone_mm)
+        splice_zone_mm=splice_zone_mm, plate_half_length_mm=0.5 * splice_zone_mm)
 
 
 def design_splices(job: Job, design: BeamDesign, positions: Any, render: bool = True) -> tuple[SplicePart, ...]:
