@@ -116,3 +116,27 @@ def test_unexecuted_notebook_cannot_be_signed(tmp_path):
     nbformat.write(nb, str(p))
     with pytest.raises(InputError, match="executed"):
         sign_notebook(p, "prepared", "A. Preparer")
+
+
+def test_edited_job_file_shows_as_changed_before_a_rebuild(tmp_path):
+    # the notebook names its job file; the printed inputs are the job's canonical dict
+    from splicecalc.job import load_job
+
+    src = __import__("pathlib").Path(__file__).resolve().parents[1] / "examples" / "mezzanine_infill.toml"
+    job_path = tmp_path / "job.toml"
+    job_path.write_text(src.read_text())
+    nb = nbformat.v4.new_notebook()
+    c0 = nbformat.v4.new_code_cell('job_file = "job.toml"')
+    c1 = nbformat.v4.new_code_cell("publish(job)")
+    c1.outputs = [nbformat.v4.new_output("display_data", data={
+        JOB_MIME: load_job(job_path).to_canonical_dict(), "text/plain": "job"})]
+    c2 = nbformat.v4.new_code_cell("show(check)")
+    c2.outputs = [nbformat.v4.new_output("display_data", data={CHECK_MIME: _record(), "text/plain": "rec"})]
+    nb.cells = [c0, c1, c2]
+    p = tmp_path / "calc.ipynb"
+    nbformat.write(nb, str(p))
+    sign_notebook(p, "prepared", "A. Preparer")
+    assert verify_path(p).exit_code == EXIT_VALID
+    job_path.write_text(job_path.read_text().replace('span = "7.2 m"', 'span = "7.5 m"'))
+    st = verify_path(p)
+    assert st.exit_code == EXIT_CHANGED and "job file" in st.detail

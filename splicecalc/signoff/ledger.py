@@ -224,11 +224,70 @@ def issue_pdf(pdf: str | Path) -> dict:
     return data
 
 
+def job_file_drift(nb: Any, notebook_path: str | Path) -> str | None:
+    """Why the job file on disk no longer matches the inputs the notebook printed, or None.
+
+    The job file is the one the notebook's parameter cell names (``job_file = "..."``,
+    relative to the notebook's folder); its canonical inputs are compared with those
+    the executed notebook published. No job file named, or none published: None.
+    """
+    import ast
+
+    from .digest import canonical_json, job_inputs
+
+    printed = job_inputs(nb)
+    if not printed:
+        return None
+    name = None
+    for cell in nb.get("cells", []):
+        if cell.get("cell_type") != "code":
+            continue
+        try:
+            tree = ast.parse(cell.get("source", "") if isinstance(cell.get("source"), str) else "".join(cell["source"]))
+        except SyntaxError:
+            continue
+        for node in tree.body:
+            if (isinstance(node, ast.Assign) and any(isinstance(t, ast.Name) and t.id == "job_file" for t in node.targets)
+                    and isinstance(node.value, ast.Constant) and isinstance(node.value.value, str)):
+                name = node.value.value
+        if name:
+            break
+    if not name:
+        return None
+    job_path = Path(notebook_path).parent / name
+    if not job_path.is_file():
+        return f"the job file {name} named by the notebook is missing"
+    from ..job import load_job
+
+    try:
+        now = load_job(job_path).to_canonical_dict()
+    except InputError as exc:
+        return f"the job file {name} no longer loads ({exc})"
+    if canonical_json(now) != canonical_json(printed):
+        return f"the job file {name} changed since the notebook was executed: rebuild, then sign again"
+    return None
+
+
+def _with_job_drift(st: SignStatus, nb: Any, notebook_path: str | Path) -> SignStatus:
+    if st.state != "valid":
+        return st
+    why = job_file_drift(nb, notebook_path)
+    if why is None:
+        return st
+    return SignStatus("changed", "DRAFT - CHANGED SINCE SIGNED", st.current_digest, st.signed_digest,
+                      st.signatures, why)
+
+
 def verify_path(path: str | Path) -> SignStatus:
-    """Verify a notebook or a PDF against its recorded digest (no re-execution)."""
+    """Verify a notebook or a PDF against its recorded digest (no re-execution).
+
+    Besides the digest, the job file the notebook names is compared with the inputs
+    it printed, so an edited job file shows as changed before anyone rebuilds.
+    """
     p = Path(path)
     if p.suffix == ".ipynb":
-        return status_of(_read_nb(p))
+        nb = _read_nb(p)
+        return _with_job_drift(status_of(nb), nb, p)
     if p.suffix != ".pdf":
         raise InputError("path", str(path), "a .ipynb notebook or a .pdf calc package")
     if not p.is_file():
@@ -245,8 +304,9 @@ def verify_path(path: str | Path) -> SignStatus:
     nb_path = data.get("notebook")
     if nb_path and not Path(nb_path).is_absolute():
         nb_path = str(p.parent / nb_path)  # recorded relative to the PDF's folder
-    if nb_path and Path(nb_path).is_file():
-        now = compute_digest(_read_nb(nb_path))
+    nb = _read_nb(nb_path) if nb_path and Path(nb_path).is_file() else None
+    if nb is not None:
+        now = compute_digest(nb)
         if now != digest:
             return SignStatus("changed", "DRAFT - CHANGED SINCE SIGNED", now, digest, sigs,
                               "the notebook changed since this PDF was built")
@@ -256,4 +316,5 @@ def verify_path(path: str | Path) -> SignStatus:
         return SignStatus("changed", "DRAFT - CHANGED SINCE SIGNED", digest, sigs[-1].digest, sigs,
                           "built from inputs that differ from the signed ones")
     top = max((s.role for s in sigs if s.digest == digest), key=ROLES.index)
-    return SignStatus("valid", _STATUS_BY_ROLE[top], digest, digest, sigs, "PDF matches its signed record")
+    st = SignStatus("valid", _STATUS_BY_ROLE[top], digest, digest, sigs, "PDF matches its signed record")
+    return _with_job_drift(st, nb, nb_path) if nb is not None else st
