@@ -22,9 +22,9 @@ from dataclasses import dataclass
 from typing import Sequence
 
 import numpy as np
-from scipy.optimize import brentq
 
 from ..actions.loads import UDL, Load, PointLoad, check_loads_on_span
+from ..core.numeric import root_bisect
 from ..core.errors import InputError, require_positive
 from ..materials.steel import E_MPa
 
@@ -212,10 +212,10 @@ class SimpleBeam:
         return Extreme(float(both[i]), float(xs[i]))
 
     def w_max(self) -> Extreme:
-        """Largest |w| (mm, signed) and its position: root of theta = 0 by Brent's method.
+        """Largest |w| (mm, signed) and its position: root of theta = 0.
 
-        The slope is a piecewise cubic; each segment between breakpoints with a
-        sign change of theta is solved with ``scipy.optimize.brentq``.
+        The slope is a piecewise cubic; each grid interval with a sign change of
+        theta is solved by bisection to 1e-12 L (core.numeric.root_bisect).
         """
         self._EI()
         bp = self.breakpoints()
@@ -231,9 +231,9 @@ class SimpleBeam:
             if t0 == 0.0:
                 cand.append(float(x0))
             elif t0 * t1 < 0.0:
-                f0, f1 = f(float(x0)), f(float(x1))   # same evaluation path as inside brentq
+                f0, f1 = f(float(x0)), f(float(x1))   # same evaluation path as inside the root search
                 if f0 * f1 < 0.0:
-                    cand.append(brentq(f, x0, x1, xtol=1e-9 * self.L, rtol=1e-14, maxiter=200))
+                    cand.append(root_bisect(f, float(x0), float(x1), xtol=1e-12 * self.L))
                 else:  # sign change at round-off level: keep the sample nearer to zero
                     cand.append(float(x0) if abs(f0) <= abs(f1) else float(x1))
         cand_arr = np.array(cand)

@@ -1,0 +1,38 @@
+"""core.numeric against scipy.optimize (the general-purpose reference) on smooth and kinked functions."""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+import scipy.optimize as so
+from hypothesis import given
+from hypothesis import strategies as st
+
+from splicecalc.core.numeric import max_golden, root_bisect
+
+
+@pytest.mark.parametrize("f,a,b", [
+    (lambda x: x ** 3 - 2 * x - 5, 2.0, 3.0),                  # Newton's classic cubic
+    (lambda x: math.cos(x) - x, 0.0, 1.0),
+    (lambda x: (x - 4200.0) * (x + 10.0) * 1e-6, 1000.0, 7000.0),
+])
+def test_root_matches_brentq(f, a, b):
+    assert root_bisect(f, a, b, xtol=1e-12) == pytest.approx(so.brentq(f, a, b, xtol=1e-14), abs=1e-10)
+
+
+@given(st.floats(min_value=0.05, max_value=0.95), st.floats(min_value=0.5, max_value=5.0))
+def test_max_of_a_kinked_moment_diagram(a_frac, P):
+    # simply supported point load: M(x) = P b x / L left of a, P a (L - x) / L right; max P a b / L at x = a
+    L = 1.0
+    a, b = a_frac * L, (1 - a_frac) * L
+    M = lambda x: P * b * x / L if x <= a else P * a * (L - x) / L  # noqa: E731
+    x, m = max_golden(M, 0.0, L, xtol=1e-12)
+    assert x == pytest.approx(a, abs=1e-9) and m == pytest.approx(P * a * b / L, rel=1e-9)
+    ref = so.minimize_scalar(lambda t: -M(t), bounds=(0.0, L), method="bounded", options={"xatol": 1e-12})
+    assert m == pytest.approx(-ref.fun, rel=1e-7)
+
+
+def test_root_needs_a_sign_change():
+    with pytest.raises(ValueError):
+        root_bisect(lambda x: x * x + 1.0, -1.0, 1.0, xtol=1e-9)
