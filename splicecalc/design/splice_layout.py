@@ -199,9 +199,34 @@ def _member_ok(recs, ids) -> bool:
     return all(r.ok for r in recs if r.id in ids)
 
 
+#: results of recent searches, keyed by all their (immutable) inputs: the calc path runs the same
+#: search on floats and again for the rendered pass; results are plain-float designs, not rendered
+_SEARCHES: dict = {}
+_SEARCHES_MAX = 64
+
+
 def search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, spec: SpliceSpec,
                    na: NationalAnnex = UK_NA, M_c_Rd: float | None = None, n_keep: int = 3, *,
                    M_Ed_ser: float | None = None, V_Ed_ser: float | None = None):
+    """Cheapest passing layouts (see :func:`_search_layouts`), remembered for identical inputs."""
+    key = (section, grade, M_Ed, V_Ed, N_Ed, spec, na, M_c_Rd, n_keep, M_Ed_ser, V_Ed_ser)
+    try:
+        hit = _SEARCHES.get(key)
+    except TypeError:  # an unhashable input: search without remembering
+        return _search_layouts(section, grade, M_Ed, V_Ed, N_Ed, spec, na, M_c_Rd, n_keep,
+                               M_Ed_ser=M_Ed_ser, V_Ed_ser=V_Ed_ser)
+    if hit is None:
+        hit = _search_layouts(section, grade, M_Ed, V_Ed, N_Ed, spec, na, M_c_Rd, n_keep,
+                              M_Ed_ser=M_Ed_ser, V_Ed_ser=V_Ed_ser)
+        if len(_SEARCHES) >= _SEARCHES_MAX:
+            _SEARCHES.pop(next(iter(_SEARCHES)))
+        _SEARCHES[key] = hit
+    return list(hit)
+
+
+def _search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, spec: SpliceSpec,
+                    na: NationalAnnex = UK_NA, M_c_Rd: float | None = None, n_keep: int = 3, *,
+                    M_Ed_ser: float | None = None, V_Ed_ser: float | None = None):
     """Cheapest passing layouts (list of SpliceDesign, cheapest first).
 
     Every check of :func:`check_splice` belongs to the flange group or to the web group

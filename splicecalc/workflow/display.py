@@ -117,7 +117,8 @@ def figure_bundle(fig: Any, caption: str = "", dpi: int = 150) -> dict[str, Any]
         (("application/pdf", "pdf"), ("image/png", "png"))
     for mime, fmt in formats:
         buf = io.BytesIO()
-        fig.savefig(buf, format=fmt, dpi=dpi, bbox_inches="tight", pad_inches=0.04,
+        tight = getattr(fig, "splicecalc_tight", True)  # figures with fixed margins opt out
+        fig.savefig(buf, format=fmt, dpi=dpi, bbox_inches="tight" if tight else None, pad_inches=0.04,
                     metadata={"CreationDate": None} if fmt == "pdf" else None)
         out[mime] = base64.b64encode(buf.getvalue()).decode("ascii")
     return out

@@ -119,12 +119,14 @@ def draw_splice(design, title: str | None = None) -> Figure:
     ax.set_xlim(-ext, ext)
     ax.set_ylim(-b / 2 - 40, b / 2 + 30)
     inner = f" + 2 inner {g.b_pi:g} x {g.t_pi:g}" if g.t_pi > 0 else ""
-    ax.set_title(f"Plan on top flange: outer plate {g.b_po:g} x {g.t_po:g} x {Lf:g}{inner}; "
-                 f"{lay.bolt_size} {lay.bolt_class} in {d_hole:g} mm holes", fontsize=8)
+    ax.set_title(f"Plan on top flange: outer plate {g.b_po:g} x {g.t_po:g} x {Lf:g}{inner};\n"
+                 f"{lay.bolt_size} {lay.bolt_class} bolts in {d_hole:g} mm holes", fontsize=8)
     ax.axvline(0.0, color="0.5", lw=0.5, ls="-.")
     ax.tick_params(labelsize=6)
     fig.suptitle(title or "Bolted cover-plate splice (dimensions in mm, drawn to scale)", fontsize=9)
-    fig.tight_layout()
+    # fixed margins (inches) instead of tight_layout: same look, no extra text-layout pass
+    W, H = fig.get_size_inches()
+    fig.subplots_adjust(left=0.55 / W, right=1.0 - 0.1 / W, bottom=0.4 / H, top=1.0 - 0.75 / H, wspace=0.18)
     return fig
 
 
