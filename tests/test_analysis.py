@@ -307,3 +307,16 @@ def test_diagrams():
     assert len(env_fig.axes) == 2
     with pytest.raises(InputError, match="splices_mm"):
         beam_diagrams(b, splices_mm=[L + 10.0])
+
+
+def test_diagram_can_show_the_deflection_of_another_combination():
+    # ULS V/M with the SLS deflection panel: the panel's maximum is that beam's exact w_max (5wL^4/384EI)
+    uls = SimpleBeam(L, [G(15.0)])
+    sls = SimpleBeam(L, [G(10.0)], E=E, I=I)
+    fig = beam_diagrams(uls, deflection_of=sls, deflection_label="SLS")
+    assert len(fig.axes) == 4
+    assert sls.w_max().value == pytest.approx(5 * 10.0 * L ** 4 / (384 * EI), rel=1e-9)  # handbook
+    with pytest.raises(InputError, match="deflection_of"):
+        beam_diagrams(uls, deflection_of=SimpleBeam(L / 2, [G(1.0)], E=E, I=I))
+    with pytest.raises(InputError, match="deflection_of"):
+        beam_diagrams(uls, deflection_of=SimpleBeam(L, [G(1.0)]))       # no I

@@ -120,12 +120,15 @@ def _load_panel(ax, beam: SimpleBeam) -> None:
 
 def beam_diagrams(beam: SimpleBeam, *, splices_mm: Sequence[float] | None = None,
                   restraints_mm: Sequence[float] | None = None, title: str | None = None,
-                  n: int = 401, show_loads: bool = True) -> Figure:
+                  n: int = 401, show_loads: bool = True, deflection_of: SimpleBeam | None = None,
+                  deflection_label: str = "") -> Figure:
     """Stacked load sketch, V, M (and w when ``beam.I`` is set) diagrams with maxima, supports A/B,
     intermediate restraints (dotted, "R1"...) and splices (dashed, "S1"...; M and V there labelled).
 
     splices_mm, restraints_mm: positions from support A, mm. n: plotting points (>= 11).
     show_loads: add the load sketch on top (values as held by ``beam``, e.g. factored).
+    deflection_of: draw the w panel for this beam instead (same span, ``I`` set), e.g. the SLS
+    combination of a ULS figure; ``deflection_label`` names it on the panel's axis.
     """
     if not isinstance(beam, SimpleBeam):
         raise InputError("beam", beam, "a SimpleBeam")
@@ -138,8 +141,14 @@ def beam_diagrams(beam: SimpleBeam, *, splices_mm: Sequence[float] | None = None
         raise InputError("title", title, "a text")
     if not isinstance(show_loads, bool):
         raise InputError("show_loads", show_loads, "True or False")
+    if deflection_of is not None and (not isinstance(deflection_of, SimpleBeam) or deflection_of.I is None
+                                      or abs(deflection_of.L - L) > 1e-9 * L):
+        raise InputError("deflection_of", deflection_of, "a SimpleBeam of the same span with I set")
+    if not isinstance(deflection_label, str):
+        raise InputError("deflection_label", deflection_label, "a text")
     L_m = L / 1e3
-    has_w = beam.I is not None
+    w_beam = deflection_of if deflection_of is not None else (beam if beam.I is not None else None)
+    has_w = w_beam is not None
     nax = 3 if has_w else 2
     # fixed margins (inches) rather than a layout engine: the panels are always the same kind, and a
     # constrained layout costs two extra text-layout passes per figure (the PDF is saved with a tight box)
@@ -183,13 +192,14 @@ def beam_diagrams(beam: SimpleBeam, *, splices_mm: Sequence[float] | None = None
 
     # deflection
     if has_w:
-        w = np.atleast_1d(beam.w(xm))
+        xw = np.unique(np.concatenate((np.linspace(0.0, L, n), w_beam.breakpoints())))
+        w = np.atleast_1d(w_beam.w(xw))
         ax = axes[2]
-        ax.plot(xm / 1e3, w, color="tab:green", lw=1.2)
-        ax.fill_between(xm / 1e3, w, 0.0, color="tab:green", alpha=0.15, lw=0)
+        ax.plot(xw / 1e3, w, color="tab:green", lw=1.2)
+        ax.fill_between(xw / 1e3, w, 0.0, color="tab:green", alpha=0.15, lw=0)
         ax.invert_yaxis()
-        _style_axis(ax, L_m, "w (mm), downward +")
-        wmx = beam.w_max()
+        _style_axis(ax, L_m, f"w (mm){', ' + deflection_label if deflection_label else ''}, down +")
+        wmx = w_beam.w_max()
         _mark(ax, wmx.x_mm / 1e3, wmx.value, f"w max = {wmx.value:.1f} mm at x = {wmx.x_mm / 1e3:.2f} m",
               "tab:green", L_m)
     for ax in axes:

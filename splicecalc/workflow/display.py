@@ -304,11 +304,18 @@ def show_analysis(result: CalcResult) -> None:
     from ..analysis import SimpleBeam, beam_diagrams
 
     c, b = an.uls[an.governing_M]
+    # one figure: loads, V and M of the governing ULS combination, and the deflection of the
+    # variable-action SLS combination the deflection check uses (with I_y of the section)
+    sls = max(an.sls_variable, key=lambda cb: cb[1].w_max().abs) if an.sls_variable else None
     fig = beam_diagrams(SimpleBeam(an.span_mm, c.loads), splices_mm=xs or None, restraints_mm=an.restraints_mm,
-                        title=f"{an.section}: {c.name}")
-    show_figure(fig,
-                f"Loads, shear force and bending moment for {c.name} (design values); restraints R, "
-                "splices S and supports A, B marked.")
+                        title=f"{an.section}: {c.name}", deflection_of=sls[1] if sls else None,
+                        deflection_label="SLS" if sls else "")
+    caption = (f"Loads, shear force and bending moment for {c.name} (design values); restraints R, "
+               "splices S and supports A, B marked.")
+    if sls:
+        caption += (f" Bottom panel: deflection under {sls[0].name} (characteristic variable actions) with "
+                     f"$I_y$ of {d.section.designation}.")
+    show_figure(fig, caption)
     rows = []
     for (cc, bb) in an.uls:
         rows.append([cc.name, f"{bb.R_A / 1e3:.1f}", f"{bb.R_B / 1e3:.1f}", f"{abs(bb.M_max().value) / 1e6:.1f}",
@@ -316,11 +323,6 @@ def show_analysis(result: CalcResult) -> None:
     show_table(["Combination", r"$R_A\ (\mathrm{kN})$", r"$R_B\ (\mathrm{kN})$", r"$\max M\ (\mathrm{kN\,m})$",
                 r"$x\ (\mathrm{m})$"], rows, align="lrrrr",
                title="Reactions and maximum moment, every ULS combination")
-    if an.sls_variable:
-        fig = an.deflection_diagrams()
-        if fig is not None:
-            show_figure(fig, f"Variable actions only ({an.sls_variable[0][0].name}): deflection with "
-                             f"$I_y$ of {d.section.designation}.")
 
 
 # ======================================================================== member
