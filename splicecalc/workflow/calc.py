@@ -64,6 +64,18 @@ class PackageRecords:
     connections: tuple
 
     @property
+    def joint_records(self) -> tuple[CheckRecord, ...]:
+        """Records of the splices, then the end connections, then the existing members."""
+        out: list[CheckRecord] = []
+        for s in self.splices:
+            out += s.records
+        for c in self.connections:
+            out += c.records
+        for c in self.connections:
+            out += c.existing_records
+        return tuple(out)
+
+    @property
     def summary_records(self) -> tuple[CheckRecord, ...]:
         """Every record, highest utilisation first (ties by title)."""
         return tuple(sorted(self.records, key=lambda r: (-r.utilisation, r.title)))
@@ -180,14 +192,7 @@ class CalcResult(PackageRecords):
     @property
     def records(self) -> tuple[CheckRecord, ...]:
         """Every check record of the package, in the order the parts show them."""
-        out = list(self.member_records) + list(self.position_records)
-        for s in self.splices:
-            out += s.records
-        for c in self.connections:
-            out += c.records
-        for c in self.connections:
-            out += c.existing_records
-        return tuple(out)
+        return tuple(self.member_records) + tuple(self.position_records) + self.joint_records
 
     @property
     def ok(self) -> bool:

@@ -51,14 +51,7 @@ class JointResult(PackageRecords):
 
     @property
     def records(self) -> tuple[CheckRecord, ...]:
-        out: list[CheckRecord] = []
-        for s in self.splices:
-            out += s.records
-        for c in self.connections:
-            out += c.records
-        for c in self.connections:
-            out += c.existing_records
-        return tuple(out)
+        return self.joint_records
 
     @property
     def ok(self) -> bool:
