@@ -196,15 +196,19 @@ def uls_combinations(loads: Sequence[Load], na: NationalAnnex = UK_NA,
     def base(fG: float, wG: str) -> tuple[dict[str, float], dict[str, str]]:
         return ({"G": fG}, {"G": wG}) if hasG else ({}, {})
 
+    def add_variable(f: dict, w: dict, lead) -> None:
+        """Leading action gamma_Q, accompanying ones gamma_Q psi_0 (Eq. 6.10 and 6.10b)."""
+        for va in vas:
+            if va is lead:
+                f[va.name], w[va.name] = gQ, _g(gQ)
+            else:
+                f[va.name], w[va.name] = gQ * va.psi.psi_0, f"{_g(gQ)} x {_g(va.psi.psi_0)}"
+
     if na.combination == "6.10":
         leads = vas or (None,)
         for lead in leads:
             f, w = base(gG, _g(gG))
-            for va in vas:
-                if va is lead:
-                    f[va.name], w[va.name] = gQ, _g(gQ)
-                else:
-                    f[va.name], w[va.name] = gQ * va.psi.psi_0, f"{_g(gQ)} x {_g(va.psi.psi_0)}"
+            add_variable(f, w, lead)
             nm = "ULS 6.10" + (f", leading: {lead.name}" if lead else "")
             combos.append(_build(nm, "ULS", "6.10", lead.name if lead else None, loads, f, w))
         return combos
@@ -215,11 +219,7 @@ def uls_combinations(loads: Sequence[Load], na: NationalAnnex = UK_NA,
     combos.append(_build("ULS 6.10a", "ULS", "6.10a", None, loads, f, w))
     for lead in (vas or (None,)):
         f, w = base(xi * gG, f"{_g(xi)} x {_g(gG)}")
-        for va in vas:
-            if va is lead:
-                f[va.name], w[va.name] = gQ, _g(gQ)
-            else:
-                f[va.name], w[va.name] = gQ * va.psi.psi_0, f"{_g(gQ)} x {_g(va.psi.psi_0)}"
+        add_variable(f, w, lead)
         nm = "ULS 6.10b" + (f", leading: {lead.name}" if lead else "")
         combos.append(_build(nm, "ULS", "6.10b", lead.name if lead else None, loads, f, w))
     return combos
