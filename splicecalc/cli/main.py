@@ -25,6 +25,12 @@ def _emit(data: dict | list, as_json: bool, text: Callable[[], str]) -> None:
         print(text())
 
 
+def _key_values(title: str, d: dict) -> str:
+    """A title line, then one indented ``key value`` line per entry (numbers right-aligned)."""
+    return "\n".join([title] + [f"  {k:<22} {v:>10.4g}" if isinstance(v, (int, float)) and not isinstance(v, bool)
+                                 else f"  {k:<22} {v}" for k, v in d.items()])
+
+
 # ----------------------------------------------------------------- look-ups
 def _cmd_section(args: argparse.Namespace) -> int:
     from ..sections import get_section
@@ -72,12 +78,7 @@ def _cmd_bolt(args: argparse.Namespace) -> int:
 
     d = bolt_summary(args.size, args.bolt_class, friction_class=args.friction_class)
 
-    def text() -> str:
-        return "\n".join([f"{args.size.upper()} class {args.bolt_class}"] +
-                         [f"  {k:<22} {v:>10.4g}" if isinstance(v, (int, float)) else f"  {k:<22} {v}"
-                          for k, v in d.items()])
-
-    _emit(d, args.json, text)
+    _emit(d, args.json, lambda: _key_values(f"{args.size.upper()} class {args.bolt_class}", d))
     return 0
 
 
@@ -86,12 +87,7 @@ def _cmd_weld(args: argparse.Namespace) -> int:
 
     d = weld_summary(args.leg, args.grade)
 
-    def text() -> str:
-        return "\n".join([f"{args.leg:g} mm fillet weld, {args.grade}"] +
-                         [f"  {k:<22} {v:>10.4g}" if isinstance(v, (int, float)) else f"  {k:<22} {v}"
-                          for k, v in d.items()])
-
-    _emit(d, args.json, text)
+    _emit(d, args.json, lambda: _key_values(f"{args.leg:g} mm fillet weld, {args.grade}", d))
     return 0
 
 
