@@ -1,55 +1,82 @@
 """Time the demo calc-package build (the full beam-and-splice package), split into its parts.
 
-    /tmp/venv/bin/python benchmarks/bench_report.py [--repeat 3] [--out DIR]
+    .venv/bin/python benchmarks/bench_report.py [--repeat 5] [--out DIR]
 
-Parts (seconds, median over the repeats):
-* kernel start  - launching the Python kernel until the first cell runs;
+Each build runs in a fresh Python process, as ``splicecalc demo`` does, and the
+wall time is taken around that process, so it includes the interpreter start,
+every import, the sign-off record and the atomic writes. Parts (seconds):
+
+* kernel start  - launching the calc's Python kernel until its first cell runs;
 * cells         - running the template's cells (imports, checks, handcalcs rendering);
 * LaTeX passes  - the XeLaTeX passes (2 or 3) for "Sheet N of M" and the contents;
-* own overhead  - everything else: reading/filling the notebook, nbconvert + pandoc
-                  export, equation splitting, atomic writes.
+* own overhead  - the whole wall time less kernel start and the XeLaTeX passes: the
+                  cells, and everything else we do (reading and filling the notebook,
+                  drawing figures, nbconvert + pandoc export, equation splitting,
+                  writing the PDF and its record). Issue 6 asks for this under 3 s.
+
+Printed: every build, then the median and the range over the builds.
 """
 
 from __future__ import annotations
 
 import argparse
+import json
 import statistics
+import subprocess
 import sys
 import tempfile
+import time
 from pathlib import Path
+
+#: what the child process runs: the demo build, reporting its parts as JSON on the last line
+_CHILD = """
+import json, sys
+from splicecalc.workflow.package import build_demo
+r = build_demo(sys.argv[1], progress=False).report
+print(json.dumps(dict(kernel_start_s=r.kernel_start_s, cells_s=r.cells_s, latex_s=r.latex_s,
+                      latex_passes=r.latex_passes, pages=r.pages, wide_boxes=len(r.wide_boxes))))
+"""
+
+
+def one_build(out: Path) -> dict:
+    """Build the demo into ``out`` in a new process; the parts plus ``wall_s`` and ``own_s``."""
+    t0 = time.perf_counter()
+    proc = subprocess.run([sys.executable, "-c", _CHILD, str(out)], capture_output=True, text=True)
+    wall = time.perf_counter() - t0
+    if proc.returncode != 0:
+        raise SystemExit(f"demo build failed:\n{proc.stderr}")
+    row = json.loads(proc.stdout.strip().splitlines()[-1])
+    row["wall_s"] = wall
+    row["own_s"] = wall - row["kernel_start_s"] - row["latex_s"]
+    return row
 
 
 def main(argv: list[str] | None = None) -> int:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
-    ap.add_argument("--repeat", type=int, default=3, help="number of builds (default 3)")
+    ap.add_argument("--repeat", type=int, default=5, help="number of builds (default 5)")
     ap.add_argument("--out", type=Path, default=None, help="output folder (default: a temporary folder)")
     args = ap.parse_args(argv)
     if args.repeat < 1:
         ap.error("--repeat must be >= 1")
 
-    from splicecalc.workflow.package import build_demo
-
     rows = []
     with tempfile.TemporaryDirectory(prefix="bench-report-") as td:
         root = args.out or Path(td)
         for i in range(args.repeat):
-            r = build_demo(root / f"out{i}", progress=False).report
+            r = one_build(root / f"out{i}")
             rows.append(r)
-            print(f"run {i + 1}: total {r.total_s:6.2f} s | kernel {r.kernel_start_s:5.2f} | cells {r.cells_s:5.2f} "
-                  f"| LaTeX {r.latex_passes}x {r.latex_s:5.2f} | own {r.overhead_s:5.2f} | {r.pages} sheets",
-                  file=sys.stderr)
+            print(f"run {i + 1}: wall {r['wall_s']:6.2f} s | kernel {r['kernel_start_s']:5.2f} | "
+                  f"cells {r['cells_s']:5.2f} | LaTeX {r['latex_passes']}x {r['latex_s']:5.2f} | "
+                  f"own overhead {r['own_s']:5.2f} | {r['pages']} sheets", file=sys.stderr)
 
-    def med(attr: str) -> float:
-        return statistics.median(getattr(r, attr) for r in rows)
-
-    total = med("total_s")
-    print(f"demo calc package ({rows[-1].pages} sheets), median of {len(rows)} builds:")
-    for label, attr in (("kernel start", "kernel_start_s"), ("cells", "cells_s"),
-                        ("execution (kernel + cells)", "execution_s"), ("LaTeX passes", "latex_s"),
-                        ("own overhead", "overhead_s"), ("total", "total_s")):
-        v = med(attr)
-        print(f"  {label:<28} {v:7.2f} s  {100 * v / total:5.1f} %")
-    print(f"  LaTeX passes per build       {rows[-1].latex_passes}")
+    print(f"demo calc package ({rows[-1]['pages']} sheets), {len(rows)} builds, each in a new process:")
+    print(f"  {'part':<40} {'median':>7}   {'range':>13}")
+    for label, key in (("kernel start", "kernel_start_s"), ("cells (inside own overhead)", "cells_s"),
+                       ("LaTeX passes", "latex_s"), ("own overhead (all but kernel start, LaTeX)", "own_s"),
+                       ("total wall time", "wall_s")):
+        vals = [r[key] for r in rows]
+        print(f"  {label:<40} {statistics.median(vals):6.2f} s   {min(vals):5.2f}-{max(vals):5.2f} s")
+    print(f"  LaTeX passes per build: {rows[-1]['latex_passes']}; overfull boxes > 5 pt: {rows[-1]['wide_boxes']}")
     return 0
 
 
