@@ -32,7 +32,7 @@ def _fail(msg: str, code: int) -> int:
 def _run(fn: Any) -> int:
     """Call ``fn`` mapping errors to exit codes: InputError / protected PDF 2, other build errors 1."""
     from ..report.errors import CalcBuildError, ProtectedPDFError
-    from ..workflow.calc import CalcError
+    from ..workflow.errors import CalcError
     from ..workflow.package import SignedPDFError
 
     try:

@@ -28,6 +28,7 @@ from traitlets import default
 
 from ..core.errors import InputError, require_positive
 from .errors import CalcBuildError, CellExecutionFailed
+from .headless import HEADLESS_ENV
 
 KERNEL_NAME = "splicecalc-python"
 
@@ -171,8 +172,8 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
     t0 = time.perf_counter()
     try:
         # the kernel's own stderr only carries transport chatter; cell errors come back as messages
-        # SPLICECALC_HEADLESS tells templates that nobody is looking (the input form stays hidden)
-        client.execute(stderr=subprocess.DEVNULL, env={**os.environ, "SPLICECALC_HEADLESS": "1"})
+        # HEADLESS_ENV tells templates that nobody is looking (the input form stays hidden)
+        client.execute(stderr=subprocess.DEVNULL, env={**os.environ, HEADLESS_ENV: "1"})
     except CellExecutionError as exc:
         idx = client.current_index if client.current_index is not None else -1
         cell = node.cells[idx] if 0 <= idx < len(node.cells) else NotebookNode(source="", outputs=[])

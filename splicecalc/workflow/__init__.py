@@ -6,12 +6,17 @@
 * :mod:`.display`: one call per part of the calc sheet (``show_actions(result)`` ...),
   built on the report display helpers;
 * :mod:`.package`: calc templates, new packages, builds and the demo.
+
+The names are imported on first use (:mod:`splicecalc.core.lazy`), so that a build
+process, which only needs :mod:`.package`, does not load the calc library before it
+starts the kernel that runs the calc.
 """
 
-from .calc import (CalcError, CalcResult, ConnectionPart, SplicePart, design_connections, design_member,
-                   design_splices, member_checks, run_calc, splice_positions)
-from .references import CAUTIONS, STANDARDS, cited_clauses, standards_list
+from ..core.lazy import lazy_exports
 
-__all__ = ["CAUTIONS", "STANDARDS", "CalcError", "CalcResult", "ConnectionPart", "SplicePart", "cited_clauses",
-           "design_connections", "design_member", "design_splices", "member_checks", "run_calc",
-           "splice_positions", "standards_list"]
+__getattr__, __dir__, __all__ = lazy_exports(__name__, {
+    "CalcError": ".errors",
+    **{n: ".calc" for n in ("CalcResult", "ConnectionPart", "SplicePart", "design_connections", "design_member",
+                            "design_splices", "member_checks", "run_calc", "splice_positions")},
+    **{n: ".references" for n in ("CAUTIONS", "STANDARDS", "cited_clauses", "standards_list")},
+})

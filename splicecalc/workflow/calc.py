@@ -38,6 +38,7 @@ from ..core.record import CheckRecord
 from ..core.units import convert
 from ..design.beam import BeamDesign, design_beam
 from ..job.model import Job
+from .errors import CalcError
 from .references import CAUTIONS, Reference, cited_clauses, standards_list
 
 #: rounds of (positions -> splice design -> positions) before giving up on convergence
@@ -46,10 +47,6 @@ MAX_ROUNDS = 3
 FIRST_SPLICE_ZONE_MM = 600.0
 #: end letters used for the supports (as in the member checks: support A at x = 0)
 END_LETTER = {"start": "A", "end": "B"}
-
-
-class CalcError(RuntimeError):
-    """A part of the calculation cannot be carried out (module missing, input unusable)."""
 
 
 # ======================================================================== results

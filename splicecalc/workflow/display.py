@@ -22,13 +22,11 @@ from typing import Any, Iterable, Sequence
 
 from ..actions import PointLoad, UDL
 from ..core.record import CheckRecord
+from ..report.headless import HEADLESS_ENV
 from ..report.display import (TABLE_MIME, UNIT_TEX, TableOutput, fmt_utilisation, show_check,
                               show_section, show_table, summary_output)
 from ..signoff.digest import CHECK_MIME, JOB_MIME
 from .calc import CalcResult
-
-#: environment variable set by headless builds (``splicecalc build``): interactive parts stay hidden
-HEADLESS_ENV = "SPLICECALC_HEADLESS"
 
 
 def _u(unit: str) -> str:

@@ -25,7 +25,7 @@ import nbformat
 
 from ..core.errors import InputError
 from ..report.errors import CalcBuildError
-from .display import HEADLESS_ENV  # set by a headless build for the kernel: the form stays hidden
+from ..report.headless import HEADLESS_ENV  # set by a headless build for the kernel: the form stays hidden
 
 #: templates shipped in the repository's ``templates/`` folder
 TEMPLATES: tuple[str, ...] = ("beam_splice", "splice_only", "end_connection")

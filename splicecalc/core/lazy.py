@@ -1,0 +1,35 @@
+"""Package attributes imported on first use (PEP 562).
+
+A build process only needs a few light modules before it starts the kernel
+that runs the calc; packages whose ``__init__`` re-exports heavy modules
+(handcalcs, matplotlib, scipy behind them) name their exports here instead.
+
+    __getattr__, __dir__, __all__ = lazy_exports(__name__, {"run_calc": ".calc"})
+"""
+
+from __future__ import annotations
+
+import sys
+from importlib import import_module
+from typing import Any, Callable
+
+
+def lazy_exports(package: str, homes: dict[str, str]) -> tuple[Callable[[str], Any], Callable[[], list[str]],
+                                                                  list[str]]:
+    """``(__getattr__, __dir__, __all__)`` for ``package`` whose names live in the modules ``homes`` gives."""
+
+    def __getattr__(name: str) -> Any:
+        home = homes.get(name)
+        if home is None:
+            raise AttributeError(f"module {package!r} has no attribute {name!r}")
+        value = getattr(import_module(home, package), name)
+        setattr(sys.modules[package], name, value)   # later look-ups skip this function
+        return value
+
+    def __dir__() -> list[str]:
+        return sorted(set(vars(sys.modules[package])) | set(homes))
+
+    return __getattr__, __dir__, sorted(homes)
+
+
+__all__ = ["lazy_exports"]
