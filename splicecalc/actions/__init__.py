@@ -17,18 +17,17 @@ Combinations (EN 1990 6.4.3.2 / 6.5.3):
 Clause formulas (rendered): w_Ed_610, w_Ed_610a, w_Ed_610b, w_k_char, w_k_freq, w_k_qp, w_acc
 """
 
-from .combinations import (Combination, VariableAction, governing, render_line_load, sls_characteristic,
-                           sls_combinations, sls_frequent, sls_quasi_permanent, sls_variable_characteristic,
-                           uls_combinations, variable_actions)
-from .formulas import w_acc, w_Ed_610, w_Ed_610a, w_Ed_610b, w_k_char, w_k_freq, w_k_qp
-from .loads import ACTIONS, CATEGORIES, UDL, Load, PointLoad, check_loads_on_span, g_n, self_weight_udl
-from .psi import PSI_EN_RECOMMENDED, PSI_UK_NA, PsiFactors, PsiTable, psi_factors
+from ..core.lazy import lazy_exports
 
-__all__ = [
-    "ACTIONS", "CATEGORIES", "UDL", "Load", "PointLoad", "check_loads_on_span", "g_n", "self_weight_udl",
-    "PSI_EN_RECOMMENDED", "PSI_UK_NA", "PsiFactors", "PsiTable", "psi_factors",
-    "Combination", "VariableAction", "governing", "render_line_load", "sls_characteristic",
-    "sls_combinations", "sls_frequent", "sls_quasi_permanent", "sls_variable_characteristic",
-    "uls_combinations", "variable_actions",
-    "w_acc", "w_Ed_610", "w_Ed_610a", "w_Ed_610b", "w_k_char", "w_k_freq", "w_k_qp",
-]
+# names imported on first use (splicecalc.core.lazy): reading a job's loads needs .loads alone
+__getattr__, __dir__, __all__ = lazy_exports(__name__, {
+    **{n: ".combinations" for n in ("Combination", "VariableAction", "governing", "render_line_load",
+                                    "sls_characteristic", "sls_combinations", "sls_frequent",
+                                    "sls_quasi_permanent", "sls_variable_characteristic", "uls_combinations",
+                                    "variable_actions")},
+    **{n: ".formulas" for n in ("w_acc", "w_Ed_610", "w_Ed_610a", "w_Ed_610b", "w_k_char", "w_k_freq",
+                                "w_k_qp")},
+    **{n: ".loads" for n in ("ACTIONS", "CATEGORIES", "UDL", "Load", "PointLoad", "check_loads_on_span", "g_n",
+                             "self_weight_udl")},
+    **{n: ".psi" for n in ("PSI_EN_RECOMMENDED", "PSI_UK_NA", "PsiFactors", "PsiTable", "psi_factors")},
+})

@@ -16,9 +16,12 @@ beam_diagrams(beam, splices_mm=, restraints_mm=, title=, show_loads=True) -> mat
 envelope_diagram(env, splices_mm=, title=) -> matplotlib Figure
 """
 
-from .beam import Extreme, SimpleBeam
-from .diagrams import A4_TEXT_WIDTH_IN, beam_diagrams, envelope_diagram
-from .envelope import Envelope, Governing, envelope, envelope_at, governing_M, governing_V, governing_w
+from ..core.lazy import lazy_exports
 
-__all__ = ["Extreme", "SimpleBeam", "A4_TEXT_WIDTH_IN", "beam_diagrams", "envelope_diagram", "Envelope",
-           "Governing", "envelope", "envelope_at", "governing_M", "governing_V", "governing_w"]
+# names imported on first use (splicecalc.core.lazy): matplotlib loads only when a diagram is drawn
+__getattr__, __dir__, __all__ = lazy_exports(__name__, {
+    **{n: ".beam" for n in ("Extreme", "SimpleBeam")},
+    **{n: ".diagrams" for n in ("A4_TEXT_WIDTH_IN", "beam_diagrams", "envelope_diagram")},
+    **{n: ".envelope" for n in ("Envelope", "Governing", "envelope", "envelope_at", "governing_M", "governing_V",
+                                "governing_w")},
+})

@@ -29,6 +29,11 @@ def lazy_exports(package: str, homes: dict[str, str]) -> tuple[Callable[[str], A
     def __dir__() -> list[str]:
         return sorted(set(vars(sys.modules[package])) | set(homes))
 
+    # a name that is also its module's name (``envelope`` in ``.envelope``) is bound at once: importing
+    # that submodule later would otherwise set the package attribute to the module
+    for name, home in homes.items():
+        if home.lstrip(".") == name:
+            __getattr__(name)
     return __getattr__, __dir__, sorted(homes)
 
 

@@ -5,12 +5,14 @@ Public API: :func:`parse_support` (job-file ``[[support]]`` table -> :class:`Sup
 :func:`check_notch`, and the caution text :data:`EXISTING_STEEL_CAUTION`.
 """
 
-from ...materials.historic import EXISTING_STEEL_CAUTION
-from .design import ConnectionDesign, design_end_connection
-from .detail import Detail
-from .existing import ExistingResult, check_existing_member
-from .notch import check_notch
-from .spec import SupportSpec, parse_support
+from ...core.lazy import lazy_exports
 
-__all__ = ["SupportSpec", "parse_support", "ConnectionDesign", "design_end_connection", "Detail",
-           "ExistingResult", "check_existing_member", "check_notch", "EXISTING_STEEL_CAUTION"]
+# names imported on first use (splicecalc.core.lazy): reading a [[support]] table needs .spec alone
+__getattr__, __dir__, __all__ = lazy_exports(__name__, {
+    **{n: "...materials.historic" for n in ("EXISTING_STEEL_CAUTION",)},
+    **{n: ".design" for n in ("ConnectionDesign", "design_end_connection")},
+    **{n: ".detail" for n in ("Detail",)},
+    **{n: ".existing" for n in ("ExistingResult", "check_existing_member")},
+    **{n: ".notch" for n in ("check_notch",)},
+    **{n: ".spec" for n in ("SupportSpec", "parse_support")},
+})

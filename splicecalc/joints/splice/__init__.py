@@ -7,10 +7,12 @@ search is :func:`splicecalc.design.splice_layout.design_splice`; positions along
 the beam :func:`splicecalc.design.splice_positions.choose_splice_positions`.
 """
 
-from .design import SpliceDesign, check_splice, moment_resistance, splice_cost
-from .forces import SpliceForces, splice_forces
-from .geometry import Geometry, geometry
-from .spec import FlangeLayout, SpliceLayout, SpliceSpec, WebLayout, parse_splices
+from ...core.lazy import lazy_exports
 
-__all__ = ["SpliceDesign", "check_splice", "moment_resistance", "splice_cost", "SpliceForces", "splice_forces",
-           "Geometry", "geometry", "FlangeLayout", "SpliceLayout", "SpliceSpec", "WebLayout", "parse_splices"]
+# names imported on first use (splicecalc.core.lazy): reading the job's [splices] table needs .spec alone
+__getattr__, __dir__, __all__ = lazy_exports(__name__, {
+    **{n: ".design" for n in ("SpliceDesign", "check_splice", "moment_resistance", "splice_cost")},
+    **{n: ".forces" for n in ("SpliceForces", "splice_forces")},
+    **{n: ".geometry" for n in ("Geometry", "geometry")},
+    **{n: ".spec" for n in ("FlangeLayout", "SpliceLayout", "SpliceSpec", "WebLayout", "parse_splices")},
+})
