@@ -40,7 +40,7 @@ def test_forallpeople_getters_are_stable():
 def test_pandoc_prefetch_gives_the_same_latex(tmp_path):
     from contextlib import contextmanager
 
-    from splicecalc.report import exporter
+    from splicecalc.report import exporter, prefetch
 
     nb = nbformat.v4.new_notebook()
     nb.cells = [nbformat.v4.new_markdown_cell("# Scope\n\nA *beam* with $M_{Ed}$ and a list:\n\n- one\n- two"),
@@ -52,11 +52,11 @@ def test_pandoc_prefetch_gives_the_same_latex(tmp_path):
 
     @contextmanager
     def plain(*_a):
-        yield
+        yield                      # every pandoc call made by the template itself
 
-    orig, exporter._pandoc_prefetched = exporter._pandoc_prefetched, plain
+    orig, prefetch.PandocPrefetch.installed = prefetch.PandocPrefetch.installed, plain
     try:
         slow, _ = exporter.CalcPackageExporter().to_latex(nb, dict(res))
     finally:
-        exporter._pandoc_prefetched = orig
+        prefetch.PandocPrefetch.installed = orig
     assert fast == slow

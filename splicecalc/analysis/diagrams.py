@@ -1,21 +1,26 @@
 """Shear force, bending moment and deflection diagrams of a :class:`SimpleBeam`.
 
-Returns a :class:`matplotlib.figure.Figure` built on the Agg canvas (no pyplot,
-no global state), sized for the text width of an A4 page. Values are shown in
-kN, kNm and mm; x in m. Sign convention as in :mod:`splicecalc.analysis.beam`:
+Two steps, so that a drawing can be made away from the calculation (a headless
+build draws it in the build process while the kernel goes on with the calc):
+
+* :func:`beam_diagram_data` samples the beam into plain JSON data (x in m, V in kN,
+  M in kNm, w in mm, with the maxima, reactions, loads, restraints and splices);
+  numpy only;
+* :func:`draw_beam_diagrams` draws that data as a :class:`matplotlib.figure.Figure`
+  (no pyplot, no global state) sized for the text width of an A4 page.
+
+:func:`beam_diagrams` does both. Sign convention as in :mod:`splicecalc.analysis.beam`:
 sagging moment plotted positive (upwards), deflection drawn downwards.
 
-Public API: :func:`beam_diagrams`, :func:`envelope_diagram`.
+Public API: :func:`beam_diagram_data`, :func:`draw_beam_diagrams`, :func:`beam_diagrams`,
+:func:`envelope_diagram`.
 """
 
 from __future__ import annotations
 
-from typing import Sequence
+from typing import Any, Sequence
 
 import numpy as np
-from matplotlib.backends.backend_agg import FigureCanvasAgg
-from matplotlib.figure import Figure
-from matplotlib.patches import Rectangle
 
 from ..actions.loads import UDL, PointLoad
 from ..core.errors import InputError, require_finite
@@ -24,6 +29,8 @@ from .envelope import Envelope
 
 #: A4 text width (about 170 mm) in inches
 A4_TEXT_WIDTH_IN = 6.7
+#: the ``kind`` of the data :func:`beam_diagram_data` returns
+DIAGRAM_KIND = "beam_diagrams"
 
 
 def _positions(values: object, L: float, field: str) -> tuple[float, ...]:
@@ -57,77 +64,20 @@ def _sample(beam: SimpleBeam, n: int) -> tuple[np.ndarray, np.ndarray]:
     return x2, v2
 
 
-def _style_axis(ax, L_m: float, ylabel: str) -> None:
-    ax.axhline(0.0, color="black", lw=0.8)
-    ax.set_xlim(-0.02 * L_m, 1.02 * L_m)
-    ax.set_ylabel(ylabel, fontsize=8)
-    ax.margins(y=0.18)
-    ax.tick_params(labelsize=7)
-    ax.grid(True, lw=0.3, alpha=0.5)
+def _list(a: Any, scale: float = 1.0) -> list[float]:
+    """Plot values as a JSON list (4 decimals of the plotted unit: far below a line's width)."""
+    return [round(float(v), 4) for v in np.asarray(a, dtype=float) / scale]
 
 
-def _supports(ax, L_m: float) -> None:
-    for xs, lab in ((0.0, "A"), (L_m, "B")):
-        ax.plot([xs], [0.0], marker="^", ms=9, color="black", clip_on=False, zorder=5)
-        ax.annotate(lab, (xs, 0.0), xytext=(0, -14), textcoords="offset points", ha="center", fontsize=7)
-
-
-def _vlines(axes, xs_mm: Sequence[float], style: dict, labels: Sequence[str]) -> None:
-    for x, lab in zip(xs_mm, labels):
-        for k, ax in enumerate(axes):
-            ax.axvline(x / 1e3, **style)
-            if k == 0:
-                ax.annotate(lab, (x / 1e3, 1.0), xycoords=("data", "axes fraction"), xytext=(0, 2),
-                            textcoords="offset points", ha="center", va="bottom", fontsize=7,
-                            color=style.get("color", "black"))
-
-
-def _mark(ax, x_m: float, y: float, text: str, colour: str, L_m: float) -> None:
-    ax.plot([x_m], [y], "o", ms=4, color=colour, zorder=6)
-    right = x_m > 0.6 * L_m
-    ax.annotate(text, (x_m, y), xytext=(-6 if right else 6, 4 if y >= 0 else -11), textcoords="offset points",
-                ha="right" if right else "left", fontsize=7, color=colour, zorder=7,
-                bbox=dict(boxstyle="round,pad=0.15", fc="white", ec="none", alpha=0.85))
-
-
-def _load_panel(ax, beam: SimpleBeam) -> None:
-    """Sketch of the loads: UDLs as stacked bands, point loads as arrows, values in kN/m and kN."""
-    L_m = beam.L / 1e3
-    ax.plot([0.0, L_m], [0.0, 0.0], color="black", lw=2.5, solid_capstyle="butt")
-    level = 0.15
-    for ld in beam.loads:
-        if isinstance(ld, UDL):
-            a, b = ld.extent(beam.L)
-            ax.add_patch(Rectangle((a / 1e3, level), (b - a) / 1e3, 0.22, fc="tab:orange", alpha=0.25,
-                                   ec="tab:orange", lw=0.8))
-            ax.annotate(f"{ld.name}: {ld.w:.3g} kN/m", ((a + b) / 2e3, level + 0.11), ha="center",
-                        va="center", fontsize=6.5)
-            level += 0.3
-    top = level + 0.1
-    for ld in beam.loads:
-        if isinstance(ld, PointLoad):
-            ax.annotate("", (ld.x / 1e3, 0.02), xytext=(ld.x / 1e3, top + 0.35),
-                        arrowprops=dict(arrowstyle="-|>", color="tab:brown", lw=1.2))
-            ax.annotate(f"{ld.name}: {ld.P / 1e3:.3g} kN", (ld.x / 1e3, top + 0.37), ha="center",
-                        va="bottom", fontsize=6.5, color="tab:brown")
-    ax.set_ylim(-0.3, top + 0.75)
-    ax.set_yticks([])
-    ax.set_ylabel("loads", fontsize=8)
-    ax.set_xlim(-0.02 * L_m, 1.02 * L_m)
-    for side in ("left", "right", "top"):
-        ax.spines[side].set_visible(False)
-
-
-def beam_diagrams(beam: SimpleBeam, *, splices_mm: Sequence[float] | None = None,
-                  restraints_mm: Sequence[float] | None = None, title: str | None = None,
-                  n: int = 401, show_loads: bool = True, deflection_of: SimpleBeam | None = None,
-                  deflection_label: str = "") -> Figure:
-    """Stacked load sketch, V, M (and w when ``beam.I`` is set) diagrams with maxima, supports A/B,
-    intermediate restraints (dotted, "R1"...) and splices (dashed, "S1"...; M and V there labelled).
+def beam_diagram_data(beam: SimpleBeam, *, splices_mm: Sequence[float] | None = None,
+                      restraints_mm: Sequence[float] | None = None, title: str | None = None,
+                      n: int = 401, show_loads: bool = True, deflection_of: SimpleBeam | None = None,
+                      deflection_label: str = "") -> dict[str, Any]:
+    """The diagrams of ``beam`` as JSON data for :func:`draw_beam_diagrams` (units in the key names).
 
     splices_mm, restraints_mm: positions from support A, mm. n: plotting points (>= 11).
-    show_loads: add the load sketch on top (values as held by ``beam``, e.g. factored).
-    deflection_of: draw the w panel for this beam instead (same span, ``I`` set), e.g. the SLS
+    show_loads: include the load sketch (values as held by ``beam``, e.g. factored).
+    deflection_of: the w panel shows this beam instead (same span, ``I`` set), e.g. the SLS
     combination of a ULS figure; ``deflection_label`` names it on the panel's axis.
     """
     if not isinstance(beam, SimpleBeam):
@@ -146,90 +96,201 @@ def beam_diagrams(beam: SimpleBeam, *, splices_mm: Sequence[float] | None = None
         raise InputError("deflection_of", deflection_of, "a SimpleBeam of the same span with I set")
     if not isinstance(deflection_label, str):
         raise InputError("deflection_label", deflection_label, "a text")
-    L_m = L / 1e3
+
+    loads = None
+    if show_loads:
+        loads = []
+        for ld in beam.loads:
+            if isinstance(ld, UDL):
+                a, b = ld.extent(L)
+                loads.append({"type": "udl", "name": ld.name, "w_kN_per_m": float(ld.w), "from_m": a / 1e3,
+                              "to_m": b / 1e3})
+            elif isinstance(ld, PointLoad):
+                loads.append({"type": "point", "name": ld.name, "P_kN": ld.P / 1e3, "at_m": ld.x / 1e3})
+    xv, v = _sample(beam, n)
+    vmx = beam.V_max()
+    xm = np.unique(np.concatenate((np.linspace(0.0, L, n), beam.breakpoints())))
+    mmx = beam.M_max()
     w_beam = deflection_of if deflection_of is not None else (beam if beam.I is not None else None)
-    has_w = w_beam is not None
-    nax = 3 if has_w else 2
+    deflection = None
+    if w_beam is not None:
+        xw = np.unique(np.concatenate((np.linspace(0.0, L, n), w_beam.breakpoints())))
+        wmx = w_beam.w_max()
+        deflection = {"x_m": _list(xw, 1e3), "w_mm": _list(np.atleast_1d(w_beam.w(xw))), "label": deflection_label,
+                      "max": {"x_m": wmx.x_mm / 1e3, "value_mm": float(wmx.value)}}
+    return {
+        "kind": DIAGRAM_KIND, "span_m": L / 1e3, "title": title or "", "loads": loads,
+        "shear": {"x_m": _list(xv, 1e3), "V_kN": _list(v, 1e3), "R_A_kN": beam.R_A / 1e3, "R_B_kN": beam.R_B / 1e3,
+                  "max": {"x_m": vmx.x_mm / 1e3, "value_kN": vmx.value / 1e3, "abs_kN": vmx.abs / 1e3}},
+        "moment": {"x_m": _list(xm, 1e3), "M_kNm": _list(np.atleast_1d(beam.M(xm)), 1e6),
+                   "max": {"x_m": mmx.x_mm / 1e3, "value_kNm": mmx.value / 1e6}},
+        "deflection": deflection,
+        "restraints_m": [x / 1e3 for x in restraints],
+        "splices": [{"x_m": x / 1e3, "M_kNm": float(beam.M(x)) / 1e6, "V_kN": float(beam.V(x)) / 1e3,
+                     "V_abs_kN": max(abs(float(beam.V(x, "left"))), abs(float(beam.V(x, "right")))) / 1e3}
+                    for x in splices],
+    }
+
+
+# ======================================================================== drawing (matplotlib)
+def _style_axis(ax: Any, L_m: float, ylabel: str) -> None:
+    ax.axhline(0.0, color="black", lw=0.8)
+    ax.set_xlim(-0.02 * L_m, 1.02 * L_m)
+    ax.set_ylabel(ylabel, fontsize=8)
+    ax.margins(y=0.18)
+    ax.tick_params(labelsize=7)
+    ax.grid(True, lw=0.3, alpha=0.5)
+
+
+def _supports(ax: Any, L_m: float) -> None:
+    for xs, lab in ((0.0, "A"), (L_m, "B")):
+        ax.plot([xs], [0.0], marker="^", ms=9, color="black", clip_on=False, zorder=5)
+        ax.annotate(lab, (xs, 0.0), xytext=(0, -14), textcoords="offset points", ha="center", fontsize=7)
+
+
+def _vlines(axes: Any, xs_m: Sequence[float], style: dict, labels: Sequence[str]) -> None:
+    for x, lab in zip(xs_m, labels):
+        for k, ax in enumerate(axes):
+            ax.axvline(x, **style)
+            if k == 0:
+                ax.annotate(lab, (x, 1.0), xycoords=("data", "axes fraction"), xytext=(0, 2),
+                            textcoords="offset points", ha="center", va="bottom", fontsize=7,
+                            color=style.get("color", "black"))
+
+
+def _mark(ax: Any, x_m: float, y: float, text: str, colour: str, L_m: float) -> None:
+    ax.plot([x_m], [y], "o", ms=4, color=colour, zorder=6)
+    right = x_m > 0.6 * L_m
+    ax.annotate(text, (x_m, y), xytext=(-6 if right else 6, 4 if y >= 0 else -11), textcoords="offset points",
+                ha="right" if right else "left", fontsize=7, color=colour, zorder=7,
+                bbox=dict(boxstyle="round,pad=0.15", fc="white", ec="none", alpha=0.85))
+
+
+def _load_panel(ax: Any, loads: list[dict], L_m: float) -> None:
+    """Sketch of the loads: UDLs as stacked bands, point loads as arrows, values in kN/m and kN."""
+    from matplotlib.patches import Rectangle
+
+    ax.plot([0.0, L_m], [0.0, 0.0], color="black", lw=2.5, solid_capstyle="butt")
+    level = 0.15
+    for ld in loads:
+        if ld["type"] == "udl":
+            a, b = ld["from_m"], ld["to_m"]
+            ax.add_patch(Rectangle((a, level), b - a, 0.22, fc="tab:orange", alpha=0.25, ec="tab:orange", lw=0.8))
+            ax.annotate(f"{ld['name']}: {ld['w_kN_per_m']:.3g} kN/m", ((a + b) / 2, level + 0.11), ha="center",
+                        va="center", fontsize=6.5)
+            level += 0.3
+    top = level + 0.1
+    for ld in loads:
+        if ld["type"] == "point":
+            ax.annotate("", (ld["at_m"], 0.02), xytext=(ld["at_m"], top + 0.35),
+                        arrowprops=dict(arrowstyle="-|>", color="tab:brown", lw=1.2))
+            ax.annotate(f"{ld['name']}: {ld['P_kN']:.3g} kN", (ld["at_m"], top + 0.37), ha="center",
+                        va="bottom", fontsize=6.5, color="tab:brown")
+    ax.set_ylim(-0.3, top + 0.75)
+    ax.set_yticks([])
+    ax.set_ylabel("loads", fontsize=8)
+    ax.set_xlim(-0.02 * L_m, 1.02 * L_m)
+    for side in ("left", "right", "top"):
+        ax.spines[side].set_visible(False)
+
+
+def draw_beam_diagrams(data: dict[str, Any]) -> Any:
+    """Stacked load sketch, V, M (and w) diagrams of :func:`beam_diagram_data` output, with maxima,
+    supports A/B, intermediate restraints (dotted, "R1"...) and splices (dashed, "S1"...; M and V
+    there labelled). Returns a :class:`matplotlib.figure.Figure`."""
+    from matplotlib.figure import Figure
+
+    if not isinstance(data, dict) or data.get("kind") != DIAGRAM_KIND:
+        raise InputError("data", type(data).__name__, f"the output of beam_diagram_data (kind {DIAGRAM_KIND!r})")
+    L_m = data["span_m"]
+    defl = data["deflection"]
+    loads = data["loads"]
+    title = data["title"]
+    nax = 3 if defl is not None else 2
     # fixed margins (inches) rather than a layout engine: the panels are always the same kind, and a
     # constrained layout costs two extra text-layout passes per figure (the PDF is saved with a tight box)
-    height = 2.1 * nax + (1.6 if show_loads else 0.4)
+    height = 2.1 * nax + (1.6 if loads is not None else 0.4)
     fig = Figure(figsize=(A4_TEXT_WIDTH_IN, height))
     fig.subplots_adjust(left=0.72 / A4_TEXT_WIDTH_IN, right=1.0 - 0.12 / A4_TEXT_WIDTH_IN,
                         bottom=0.45 / height, top=1.0 - (0.42 if title else 0.12) / height, hspace=0.28)
     fig.splicecalc_tight = False  # everything is drawn inside the figure: no tight-box pass when saving
-    FigureCanvasAgg(fig)
-    if show_loads:
+    if loads is not None:
         all_axes = fig.subplots(nax + 1, 1, sharex=True, gridspec_kw={"height_ratios": [0.8] + [1.0] * nax})
-        _load_panel(all_axes[0], beam)
+        _load_panel(all_axes[0], loads, L_m)
         axes = all_axes[1:]
     else:
         axes = fig.subplots(nax, 1, sharex=True)
 
-    # shear
-    xv, v = _sample(beam, n)
+    sh = data["shear"]
     ax = axes[0]
-    ax.fill_between(xv / 1e3, v / 1e3, 0.0, color="tab:blue", alpha=0.15, lw=0)
-    ax.plot(xv / 1e3, v / 1e3, color="tab:blue", lw=1.2)
+    ax.fill_between(sh["x_m"], sh["V_kN"], 0.0, color="tab:blue", alpha=0.15, lw=0)
+    ax.plot(sh["x_m"], sh["V_kN"], color="tab:blue", lw=1.2)
     _style_axis(ax, L_m, "V (kN)")
-    vmx = beam.V_max()
-    ax.annotate(f"R_A = {beam.R_A / 1e3:.1f} kN", (0.0, 0.0), xytext=(8, -12), textcoords="offset points",
-                fontsize=7)
-    ax.annotate(f"R_B = {beam.R_B / 1e3:.1f} kN", (L_m, 0.0), xytext=(-8, 6), textcoords="offset points",
+    ax.annotate(f"R_A = {sh['R_A_kN']:.1f} kN", (0.0, 0.0), xytext=(8, -12), textcoords="offset points", fontsize=7)
+    ax.annotate(f"R_B = {sh['R_B_kN']:.1f} kN", (L_m, 0.0), xytext=(-8, 6), textcoords="offset points",
                 ha="right", fontsize=7)
-    _mark(ax, vmx.x_mm / 1e3, vmx.value / 1e3, f"|V| max = {vmx.abs / 1e3:.1f} kN at x = {vmx.x_mm / 1e3:.2f} m",
-          "tab:blue", L_m)
+    mx = sh["max"]
+    _mark(ax, mx["x_m"], mx["value_kN"], f"|V| max = {mx['abs_kN']:.1f} kN at x = {mx['x_m']:.2f} m", "tab:blue", L_m)
 
-    # moment
-    xm = np.unique(np.concatenate((np.linspace(0.0, L, n), beam.breakpoints())))
-    m = np.atleast_1d(beam.M(xm))
+    mo = data["moment"]
     ax = axes[1]
-    ax.fill_between(xm / 1e3, m / 1e6, 0.0, color="tab:red", alpha=0.15, lw=0)
-    ax.plot(xm / 1e3, m / 1e6, color="tab:red", lw=1.2)
+    ax.fill_between(mo["x_m"], mo["M_kNm"], 0.0, color="tab:red", alpha=0.15, lw=0)
+    ax.plot(mo["x_m"], mo["M_kNm"], color="tab:red", lw=1.2)
     _style_axis(ax, L_m, "M (kNm), sagging +")
-    mmx = beam.M_max()
-    _mark(ax, mmx.x_mm / 1e3, mmx.value / 1e6, f"M max = {mmx.value / 1e6:.1f} kNm at x = {mmx.x_mm / 1e3:.2f} m",
+    mx = mo["max"]
+    _mark(ax, mx["x_m"], mx["value_kNm"], f"M max = {mx['value_kNm']:.1f} kNm at x = {mx['x_m']:.2f} m",
           "tab:red", L_m)
 
-    # deflection
-    if has_w:
-        xw = np.unique(np.concatenate((np.linspace(0.0, L, n), w_beam.breakpoints())))
-        w = np.atleast_1d(w_beam.w(xw))
+    if defl is not None:
         ax = axes[2]
-        ax.plot(xw / 1e3, w, color="tab:green", lw=1.2)
-        ax.fill_between(xw / 1e3, w, 0.0, color="tab:green", alpha=0.15, lw=0)
+        ax.plot(defl["x_m"], defl["w_mm"], color="tab:green", lw=1.2)
+        ax.fill_between(defl["x_m"], defl["w_mm"], 0.0, color="tab:green", alpha=0.15, lw=0)
         ax.invert_yaxis()
-        _style_axis(ax, L_m, f"w (mm){', ' + deflection_label if deflection_label else ''}, down +")
-        wmx = w_beam.w_max()
-        _mark(ax, wmx.x_mm / 1e3, wmx.value, f"w max = {wmx.value:.1f} mm at x = {wmx.x_mm / 1e3:.2f} m",
+        lab = defl["label"]
+        _style_axis(ax, L_m, f"w (mm){', ' + lab if lab else ''}, down +")
+        mx = defl["max"]
+        _mark(ax, mx["x_m"], mx["value_mm"], f"w max = {mx['value_mm']:.1f} mm at x = {mx['x_m']:.2f} m",
               "tab:green", L_m)
     for ax in axes:
         _supports(ax, L_m)
     axes[-1].set_xlabel("x from support A (m)", fontsize=8)
 
+    restraints = data["restraints_m"]
+    splices = data["splices"]
     _vlines(axes, restraints, dict(color="grey", ls=":", lw=1.0), [f"R{i + 1}" for i in range(len(restraints))])
-    _vlines(axes, splices, dict(color="tab:purple", ls="--", lw=1.0), [f"S{i + 1}" for i in range(len(splices))])
-    for x in splices:
-        mv = float(beam.M(x))
-        vv = max(abs(float(beam.V(x, "left"))), abs(float(beam.V(x, "right"))))
-        axes[1].annotate(f"M = {mv / 1e6:.1f} kNm", (x / 1e3, mv / 1e6), xytext=(3, -12),
+    _vlines(axes, [s["x_m"] for s in splices], dict(color="tab:purple", ls="--", lw=1.0),
+            [f"S{i + 1}" for i in range(len(splices))])
+    for s in splices:
+        axes[1].annotate(f"M = {s['M_kNm']:.1f} kNm", (s["x_m"], s["M_kNm"]), xytext=(3, -12),
                          textcoords="offset points", fontsize=6.5, color="tab:purple")
-        axes[0].annotate(f"|V| = {vv / 1e3:.1f} kN", (x / 1e3, float(beam.V(x)) / 1e3), xytext=(3, 3),
+        axes[0].annotate(f"|V| = {s['V_abs_kN']:.1f} kN", (s["x_m"], s["V_kN"]), xytext=(3, 3),
                          textcoords="offset points", fontsize=6.5, color="tab:purple")
     if title:
         fig.suptitle(title, fontsize=9)
     return fig
 
 
+def beam_diagrams(beam: SimpleBeam, *, splices_mm: Sequence[float] | None = None,
+                  restraints_mm: Sequence[float] | None = None, title: str | None = None,
+                  n: int = 401, show_loads: bool = True, deflection_of: SimpleBeam | None = None,
+                  deflection_label: str = "") -> Any:
+    """:func:`draw_beam_diagrams` of :func:`beam_diagram_data` (same arguments): a matplotlib Figure."""
+    return draw_beam_diagrams(beam_diagram_data(beam, splices_mm=splices_mm, restraints_mm=restraints_mm,
+                                                title=title, n=n, show_loads=show_loads,
+                                                deflection_of=deflection_of, deflection_label=deflection_label))
+
+
 def envelope_diagram(env: Envelope, *, splices_mm: Sequence[float] | None = None,
-                     title: str | None = None) -> Figure:
-    """M_Ed and V_Ed envelopes (kNm, kN) with the maxima and splice positions marked."""
+                     title: str | None = None) -> Any:
+    """M_Ed and V_Ed envelopes (kNm, kN) with the maxima and splice positions marked (matplotlib Figure)."""
+    from matplotlib.figure import Figure
+
     if not isinstance(env, Envelope):
         raise InputError("env", env, "an Envelope")
     x = env.x_mm
     L = float(x.max())
     splices = _positions(splices_mm, L, "splices_mm")
     fig = Figure(figsize=(A4_TEXT_WIDTH_IN, 4.6), layout="constrained")
-    FigureCanvasAgg(fig)
     axes = fig.subplots(2, 1, sharex=True)
     for ax, y, sc, unit, colour, lab in ((axes[0], env.V_Ed, 1e3, "kN", "tab:blue", "|V_Ed| (kN)"),
                                          (axes[1], env.M_Ed, 1e6, "kNm", "tab:red", "|M_Ed| (kNm)")):
@@ -240,7 +301,12 @@ def envelope_diagram(env: Envelope, *, splices_mm: Sequence[float] | None = None
         _mark(ax, x[i] / 1e3, y[i] / sc, f"max {y[i] / sc:.1f} {unit} at x = {x[i] / 1e3:.2f} m", colour, L / 1e3)
         _supports(ax, L / 1e3)
     axes[-1].set_xlabel("x from support A (m)", fontsize=8)
-    _vlines(axes, splices, dict(color="tab:purple", ls="--", lw=1.0), [f"S{i + 1}" for i in range(len(splices))])
+    _vlines(axes, [s / 1e3 for s in splices], dict(color="tab:purple", ls="--", lw=1.0),
+            [f"S{i + 1}" for i in range(len(splices))])
     if title:
         fig.suptitle(title, fontsize=9)
     return fig
+
+
+__all__ = ["A4_TEXT_WIDTH_IN", "DIAGRAM_KIND", "beam_diagram_data", "beam_diagrams", "draw_beam_diagrams",
+           "envelope_diagram"]

@@ -342,7 +342,7 @@ def design_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0
     With an explicit layout in ``spec`` it is checked as given; otherwise the
     cheapest passing layout is searched (:func:`search_layouts`) and returned
     with up to two alternatives. ``render=True`` re-runs the chosen layout with
-    handcalcs rendering and attaches the drawing. No passing layout raises
+    handcalcs rendering (the drawing: ``design.drawing()``). No passing layout raises
     :class:`InputError` naming what to change.
     """
     spec = spec if spec is not None else SpliceSpec()
@@ -365,9 +365,6 @@ def design_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0
         d = check_splice(section, grade, M_Ed, V_Ed, N_Ed, spec=spec, layout=best.layout, render=render, **kw)
         alts = tuple(check_splice(section, grade, M_Ed, V_Ed, N_Ed, spec=spec, layout=a.layout, **kw) for a in alts)
         d = replace(d, alternatives=alts)
-    if render:
-        from ..joints.splice.drawing import draw_splice
-        d = replace(d, figure=draw_splice(d))
     return d
 
 

@@ -27,6 +27,8 @@ from ..signoff.ledger import is_protected, sidecar_path
 from .compile import LatexRun, require_tool
 from .errors import CalcBuildError, ProtectedPDFError
 from .execute import execute_notebook
+from .figures import FigureDrawer, fill_figures
+from .prefetch import ExportPrefetch
 from .latexfix import BadBox
 from .metadata import calc_metadata
 
@@ -112,20 +114,34 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
 
     timings: dict[str, float] = {}
     execution_s = 0.0
-    if execute:
-        t = time.perf_counter()
-        nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings)
-        execution_s = time.perf_counter() - t
-        if executed_path is not None:
-            ep = Path(executed_path)
-            ep.parent.mkdir(parents=True, exist_ok=True)
-            write_atomic(ep, nbformat.writes(nb).encode("utf-8"))
+    # while the kernel computes, this process makes the exporter, converts markdown with pandoc
+    # and draws each figure as soon as its cell is done (two cores: the waiting is used)
+    prefetch = ExportPrefetch(nb, str(nb_path.parent), dict(progress=progress, build_directory=str(work)))
+    drawer = FigureDrawer() if execute else None
+    try:
+        if execute:
+            t = time.perf_counter()
 
-    from .exporter import CalcPackageExporter
+            def after_cell(cell: Any) -> None:
+                drawer.submit(cell)
+                prefetch.add_cell(cell)
 
-    exporter = CalcPackageExporter(progress=progress, build_directory=str(work))
-    resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
-    pdf_bytes, resources = exporter.from_notebook_node(nb, resources)
+            nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings,
+                                  after_cell=after_cell)
+            fill_figures(nb, drawer)
+            execution_s = time.perf_counter() - t
+            if executed_path is not None:
+                ep = Path(executed_path)
+                ep.parent.mkdir(parents=True, exist_ok=True)
+                write_atomic(ep, nbformat.writes(nb).encode("utf-8"))
+
+        exporter = prefetch.exporter()
+        resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
+        pdf_bytes, resources = exporter.from_notebook_node(nb, resources)
+    finally:
+        prefetch.close()
+        if drawer is not None:
+            drawer.close()
     run: LatexRun = resources["latex_run"]
 
     if is_protected(out):   # signed while we were building

@@ -20,6 +20,9 @@ from ..core.record import CheckRecord
 
 CHECK_MIME = "application/vnd.splicecalc.check+json"
 TABLE_MIME = "application/vnd.splicecalc.table+json"
+#: which MIME type of an output the calc package prints, first found first
+DISPLAY_PRIORITY: tuple[str, ...] = (CHECK_MIME, TABLE_MIME, "text/latex", "application/pdf", "image/png",
+                                     "image/jpeg", "text/markdown", "text/plain")
 
 #: report unit -> LaTeX (text mode, inside $...$ via \mathrm)
 UNIT_TEX = {

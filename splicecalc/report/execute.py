@@ -15,7 +15,7 @@ import sys
 import threading
 import time
 from pathlib import Path
-from typing import Any
+from typing import Any, Callable
 
 import nbformat
 from jupyter_client.kernelspec import KernelSpec, KernelSpecManager
@@ -63,9 +63,11 @@ class _ThisPythonKernelManager(AsyncKernelManager):
 class _ProgressClient(NotebookClient):
     """NotebookClient that ticks a tqdm bar per code cell and remembers the running cell."""
 
-    def __init__(self, *args: Any, progress: bool = True, **kwargs: Any) -> None:
+    def __init__(self, *args: Any, progress: bool = True,
+                 after_cell: Callable[[NotebookNode], None] | None = None, **kwargs: Any) -> None:
         super().__init__(*args, **kwargs)
         self._progress = progress
+        self._after_cell = after_cell
         self._bar: Any = None
         self.current_index: int | None = None
         self.kernel_ready_s: float | None = None
@@ -82,8 +84,11 @@ class _ProgressClient(NotebookClient):
             n = sum(c.cell_type == "code" for c in self.nb.cells)
             self._bar = tqdm(total=n, desc="Executing cells", unit="cell", file=sys.stderr, leave=False)
         out = await super().async_execute_cell(cell, cell_index, execution_count, store_history)
-        if cell.cell_type == "code" and self._bar is not None:
-            self._bar.update(1)
+        if cell.cell_type == "code":
+            if self._after_cell is not None:
+                self._after_cell(out)
+            if self._bar is not None:
+                self._bar.update(1)
         return out
 
     def close_bar(self) -> None:
@@ -142,14 +147,17 @@ def _error_of(cell: NotebookNode) -> tuple[str, str]:
 
 
 def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = None, timeout: float = 300.0,
-                     progress: bool = True, timings: dict[str, float] | None = None) -> NotebookNode:
+                     progress: bool = True, timings: dict[str, float] | None = None,
+                     after_cell: Callable[[NotebookNode], None] | None = None) -> NotebookNode:
     """Execute every code cell of ``nb`` (a path or a NotebookNode) and return the executed notebook.
 
     ``cwd`` is the kernel's working folder (default: the notebook's folder or
     the current one); ``timeout`` (s) applies per cell. A failing cell raises
     :class:`CellExecutionFailed` naming the cell number (1-based, counting all
     cells), its first source line and the exception. ``timings``, if given,
-    receives ``kernel_start_s`` and ``cells_s``.
+    receives ``kernel_start_s`` and ``cells_s``. ``after_cell``, if given, is called
+    with each executed code cell as soon as the kernel has finished it (the build
+    starts drawing its figures and converting its text while the kernel goes on).
     """
     require_positive("timeout", timeout, "s")
     if isinstance(nb, (str, Path)):
@@ -168,7 +176,7 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
 
     client = _ProgressClient(node, kernel_manager_class=_ThisPythonKernelManager, timeout=int(timeout), kernel_name=KERNEL_NAME,
                              resources={"metadata": {"path": str(cwd)}}, allow_errors=False,
-                             record_timing=False, progress=progress)
+                             record_timing=False, progress=progress, after_cell=after_cell)
     t0 = time.perf_counter()
     try:
         # the kernel's own stderr only carries transport chatter; cell errors come back as messages

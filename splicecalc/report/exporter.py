@@ -14,10 +14,8 @@ executes and writes atomically).
 
 from __future__ import annotations
 
-import os
+import copy
 import tempfile
-from concurrent.futures import ThreadPoolExecutor
-from contextlib import contextmanager
 from pathlib import Path
 from typing import Any
 
@@ -27,11 +25,13 @@ from traitlets import Bool, Unicode, default
 from traitlets.config import Config
 
 from .compile import require_tool, run_xelatex
-from .display import CHECK_MIME, TABLE_MIME
+from .display import DISPLAY_PRIORITY
 from .errors import CalcBuildError
+from .figures import PDF_MIME, figure_outputs_of, fill_figures
 from .latexfix import break_handcalcs
 from .latexout import check_latex, table_latex
 from .metadata import calc_metadata
+from .prefetch import PandocPrefetch, pandoc_pool
 
 #: folder holding our nbconvert template(s)
 LATEX_DIR = Path(__file__).with_name("latex")
@@ -50,78 +50,6 @@ def _signoff_state(nb: Any) -> tuple[str, list[dict]] | None:
     valid = [dict(role=s.role, name=s.name, date=s.date, digest=s.digest)
              for s in st.signatures if s.digest == st.current_digest]
     return st.label, valid
-
-
-#: pandoc reader of the template's markdown blocks (``data_markdown`` and the first step of ``markdowncell``)
-_MD_FORMAT = "markdown+tex_math_double_backslash"
-
-
-def _pandoc_jobs(nb: Any, priority: list[str]) -> list[tuple[str, str, str, tuple[str, ...]]]:
-    """The pandoc calls the template will make whose input is known beforehand: (source, from, to, args).
-
-    Markdown outputs shown as markdown (no richer MIME type ahead of ``text/markdown``
-    in ``priority``) go to LaTeX; markdown cells go to pandoc's JSON first. The
-    sources pass through the same filters as in the template.
-    """
-    from nbconvert.filters import citation2latex, strip_files_prefix
-
-    rank = {m: i for i, m in enumerate(priority)}
-    jobs = []
-    for cell in nb.cells:
-        if cell.cell_type == "markdown" and cell.source:
-            jobs.append((strip_files_prefix(citation2latex(cell.source)), _MD_FORMAT, "json", ()))
-        for out in cell.get("outputs", []):
-            data = out.get("data", {})
-            md = data.get("text/markdown")
-            if md is None or out.get("output_type") not in ("display_data", "execute_result"):
-                continue
-            if min((rank.get(m, len(rank)) for m in data), default=len(rank)) == rank.get("text/markdown"):
-                jobs.append((strip_files_prefix(citation2latex(md)), _MD_FORMAT, "latex", ()))
-    return jobs
-
-
-@contextmanager
-def _pandoc_prefetched(nb: Any, priority: list[str], nb_path: str = ""):
-    """Run the template's foreseeable pandoc calls side by side, then answer them from memory.
-
-    Each markdown block is one pandoc process (~20 ms, mostly start-up); the
-    template asks for them one after another. The same calls, with the same
-    arguments, are made beforehand in a few threads and their output handed back
-    when the template asks; any other call runs as before. Same text out.
-    A markdown cell's second call (JSON -> LaTeX) is foreseen through the
-    template's own filters, with ``nb_path`` as nbconvert's LaTeX exporter sets it.
-    """
-    import nbconvert.filters.pandoc as fp
-    from nbconvert.filters.filter_links import resolve_references
-
-    original = fp.pandoc
-    relative = fp.ConvertExplicitlyRelativePaths(texinputs=os.path.abspath(nb_path) if nb_path else os.getcwd())
-    jobs = list(dict.fromkeys(_pandoc_jobs(nb, priority)))
-    done: dict[tuple, str] = {}
-
-    def one(job: tuple) -> None:
-        src, fmt, to, args = job
-        try:
-            out = done[job] = original(src, fmt, to, extra_args=list(args))
-            if to == "json":
-                second = relative(resolve_references(out))
-                done[(second, "json", "latex", ())] = original(second, "json", "latex")
-        except Exception:  # noqa: BLE001 - the template's own call reports it
-            pass
-
-    if len(jobs) > 1:
-        with ThreadPoolExecutor(max_workers=min(8, 2 * (os.cpu_count() or 1))) as pool:
-            list(pool.map(one, jobs))
-
-    def memo(source: str, fmt: str, to: str, extra_args: Any = None, encoding: str = "utf-8") -> str:
-        hit = done.get((source, fmt, to, tuple(extra_args or ()))) if encoding == "utf-8" else None
-        return hit if hit is not None else original(source, fmt, to, extra_args=extra_args, encoding=encoding)
-
-    fp.pandoc = memo
-    try:
-        yield
-    finally:
-        fp.pandoc = original
 
 
 class RefuseErrorsPreprocessor(Preprocessor):
@@ -164,12 +92,7 @@ class CalcPackageExporter(PDFExporter):
     @property
     def default_config(self) -> Config:
         c = Config({
-            "NbConvertBase": {
-                "display_data_priority": [
-                    CHECK_MIME, TABLE_MIME, "text/latex", "application/pdf", "image/png",
-                    "image/jpeg", "text/markdown", "text/plain",
-                ]
-            },
+            "NbConvertBase": {"display_data_priority": list(DISPLAY_PRIORITY)},
             "ExtractOutputPreprocessor": {"enabled": True},
             "ExtractAttachmentsPreprocessor": {"enabled": True},
             "SVG2PDFPreprocessor": {"enabled": False},
@@ -181,6 +104,8 @@ class CalcPackageExporter(PDFExporter):
     def __init__(self, *args: Any, **kwargs: Any) -> None:
         super().__init__(*args, **kwargs)
         self.register_preprocessor(RefuseErrorsPreprocessor(), enabled=True)
+        #: a :class:`~splicecalc.report.prefetch.PandocPrefetch` a build has filled while the kernel ran
+        self.pandoc_prefetch: PandocPrefetch | None = None
 
     def default_filters(self):  # type: ignore[override]
         yield from super().default_filters()
@@ -194,9 +119,21 @@ class CalcPackageExporter(PDFExporter):
         resources = dict(resources or {})
         name = resources.get("metadata", {}).get("name", "") or "Calculation"
         resources["calc"] = calc_metadata(nb.metadata, default_title=name, signoff=_signoff_state(nb))
-        with _pandoc_prefetched(nb, list(self.config.NbConvertBase.display_data_priority),
-                                resources.get("metadata", {}).get("path", "")):
-            latex, resources = LatexExporter.from_notebook_node(self, nb, resources=resources, **kw)
+        if any(PDF_MIME not in data for _, data in figure_outputs_of(nb)):
+            nb = copy.deepcopy(nb)     # figures printed as data only (a headless run): draw them here
+            fill_figures(nb)
+        prefetch, pool = self.pandoc_prefetch, None
+        if prefetch is None:
+            pool = pandoc_pool()
+            prefetch = PandocPrefetch(pool, resources.get("metadata", {}).get("path", ""),
+                                      list(self.config.NbConvertBase.display_data_priority))
+        try:
+            prefetch.add_cells(nb.cells)          # anything not queued yet (all of it without a build)
+            with prefetch.installed():
+                latex, resources = LatexExporter.from_notebook_node(self, nb, resources=resources, **kw)
+        finally:
+            if pool is not None:
+                pool.shutdown(wait=False)
         return break_handcalcs(latex), resources
 
     def from_notebook_node(self, nb: Any, resources: dict | None = None, **kw: Any) -> tuple[bytes, dict]:

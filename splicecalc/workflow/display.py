@@ -13,8 +13,6 @@ results); nothing is recomputed for display.
 
 from __future__ import annotations
 
-import base64
-import io
 import math
 import os
 import sys
@@ -103,28 +101,31 @@ def _tex_text(text: str) -> str:
     return escape_tex(text)
 
 
-def figure_bundle(fig: Any, caption: str = "", dpi: int = 150) -> dict[str, Any]:
-    """PDF (vector, used by the calc package) and PNG (Jupyter) of a matplotlib Figure."""
-    from matplotlib.backends.backend_agg import FigureCanvasAgg
+def figure_bundle(fig: Any, caption: str = "") -> dict[str, Any]:
+    """PDF (vector, used by the calc package) and PNG (Jupyter, not in a headless build) of a matplotlib Figure."""
+    from ..report.figures import figure_outputs
 
-    if fig.canvas is None or not hasattr(fig.canvas, "print_png"):
-        FigureCanvasAgg(fig)
     out: dict[str, Any] = {"text/plain": caption or "figure"}
-    # a headless build only prints the vector PDF; the PNG is for a person in Jupyter
-    formats = (("application/pdf", "pdf"),) if os.environ.get(HEADLESS_ENV) else \
-        (("application/pdf", "pdf"), ("image/png", "png"))
-    for mime, fmt in formats:
-        buf = io.BytesIO()
-        tight = getattr(fig, "splicecalc_tight", True)  # figures with fixed margins opt out
-        fig.savefig(buf, format=fmt, dpi=dpi, bbox_inches="tight" if tight else None, pad_inches=0.04,
-                    metadata={"CreationDate": None} if fmt == "pdf" else None)
-        out[mime] = base64.b64encode(buf.getvalue()).decode("ascii")
+    out.update(figure_outputs(fig, ("pdf",) if os.environ.get(HEADLESS_ENV) else ("pdf", "png")))
     return out
 
 
 def show_figure(fig: Any, caption: str = "") -> None:
     """Display a matplotlib Figure (vector PDF for the package, PNG for Jupyter), caption below."""
     _display(_Bundle(figure_bundle(fig, caption)))
+    if caption:
+        show_text(f"*{caption}*")
+
+
+def show_drawing(data: dict[str, Any], caption: str = "") -> None:
+    """Display a figure given by its data (:mod:`splicecalc.report.figures`), caption below.
+
+    In Jupyter it is drawn here; in a headless build the build process draws it
+    while this kernel goes on with the next cells.
+    """
+    from ..report.figures import drawing_bundle
+
+    _display(_Bundle(drawing_bundle(data, caption, headless=bool(os.environ.get(HEADLESS_ENV)))))
     if caption:
         show_text(f"*{caption}*")
 
@@ -299,21 +300,21 @@ def show_analysis(result: CalcResult) -> None:
     d = result.design
     an = d.analysis
     xs = [s.x_mm for s in result.splices] or (list(result.positions.positions) if result.positions else [])
-    from ..analysis import SimpleBeam, beam_diagrams
+    from ..analysis import SimpleBeam, beam_diagram_data
 
     c, b = an.uls[an.governing_M]
     # one figure: loads, V and M of the governing ULS combination, and the deflection of the
     # variable-action SLS combination the deflection check uses (with I_y of the section)
     sls = max(an.sls_variable, key=lambda cb: cb[1].w_max().abs) if an.sls_variable else None
-    fig = beam_diagrams(SimpleBeam(an.span_mm, c.loads), splices_mm=xs or None, restraints_mm=an.restraints_mm,
-                        title=f"{an.section}: {c.name}", deflection_of=sls[1] if sls else None,
-                        deflection_label="SLS" if sls else "")
+    data = beam_diagram_data(SimpleBeam(an.span_mm, c.loads), splices_mm=xs or None,
+                             restraints_mm=an.restraints_mm, title=f"{an.section}: {c.name}",
+                             deflection_of=sls[1] if sls else None, deflection_label="SLS" if sls else "")
     caption = (f"Loads, shear force and bending moment for {c.name} (design values); restraints R, "
                "splices S and supports A, B marked.")
     if sls:
         caption += (f" Bottom panel: deflection under {sls[0].name} (characteristic variable actions) with "
                      f"$I_y$ of {d.section.designation}.")
-    show_figure(fig, caption)
+    show_drawing(data, caption)
     rows = []
     for (cc, bb) in an.uls:
         rows.append([cc.name, f"{bb.R_A / 1e3:.1f}", f"{bb.R_B / 1e3:.1f}", f"{abs(bb.M_max().value) / 1e6:.1f}",
@@ -427,12 +428,7 @@ def show_splice(result: CalcResult, part: Any) -> None:
     show_steps(d.force_latex, intro="Share of the forces between flanges and web, and the web bolt group:")
     rows = splice_layout_rows(part, getattr(part.spec, "plate_grade", ""))
     show_table(["Item", "Layout"], rows, align="ll", title=f"Layout of splice {part.label}")
-    fig = d.figure
-    if fig is None:
-        from ..joints.splice.drawing import draw_splice
-
-        fig = draw_splice(d)
-    show_figure(fig, f"Splice {part.label}: elevation and plan of the top flange, to scale, dimensions in mm.")
+    show_drawing(d.drawing_data(), f"Splice {part.label}: elevation and plan of the top flange, to scale, dimensions in mm.")
     if d.notes:
         show_list(d.notes, "Notes")
     if d.alternatives:
@@ -567,7 +563,7 @@ def show_form(job_file: str) -> Any:
 
 
 __all__ = ["HEADLESS_ENV", "contents_depth", "figure_bundle", "is_live_session", "job_tables", "show_actions", "show_analysis",
-           "show_cautions", "show_checks", "show_connection", "show_connections", "show_existing", "show_figure",
-           "show_form", "show_heading", "show_inputs", "show_joint_inputs", "show_list", "show_member", "show_references",
+           "show_cautions", "show_checks", "show_connection", "show_connections", "show_drawing", "show_existing",
+           "show_figure", "show_form", "show_heading", "show_inputs", "show_joint_inputs", "show_list", "show_member", "show_references",
            "show_splice", "show_splice_positions", "show_splices", "show_steps", "show_summary", "show_text",
            "CHECK_MIME", "TABLE_MIME"]

@@ -36,7 +36,6 @@ class SpliceDesign:
     force_latex: tuple[str, ...] = ()
     notes: tuple[str, ...] = ()
     alternatives: tuple["SpliceDesign", ...] = ()
-    figure: Any = None
 
     @property
     def ok(self) -> bool:
@@ -57,6 +56,18 @@ class SpliceDesign:
     @property
     def plate_mass(self) -> float:
         return self.geometry.plate_mass
+
+    def drawing_data(self, title: str | None = None) -> dict[str, Any]:
+        """Dimensions for the drawing (JSON, mm): :func:`splicecalc.joints.splice.drawing.splice_drawing_data`."""
+        from .drawing import splice_drawing_data
+
+        return splice_drawing_data(self, title)
+
+    def drawing(self, title: str | None = None) -> Any:
+        """Elevation and plan to scale (a matplotlib Figure; :func:`~.drawing.draw_splice`)."""
+        from .drawing import draw_splice
+
+        return draw_splice(self, title)
 
     def describe(self) -> str:
         f, w, L = self.layout.flange, self.layout.web, self.layout

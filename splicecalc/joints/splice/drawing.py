@@ -1,16 +1,26 @@
 """Dimensioned elevation and plan of a cover-plate splice, to scale (matplotlib).
 
-``draw_splice(design)`` returns a :class:`matplotlib.figure.Figure` with two
-axes at equal scale (mm): the elevation (beam ends, gap, flange cover plates,
-web plates, web bolt holes, pitches and end distances) and the plan of the top
-flange (flange, outer plate, holes, gauge, pitch, e1, e2). No state is left in
-pyplot (the figure is built with the object API).
+Two steps, so that the drawing can be made away from the calculation (a headless
+build draws it in the build process): :func:`splice_drawing_data` takes the
+dimensions of a :class:`~splicecalc.joints.splice.design.SpliceDesign` as plain
+JSON data (mm), :func:`draw_splice_data` draws them as a
+:class:`matplotlib.figure.Figure` with two axes at equal scale: the elevation
+(beam ends, gap, flange cover plates, web plates, web bolt holes, pitches and end
+distances) and the plan of the top flange (flange, outer plate, holes, gauge,
+pitch, e1, e2). :func:`draw_splice` does both. No state is left in pyplot.
 """
 
 from __future__ import annotations
 
-from matplotlib.figure import Figure
-from matplotlib.patches import Circle, Rectangle
+from typing import Any
+
+from ...core.errors import InputError
+
+#: the ``kind`` of the data :func:`splice_drawing_data` returns
+SPLICE_KIND = "splice"
+#: the dimensions (mm) and counts taken from the splice geometry
+_GEOMETRY_KEYS = ("L_fp", "L_wp", "e1_f", "p1_f", "t_po", "t_pi", "b_po", "b_pi", "e2_po", "g_f", "p2o_f",
+                  "h_wp", "t_wp", "e1_w", "g_w", "e_v", "p_w", "n_r", "n_c")
 
 _DIM = dict(color="0.25", lw=0.6)
 
@@ -27,13 +37,47 @@ def _dim(ax, x1, y1, x2, y2, text, off=0.0, vertical=False, fs=6):
         ax.text((x1 + x2) / 2, y + 3, text, fontsize=fs, ha="center", va="bottom")
 
 
-def draw_splice(design, title: str | None = None) -> Figure:
-    """Elevation and plan of ``design`` (a SpliceDesign), drawn to scale; returns the Figure."""
-    s = design.section
-    g = design.geometry
-    lay = design.layout
+def splice_drawing_data(design: Any, title: str | None = None) -> dict[str, Any]:
+    """The dimensions of ``design`` (a SpliceDesign) for :func:`draw_splice_data`: JSON data, mm."""
+    if not all(hasattr(design, a) for a in ("section", "geometry", "layout")):
+        raise InputError("design", type(design).__name__, "a SpliceDesign (section, geometry and layout)")
+    if title is not None and not isinstance(title, str):
+        raise InputError("title", title, "a text")
+    s, g, lay = design.section, design.geometry, design.layout
+    return {"kind": SPLICE_KIND, "title": title or "",
+            "section": {"designation": getattr(s, "designation", ""),
+                        **{k: float(getattr(s, k)) for k in ("h", "b", "tf", "tw")}},
+            "geometry": {k: _plain(getattr(g, k)) for k in _GEOMETRY_KEYS},
+            "flange_rows": lay.flange.rows, "flange_columns": lay.flange.columns,
+            "bolt_size": lay.bolt_size, "bolt_class": lay.bolt_class, "d_0": float(_d0(design))}
+
+
+def _plain(v: Any) -> int | float:
+    """A JSON number: counts stay integers, dimensions become floats."""
+    return int(v) if float(v).is_integer() and not isinstance(v, float) else float(v)
+
+
+def draw_splice(design: Any, title: str | None = None) -> Any:
+    """:func:`draw_splice_data` of :func:`splice_drawing_data`: the drawing of ``design`` (a Figure)."""
+    return draw_splice_data(splice_drawing_data(design, title))
+
+
+def draw_splice_data(data: dict[str, Any]) -> Any:
+    """Elevation and plan of a splice from :func:`splice_drawing_data`, to scale; a matplotlib Figure."""
+    from types import SimpleNamespace
+
+    from matplotlib.figure import Figure
+    from matplotlib.patches import Circle, Rectangle
+
+    if not isinstance(data, dict) or data.get("kind") != SPLICE_KIND:
+        raise InputError("data", type(data).__name__, f"the output of splice_drawing_data (kind {SPLICE_KIND!r})")
+    s = SimpleNamespace(**data["section"])
+    g = SimpleNamespace(**data["geometry"])
+    lay = SimpleNamespace(flange=SimpleNamespace(rows=data["flange_rows"], columns=data["flange_columns"]),
+                          bolt_size=data["bolt_size"], bolt_class=data["bolt_class"])
+    title = data["title"] or None
     gap = g.L_fp - 2 * (2 * g.e1_f + (lay.flange.rows - 1) * g.p1_f)
-    d_hole = design.layout and _d0(design)
+    d_hole = data["d_0"]
     h, b, tf, tw = s.h, s.b, s.tf, s.tw
     ext = max(g.L_fp, g.L_wp) / 2 + 80.0
     # side by side: the elevation is about as tall as it is wide, the plan much flatter, so
@@ -89,7 +133,7 @@ def draw_splice(design, title: str | None = None) -> Figure:
     ax.set_aspect("equal")
     ax.set_xlim(-ext, ext)
     ax.set_ylim(-h / 2 - g.t_po - 60, h / 2 + g.t_po + 60)
-    ax.set_title(f"Elevation: {getattr(s, 'designation', '')}, web plates 2 x {g.h_wp:g} x {g.t_wp:g}", fontsize=8)
+    ax.set_title(f"Elevation: {s.designation}, web plates 2 x {g.h_wp:g} x {g.t_wp:g}", fontsize=8)
     ax.axvline(0.0, color="0.5", lw=0.5, ls="-.")
     ax.tick_params(labelsize=6)
     # ------------------------------------------------------------------- plan of the top flange (y across)
@@ -127,10 +171,11 @@ def draw_splice(design, title: str | None = None) -> Figure:
     # fixed margins (inches) instead of tight_layout: same look, no extra text-layout pass
     W, H = fig.get_size_inches()
     fig.subplots_adjust(left=0.55 / W, right=1.0 - 0.1 / W, bottom=0.4 / H, top=1.0 - 0.75 / H, wspace=0.18)
+    fig.splicecalc_tight = False  # everything is drawn inside these margins: no tight-box pass when saving
     return fig
 
 
-def _d0(design) -> float:
+def _d0(design: Any) -> float:
     from ..bolts import get_bolt
     return get_bolt(design.layout.bolt_size, design.layout.bolt_class).d_0
 
@@ -142,4 +187,4 @@ def _flange_lines(g, cols: int) -> list[float]:
     return [-y - g.p2o_f, -y, y, y + g.p2o_f]
 
 
-__all__ = ["draw_splice"]
+__all__ = ["SPLICE_KIND", "draw_splice", "draw_splice_data", "splice_drawing_data"]
