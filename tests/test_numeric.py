@@ -9,7 +9,9 @@ import scipy.optimize as so
 from hypothesis import given
 from hypothesis import strategies as st
 
-from splicecalc.core.numeric import max_golden, root_bisect
+import numpy as np
+
+from splicecalc.core.numeric import max_sampled, root_bisect
 
 
 @pytest.mark.parametrize("f,a,b", [
@@ -26,11 +28,21 @@ def test_max_of_a_kinked_moment_diagram(a_frac, P):
     # simply supported point load: M(x) = P b x / L left of a, P a (L - x) / L right; max P a b / L at x = a
     L = 1.0
     a, b = a_frac * L, (1 - a_frac) * L
-    M = lambda x: P * b * x / L if x <= a else P * a * (L - x) / L  # noqa: E731
-    x, m = max_golden(M, 0.0, L, xtol=1e-12)
+    M = lambda x: np.where(x <= a, P * b * x / L, P * a * (L - x) / L)  # noqa: E731
+    x, m = max_sampled(M, 0.0, L, xtol=1e-12)
     assert x == pytest.approx(a, abs=1e-9) and m == pytest.approx(P * a * b / L, rel=1e-9)
-    ref = so.minimize_scalar(lambda t: -M(t), bounds=(0.0, L), method="bounded", options={"xatol": 1e-12})
+    ref = so.minimize_scalar(lambda t: -float(M(t)), bounds=(0.0, L), method="bounded", options={"xatol": 1e-12})
     assert m == pytest.approx(-ref.fun, rel=1e-7)
+
+
+def test_max_of_a_smooth_function_matches_minimize_scalar():
+    # UDL on a simple span with a partial UDL: smooth, off-centre peak
+    f = lambda x: x * (10.0 - x) + 3.0 * np.clip(x - 6.0, 0.0, None) ** 2 * -0.5  # noqa: E731
+    x, m = max_sampled(f, 0.0, 10.0, xtol=1e-10)
+    ref = so.minimize_scalar(lambda t: -float(f(t)), bounds=(0.0, 10.0), method="bounded", options={"xatol": 1e-12})
+    assert x == pytest.approx(ref.x, abs=1e-6) and m == pytest.approx(-ref.fun, rel=1e-12)
+    with pytest.raises(ValueError):
+        max_sampled(f, 0.0, 1.0, xtol=1e-3, n=2)
 
 
 def test_root_needs_a_sign_change():

@@ -37,7 +37,7 @@ from typing import Any, Callable, Sequence
 import numpy as np
 import scipy.linalg
 
-from ..core.numeric import max_golden
+from ..core.numeric import max_sampled
 from ..core.clause import clause
 from ..core.errors import InputError, require_finite, require_in_range, require_positive
 from ..materials.steel import E_MPa, G_MPa
@@ -245,8 +245,7 @@ def mcr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, p
     M_max, x_M_max = float(Ms[i_max]), float(xs[i_max])
     lo, hi = xs[max(i_max - 1, 0)], xs[min(i_max + 1, xs.size - 1)]
     if hi > lo:
-        x_ref, M_ref = max_golden(lambda t: float(np.abs(Mfn(np.array([t])))[0]), float(lo), float(hi),
-                                  xtol=1e-9 * L)
+        x_ref, M_ref = max_sampled(lambda t: np.abs(Mfn(t)), float(lo), float(hi), xtol=1e-9 * L)
         if M_ref > M_max:
             M_max, x_M_max = float(M_ref), float(x_ref)
     if M_max == 0.0:   # no bending in the segment: no lateral-torsional buckling
