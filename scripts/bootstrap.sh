@@ -61,6 +61,10 @@ ensure_venv() {
         "$VENV/bin/python" -m splicecalc.cli.warm
         echo "$want" > "$stamp"
     fi
+    # byte-compile our own sources as a regular (non-editable) install does: every calc kernel
+    # imports them, and an environment with PYTHONDONTWRITEBYTECODE would otherwise compile them
+    # on every build (only changed files are compiled again)
+    "$VENV/bin/python" -m compileall -q "$ROOT/splicecalc" >/dev/null
 }
 
 ensure_system_packages

@@ -27,6 +27,7 @@ from ..signoff.ledger import is_protected, sidecar_path
 from .compile import LatexRun, require_tool
 from .errors import CalcBuildError, ProtectedPDFError
 from .execute import execute_notebook
+from .kernel import KernelLaunch
 from .figures import FigureDrawer, fill_figures
 from .prefetch import ExportPrefetch
 from .latexfix import BadBox
@@ -77,7 +78,8 @@ _PAGES_RE = re.compile(r"Output written on .*?\((\d+) pages?")
 
 def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = True, progress: bool = True,
               timeout: float = 300.0, overfull_limit_pt: float = OVERFULL_LIMIT_PT,
-              build_dir: str | Path | None = None, executed_path: str | Path | None = None) -> BuildReport:
+              build_dir: str | Path | None = None, executed_path: str | Path | None = None,
+              kernel: KernelLaunch | None = None) -> BuildReport:
     """Execute ``notebook_path`` (unless ``execute=False``) and write the calc package to ``pdf_path``.
 
     The PDF appears under its final name only when complete (temporary file
@@ -85,7 +87,9 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
     any work. The LaTeX source and log stay in ``build_dir`` (default
     ``<pdf folder>/.build/<pdf stem>/``). ``executed_path``, if given,
     receives the executed notebook (written atomically). ``timeout`` (s) is
-    per cell.
+    per cell. ``kernel``: a kernel launched beforehand in the notebook's folder
+    (:class:`~splicecalc.report.execute.KernelLaunch`); the caller discards it if
+    this function stops before running it.
     """
     t0 = time.perf_counter()
     nb_path = Path(notebook_path)
@@ -127,7 +131,7 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
                 prefetch.add_cell(cell)
 
             nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings,
-                                  after_cell=after_cell)
+                                  after_cell=after_cell, kernel=kernel)
             fill_figures(nb, drawer)
             execution_s = time.perf_counter() - t
             if executed_path is not None:

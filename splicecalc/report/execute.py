@@ -1,13 +1,12 @@
 """Run a calc notebook headless, with a progress bar and a clean error.
 
-The kernel is always the Python that runs splicecalc (``sys.executable`` with
-``ipykernel_launcher``), whatever kernelspecs are (or are not) installed, so
-a missing or stale ``python3`` kernelspec cannot break a build.
+The kernel is always the Python that runs splicecalc (:mod:`.kernel`), whatever
+kernelspecs are (or are not) installed. A failing cell stops the run with the
+cell number, its first line and the error.
 """
 
 from __future__ import annotations
 
-import asyncio
 import copy
 import os
 import subprocess
@@ -18,46 +17,15 @@ from pathlib import Path
 from typing import Any, Callable
 
 import nbformat
-from jupyter_client.kernelspec import KernelSpec, KernelSpecManager
-from jupyter_client.manager import AsyncKernelManager
 from jupyter_core.utils import ensure_async
 from nbclient import NotebookClient
 from nbclient.exceptions import CellExecutionError, CellTimeoutError, DeadKernelError
 from nbformat import NotebookNode
-from traitlets import default
 
 from ..core.errors import InputError, require_positive
 from .errors import CalcBuildError, CellExecutionFailed
 from .headless import HEADLESS_ENV
-
-KERNEL_NAME = "splicecalc-python"
-
-
-class _ThisPythonSpecs(KernelSpecManager):
-    """Kernelspec manager that always answers with the running interpreter."""
-
-    def get_kernel_spec(self, kernel_name: str) -> KernelSpec:  # noqa: ARG002
-        return KernelSpec(argv=[sys.executable, "-m", "ipykernel_launcher", "-f", "{connection_file}"],
-                          display_name=f"Python {sys.version_info.major}.{sys.version_info.minor} (splicecalc)",
-                          language="python", metadata={"debugger": False}, resource_dir="")
-
-    def find_kernel_specs(self) -> dict[str, str]:
-        return {KERNEL_NAME: ""}
-
-
-class _ThisPythonKernelManager(AsyncKernelManager):
-    """Kernel manager whose only kernelspec is the running interpreter."""
-
-    @default("kernel_spec_manager")
-    def _default_ksm(self) -> KernelSpecManager:
-        return _ThisPythonSpecs()
-
-    async def _async_finish_shutdown(self, waittime: float | None = None, pollinterval: float = 0.1,
-                                     restart: bool = False) -> None:
-        # jupyter_client looks every 0.1 s whether the kernel has exited; look every 0.01 s
-        # (the same graceful shutdown, noticed up to 0.1 s sooner)
-        await super()._async_finish_shutdown(waittime=waittime, pollinterval=min(pollinterval, 0.01),
-                                             restart=restart)
+from .kernel import KERNEL_ARGS, KERNEL_NAME, KernelLaunch, ThisPythonKernelManager, reap_kernel
 
 
 class _ProgressClient(NotebookClient):
@@ -70,13 +38,13 @@ class _ProgressClient(NotebookClient):
         self._after_cell = after_cell
         self._bar: Any = None
         self.current_index: int | None = None
-        self.kernel_ready_s: float | None = None
-        self._t0 = time.perf_counter()
+        #: perf_counter() when the first cell was sent to the kernel (the kernel is ready then)
+        self.first_cell_at: float | None = None
 
     async def async_execute_cell(self, cell: NotebookNode, cell_index: int, execution_count: int | None = None,
                                  store_history: bool = True) -> NotebookNode:
-        if self.kernel_ready_s is None:
-            self.kernel_ready_s = time.perf_counter() - self._t0
+        if self.first_cell_at is None:
+            self.first_cell_at = time.perf_counter()
         self.current_index = cell_index
         if cell.cell_type == "code" and self._bar is None and self._progress:
             from tqdm import tqdm
@@ -119,20 +87,7 @@ class _ProgressClient(NotebookClient):
         finally:
             if kc is not None:
                 await ensure_async(kc.stop_channels())
-        threading.Thread(target=_reap_kernel, args=(km, alive), name="splicecalc-kernel-exit").start()
-
-
-def _reap_kernel(km: AsyncKernelManager, alive: bool) -> None:
-    """Wait for a kernel asked to shut down (kill it after the grace time), then free its files."""
-    async def finish() -> None:
-        if alive:
-            await km._async_finish_shutdown()
-        await km._async_cleanup_resources()
-
-    try:
-        asyncio.run(finish())
-    except Exception:  # noqa: BLE001 - a kernel that is already gone leaves nothing to tidy
-        pass
+        threading.Thread(target=reap_kernel, args=(km, alive), name="splicecalc-kernel-exit").start()
 
 
 def _first_line(source: str) -> str:
@@ -148,7 +103,8 @@ def _error_of(cell: NotebookNode) -> tuple[str, str]:
 
 def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = None, timeout: float = 300.0,
                      progress: bool = True, timings: dict[str, float] | None = None,
-                     after_cell: Callable[[NotebookNode], None] | None = None) -> NotebookNode:
+                     after_cell: Callable[[NotebookNode], None] | None = None,
+                     kernel: KernelLaunch | None = None) -> NotebookNode:
     """Execute every code cell of ``nb`` (a path or a NotebookNode) and return the executed notebook.
 
     ``cwd`` is the kernel's working folder (default: the notebook's folder or
@@ -158,6 +114,9 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
     receives ``kernel_start_s`` and ``cells_s``. ``after_cell``, if given, is called
     with each executed code cell as soon as the kernel has finished it (the build
     starts drawing its figures and converting its text while the kernel goes on).
+    ``kernel``: a kernel launched beforehand (:class:`KernelLaunch`, its own working
+    folder); by default a new one is started. Either way it is shut down at the end,
+    and ``kernel_start_s`` counts from its launch.
     """
     require_positive("timeout", timeout, "s")
     if isinstance(nb, (str, Path)):
@@ -173,15 +132,22 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
     cwd = Path(cwd) if cwd is not None else Path.cwd()
     if not cwd.is_dir():
         raise InputError("cwd", str(cwd), "an existing folder")
+    if kernel is not None and (not isinstance(kernel, KernelLaunch) or kernel.used):
+        raise InputError("kernel", kernel, "a KernelLaunch that has not run a notebook yet")
 
-    client = _ProgressClient(node, kernel_manager_class=_ThisPythonKernelManager, timeout=int(timeout), kernel_name=KERNEL_NAME,
+    client = _ProgressClient(node, kernel_manager_class=ThisPythonKernelManager, timeout=int(timeout), kernel_name=KERNEL_NAME,
                              resources={"metadata": {"path": str(cwd)}}, allow_errors=False,
-                             record_timing=False, progress=progress, after_cell=after_cell)
+                             record_timing=False, progress=progress, after_cell=after_cell,
+                             km=kernel.km if kernel is not None else None, extra_arguments=list(KERNEL_ARGS))
     t0 = time.perf_counter()
     try:
-        # the kernel's own stderr only carries transport chatter; cell errors come back as messages
-        # HEADLESS_ENV tells templates that nobody is looking (the input form stays hidden)
-        client.execute(stderr=subprocess.DEVNULL, env={**os.environ, HEADLESS_ENV: "1"})
+        if kernel is not None:
+            kernel.used = True
+            client.execute(cleanup_kc=True)      # our kernel: shut it down at the end all the same
+        else:
+            # the kernel's own stderr only carries transport chatter; cell errors come back as messages
+            # HEADLESS_ENV tells templates that nobody is looking (the input form stays hidden)
+            client.execute(stderr=subprocess.DEVNULL, env={**os.environ, HEADLESS_ENV: "1"})
     except CellExecutionError as exc:
         idx = client.current_index if client.current_index is not None else -1
         cell = node.cells[idx] if 0 <= idx < len(node.cells) else NotebookNode(source="", outputs=[])
@@ -196,10 +162,11 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
         raise CalcBuildError(f"the Python kernel could not be started ({sys.executable}): {exc}") from None
     finally:
         client.close_bar()
-    total = time.perf_counter() - t0
+    end = time.perf_counter()
     if timings is not None:
-        ks = client.kernel_ready_s if client.kernel_ready_s is not None else 0.0
-        timings["kernel_start_s"] = ks
-        timings["cells_s"] = total - ks
+        start = kernel.launched_at if kernel is not None else t0
+        first = client.first_cell_at if client.first_cell_at is not None else t0
+        timings["kernel_start_s"] = first - start
+        timings["cells_s"] = end - first
     node.metadata["kernelspec"] = {"name": "python3", "display_name": "Python 3", "language": "python"}
     return node

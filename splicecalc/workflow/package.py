@@ -21,8 +21,6 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Any, Iterator
 
-import nbformat
-
 from ..core.errors import InputError
 from ..report.errors import CalcBuildError
 from ..report.headless import HEADLESS_ENV  # set by a headless build for the kernel: the form stays hidden
@@ -90,11 +88,15 @@ def set_parameter(nb: Any, name: str, value: str) -> None:
 
 
 def _read(path: Path) -> Any:
+    import nbformat   # here, not at the top: a build launches its kernel before loading nbformat
+
     return nbformat.read(str(path), as_version=4)
 
 
 def _write(nb: Any, path: Path) -> None:
     from ..report.build import write_atomic
+
+    import nbformat
 
     write_atomic(path, nbformat.writes(nb).encode("utf-8"))
 
@@ -256,9 +258,6 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
     :class:`SignedPDFError` when the PDF must not be overwritten, and
     :class:`~splicecalc.report.errors.CalcBuildError` (failing cell, missing tool, LaTeX) otherwise.
     """
-    from ..report.build import build_pdf
-    from ..signoff.ledger import write_sidecar
-
     src = Path(source)
     if not src.is_file():
         raise InputError("NOTEBOOK_OR_JOB", str(source), "an existing .ipynb notebook or .toml job file")
@@ -278,32 +277,44 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
     if executed.resolve() == src.resolve() and src.suffix == ".toml":  # pragma: no cover - suffixes differ
         raise InputError("-o", str(out), "a PDF name other than the job file's")
     out.parent.mkdir(parents=True, exist_ok=True)
+    run_dir = executed.parent if src.suffix == ".toml" else src.parent   # where the notebook runs
 
+    from ..report.kernel import KernelLaunch
+
+    # the kernel boots (imports, on the other core) while the job is read and the notebook written;
+    # a build that stops before running it shuts it down, having written nothing
+    kernel = KernelLaunch(run_dir)
     staged: Path | None = None
-    if src.suffix == ".toml":
-        nb_source = notebook_for_job(src, executed)
-    elif executed.resolve() == src.resolve():
-        nb_source = src
-    else:
-        # execute in the source's folder (relative job paths), keep the ledger of the executed copy
-        nb = _read(src)
-        meta = nb.metadata.setdefault("splicecalc", {})
-        meta.setdefault("title", src.stem)
-        if executed.is_file():
-            old = _read(executed).metadata.get("splicecalc", {})
-            for key in ("signatures", "revisions"):
-                if old.get(key) and not meta.get(key):
-                    meta[key] = old[key]
-        staged = src.with_name(f".{src.stem}.build.ipynb")
-        _write(nb, staged)
-        nb_source = staged
     try:
+        from ..report.build import build_pdf
+
+
+        if src.suffix == ".toml":
+            nb_source = notebook_for_job(src, executed)
+        elif executed.resolve() == src.resolve():
+            nb_source = src
+        else:
+            # execute in the source's folder (relative job paths), keep the ledger of the executed copy
+            nb = _read(src)
+            meta = nb.metadata.setdefault("splicecalc", {})
+            meta.setdefault("title", src.stem)
+            if executed.is_file():
+                old = _read(executed).metadata.get("splicecalc", {})
+                for key in ("signatures", "revisions"):
+                    if old.get(key) and not meta.get(key):
+                        meta[key] = old[key]
+            staged = src.with_name(f".{src.stem}.build.ipynb")
+            _write(nb, staged)
+            nb_source = staged
         with _headless():
             report = build_pdf(nb_source, out, execute=True, progress=progress, timeout=timeout,
-                               executed_path=executed)
+                               executed_path=executed, kernel=kernel)
     finally:
+        kernel.discard()
         if staged is not None and staged.exists():
             staged.unlink()
+    from ..signoff.ledger import write_sidecar
+
     nb_exec = _read(executed)
     data = write_sidecar(out, nb_exec, executed.resolve())
     return PackageBuild(pdf=out, notebook=executed, sidecar=_sidecar(out), report=report, status=data["status"])
