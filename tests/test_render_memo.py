@@ -37,18 +37,30 @@ def test_forallpeople_getters_are_stable():
 
 
 @pytest.mark.skipif(shutil.which("pandoc") is None, reason="pandoc not installed")
-def test_pandoc_prefetch_gives_the_same_latex(tmp_path):
+def test_pandoc_prefetch_gives_the_same_latex(tmp_path, monkeypatch):
+    monkeypatch.setenv("XDG_CACHE_HOME", str(tmp_path / "cache"))       # a cache of our own, empty at first
     from contextlib import contextmanager
 
     from splicecalc.report import exporter, prefetch
 
+    def md(text):
+        return nbformat.v4.new_output("display_data", data={"text/markdown": text, "text/plain": "r"})
+
     nb = nbformat.v4.new_notebook()
     nb.cells = [nbformat.v4.new_markdown_cell("# Scope\n\nA *beam* with $M_{Ed}$ and a list:\n\n- one\n- two"),
-                nbformat.v4.new_code_cell("x = 1", outputs=[nbformat.v4.new_output(
-                    "display_data", data={"text/markdown": "**Result.** $u = 0.5$", "text/plain": "r"})]),
+                nbformat.v4.new_code_cell("x = 1", outputs=[md("**Result.** $u = 0.5$")]),
+                # several markdown outputs of one cell: converted in one pandoc call (headings all different)
+                nbformat.v4.new_code_cell("y = 2", outputs=[
+                    md("# Splice S1 at x = 3.500 m"), md("*Caption with $I_y$ and 5 % slope.*"),
+                    md("**Notes**\n\n- first note, M_c,Rd <= 1.0\n- second note"), md("Plain text after a list."),
+                    md("# Splice S2 at x = 7.000 m"), md("**Notes**\n\n- first note, M_c,Rd <= 1.0\n- second note")]),
+                # two equal headings in one cell: one call each (labels would differ in one document)
+                nbformat.v4.new_code_cell("z = 3", outputs=[md("## Existing member"), md("## Existing member"),
+                                                            md("Torsion $T = 1.46$ kNm")]),
                 nbformat.v4.new_markdown_cell("## Scope\n\nSame heading again.")]
     res = {"metadata": {"name": "t", "path": str(tmp_path)}}
-    fast, _ = exporter.CalcPackageExporter().to_latex(nb, dict(res))
+    fast, _ = exporter.CalcPackageExporter().to_latex(nb, dict(res))      # fills the cache of markdown cells
+    cached, _ = exporter.CalcPackageExporter().to_latex(nb, dict(res))    # answers markdown cells from it
 
     @contextmanager
     def plain(*_a):
@@ -59,4 +71,5 @@ def test_pandoc_prefetch_gives_the_same_latex(tmp_path):
         slow, _ = exporter.CalcPackageExporter().to_latex(nb, dict(res))
     finally:
         prefetch.PandocPrefetch.installed = orig
-    assert fast == slow
+    assert fast == slow == cached
+    assert "Splice S2 at x = 7.000 m" in fast and "SPLICECALCBREAK" not in fast

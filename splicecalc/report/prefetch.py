@@ -16,10 +16,15 @@ calls from those results; a call not foreseen runs as before. Same text out
 
 from __future__ import annotations
 
+import hashlib
+import json
 import os
+import re
+import shutil
 import threading
 from concurrent.futures import Future, ThreadPoolExecutor
 from contextlib import contextmanager
+from pathlib import Path
 from typing import Any, Iterable, Iterator
 
 #: pandoc reader of the template's markdown blocks (``data_markdown`` and the first step of ``markdowncell``)
@@ -57,6 +62,29 @@ def cell_jobs(snapshot: tuple[str, str, list[tuple[str, dict]]], priority: list[
     return jobs
 
 
+#: a paragraph put between markdown blocks converted in one pandoc call (LaTeX keeps it as a line)
+_BREAK = "SPLICECALCBREAK{:04d}"
+_BREAK_RE = re.compile(r"\n\nSPLICECALCBREAK\d{4}\n\n")
+_HEADING_RE = re.compile(r"^#{1,6}[ \t]+(.*?)[ \t#]*$", re.M)
+#: most entries kept in the cache of converted markdown cells
+CACHE_MAX = 4000
+
+
+def _cache_file() -> Path | None:
+    """The cache of markdown-cell conversions for the pandoc on PATH (None without pandoc)."""
+    exe = shutil.which("pandoc")
+    if exe is None:
+        return None
+    st = os.stat(exe)
+    tag = hashlib.sha256(f"{os.path.realpath(exe)}|{st.st_size}|{st.st_mtime_ns}".encode()).hexdigest()[:16]
+    base = Path(os.environ.get("XDG_CACHE_HOME") or Path.home() / ".cache")
+    return base / "splicecalc" / f"pandoc-cells-{tag}.json"
+
+
+def _digest(job: _Job) -> str:
+    return hashlib.sha256(json.dumps(job).encode("utf-8")).hexdigest()
+
+
 class PandocPrefetch:
     """pandoc calls run side by side in ``pool`` and answered from memory during the export.
 
@@ -64,9 +92,21 @@ class PandocPrefetch:
     template (a markdown cell's second call, JSON -> LaTeX, is foreseen through the
     template's own filters with it). ``priority``: the exporter's display priority
     (default :data:`splicecalc.report.display.DISPLAY_PRIORITY`).
+
+    Two savings on top of running the calls early (each pandoc call is a process
+    start of ~15 ms of CPU, on a machine whose other core runs the kernel):
+
+    * a markdown *cell* (the template's prose: the same in every package made from it)
+      is converted once per pandoc installation and remembered in the user's cache
+      folder (``use_cache``), like ``__pycache__``; the kernel's outputs are never cached;
+    * the markdown outputs of one code cell go to pandoc in one call, blocks parted by a
+      marker paragraph, when that gives the same text as one call each (no two equal
+      headings in the batch, whose generated labels would then differ; the parts must
+      come back one per block), else one call each.
     """
 
-    def __init__(self, pool: ThreadPoolExecutor, nb_dir: str, priority: list[str] | None = None) -> None:
+    def __init__(self, pool: ThreadPoolExecutor, nb_dir: str, priority: list[str] | None = None,
+                 use_cache: bool = True) -> None:
         self._pool = pool
         self._nb_dir = nb_dir
         self._priority = list(priority) if priority is not None else None
@@ -74,36 +114,91 @@ class PandocPrefetch:
         self._jobs: dict[_Job, Future] = {}
         self._done: dict[_Job, str] = {}
         self._cells: list[Future] = []
+        self._cache_path = _cache_file() if use_cache else None
+        self._cache: dict[str, str] | None = None
+        self._cache_new: dict[str, str] = {}
 
     def add_cells(self, cells: Iterable[Any]) -> None:
         """Queue the pandoc calls of ``cells`` (a call already queued is not repeated)."""
         for cell in cells:
             self._cells.append(self._pool.submit(self._plan, _snapshot(cell)))
 
+    def _cached(self) -> dict[str, str]:
+        with self._lock:
+            if self._cache is None:
+                self._cache = {}
+                if self._cache_path is not None:
+                    try:
+                        data = json.loads(self._cache_path.read_text(encoding="utf-8"))
+                        if isinstance(data, dict):
+                            self._cache = {k: v for k, v in data.items() if isinstance(v, str)}
+                    except (OSError, ValueError):
+                        pass   # no cache yet, or an unreadable one: convert afresh
+            return self._cache
+
     def _plan(self, snapshot: tuple[str, str, list[tuple[str, dict]]]) -> None:
         if self._priority is None:
             from .display import DISPLAY_PRIORITY   # the exporter's (imported here, off the main thread)
 
             self._priority = list(DISPLAY_PRIORITY)
+        cache = self._cached() if snapshot[0] == "markdown" and self._cache_path is not None else None
+        fresh: list[_Job] = []
         for job in cell_jobs(snapshot, self._priority):
             with self._lock:
-                if job in self._jobs:
+                if job in self._jobs or job in self._done:
                     continue
-                self._jobs[job] = self._pool.submit(self._run, job)
+                if cache is not None and _digest(job) in cache:
+                    self._from_cache(job, cache)
+                    continue
+                fresh.append(job)
+                self._jobs[job] = Future()
+        if not fresh:
+            return
+        headings = [h for job in fresh for h in _HEADING_RE.findall(job[0])]
+        batch = len(fresh) > 1 and all(job[2] == "latex" for job in fresh) and len(headings) == len(set(headings))
+        groups = [fresh] if batch else [[job] for job in fresh]
+        for group in groups:
+            futures = [self._jobs[job] for job in group]
+            self._pool.submit(self._run, group, cache is not None).add_done_callback(
+                lambda f, fs=futures: [x.set_result(None) for x in fs])
 
-    def _run(self, job: _Job) -> None:
+    def _from_cache(self, job: _Job, cache: dict[str, str]) -> None:
+        out = self._done[job] = cache[_digest(job)]
+        if job[2] == "json":
+            second = self._second_job(out)
+            hit = cache.get(_digest(second))
+            if hit is not None:
+                self._done[second] = hit
+
+    def _second_job(self, json_out: str) -> _Job:
+        """The template's second call for a markdown cell: its JSON (through the template's filters) to LaTeX."""
         import nbconvert.filters.pandoc as fp
         from nbconvert.filters.filter_links import resolve_references
 
-        src, fmt, to, args = job
+        relative = fp.ConvertExplicitlyRelativePaths(
+            texinputs=os.path.abspath(self._nb_dir) if self._nb_dir else os.getcwd())
+        return (relative(resolve_references(json_out)), "json", "latex", ())
+
+    def _run(self, group: list[_Job], remember: bool) -> None:
+        import nbconvert.filters.pandoc as fp
+
         try:
-            out = fp.pandoc(src, fmt, to, extra_args=list(args))
-            self._done[job] = out
-            if to == "json":
-                relative = fp.ConvertExplicitlyRelativePaths(
-                    texinputs=os.path.abspath(self._nb_dir) if self._nb_dir else os.getcwd())
-                second = relative(resolve_references(out))
-                self._done[(second, "json", "latex", ())] = fp.pandoc(second, "json", "latex")
+            if len(group) > 1:
+                src = "\n\n".join(f"{job[0]}\n\n{_BREAK.format(i)}" for i, job in enumerate(group))
+                parts = _BREAK_RE.split(fp.pandoc(src, group[0][1], "latex", extra_args=list(group[0][3])) + "\n\n")
+                if len(parts) == len(group) + 1 and parts[-1].strip() == "":
+                    for job, part in zip(group, parts):
+                        self._done[job] = part.rstrip("\n")
+                    return
+            for job in group:   # one call each (also when a batch did not part cleanly)
+                src, fmt, to, args = job
+                out = self._done[job] = fp.pandoc(src, fmt, to, extra_args=list(args))
+                if to == "json":
+                    second = self._second_job(out)
+                    self._done[second] = fp.pandoc(second[0], "json", "latex")
+                    if remember:
+                        self._cache_new[_digest(job)] = out
+                        self._cache_new[_digest(second)] = self._done[second]
         except Exception:  # noqa: BLE001 - the template's own call runs again and reports it
             pass
 
@@ -115,6 +210,23 @@ class PandocPrefetch:
             jobs = list(self._jobs.values())
         for f in jobs:
             f.result()
+
+    def save_cache(self) -> None:
+        """Add this run's markdown-cell conversions to the cache file (atomically; a failure costs speed only)."""
+        if self._cache_path is None or not self._cache_new:
+            return
+        from ..core.files import write_atomic
+
+        data = dict(self._cached())
+        if len(data) + len(self._cache_new) > CACHE_MAX:
+            data = {}
+        data.update(self._cache_new)
+        try:
+            self._cache_path.parent.mkdir(parents=True, exist_ok=True)
+            write_atomic(self._cache_path, json.dumps(data).encode("utf-8"))
+        except OSError:
+            pass
+        self._cache_new = {}
 
     @contextmanager
     def installed(self) -> Iterator[None]:
@@ -134,6 +246,7 @@ class PandocPrefetch:
             yield
         finally:
             fp.pandoc = original
+            self.save_cache()
 
 
 def pandoc_pool() -> ThreadPoolExecutor:
