@@ -126,13 +126,10 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
         if execute:
             t = time.perf_counter()
 
-            def after_cell(cell: Any) -> None:
-                drawer.submit(cell)
-                prefetch.add_cell(cell)
-
             nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings,
-                                  after_cell=after_cell, kernel=kernel)
+                                  after_cell=prefetch.add_cell, after_output=drawer.submit_output, kernel=kernel)
             fill_figures(nb, drawer)
+            drawer.close()
             execution_s = time.perf_counter() - t
             if executed_path is not None:
                 ep = Path(executed_path)

@@ -32,10 +32,12 @@ class _ProgressClient(NotebookClient):
     """NotebookClient that ticks a tqdm bar per code cell and remembers the running cell."""
 
     def __init__(self, *args: Any, progress: bool = True,
-                 after_cell: Callable[[NotebookNode], None] | None = None, **kwargs: Any) -> None:
+                 after_cell: Callable[[NotebookNode], None] | None = None,
+                 after_output: Callable[[NotebookNode], None] | None = None, **kwargs: Any) -> None:
         super().__init__(*args, **kwargs)
         self._progress = progress
         self._after_cell = after_cell
+        self._after_output = after_output
         self._bar: Any = None
         self.current_index: int | None = None
         #: perf_counter() when the first cell was sent to the kernel (the kernel is ready then)
@@ -57,6 +59,12 @@ class _ProgressClient(NotebookClient):
                 self._after_cell(out)
             if self._bar is not None:
                 self._bar.update(1)
+        return out
+
+    def output(self, outs: list, msg: dict, display_id: str | None, cell_index: int) -> NotebookNode | None:
+        out = super().output(outs, msg, display_id, cell_index)
+        if out is not None and self._after_output is not None:
+            self._after_output(out)
         return out
 
     def close_bar(self) -> None:
@@ -104,6 +112,7 @@ def _error_of(cell: NotebookNode) -> tuple[str, str]:
 def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = None, timeout: float = 300.0,
                      progress: bool = True, timings: dict[str, float] | None = None,
                      after_cell: Callable[[NotebookNode], None] | None = None,
+                     after_output: Callable[[NotebookNode], None] | None = None,
                      kernel: KernelLaunch | None = None) -> NotebookNode:
     """Execute every code cell of ``nb`` (a path or a NotebookNode) and return the executed notebook.
 
@@ -113,7 +122,8 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
     cells), its first source line and the exception. ``timings``, if given,
     receives ``kernel_start_s`` and ``cells_s``. ``after_cell``, if given, is called
     with each executed code cell as soon as the kernel has finished it (the build
-    starts drawing its figures and converting its text while the kernel goes on).
+    starts drawing its figures and converting its text while the kernel goes on);
+    ``after_output`` likewise with each output as it arrives.
     ``kernel``: a kernel launched beforehand (:class:`KernelLaunch`, its own working
     folder); by default a new one is started. Either way it is shut down at the end,
     and ``kernel_start_s`` counts from its launch.
@@ -137,7 +147,7 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
 
     client = _ProgressClient(node, kernel_manager_class=ThisPythonKernelManager, timeout=int(timeout), kernel_name=KERNEL_NAME,
                              resources={"metadata": {"path": str(cwd)}}, allow_errors=False,
-                             record_timing=False, progress=progress, after_cell=after_cell,
+                             record_timing=False, progress=progress, after_cell=after_cell, after_output=after_output,
                              km=kernel.km if kernel is not None else None, extra_arguments=list(KERNEL_ARGS))
     t0 = time.perf_counter()
     try:

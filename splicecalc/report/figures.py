@@ -4,7 +4,7 @@ A figure output carries :data:`FIGURE_MIME`: JSON data with a ``kind`` that name
 the function drawing it (:data:`DRAWERS`), e.g. the V/M/w diagrams of
 :func:`splicecalc.analysis.diagrams.beam_diagram_data`. In Jupyter the kernel
 draws it at once (PDF + PNG beside the data); in a headless build the kernel
-prints the data only and the build process draws the PDF in a background thread
+prints the data only and the build draws the PDF in a worker process
 (:class:`FigureDrawer`) while the kernel goes on with the next cells.
 :func:`fill_figures` puts the drawn PDFs into the executed notebook, so the saved
 notebook and the exporter see ordinary ``application/pdf`` outputs. One drawing
@@ -16,7 +16,7 @@ from __future__ import annotations
 import base64
 import io
 import json
-from concurrent.futures import Future, ThreadPoolExecutor
+from concurrent.futures import Future
 from importlib import import_module
 from typing import Any, Callable, Iterator
 
@@ -89,37 +89,99 @@ def figure_outputs_of(nb: Any) -> Iterator[tuple[int, dict]]:
 def _warm_matplotlib() -> None:
     """Import what drawing a PDF needs, so the first figure does not wait for it."""
     import matplotlib.backends.backend_pdf  # noqa: F401
-    import matplotlib.figure  # noqa: F401
 
 
 class FigureDrawer:
-    """Draws figure outputs in one background thread while the kernel runs the next cells.
+    """Draws figure outputs in a worker process while the kernel runs the next cells.
 
-    ``submit(cell)`` queues the cell's figure outputs (each distinct figure once);
-    :func:`fill_figures` collects the PDFs. matplotlib is imported in the same
-    thread as soon as the drawer is made. ``close()`` stops it (queued drawings are dropped).
+    ``submit_output(out)`` queues a figure output as it arrives (each distinct figure once);
+    :func:`fill_figures` collects the PDFs. The worker
+    (:mod:`splicecalc.report.figure_worker`, started at once so that it has imported
+    matplotlib before the first figure comes) draws on a core of its own rather than
+    in this process, which handles the kernel's messages; one thread here hands it
+    the figures in turn. Should the worker not start or stop answering, figures are
+    drawn in this process instead. ``close()`` stops the worker.
     """
 
     def __init__(self) -> None:
-        self._pool = ThreadPoolExecutor(max_workers=1, thread_name_prefix="splicecalc-figures")
-        self._jobs: dict[str, Future] = {}
-        self._pool.submit(_warm_matplotlib)
+        import subprocess
+        import sys
+        from concurrent.futures import ThreadPoolExecutor
 
-    def submit(self, cell: Any) -> None:
-        for out in cell.get("outputs", []):
-            data = (out.get("data") or {}).get(FIGURE_MIME)
-            if data is not None and PDF_MIME not in out.get("data", {}):
-                key = _key(data)
-                if key not in self._jobs:
-                    self._jobs[key] = self._pool.submit(draw_pdf, data)
+        self._jobs: dict[str, Future] = {}
+        self._thread = ThreadPoolExecutor(max_workers=1, thread_name_prefix="splicecalc-figures")
+        try:
+            self._proc: Any = subprocess.Popen([sys.executable, "-m", "splicecalc.report.figure_worker"],
+                                               stdin=subprocess.PIPE, stdout=subprocess.PIPE,
+                                               stderr=subprocess.DEVNULL)
+        except OSError:
+            self._proc = None
+
+    def submit_output(self, out: Any) -> None:
+        """Queue one output if it is a figure without its PDF (never raises: faults show in :func:`fill_figures`)."""
+        data = (out.get("data") or {}).get(FIGURE_MIME)
+        if data is None or PDF_MIME in out.get("data", {}):
+            return
+        try:
+            key = _key(data)
+        except (TypeError, ValueError):
+            return                      # not JSON: fill_figures draws it here and reports the fault
+        if key not in self._jobs:
+            self._jobs[key] = self._thread.submit(self._draw, key)
+
+    def _draw(self, key: str) -> bytes:
+        from .figure_worker import read_frame, write_frame
+
+        if self._proc is not None:
+            try:
+                write_frame(self._proc.stdin, key.encode("utf-8"))
+                reply = read_frame(self._proc.stdout)
+            except (OSError, EOFError, ValueError):
+                reply = None
+            if reply is not None:
+                if reply[:1] == b"\0":
+                    return reply[1:]
+                raise RuntimeError(reply[1:].decode("utf-8", "replace"))
+            self._stop()                # the worker is gone: draw here from now on
+        return draw_pdf(json.loads(key))
 
     def pdf(self, data: dict) -> bytes:
         """The PDF of figure ``data``: the queued drawing's result, or drawn now."""
         job = self._jobs.get(_key(data))
         return job.result() if job is not None else draw_pdf(data)
 
+    def _stop(self) -> None:
+        """Close the worker's input (it then exits) and reap it in a background thread.
+
+        The worker's own exit (Python finalising matplotlib) takes a few tenths of a
+        second and nothing waits for it; the thread is not a daemon, so the
+        interpreter reaps the worker before it ends (killing it after 5 s).
+        """
+        import threading
+
+        proc, self._proc = self._proc, None
+        if proc is None:
+            return
+        try:
+            proc.stdin.close()
+        except OSError:
+            pass
+        threading.Thread(target=_reap, args=(proc,), name="splicecalc-figure-worker-exit").start()
+
     def close(self) -> None:
-        self._pool.shutdown(wait=False, cancel_futures=True)
+        """Drop queued drawings and stop the worker."""
+        self._thread.shutdown(wait=True, cancel_futures=True)
+        self._stop()
+
+
+def _reap(proc: Any) -> None:
+    try:
+        proc.wait(timeout=5)
+    except Exception:  # noqa: BLE001 - a worker that will not stop is killed
+        proc.kill()
+        proc.wait()
+    finally:
+        proc.stdout.close()
 
 
 def fill_figures(nb: Any, drawer: FigureDrawer | None = None) -> int:

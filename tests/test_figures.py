@@ -1,0 +1,137 @@
+"""Figures printed as data and drawn apart from the calc (report.figures, figure_worker, diagram data).
+
+References: simply supported beam under a UDL, V_max = wL/2, M_max = wL^2/8, w_max = 5wL^4/(384EI)
+(any structural analysis handbook, e.g. the beam tables of the Steel Designers' Manual; standard results).
+"""
+
+from __future__ import annotations
+
+import json
+
+import nbformat
+import pytest
+
+from splicecalc.actions.loads import UDL, PointLoad
+from splicecalc.analysis import SimpleBeam, beam_diagram_data, draw_beam_diagrams
+from splicecalc.core.errors import InputError
+from splicecalc.report import figures
+from splicecalc.report.errors import CalcBuildError
+from splicecalc.report.figures import FIGURE_MIME, PDF_MIME, PNG_MIME, FigureDrawer, draw_pdf, drawing_bundle, fill_figures
+
+L, w, E, I = 6000.0, 10.0, 210000.0, 1.2e8          # mm, N/mm (= kN/m), MPa, mm4
+
+
+def _beam() -> SimpleBeam:
+    return SimpleBeam(L, [UDL("floor", "permanent", w)], E=E, I=I)
+
+
+def test_diagram_data_carries_the_exact_extremes():
+    d = beam_diagram_data(_beam(), splices_mm=[2000.0], restraints_mm=[3000.0], title="t")
+    json.dumps(d)                                                          # plain JSON
+    assert d["shear"]["max"]["abs_kN"] == pytest.approx(w * L / 2 / 1e3, rel=1e-9)           # wL/2
+    assert d["moment"]["max"]["value_kNm"] == pytest.approx(w * L ** 2 / 8 / 1e6, rel=1e-9)  # wL^2/8
+    assert d["deflection"]["max"]["value_mm"] == pytest.approx(5 * w * L ** 4 / (384 * E * I), rel=1e-9)
+    assert max(d["moment"]["M_kNm"]) == pytest.approx(w * L ** 2 / 8 / 1e6, abs=1e-4)
+    # at the splice (x = L/3): M = w x (L - x) / 2, |V| = w (L/2 - x)
+    s = d["splices"][0]
+    assert s["M_kNm"] == pytest.approx(w * 2000.0 * 4000.0 / 2 / 1e6, rel=1e-9)
+    assert s["V_abs_kN"] == pytest.approx(w * 1000.0 / 1e3, rel=1e-9)
+    assert d["restraints_m"] == [3.0] and d["loads"][0]["w_kN_per_m"] == w
+    assert len(draw_beam_diagrams(d).axes) == 4                           # loads, V, M, w
+
+
+def test_diagram_data_point_load_steps_and_bad_input():
+    b = SimpleBeam(L, [PointLoad("P", "imposed", 30e3, 2000.0, category="B")])
+    d = beam_diagram_data(b, show_loads=False)
+    assert d["loads"] is None and d["deflection"] is None                   # no I: no w panel
+    V = d["shear"]["V_kN"]
+    assert max(V) == pytest.approx(20.0) and min(V) == pytest.approx(-10.0)  # R_A = P b / L, R_B = P a / L
+    with pytest.raises(InputError, match="splices_mm"):
+        beam_diagram_data(b, splices_mm=[L + 1.0])
+    with pytest.raises(InputError, match="data"):
+        draw_beam_diagrams({"kind": "splice"})
+
+
+def test_bundle_headless_carries_data_only():
+    d = beam_diagram_data(_beam())
+    headless = drawing_bundle(d, "cap", headless=True)
+    assert FIGURE_MIME in headless and PDF_MIME not in headless and PNG_MIME not in headless
+    live = drawing_bundle(d, "cap", headless=False)
+    assert live[PDF_MIME] and live[PNG_MIME] and live[FIGURE_MIME] is d
+
+
+def _notebook(*datas) -> nbformat.NotebookNode:
+    cells = [nbformat.v4.new_markdown_cell("# t")]
+    for data in datas:
+        out = nbformat.v4.new_output("display_data", data={FIGURE_MIME: data, "text/plain": "figure"})
+        cells.append(nbformat.v4.new_code_cell("x", outputs=[out]))
+    return nbformat.v4.new_notebook(cells=cells)
+
+
+def test_worker_draws_what_this_process_draws():
+    d = beam_diagram_data(_beam())
+    nb = _notebook(d, d)                                  # the same figure twice: drawn once
+    drawer = FigureDrawer()
+    try:
+        for cell in nb.cells[1:]:
+            for out in cell.outputs:
+                drawer.submit_output(out)
+        assert len(drawer._jobs) == 1
+        assert fill_figures(nb, drawer) == 2
+    finally:
+        drawer.close()
+    import base64
+
+    pdf = base64.b64decode(nb.cells[1].outputs[0].data[PDF_MIME])
+    assert pdf[:4] == b"%PDF" and pdf == draw_pdf(d)       # same matplotlib, no creation date: same bytes
+    assert fill_figures(nb) == 0                           # nothing left to draw
+
+
+def test_a_figure_that_cannot_be_drawn_names_its_cell():
+    nb = _notebook(beam_diagram_data(_beam()), {"kind": "no such drawing"})
+    drawer = FigureDrawer()
+    try:
+        for out in nb.cells[2].outputs:
+            drawer.submit_output(out)
+        with pytest.raises(CalcBuildError, match=r"cell 3 \(no such drawing\)"):
+            fill_figures(nb, drawer)
+    finally:
+        drawer.close()
+
+
+def test_figures_drawn_here_when_no_worker_starts(monkeypatch):
+    import subprocess
+
+    def no_process(*_a, **_k):
+        raise OSError("no processes here")
+
+    monkeypatch.setattr(subprocess, "Popen", no_process)
+    d = beam_diagram_data(_beam())
+    nb = _notebook(d)
+    drawer = FigureDrawer()
+    try:
+        drawer.submit_output(nb.cells[1].outputs[0])
+        assert fill_figures(nb, drawer) == 1
+    finally:
+        drawer.close()
+    assert nb.cells[1].outputs[0].data[PDF_MIME]
+
+
+def test_figures_drawn_here_when_the_worker_dies():
+    d = beam_diagram_data(_beam())
+    nb = _notebook(d)
+    drawer = FigureDrawer()
+    try:
+        drawer._proc.kill()
+        drawer._proc.wait()
+        drawer.submit_output(nb.cells[1].outputs[0])
+        assert fill_figures(nb, drawer) == 1 and drawer._proc is None
+    finally:
+        drawer.close()
+
+
+def test_every_drawer_kind_is_importable():
+    for kind in figures.DRAWERS:
+        assert callable(figures.drawer_of({"kind": kind}))
+    with pytest.raises(InputError, match="figure kind"):
+        figures.drawer_of({"kind": "x"})
