@@ -80,6 +80,8 @@ class CalcPackageExporter(PDFExporter):
     exclude_input = Bool(True, help="Hide code cell inputs").tag(config=True)
     exclude_input_prompt = Bool(True).tag(config=True)
     exclude_output_prompt = Bool(True).tag(config=True)
+    #: validate the notebook once after all preprocessors (nbconvert's option) rather than after each
+    optimistic_validation = Bool(True).tag(config=True)
 
     @default("template_name")
     def _template_name_default(self) -> str:
