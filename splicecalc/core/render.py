@@ -17,6 +17,7 @@ import ast
 import atexit
 import copy
 from collections import deque
+from itertools import islice
 import inspect
 import os
 import pickle
@@ -34,6 +35,7 @@ from .files import write_atomic
 from .units import is_quantity, to_float, to_quantity
 
 
+# Two speed patches of handcalcs internals (same output; pinned handcalcs < 2 for them):
 # handcalcs rebuilds its pyparsing grammar and re-parses every source line on every render; the
 # lines of a clause function never change, so the parse is memoised per line (a deep copy is
 # handed out because handcalcs mutates the deques it gets), in memory and in a small pickle in
@@ -96,6 +98,26 @@ def _expr_parser_memo(line: str):
 
 
 _hc.expr_parser = _expr_parser_memo
+
+
+def _get_function_name(d: deque) -> str:
+    """handcalcs' ``get_function_name`` without its deep copy (called ~15 times per rendered line).
+
+    The original deep-copies ``d`` only to drop its first item before a test that
+    reads ``len``, the first two and the last item; a shallow slice gives the same
+    answer. An empty deque raises IndexError, as the original does.
+    """
+    if not d:
+        raise IndexError("pop from an empty deque")
+    if _hc.test_for_function_name(d):
+        return d[0]
+    rest = deque(islice(d, 1, None))
+    if _hc.test_for_function_name(rest):
+        return rest[0]
+    return ""
+
+
+_hc.get_function_name = _get_function_name
 
 #: capital Greek letters that look like Latin ones have no LaTeX macro; handcalcs still writes
 #: them for names such as ``gamma_Mu`` (-> ``\gamma_{\Mu}``). They are put back as the letters typed.
