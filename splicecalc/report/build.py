@@ -14,6 +14,7 @@ from __future__ import annotations
 import re
 import shutil
 import sys
+import threading
 import time
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -28,7 +29,7 @@ from .compile import LatexRun, require_tool
 from .errors import CalcBuildError, ProtectedPDFError
 from .execute import execute_notebook
 from .kernel import KernelLaunch
-from .figures import FigureDrawer, fill_figures
+from .figures import FigureDrawer, fill_figures, mark_pending, real_figure_files
 from .prefetch import ExportPrefetch
 from .latexfix import BadBox
 from .metadata import calc_metadata
@@ -71,6 +72,27 @@ class BuildReport:
                 f"own {self.overhead_s:.1f} s; "
                 + ("no overfull box" if not wide else
                    f"{len(wide)} overfull box(es) > {self.overfull_limit_pt:g} pt, see {self.log_path}"))
+
+
+class _Background:
+    """Run ``fn`` in a thread; :meth:`join` waits and raises what it raised."""
+
+    def __init__(self, fn: Any) -> None:
+        self._error: BaseException | None = None
+
+        def run() -> None:
+            try:
+                fn()
+            except BaseException as err:  # noqa: BLE001 - handed to join()
+                self._error = err
+
+        self._thread = threading.Thread(target=run, name="splicecalc-save")
+        self._thread.start()
+
+    def join(self) -> None:
+        self._thread.join()
+        if self._error is not None:
+            raise self._error
 
 
 _PAGES_RE = re.compile(r"Output written on .*?\((\d+) pages?")
@@ -118,8 +140,8 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
 
     timings: dict[str, float] = {}
     execution_s = 0.0
-    # while the kernel computes, this process makes the exporter, converts markdown with pandoc
-    # and draws each figure as soon as its cell is done (two cores: the waiting is used)
+    # while the kernel computes, this process makes the exporter and converts markdown with pandoc,
+    # and a worker process draws each figure as soon as its output arrives (two cores: the waiting is used)
     prefetch = ExportPrefetch(nb, str(nb_path.parent), dict(progress=progress, build_directory=str(work)))
     drawer = FigureDrawer() if execute else None
     try:
@@ -128,17 +150,27 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
 
             nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings,
                                   after_cell=prefetch.add_cell, after_output=drawer.submit_output, kernel=kernel)
-            fill_figures(nb, drawer)
-            drawer.close()
             execution_s = time.perf_counter() - t
-            if executed_path is not None:
-                ep = Path(executed_path)
-                ep.parent.mkdir(parents=True, exist_ok=True)
-                write_atomic(ep, nbformat.writes(nb).encode("utf-8"))
-
+        # the LaTeX is laid out while the worker finishes the last figures (stand-ins until then)
+        pending = mark_pending(nb)
         exporter = prefetch.exporter()
         resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
-        pdf_bytes, resources = exporter.from_notebook_node(nb, resources)
+        latex, resources = exporter.to_latex(nb, resources)
+        real_figure_files(resources.get("outputs") or {}, pending, drawer)
+        fill_figures(nb, drawer)
+        if drawer is not None:
+            drawer.close()
+        saving = None
+        if execute and executed_path is not None:
+            # the executed notebook is written while XeLaTeX runs (a process of its own)
+            ep = Path(executed_path)
+            ep.parent.mkdir(parents=True, exist_ok=True)
+            saving = _Background(lambda: write_atomic(ep, nbformat.writes(nb).encode("utf-8")))
+        try:
+            pdf_bytes, resources = exporter.compile(latex, resources)
+        finally:
+            if saving is not None:
+                saving.join()
     finally:
         prefetch.close()
         if drawer is not None:

@@ -141,6 +141,10 @@ class CalcPackageExporter(PDFExporter):
     def from_notebook_node(self, nb: Any, resources: dict | None = None, **kw: Any) -> tuple[bytes, dict]:
         """Notebook -> PDF bytes; ``resources["latex_run"]`` has the passes, timings and log."""
         latex, resources = self.to_latex(nb, resources, **kw)
+        return self.compile(latex, resources)
+
+    def compile(self, latex: str, resources: dict) -> tuple[bytes, dict]:
+        """The LaTeX of :meth:`to_latex` (and its output files in ``resources``) -> PDF bytes."""
         if self.build_directory:
             workdir = Path(self.build_directory)
             workdir.mkdir(parents=True, exist_ok=True)

@@ -14,6 +14,7 @@ function per kind, whoever calls it.
 from __future__ import annotations
 
 import base64
+import hashlib
 import io
 import json
 from concurrent.futures import Future
@@ -87,8 +88,23 @@ def figure_outputs_of(nb: Any) -> Iterator[tuple[int, dict]]:
 
 
 def _warm_matplotlib() -> None:
-    """Import what drawing a PDF needs, so the first figure does not wait for it."""
-    import matplotlib.backends.backend_pdf  # noqa: F401
+    """Import what drawing a PDF needs and draw a small figure once (fonts, glyph caches),
+    so that the first real figure does not wait for any of it."""
+    from matplotlib.figure import Figure
+    from matplotlib.patches import Circle, Rectangle
+
+    for module, _ in DRAWERS.values():
+        import_module(module)
+    fig = Figure(figsize=(2.0, 1.0))
+    ax = fig.add_subplot()
+    ax.plot([0.0, 1.0], [0.0, 1.0])
+    ax.fill_between([0.0, 1.0], [0.0, 1.0], 0.0, alpha=0.15)
+    ax.add_patch(Rectangle((0.0, 0.0), 0.5, 0.5))
+    ax.add_patch(Circle((0.5, 0.5), 0.1))
+    ax.annotate("R_A = 1.0 kN", (0.5, 0.5), xytext=(3, 3), textcoords="offset points", fontsize=7,
+                bbox=dict(boxstyle="round,pad=0.15", fc="white", ec="none"))
+    ax.set_title("warm-up", fontsize=8)
+    figure_bytes(fig, "pdf")
 
 
 class FigureDrawer:
@@ -184,26 +200,74 @@ def _reap(proc: Any) -> None:
         proc.stdout.close()
 
 
-def fill_figures(nb: Any, drawer: FigureDrawer | None = None) -> int:
-    """Add the PDF to every figure output of ``nb`` that has none; return how many were added.
+#: the start of a stand-in PDF (see :func:`mark_pending`); never a real PDF, which starts "%PDF"
+PENDING_PREFIX = b"%splicecalc-figure-pending "
 
-    A figure that cannot be drawn stops the build with the cell and the error named.
+
+def mark_pending(nb: Any) -> dict[bytes, tuple[int, dict]]:
+    """Give every figure output of ``nb`` without a PDF a stand-in PDF; ``{stand-in bytes: (cell, data)}``.
+
+    The export can then lay out the LaTeX (which only names the figure files) while
+    the worker is still drawing; :func:`real_figure_files` swaps the stand-ins in the
+    exporter's output files for the drawings before XeLaTeX reads them, and
+    :func:`fill_figures` puts the drawings into the notebook.
     """
-    added = 0
+    pending: dict[bytes, tuple[int, dict]] = {}
     for i, data in figure_outputs_of(nb):
         if PDF_MIME in data:
             continue
         spec = data[FIGURE_MIME]
         try:
-            pdf = drawer.pdf(spec) if drawer is not None else draw_pdf(spec)
-        except Exception as err:  # noqa: BLE001 - any drawing fault is reported with its cell
-            kind = spec.get("kind") if isinstance(spec, dict) else type(spec).__name__
-            raise CalcBuildError(f"the figure in cell {i} ({kind}) could not be drawn: "
-                                 f"{type(err).__name__}: {err}") from None
-        data[PDF_MIME] = base64.b64encode(pdf).decode("ascii")
+            token = PENDING_PREFIX + hashlib.sha256(_key(spec).encode("utf-8")).hexdigest().encode("ascii")
+        except (TypeError, ValueError):
+            continue                    # not JSON: fill_figures reports it
+        pending[token] = (i, spec)
+        data[PDF_MIME] = base64.b64encode(token).decode("ascii")
+    return pending
+
+
+def _is_pending(data: dict) -> bool:
+    try:
+        return base64.b64decode(data[PDF_MIME]).startswith(PENDING_PREFIX)
+    except (TypeError, ValueError):
+        return False
+
+
+def _drawn(i: int, spec: Any, drawer: FigureDrawer | None) -> bytes:
+    """The PDF of figure ``spec`` of cell ``i``; a figure that cannot be drawn names its cell."""
+    try:
+        return drawer.pdf(spec) if drawer is not None else draw_pdf(spec)
+    except Exception as err:  # noqa: BLE001 - any drawing fault is reported with its cell
+        kind = spec.get("kind") if isinstance(spec, dict) else type(spec).__name__
+        raise CalcBuildError(f"the figure in cell {i} ({kind}) could not be drawn: "
+                             f"{type(err).__name__}: {err}") from None
+
+
+def real_figure_files(files: dict[str, Any], pending: dict[bytes, tuple[int, dict]],
+                      drawer: FigureDrawer | None = None) -> int:
+    """Replace the stand-in PDFs among an export's output ``files`` by the drawings; how many were replaced."""
+    n = 0
+    for name, content in files.items():
+        if isinstance(content, bytes) and content in pending:
+            files[name] = _drawn(*pending[content], drawer)
+            n += 1
+    return n
+
+
+def fill_figures(nb: Any, drawer: FigureDrawer | None = None) -> int:
+    """Add the PDF to every figure output of ``nb`` that has none (or a stand-in); return how many.
+
+    A figure that cannot be drawn stops the build with the cell and the error named.
+    """
+    added = 0
+    for i, data in figure_outputs_of(nb):
+        if PDF_MIME in data and not _is_pending(data):
+            continue
+        data[PDF_MIME] = base64.b64encode(_drawn(i, data[FIGURE_MIME], drawer)).decode("ascii")
         added += 1
     return added
 
 
-__all__ = ["DRAWERS", "FIGURE_MIME", "PDF_MIME", "PNG_MIME", "FigureDrawer", "drawer_of", "draw_pdf", "drawing_bundle", "figure_bytes",
+__all__ = ["DRAWERS", "FIGURE_MIME", "PDF_MIME", "PENDING_PREFIX", "PNG_MIME", "FigureDrawer", "mark_pending",
+           "real_figure_files", "drawer_of", "draw_pdf", "drawing_bundle", "figure_bytes",
            "figure_outputs", "figure_outputs_of", "fill_figures"]

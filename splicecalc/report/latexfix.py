@@ -32,33 +32,32 @@ _BLOCK_RE = re.compile(
 _ROWSEP_RE = re.compile(r"\\\\(?:\s*\[[^\]]*\])?")
 
 
+_TOKENS: dict[str, re.Pattern] = {}
+#: what changes the brace depth or is skipped whole: an escape (``\\x``, including ``\\{``) or a brace
+_BRACES_RE = re.compile(r"\\.|[{}]", re.S)
+
+
 def _split_top(text: str, sep: str) -> list[str]:
-    """Split ``text`` on ``sep`` at brace depth 0 (``\\{`` escapes ignored)."""
+    """Split ``text`` on ``sep`` at brace depth 0 (``\\{`` escapes ignored); ``sep`` has no backslash or brace.
+
+    Scans only the characters that matter (escapes, braces, ``sep``) with one regular
+    expression instead of a Python loop over every character.
+    """
+    tok = _TOKENS.get(sep)
+    if tok is None:
+        tok = _TOKENS[sep] = re.compile(r"\\.|[{}]|" + re.escape(sep), re.S)
     parts: list[str] = []
     depth = 0
     start = 0
-    i = 0
-    n = len(sep)
-    while i < len(text):
-        ch = text[i]
-        if ch == "\\" and i + 1 < len(text):
-            if text.startswith(sep, i) and depth == 0 and sep.startswith("\\"):
-                parts.append(text[start:i])
-                i += n
-                start = i
-                continue
-            i += 2
-            continue
-        if ch == "{":
+    for m in tok.finditer(text):
+        t = m.group()
+        if t == "{":
             depth += 1
-        elif ch == "}":
+        elif t == "}":
             depth -= 1
-        elif depth == 0 and text.startswith(sep, i):
-            parts.append(text[start:i])
-            i += n
-            start = i
-            continue
-        i += 1
+        elif t == sep and depth == 0:
+            parts.append(text[start:m.start()])
+            start = m.end()
     parts.append(text[start:])
     return parts
 
@@ -68,23 +67,22 @@ def _rows(body: str) -> list[str]:
     rows: list[str] = []
     depth = 0
     start = 0
-    i = 0
-    while i < len(body):
-        ch = body[i]
-        if ch == "\\" and i + 1 < len(body):
-            if body[i + 1] == "\\" and depth == 0:
-                rows.append(body[start:i])
-                m = _ROWSEP_RE.match(body, i)
-                i = m.end() if m else i + 2
-                start = i
-                continue
-            i += 2
-            continue
-        if ch == "{":
+    pos = 0
+    while True:
+        m = _BRACES_RE.search(body, pos)
+        if m is None:
+            break
+        t = m.group()
+        if t == "{":
             depth += 1
-        elif ch == "}":
+        elif t == "}":
             depth -= 1
-        i += 1
+        elif t == "\\\\" and depth == 0:
+            rows.append(body[start:m.start()])
+            sep = _ROWSEP_RE.match(body, m.start())
+            pos = start = sep.end() if sep else m.end()
+            continue
+        pos = m.end()
     rows.append(body[start:])
     return [r.strip() for r in rows if r.strip()]
 
