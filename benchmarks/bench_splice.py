@@ -15,6 +15,7 @@ import time
 
 from splicecalc.actions.loads import PointLoad, UDL
 from splicecalc.analysis import SimpleBeam
+from splicecalc.design import splice_layout
 from splicecalc.design.splice_layout import design_splice, design_splices, search_layouts
 from splicecalc.design.splice_positions import envelope
 from splicecalc.joints.splice import parse_splices
@@ -22,9 +23,12 @@ from splicecalc.sections import get_section
 
 
 def timed(fn, n=7):
-    fn()                                   # warm-up (imports, caches)
+    """Median and worst time of ``fn``; each run searches afresh (the remembered searches are
+    forgotten first: the calc path may repeat a search, a benchmark must not time the memo)."""
+    fn()                                   # warm-up (imports, catalogue)
     ts = []
     for _ in range(n):
+        splice_layout._SEARCHES.clear()
         t = time.perf_counter()
         fn()
         ts.append(time.perf_counter() - t)
