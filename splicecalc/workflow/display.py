@@ -21,7 +21,7 @@ from typing import Any, Iterable, Sequence
 from ..actions import PointLoad, UDL
 from ..core.record import CheckRecord
 from ..report.headless import HEADLESS_ENV
-from ..report.display import (TABLE_MIME, UNIT_TEX, TableOutput, fmt_utilisation, show_check,
+from ..report.display import (TABLE_MIME, UNIT_TEX, TableOutput, fmt_utilisation, publish, show_check,
                               show_section, show_table, summary_output)
 from ..signoff.digest import CHECK_MIME, JOB_MIME
 from .calc import CalcResult
@@ -34,12 +34,6 @@ def _u(unit: str) -> str:
 
 def _m(x_mm: float | None) -> str:
     return "-" if x_mm is None else f"{x_mm / 1000.0:.3f}"
-
-
-def _display(obj: Any) -> None:
-    from IPython.display import display
-
-    display(obj)
 
 
 class _Bundle:
@@ -56,7 +50,7 @@ class _Bundle:
 # ======================================================================== generic outputs
 def show_heading(text: str, level: int = 1) -> None:
     """A heading in the output (level 1 = a numbered section of the package)."""
-    _display(_Bundle({"text/markdown": "#" * level + " " + text, "text/plain": text}))
+    publish(_Bundle({"text/markdown": "#" * level + " " + text, "text/plain": text}))
 
 
 def contents_depth(depth: int = 1) -> None:
@@ -67,19 +61,19 @@ def contents_depth(depth: int = 1) -> None:
     """
     if isinstance(depth, bool) or depth not in (0, 1, 2, 3):
         raise ValueError(f"contents depth must be 0, 1, 2 or 3, not {depth!r}")
-    _display(_Bundle({"text/latex": f"\\addtocontents{{toc}}{{\\protect\\setcounter{{tocdepth}}{{{depth}}}}}",
+    publish(_Bundle({"text/latex": f"\\addtocontents{{toc}}{{\\protect\\setcounter{{tocdepth}}{{{depth}}}}}",
                       "text/markdown": "", "text/plain": ""}))
 
 
 def show_text(text: str) -> None:
     """A paragraph of Markdown text."""
-    _display(_Bundle({"text/markdown": text, "text/plain": text}))
+    publish(_Bundle({"text/markdown": text, "text/plain": text}))
 
 
 def show_list(items: Iterable[str], title: str = "") -> None:
     """A bulleted list (Markdown)."""
     md = ([f"**{title}**", ""] if title else []) + [f"- {t}" for t in items]
-    _display(_Bundle({"text/markdown": "\n".join(md), "text/plain": "\n".join(md)}))
+    publish(_Bundle({"text/markdown": "\n".join(md), "text/plain": "\n".join(md)}))
 
 
 def show_steps(latex: Sequence[str], intro: str = "") -> None:
@@ -92,7 +86,7 @@ def show_steps(latex: Sequence[str], intro: str = "") -> None:
     md = "\n\n".join(([intro] if intro else []) + list(steps))
     if intro:
         body = f"\\par{{{_tex_text(intro)}}}\\par\n" + body
-    _display(_Bundle({"text/latex": body, "text/markdown": md, "text/plain": intro or "(rendered steps)"}))
+    publish(_Bundle({"text/latex": body, "text/markdown": md, "text/plain": intro or "(rendered steps)"}))
 
 
 def _tex_text(text: str) -> str:
@@ -112,7 +106,7 @@ def figure_bundle(fig: Any, caption: str = "") -> dict[str, Any]:
 
 def show_figure(fig: Any, caption: str = "") -> None:
     """Display a matplotlib Figure (vector PDF for the package, PNG for Jupyter), caption below."""
-    _display(_Bundle(figure_bundle(fig, caption)))
+    publish(_Bundle(figure_bundle(fig, caption)))
     if caption:
         show_text(f"*{caption}*")
 
@@ -125,7 +119,7 @@ def show_drawing(data: dict[str, Any], caption: str = "") -> None:
     """
     from ..report.figures import drawing_bundle
 
-    _display(_Bundle(drawing_bundle(data, caption, headless=bool(os.environ.get(HEADLESS_ENV)))))
+    publish(_Bundle(drawing_bundle(data, caption, headless=bool(os.environ.get(HEADLESS_ENV)))))
     if caption:
         show_text(f"*{caption}*")
 
@@ -213,9 +207,9 @@ def show_inputs(job: Any) -> None:
     first = tables[0]
     bundle = first._repr_mimebundle_()
     bundle[JOB_MIME] = job.to_canonical_dict()
-    _display(_Bundle(bundle))
+    publish(_Bundle(bundle))
     for t in tables[1:]:
-        _display(t)
+        publish(t)
     p = job.project
     rows = [[k.replace("_", " ").capitalize(), getattr(p, k)] for k in
             ("number", "title", "client", "location", "prepared_by", "checked_by", "date", "revision")
@@ -233,7 +227,7 @@ def show_joint_inputs(result: Any) -> None:
     table = TableOutput(["Input", "Value"], rows, title="Design data", align="ll")
     bundle = table._repr_mimebundle_()
     bundle[JOB_MIME] = inp
-    _display(_Bundle(bundle))
+    publish(_Bundle(bundle))
     for key in ("splices", "support"):
         sub = inp.get(key)
         if isinstance(sub, dict) and sub:
@@ -506,7 +500,7 @@ def show_summary(result: CalcResult) -> None:
     show_text(("**All checks pass.** " if n_bad == 0 else f"**{n_bad} check(s) NOT OK.** ")
               + (f"Governing: {gov.title} (utilisation {fmt_utilisation(gov.utilisation)}). " if gov else "")
               + result.headline + ".")
-    _display(summary_output(recs, title=f"Summary of the {len(recs)} checks (highest utilisation first)"))
+    publish(summary_output(recs, title=f"Summary of the {len(recs)} checks (highest utilisation first)"))
 
 
 def show_references(result: CalcResult) -> None:
@@ -558,7 +552,7 @@ def show_form(job_file: str) -> Any:
         show_text(f"The job form is not available in this installation ({err}); edit `{job_file}` instead.")
         return None
     form = JobForm(job_file)
-    _display(form)
+    publish(form)
     return form
 
 
