@@ -288,7 +288,7 @@ def mcr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, p
     nf = free.size
     mu = scipy.linalg.eigh(KGr, KEr, eigvals_only=True, subset_by_index=[nf - 1, nf - 1],
                            check_finite=False)[0]
-    if not mu > 0.0 or 1.0 / mu > 1e12:
+    if not mu > 1e-12:          # alpha_cr = 1/mu > 1e12 (or no positive eigenvalue): no buckling
         return McrResult(float("inf"), float("inf"), M_max, x_M_max, ne)
     alpha = 1.0 / float(mu)
     return McrResult(alpha, alpha * M_max, M_max, x_M_max, ne)
