@@ -54,7 +54,7 @@ def demo(tmp_path_factory):
     r = b.report
     print(f"\ndemo build: {r.pages} sheets; execution {r.execution_s:.1f} s (kernel {r.kernel_start_s:.1f} s, "
           f"cells {r.cells_s:.1f} s), LaTeX {r.latex_passes} passes {r.latex_s:.1f} s, "
-          f"own {r.overhead_s:.1f} s, total {r.total_s:.1f} s")
+          f"our overhead {r.overhead_s:.1f} s, total {r.total_s:.1f} s")
     return b
 
 

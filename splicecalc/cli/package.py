@@ -52,8 +52,9 @@ def _print_build(b: Any, quiet: bool) -> None:
           "--name NAME)")
     print(f"status: {b.status}; build record: {b.sidecar}")
     if not quiet:
-        print(f"time: execution {r.execution_s:.1f} s (kernel start {r.kernel_start_s:.1f} s), "
-              f"LaTeX {r.latex_passes} passes {r.latex_s:.1f} s, own {r.overhead_s:.1f} s, total {r.total_s:.1f} s")
+        print(f"time: execution {r.execution_s:.1f} s (kernel start {r.kernel_start_s:.1f} s, cells {r.cells_s:.1f} s), "
+              f"LaTeX {r.latex_passes} passes {r.latex_s:.1f} s, our overhead (all but kernel start and LaTeX) "
+              f"{r.overhead_s:.1f} s, total {r.total_s:.1f} s")
         if r.wide_boxes:
             print(f"warning: {len(r.wide_boxes)} line(s) too wide for the sheet, see {r.log_path}", file=sys.stderr)
 
