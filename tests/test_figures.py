@@ -135,3 +135,25 @@ def test_every_drawer_kind_is_importable():
         assert callable(figures.drawer_of({"kind": kind}))
     with pytest.raises(InputError, match="figure kind"):
         figures.drawer_of({"kind": "x"})
+
+
+def test_a_stuck_worker_does_not_hang_the_build(monkeypatch):
+    import signal
+
+    d = beam_diagram_data(_beam())
+    nb = _notebook(d)
+    drawer = FigureDrawer()
+    monkeypatch.setattr(figures, "WORKER_TIMEOUT_S", 0.5)
+    try:
+        drawer._proc.send_signal(signal.SIGSTOP)          # the worker stops answering
+        drawer.submit_output(nb.cells[1].outputs[0])
+        assert fill_figures(nb, drawer) == 1               # killed after the wait, drawn here instead
+    finally:
+        drawer.close()
+    assert base64_pdf(nb.cells[1].outputs[0].data[PDF_MIME])
+
+
+def base64_pdf(text: str) -> bool:
+    import base64
+
+    return base64.b64decode(text)[:4] == b"%PDF"

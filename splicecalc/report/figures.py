@@ -107,6 +107,10 @@ def _warm_matplotlib() -> None:
     figure_bytes(fig, "pdf")
 
 
+#: longest wait for the worker's drawing of one figure (s) before it is drawn here instead
+WORKER_TIMEOUT_S = 60.0
+
+
 class FigureDrawer:
     """Draws figure outputs in a worker process while the kernel runs the next cells.
 
@@ -162,9 +166,23 @@ class FigureDrawer:
         return draw_pdf(json.loads(key))
 
     def pdf(self, data: dict) -> bytes:
-        """The PDF of figure ``data``: the queued drawing's result, or drawn now."""
+        """The PDF of figure ``data``: the queued drawing's result, or drawn now.
+
+        A worker that has not answered within :data:`WORKER_TIMEOUT_S` is killed and the
+        figure drawn here, so a stuck worker cannot hang the build.
+        """
+        from concurrent.futures import TimeoutError as FutureTimeout
+
         job = self._jobs.get(_key(data))
-        return job.result() if job is not None else draw_pdf(data)
+        if job is None:
+            return draw_pdf(data)
+        try:
+            return job.result(timeout=WORKER_TIMEOUT_S)
+        except FutureTimeout:
+            proc = self._proc
+            if proc is not None:
+                proc.kill()             # its pending read ends; later figures are drawn here
+            return draw_pdf(data)
 
     def _stop(self) -> None:
         """Close the worker's input (it then exits) and reap it in a background thread.
