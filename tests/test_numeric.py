@@ -48,3 +48,12 @@ def test_max_of_a_smooth_function_matches_minimize_scalar():
 def test_root_needs_a_sign_change():
     with pytest.raises(ValueError):
         root_bisect(lambda x: x * x + 1.0, -1.0, 1.0, xtol=1e-9)
+
+
+@given(st.lists(st.floats(min_value=-1e6, max_value=1e6, allow_nan=False), max_size=60))
+def test_sorted_unique_matches_numpy_unique(xs):
+    # numpy.unique is the general-purpose reference (-0.0 and 0.0 count as one value in both)
+    from splicecalc.core.numeric import sorted_unique
+
+    ours, ref = sorted_unique(np.array(xs, dtype=float)), np.unique(np.array(xs, dtype=float))
+    assert ours.shape == ref.shape and np.array_equal(ours, ref)

@@ -24,7 +24,7 @@ from typing import Sequence
 import numpy as np
 
 from ..actions.loads import UDL, Load, PointLoad, check_loads_on_span
-from ..core.numeric import root_bisect
+from ..core.numeric import root_bisect, sorted_unique
 from ..core.errors import InputError, require_positive
 from ..materials.steel import E_MPa
 
@@ -176,7 +176,7 @@ class SimpleBeam:
     def breakpoints(self) -> np.ndarray:
         """Sorted unique positions where the load pattern changes (mm), incl. 0 and L."""
         pts = np.concatenate(([0.0, self.L], self._a, self._ua, self._ub))
-        return np.unique(np.clip(pts, 0.0, self.L))
+        return sorted_unique(np.clip(pts, 0.0, self.L))
 
     def _shear_zeros(self) -> np.ndarray:
         """Positions where V crosses zero inside a segment (V linear there) or jumps through zero."""
@@ -220,7 +220,7 @@ class SimpleBeam:
         self._EI()
         bp = self.breakpoints()
         # refine so that a cubic segment cannot hide two roots between samples
-        grid = np.unique(np.concatenate([np.linspace(x0, x1, 5) for x0, x1 in zip(bp[:-1], bp[1:])]))
+        grid = sorted_unique(np.concatenate([np.linspace(x0, x1, 5) for x0, x1 in zip(bp[:-1], bp[1:])]))
         th = np.atleast_1d(self.theta(grid))
         cand = [0.0, self.L]
 

@@ -24,6 +24,7 @@ import numpy as np
 
 from ..actions.loads import UDL, PointLoad
 from ..core.errors import InputError, require_finite
+from ..core.numeric import sorted_unique
 from .beam import SimpleBeam
 from .envelope import Envelope
 
@@ -52,7 +53,7 @@ def _positions(values: object, L: float, field: str) -> tuple[float, ...]:
 def _sample(beam: SimpleBeam, n: int) -> tuple[np.ndarray, np.ndarray]:
     """x (mm) and V (N) with both sides of every jump, so point loads plot as steps."""
     bp = beam.breakpoints()
-    xs = np.unique(np.concatenate((np.linspace(0.0, beam.L, n), bp)))
+    xs = sorted_unique(np.concatenate((np.linspace(0.0, beam.L, n), bp)))
     vl = np.atleast_1d(beam.V(xs, "left"))
     vr = np.atleast_1d(beam.V(xs, "right"))
     x2 = np.repeat(xs, 2)
@@ -109,12 +110,12 @@ def beam_diagram_data(beam: SimpleBeam, *, splices_mm: Sequence[float] | None = 
                 loads.append({"type": "point", "name": ld.name, "P_kN": ld.P / 1e3, "at_m": ld.x / 1e3})
     xv, v = _sample(beam, n)
     vmx = beam.V_max()
-    xm = np.unique(np.concatenate((np.linspace(0.0, L, n), beam.breakpoints())))
+    xm = sorted_unique(np.concatenate((np.linspace(0.0, L, n), beam.breakpoints())))
     mmx = beam.M_max()
     w_beam = deflection_of if deflection_of is not None else (beam if beam.I is not None else None)
     deflection = None
     if w_beam is not None:
-        xw = np.unique(np.concatenate((np.linspace(0.0, L, n), w_beam.breakpoints())))
+        xw = sorted_unique(np.concatenate((np.linspace(0.0, L, n), w_beam.breakpoints())))
         wmx = w_beam.w_max()
         deflection = {"x_m": _list(xw, 1e3), "w_mm": _list(np.atleast_1d(w_beam.w(xw))), "label": deflection_label,
                       "max": {"x_m": wmx.x_mm / 1e3, "value_mm": float(wmx.value)}}

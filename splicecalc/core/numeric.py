@@ -39,6 +39,18 @@ def root_bisect(f: Callable[[float], float], a: float, b: float, xtol: float, ma
     return 0.5 * (a + b)
 
 
+def sorted_unique(values: np.ndarray) -> np.ndarray:
+    """The distinct values of a 1-D float array (no NaN), ascending: ``np.unique`` without its
+    general machinery (a sort and one comparison), for the short grids of the beam analysis."""
+    a = np.sort(np.asarray(values, dtype=float).ravel())
+    if a.size < 2:
+        return a
+    keep = np.empty(a.size, dtype=bool)
+    keep[0] = True
+    np.not_equal(a[1:], a[:-1], out=keep[1:])
+    return a[keep]
+
+
 def max_sampled(f: Callable[[np.ndarray], np.ndarray], a: float, b: float, xtol: float, n: int = 33,
                 maxiter: int = 60) -> tuple[float, float]:
     """(x, f(x)) of the maximum of a unimodal ``f`` on [a, b] to ``xtol``, ``f`` taking an array of x.

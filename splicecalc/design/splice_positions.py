@@ -35,6 +35,7 @@ from typing import Callable, Sequence
 import numpy as np
 
 from ..core.errors import InputError, require_non_negative, require_positive
+from ..core.numeric import sorted_unique
 from ..core.record import Calc, CheckRecord
 
 #: not a code clause: these records check the limits the engineer set in the job file
@@ -252,7 +253,7 @@ def _optimise(L, n, demand, pts, clr, zone, L_max_len, m_max, m_mm, m_sp, grid):
         ok &= np.abs(xg - p) >= clr - 1e-9
     # refine: add the exact clearance boundaries as candidates
     extra = [p + s * clr for p in pts for s in (-1.0, 1.0) if 0.0 < p + s * clr < L]
-    xc = np.unique(np.concatenate([xg[ok], np.array(extra, dtype=float)]))
+    xc = sorted_unique(np.concatenate([xg[ok], np.array(extra, dtype=float)]))
     xc = xc[(xc > 0.0) & (xc < L)]
     if xc.size == 0:
         return None

@@ -37,7 +37,7 @@ from typing import Any, Callable, Sequence
 import numpy as np
 import scipy.linalg
 
-from ..core.numeric import max_sampled
+from ..core.numeric import max_sampled, sorted_unique
 from ..core.clause import clause
 from ..core.errors import InputError, require_finite, require_in_range, require_positive
 from ..materials.steel import E_MPa, G_MPa
@@ -239,7 +239,7 @@ def mcr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, p
     # max |M|: a fine grid plus the point-load positions (the peaks of a kinked diagram), then a
     # bounded local refinement around the best sample (a sampled peak alone under-reads M_max
     # and so M_cr = alpha_cr M_max, by up to ~1 % for a point load between grid points)
-    xs = np.unique(np.concatenate((np.linspace(0.0, L, 8 * ne + 1), [p[0] for p in pls])))
+    xs = sorted_unique(np.concatenate((np.linspace(0.0, L, 8 * ne + 1), [p[0] for p in pls])))
     Ms = np.abs(Mfn(xs))
     i_max = int(np.argmax(Ms))
     M_max, x_M_max = float(Ms[i_max]), float(xs[i_max])
@@ -280,7 +280,9 @@ def mcr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, p
         KG[np.ix_(pd[e], pd[e])] += P * z * np.outer(Np, Np)
 
     fixed = np.array([0, 2, 4 * ne, 4 * ne + 2])
-    free = np.setdiff1d(np.arange(ndof), fixed)
+    keep = np.ones(ndof, dtype=bool)
+    keep[fixed] = False
+    free = np.flatnonzero(keep)
     KEr = KE[np.ix_(free, free)]
     KGr = KG[np.ix_(free, free)]
     if not np.any(KGr):
