@@ -129,8 +129,41 @@ def tex_clean(latex: str) -> str:
     return _UNDEFINED_GREEK.sub(lambda m: m.group(1), latex)
 
 
+def _source_key(fn: Callable) -> tuple | None:
+    """What identifies the source text of ``fn``: its file's path, size and modification time,
+    and where in the file it starts (None when there is no file to look at)."""
+    code = getattr(fn, "__code__", None)
+    if code is None:
+        return None
+    try:
+        st = os.stat(code.co_filename)
+    except OSError:
+        return None
+    return ("body", code.co_filename, st.st_size, st.st_mtime_ns, fn.__qualname__, code.co_firstlineno)
+
+
 @lru_cache(maxsize=None)
 def _body_source(fn: Callable) -> str:
+    """The statements of ``fn`` that handcalcs renders (no docstring, no return), dedented.
+
+    Remembered with the line parses (keyed by the file's size and modification time), so
+    a fresh kernel does not tokenize every formula's module again.
+    """
+    key = _source_key(fn)
+    if key is not None:
+        if not _PARSE_STATE["loaded"]:
+            _load_parse_cache()
+        hit = _PARSED.get(key)
+        if isinstance(hit, str):
+            return hit
+    body = _body_of(fn)
+    if key is not None:
+        _PARSED[key] = body
+        _PARSE_STATE["dirty"] = True
+    return body
+
+
+def _body_of(fn: Callable) -> str:
     src = textwrap.dedent(inspect.getsource(fn))
     tree = ast.parse(src)
     fdef = tree.body[0]
