@@ -73,3 +73,39 @@ def test_pandoc_prefetch_gives_the_same_latex(tmp_path, monkeypatch):
         prefetch.PandocPrefetch.installed = orig
     assert fast == slow == cached
     assert "Splice S2 at x = 7.000 m" in fast and "SPLICECALCBREAK" not in fast
+
+
+def test_an_edited_formula_is_never_rendered_from_the_cache(tmp_path):
+    # the rendered body of a formula is cached across processes; a same-size edit that keeps the
+    # file's modification time (cp -p, rsync -a, reproducible builds) must still be seen
+    import os
+    import subprocess
+    import sys
+    import textwrap
+
+    src = textwrap.dedent('''
+        from splicecalc.core.clause import clause
+
+        @clause("EN 1993-1-8:2005, 3.6.1, Table 3.4", units={"f_ub": "MPa", "A_s": "mm2"}, returns="kN",
+                example=dict(alpha_v=0.6, f_ub=800.0, A_s=245.0, gamma_M2=1.25))
+        def F_x(alpha_v: float, f_ub: float, A_s: float, gamma_M2: float) -> float:
+            """Test formula."""
+            F = 1.0 * alpha_v * f_ub * A_s / gamma_M2
+            return F
+        ''')
+    mod = tmp_path / "modx.py"
+    mod.write_text(src)
+    run = ("import sys; sys.path.insert(0, sys.argv[1]); import modx; from splicecalc.core.render import render; "
+           "print(render(modx.F_x, **modx.F_x.__clause__.example)[0])")
+    env = {**os.environ, "XDG_CACHE_HOME": str(tmp_path / "cache")}
+
+    def latex() -> str:
+        return subprocess.run([sys.executable, "-c", run, str(tmp_path)], capture_output=True, text=True, env=env,
+                              check=True).stdout
+
+    assert "1.0 \\cdot 0.600" in latex()
+    st = os.stat(mod)
+    mod.write_text(src.replace("1.0 *", "0.5 *"))                     # same size
+    os.utime(mod, ns=(st.st_atime_ns, st.st_mtime_ns))                 # same time stamp
+    out = latex()
+    assert "0.5 \\cdot 0.600" in out and "47.040" in out               # 0.5 x 0.6 x 800 x 245 / 1.25 N = 47.04 kN

@@ -33,7 +33,16 @@ def write_atomic(path: str | os.PathLike, data: bytes | str) -> Path:
     return p
 
 
-def _umask() -> int:
+def _read_umask() -> int:
     mask = os.umask(0)
     os.umask(mask)
     return mask
+
+
+#: the process umask, read once at import: reading it means setting it, which must not happen
+#: while another thread creates files (builds write files from background threads)
+_UMASK = _read_umask()
+
+
+def _umask() -> int:
+    return _UMASK

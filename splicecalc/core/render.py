@@ -16,14 +16,15 @@ from __future__ import annotations
 import ast
 import atexit
 import copy
-from collections import deque
-from itertools import islice
+import hashlib
 import inspect
 import os
 import pickle
 import re
 import textwrap
+from collections import deque
 from functools import lru_cache
+from itertools import islice
 from pathlib import Path
 from typing import Any, Callable
 
@@ -58,7 +59,10 @@ def _load_parse_cache() -> None:
         with open(_parse_cache_file(), "rb") as fh:
             data = pickle.load(fh)
         if isinstance(data, dict):
-            _PARSED.update(data)
+            # line parses (keyed by the line) and formula bodies (keyed by ("body", file, name));
+            # anything else is left over from an older layout and dropped
+            _PARSED.update((k, v) for k, v in data.items()
+                           if isinstance(k, str) or (isinstance(k, tuple) and len(k) == 3 and k[0] == "body"))
     except (OSError, ValueError, EOFError, pickle.UnpicklingError, AttributeError, ImportError):
         pass  # no cache yet, or an unreadable one: parse afresh
 
@@ -129,37 +133,38 @@ def tex_clean(latex: str) -> str:
     return _UNDEFINED_GREEK.sub(lambda m: m.group(1), latex)
 
 
-def _source_key(fn: Callable) -> tuple | None:
-    """What identifies the source text of ``fn``: its file's path, size and modification time,
-    and where in the file it starts (None when there is no file to look at)."""
-    code = getattr(fn, "__code__", None)
-    if code is None:
-        return None
+@lru_cache(maxsize=None)
+def _file_digest(path: str) -> str | None:
+    """SHA-256 of a source file's bytes (None when it cannot be read)."""
     try:
-        st = os.stat(code.co_filename)
+        return hashlib.sha256(Path(path).read_bytes()).hexdigest()
     except OSError:
         return None
-    return ("body", code.co_filename, st.st_size, st.st_mtime_ns, fn.__qualname__, code.co_firstlineno)
 
 
 @lru_cache(maxsize=None)
 def _body_source(fn: Callable) -> str:
     """The statements of ``fn`` that handcalcs renders (no docstring, no return), dedented.
 
-    Remembered with the line parses (keyed by the file's size and modification time), so
-    a fresh kernel does not tokenize every formula's module again.
+    Remembered with the line parses, one entry per function, under the SHA-256 of its
+    source file's bytes and its first line, so that a fresh kernel does not tokenize
+    every formula module again; any edit to the file (whatever its size or time
+    stamp) makes the entry miss and the body is read afresh.
     """
-    key = _source_key(fn)
-    if key is not None:
-        if not _PARSE_STATE["loaded"]:
-            _load_parse_cache()
-        hit = _PARSED.get(key)
-        if isinstance(hit, str):
-            return hit
+    code = getattr(fn, "__code__", None)
+    digest = _file_digest(code.co_filename) if code is not None else None
+    if digest is None:
+        return _body_of(fn)
+    if not _PARSE_STATE["loaded"]:
+        _load_parse_cache()
+    key = ("body", code.co_filename, fn.__qualname__)
+    stamp = (digest, code.co_firstlineno)
+    hit = _PARSED.get(key)
+    if isinstance(hit, tuple) and len(hit) == 2 and hit[0] == stamp and isinstance(hit[1], str):
+        return hit[1]
     body = _body_of(fn)
-    if key is not None:
-        _PARSED[key] = body
-        _PARSE_STATE["dirty"] = True
+    _PARSED[key] = (stamp, body)
+    _PARSE_STATE["dirty"] = True
     return body
 
 
