@@ -4,7 +4,8 @@ Target: each plain-float call well under 20 microseconds (design searches call t
 thousands of times); the rendered path runs once per check on the calc sheet. Every
 rendered call renders afresh: the in-process memo of whole renders
 (``core.render._RENDERED``) is emptied before each, so the figure is handcalcs' work
-with a warm line-parse cache, as in a calc kernel.
+with a warm line-parse cache, as in a calc kernel. Not timed: what a kernel does once
+per formula (reading its source, innerscope's wrapper; about 1 ms a formula).
 
 Run:  /tmp/venv/bin/python benchmarks/bench_fasteners.py
 """

@@ -20,6 +20,12 @@ kernel start (a one-cell notebook, nothing else running) is measured as well, an
 "own overhead, strict" takes that bare time off instead of the build's: any of our
 work hidden inside the build's kernel start is then counted as ours.
 
+Caches: by default the builds use the caches `scripts/bootstrap.sh` fills at install
+(``python -m splicecalc.cli.warm``: handcalcs' parse of each formula line and body, pandoc's
+conversion of the templates' prose; keyed by their inputs like ``__pycache__``), as a user's
+builds do. ``--cold`` gives every build an empty cache folder instead (the first build after
+installing without the warm-up). The job's own values are never cached.
+
 Printed: every build, then the median and the range over the builds.
 """
 
@@ -62,10 +68,16 @@ def bare_kernel_start() -> float:
     return json.loads(proc.stdout.strip().splitlines()[-1])["kernel_start_s"]
 
 
-def one_build(out: Path) -> dict:
-    """Build the demo into ``out`` in a new process; the parts plus ``wall_s`` and ``own_s``."""
+def one_build(out: Path, cold: bool = False) -> dict:
+    """Build the demo into ``out`` in a new process (``cold``: with an empty cache folder);
+    the parts plus ``wall_s`` and ``own_s``."""
+    import os
+
+    env = dict(os.environ)
+    if cold:
+        env["XDG_CACHE_HOME"] = str(out / "empty-cache")
     t0 = time.perf_counter()
-    proc = subprocess.run([sys.executable, "-c", _CHILD, str(out)], capture_output=True, text=True)
+    proc = subprocess.run([sys.executable, "-c", _CHILD, str(out)], capture_output=True, text=True, env=env)
     wall = time.perf_counter() - t0
     if proc.returncode != 0:
         raise SystemExit(f"demo build failed:\n{proc.stderr}")
@@ -79,6 +91,7 @@ def main(argv: list[str] | None = None) -> int:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--repeat", type=int, default=5, help="number of builds (default 5)")
     ap.add_argument("--out", type=Path, default=None, help="output folder (default: a temporary folder)")
+    ap.add_argument("--cold", action="store_true", help="every build with an empty cache folder")
     args = ap.parse_args(argv)
     if args.repeat < 1:
         ap.error("--repeat must be >= 1")
@@ -88,7 +101,7 @@ def main(argv: list[str] | None = None) -> int:
     with tempfile.TemporaryDirectory(prefix="bench-report-") as td:
         root = args.out or Path(td)
         for i in range(args.repeat):
-            r = one_build(root / f"out{i}")
+            r = one_build(root / f"out{i}", cold=args.cold)
             r["own_strict_s"] = r["wall_s"] - bare - r["latex_s"]
             rows.append(r)
             print(f"run {i + 1}: wall {r['wall_s']:6.2f} s | kernel {r['kernel_start_s']:5.2f} | "
@@ -96,7 +109,8 @@ def main(argv: list[str] | None = None) -> int:
                   f"own overhead {r['own_s']:5.2f} (strict {r['own_strict_s']:5.2f}) | {r['pages']} sheets",
                   file=sys.stderr)
 
-    print(f"demo calc package ({rows[-1]['pages']} sheets), {len(rows)} builds, each in a new process:")
+    print(f"demo calc package ({rows[-1]['pages']} sheets), {len(rows)} builds, each in a new process, "
+          f"{'empty caches' if args.cold else 'caches as installed'}:")
     print(f"  {'part':<40} {'median':>7}   {'range':>13}")
     print(f"  {'bare kernel start (median of 3)':<40} {bare:6.2f} s")
     for label, key in (("kernel start in the build", "kernel_start_s"), ("cells (inside own overhead)", "cells_s"),

@@ -64,7 +64,8 @@ ensure_venv() {
     # byte-compile our own sources as a regular (non-editable) install does: every calc kernel
     # imports them, and an environment with PYTHONDONTWRITEBYTECODE would otherwise compile them
     # on every build (only changed files are compiled again)
-    "$VENV/bin/python" -m compileall -q "$ROOT/splicecalc" >/dev/null
+    "$VENV/bin/python" -m compileall -q "$ROOT/splicecalc" \
+        || echo "splicecalc: warning: byte-compiling splicecalc/ failed (see above); builds will be slower" >&2
 }
 
 ensure_system_packages

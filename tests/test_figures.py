@@ -157,3 +157,65 @@ def base64_pdf(text: str) -> bool:
     import base64
 
     return base64.b64decode(text)[:4] == b"%PDF"
+
+
+def test_closing_never_waits_on_a_stuck_worker():
+    # a build that fails while a figure is being drawn closes the drawer: that must not hang
+    import signal
+
+    nb = _notebook(beam_diagram_data(_beam()))
+    drawer = FigureDrawer()
+    drawer._proc.send_signal(signal.SIGSTOP)
+    drawer.submit_output(nb.cells[1].outputs[0])
+    drawer.close()                                          # kills the busy worker, returns
+    assert drawer._proc is None
+    assert fill_figures(nb, drawer) == 1                    # still drawn, here
+
+
+def test_a_worker_error_names_the_figure_and_the_error():
+    nb = _notebook({"kind": "beam_diagrams", "span_m": 1.0})            # a kind the worker knows, bad data
+    drawer = FigureDrawer()
+    try:
+        drawer.submit_output(nb.cells[1].outputs[0])
+        with pytest.raises(CalcBuildError, match=r"cell 2 \(beam_diagrams\) could not be drawn: KeyError"):
+            fill_figures(nb, drawer)
+    finally:
+        drawer.close()
+
+
+_SHOW = """
+from IPython.display import publish_display_data
+from splicecalc.actions.loads import UDL
+from splicecalc.analysis import SimpleBeam, beam_diagram_data
+publish_display_data({"application/vnd.splicecalc.figure+json": %s, "text/plain": "figure"})
+"""
+
+
+def _figure_notebook(data_expr: str) -> nbformat.NotebookNode:
+    return nbformat.v4.new_notebook(cells=[nbformat.v4.new_markdown_cell("# Figures"),
+                                           nbformat.v4.new_code_cell(_SHOW % data_expr)])
+
+
+def test_execute_notebook_returns_figures_with_their_pdf(tmp_path):
+    # the kernel runs headless and prints figure data only; the public execute_notebook draws them
+    from splicecalc.report.execute import execute_notebook
+
+    nb = _figure_notebook('beam_diagram_data(SimpleBeam(6000.0, [UDL("g", "permanent", 10.0)]))')
+    out = execute_notebook(nb, cwd=tmp_path, progress=False)
+    data = out.cells[1].outputs[0].data
+    assert FIGURE_MIME in data and base64_pdf(data[PDF_MIME])
+
+
+@pytest.mark.pdf
+def test_a_build_whose_figure_fails_keeps_the_executed_notebook(tmp_path):
+    # the export stops with the cell named; the executed notebook is still written, without stand-ins
+    from splicecalc.report.build import build_pdf
+
+    src = tmp_path / "calc.ipynb"
+    nbformat.write(_figure_notebook('{"kind": "no such drawing"}'), src)
+    executed = tmp_path / "calc.executed.ipynb"
+    with pytest.raises(CalcBuildError, match=r"cell 2 \(no such drawing\)"):
+        build_pdf(src, tmp_path / "calc.pdf", progress=False, executed_path=executed)
+    assert not (tmp_path / "calc.pdf").exists()
+    data = nbformat.read(executed, as_version=4).cells[1].outputs[0].data
+    assert data[FIGURE_MIME] == {"kind": "no such drawing"} and PDF_MIME not in data

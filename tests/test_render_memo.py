@@ -109,3 +109,31 @@ def test_an_edited_formula_is_never_rendered_from_the_cache(tmp_path):
     os.utime(mod, ns=(st.st_atime_ns, st.st_mtime_ns))                 # same time stamp
     out = latex()
     assert "0.5 \\cdot 0.600" in out and "47.040" in out               # 0.5 x 0.6 x 800 x 245 / 1.25 N = 47.04 kN
+
+
+@pytest.mark.skipif(shutil.which("pandoc") is None, reason="pandoc not installed")
+@pytest.mark.parametrize("blocks", [
+    ["## Splice S1: bolts", "## Splice S1 bolts", "plain text"],        # different headings, same label
+    ["## End plate A", "See [End plate A] for the bolts.", "more"],     # implicit link to a heading
+    ["See [the guide][g].", "[g]: https://example.com", "more"],        # reference defined in another block
+    ["Text[^1]\n\n[^1]: first note", "More[^1]\n\n[^1]: second note"],  # footnotes with the same label
+    ["Bolts\n-----", "Bolts\n-----", "**Bolts** are M20"],               # setext headings
+    ["**Result.** $u = 0.5$", "- a\n- b", "*caption*", "Plain."],       # batched: no context between them
+])
+def test_batched_markdown_outputs_equal_one_call_each(blocks):
+    # pandoc's own output, one call per block, is the reference (it is what the template would get)
+    import nbconvert.filters.pandoc as fp
+
+    from splicecalc.report.prefetch import MD_FORMAT, PandocPrefetch, pandoc_pool
+
+    cell = nbformat.v4.new_code_cell("x", outputs=[nbformat.v4.new_output(
+        "display_data", data={"text/markdown": b, "text/plain": b}) for b in blocks])
+    pool = pandoc_pool()
+    try:
+        pre = PandocPrefetch(pool, "", use_cache=False)
+        pre.add_cells([cell])
+        pre.wait()
+    finally:
+        pool.shutdown()
+    for b in blocks:
+        assert pre._done[(b, MD_FORMAT, "latex", ())] == fp.pandoc(b, MD_FORMAT, "latex", extra_args=[])

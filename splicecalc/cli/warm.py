@@ -34,7 +34,11 @@ def main() -> int:
     print(f"splicecalc: rendered {len(REGISTRY) - len(failed)} of {len(REGISTRY)} clause formulas", file=sys.stderr)
     for line in failed:
         print(f"  failed: {line}", file=sys.stderr)
-    _warm_template_prose()
+    try:
+        _warm_template_prose()
+    except Exception as exc:  # noqa: BLE001 - a cold pandoc cache only costs speed
+        print(f"splicecalc: warning: the templates' prose was not converted in advance ({type(exc).__name__}: "
+              f"{exc}); the first build converts it", file=sys.stderr)
     return 1 if failed else 0
 
 

@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import sys
 from importlib import import_module
+from importlib.util import find_spec
 from typing import Any, Callable
 
 
@@ -21,6 +22,9 @@ def lazy_exports(package: str, homes: dict[str, str]) -> tuple[Callable[[str], A
     def __getattr__(name: str) -> Any:
         home = homes.get(name)
         if home is None:
+            # a submodule not imported yet (``pkg.submodule`` worked when __init__ imported everything)
+            if not name.startswith("_") and find_spec(f"{package}.{name}") is not None:
+                return import_module(f"{package}.{name}")
             raise AttributeError(f"module {package!r} has no attribute {name!r}")
         value = getattr(import_module(home, package), name)
         setattr(sys.modules[package], name, value)   # later look-ups skip this function

@@ -29,7 +29,7 @@ from .compile import LatexRun, require_tool
 from .errors import CalcBuildError, ProtectedPDFError
 from .execute import execute_notebook
 from .kernel import KernelLaunch
-from .figures import FigureDrawer, fill_figures, mark_pending, real_figure_files
+from .figures import FigureDrawer, fill_figures, mark_pending, real_figure_files, unmark_pending
 from .prefetch import ExportPrefetch
 from .latexfix import BadBox
 from .metadata import calc_metadata
@@ -82,6 +82,21 @@ class BuildReport:
                    f"{len(wide)} overfull box(es) > {self.overfull_limit_pt:g} pt, see {self.log_path}"))
 
 
+def _save(path: Path, nb: Any) -> None:
+    """Write the executed notebook atomically."""
+    path.parent.mkdir(parents=True, exist_ok=True)
+    write_atomic(path, nbformat.writes(nb).encode("utf-8"))
+
+
+def _save_quietly(path: Path, nb: Any) -> None:
+    """Write the executed notebook of a build that failed after execution (figure stand-ins removed)."""
+    try:
+        unmark_pending(nb)
+        _save(path, nb)
+    except Exception:  # noqa: BLE001 - the build's own error is the one to report
+        pass
+
+
 class _Background:
     """Run ``fn`` in a thread; :meth:`join` waits and raises what it raised."""
 
@@ -97,9 +112,9 @@ class _Background:
         self._thread = threading.Thread(target=run, name="splicecalc-save")
         self._thread.start()
 
-    def join(self) -> None:
+    def join(self, raise_error: bool = True) -> None:
         self._thread.join()
-        if self._error is not None:
+        if self._error is not None and raise_error:
             raise self._error
 
 
@@ -118,7 +133,7 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
     ``<pdf folder>/.build/<pdf stem>/``). ``executed_path``, if given,
     receives the executed notebook (written atomically). ``timeout`` (s) is
     per cell. ``kernel``: a kernel launched beforehand in the notebook's folder
-    (:class:`~splicecalc.report.execute.KernelLaunch`); the caller discards it if
+    (:class:`~splicecalc.report.kernel.KernelLaunch`); the caller discards it if
     this function stops before running it.
     """
     t0 = kernel.launched_at if kernel is not None else time.perf_counter()
@@ -136,7 +151,7 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
     require_tool("pandoc")
 
     nb = nbformat.read(nb_path, as_version=4)
-    calc_metadata(nb.metadata, default_title=nb_path.stem)   # bad metadata fails before the kernel starts
+    calc_metadata(nb.metadata, default_title=nb_path.stem)   # bad metadata fails before any cell runs
     out.parent.mkdir(parents=True, exist_ok=True)
     if build_dir is not None:
         work = Path(build_dir)            # the caller's folder: never emptied
@@ -151,36 +166,45 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
     # while the kernel computes, this process makes the exporter and converts markdown with pandoc,
     # and a worker process draws each figure as soon as its output arrives (two cores: the waiting is used)
     prefetch = ExportPrefetch(nb, str(nb_path.parent), dict(progress=progress, build_directory=str(work)))
-    drawer = FigureDrawer() if execute else None
+    drawer = FigureDrawer(cwd=str(nb_path.parent)) if execute else None   # where the kernel would draw
+    ep = Path(executed_path) if execute and executed_path is not None else None
+    saving: _Background | None = None
     try:
         if execute:
             nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings,
-                                  after_cell=prefetch.add_cell, after_output=drawer.submit_output, kernel=kernel)
+                                  after_cell=prefetch.add_cell, after_output=drawer.submit_output, kernel=kernel,
+                                  draw_figures=False)
             execution_s = timings.get("kernel_start_s", 0.0) + timings.get("cells_s", 0.0)
-        # the LaTeX is laid out while the worker finishes the last figures (stand-ins until then)
-        pending = mark_pending(nb)
-        exporter = prefetch.exporter()
-        resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
-        latex, resources = exporter.to_latex(nb, resources)
-        real_figure_files(resources.get("outputs") or {}, pending, drawer)
-        fill_figures(nb, drawer)
+        try:
+            # the LaTeX is laid out while the worker finishes the last figures (stand-ins until then);
+            # without a worker the figures are drawn first, once
+            if drawer is None:
+                fill_figures(nb)
+            pending = mark_pending(nb)
+            exporter = prefetch.exporter()
+            resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
+            latex, resources = exporter.to_latex(nb, resources)
+            real_figure_files(resources.get("outputs") or {}, pending, drawer)
+            fill_figures(nb, drawer)
+        except BaseException:
+            if ep is not None:          # keep what ran, so the cell or figure named can be looked at
+                _save_quietly(ep, nb)
+            raise
         if drawer is not None:
             drawer.close()
-        saving = None
-        if execute and executed_path is not None:
-            # the executed notebook is written while XeLaTeX runs (a process of its own)
-            ep = Path(executed_path)
-            ep.parent.mkdir(parents=True, exist_ok=True)
-            saving = _Background(lambda: write_atomic(ep, nbformat.writes(nb).encode("utf-8")))
-        try:
-            pdf_bytes, resources = exporter.compile(latex, resources)
-        finally:
-            if saving is not None:
-                saving.join()
+        if ep is not None:              # written while XeLaTeX runs (a process of its own)
+            saving = _Background(lambda: _save(ep, nb))
+        pdf_bytes, resources = exporter.compile(latex, resources)
+    except BaseException:
+        if saving is not None:
+            saving.join(raise_error=False)   # the build's own error is the one to report
+        raise
     finally:
         prefetch.close()
         if drawer is not None:
             drawer.close()
+    if saving is not None:
+        saving.join()
     run: LatexRun = resources["latex_run"]
 
     if is_protected(out):   # signed while we were building

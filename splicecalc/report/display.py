@@ -169,6 +169,9 @@ def publish(obj: Any) -> None:
     metadata: dict[str, Any] = {}
     if isinstance(data, tuple):
         data, metadata = data
+    if not data:                        # nothing to show this way: IPython's own formatters decide
+        display(obj)
+        return
     publish_display_data(data, metadata or None)
 
 

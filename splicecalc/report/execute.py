@@ -113,7 +113,7 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
                      progress: bool = True, timings: dict[str, float] | None = None,
                      after_cell: Callable[[NotebookNode], None] | None = None,
                      after_output: Callable[[NotebookNode], None] | None = None,
-                     kernel: KernelLaunch | None = None) -> NotebookNode:
+                     kernel: KernelLaunch | None = None, draw_figures: bool = True) -> NotebookNode:
     """Execute every code cell of ``nb`` (a path or a NotebookNode) and return the executed notebook.
 
     ``cwd`` is the kernel's working folder (default: the notebook's folder or
@@ -126,7 +126,11 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
     ``after_output`` likewise with each output as it arrives.
     ``kernel``: a kernel launched beforehand (:class:`KernelLaunch`, its own working
     folder); by default a new one is started. Either way it is shut down at the end,
-    and ``kernel_start_s`` counts from its launch.
+    and ``kernel_start_s`` counts from its launch. The kernel runs headless, so it prints
+    figures as data (:mod:`splicecalc.report.figures`); with ``draw_figures`` (default)
+    they are drawn here before the notebook is returned, so every figure output carries
+    its PDF (a build that draws them itself passes False). The callbacks are the build's
+    own optimisations: a fault in one is ignored (the export does that work again).
     """
     require_positive("timeout", timeout, "s")
     if isinstance(nb, (str, Path)):
@@ -147,7 +151,8 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
 
     client = _ProgressClient(node, kernel_manager_class=ThisPythonKernelManager, timeout=int(timeout), kernel_name=KERNEL_NAME,
                              resources={"metadata": {"path": str(cwd)}}, allow_errors=False,
-                             record_timing=False, progress=progress, after_cell=after_cell, after_output=after_output,
+                             record_timing=False, progress=progress, after_cell=_quiet(after_cell),
+                             after_output=_quiet(after_output),
                              km=kernel.km if kernel is not None else None, extra_arguments=list(KERNEL_ARGS))
     t0 = time.perf_counter()
     try:
@@ -168,8 +173,13 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
         idx = client.current_index if client.current_index is not None else -1
         first = _first_line(node.cells[idx].source) if 0 <= idx < len(node.cells) else ""
         raise CellExecutionFailed(idx + 1, first, type(exc).__name__, str(exc).splitlines()[0] if str(exc) else "") from None
-    except RuntimeError as exc:  # kernel failed to start
-        raise CalcBuildError(f"the Python kernel could not be started ({sys.executable}): {exc}") from None
+    except RuntimeError as exc:
+        if client.first_cell_at is None:       # nothing ran: the kernel did not come up
+            raise CalcBuildError(f"the Python kernel could not be started ({sys.executable}): {exc}") from None
+        idx = client.current_index if client.current_index is not None else -1
+        first = _first_line(node.cells[idx].source) if 0 <= idx < len(node.cells) else ""
+        raise CellExecutionFailed(idx + 1, first, type(exc).__name__, str(exc).splitlines()[0] if str(exc) else "") \
+            from None
     finally:
         client.close_bar()
     end = time.perf_counter()
@@ -179,4 +189,22 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
         timings["kernel_start_s"] = first - start
         timings["cells_s"] = end - first
     node.metadata["kernelspec"] = {"name": "python3", "display_name": "Python 3", "language": "python"}
+    if draw_figures:
+        from .figures import fill_figures
+
+        fill_figures(node)
     return node
+
+
+def _quiet(fn: Callable[[NotebookNode], None] | None) -> Callable[[NotebookNode], None] | None:
+    """``fn`` that never raises into nbclient (where any error would stop the run)."""
+    if fn is None:
+        return None
+
+    def call(node: NotebookNode) -> None:
+        try:
+            fn(node)
+        except Exception:  # noqa: BLE001 - an optimisation that failed; the export redoes its work
+            pass
+
+    return call

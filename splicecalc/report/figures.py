@@ -17,6 +17,7 @@ import base64
 import hashlib
 import io
 import json
+import threading
 from concurrent.futures import Future
 from importlib import import_module
 from typing import Any, Callable, Iterator
@@ -111,91 +112,108 @@ def _warm_matplotlib() -> None:
 WORKER_TIMEOUT_S = 60.0
 
 
+class FigureDrawError(RuntimeError):
+    """The worker could not draw a figure (its message names the error)."""
+
+
+class _WorkerGone(Exception):
+    """No worker to ask (never started, stopped, or killed): the figure is drawn by the caller."""
+
+
 class FigureDrawer:
     """Draws figure outputs in a worker process while the kernel runs the next cells.
 
     ``submit_output(out)`` queues a figure output as it arrives (each distinct figure once);
     :func:`fill_figures` collects the PDFs. The worker
-    (:mod:`splicecalc.report.figure_worker`, started at once so that it has imported
-    matplotlib before the first figure comes) draws on a core of its own rather than
-    in this process, which handles the kernel's messages; one thread here hands it
-    the figures in turn. Should the worker not start or stop answering, figures are
-    drawn in this process instead. ``close()`` stops the worker.
+    (:mod:`splicecalc.report.figure_worker`, started at once in ``cwd`` so that it has
+    imported matplotlib before the first figure comes) draws on a core of its own rather
+    than in this process, which handles the kernel's messages; one thread here hands it
+    the figures in turn and only waits. Should the worker not start, stop answering
+    (:data:`WORKER_TIMEOUT_S`) or die, the figures are drawn by whoever asks for them
+    (:meth:`pdf`), one at a time in that thread. ``close()`` stops the worker, killing
+    it if it is still busy, and never waits on it.
     """
 
-    def __init__(self) -> None:
+    def __init__(self, cwd: str | None = None) -> None:
         import subprocess
         import sys
         from concurrent.futures import ThreadPoolExecutor
 
         self._jobs: dict[str, Future] = {}
+        self._lock = threading.Lock()
         self._thread = ThreadPoolExecutor(max_workers=1, thread_name_prefix="splicecalc-figures")
         try:
             self._proc: Any = subprocess.Popen([sys.executable, "-m", "splicecalc.report.figure_worker"],
                                                stdin=subprocess.PIPE, stdout=subprocess.PIPE,
-                                               stderr=subprocess.DEVNULL)
+                                               stderr=subprocess.DEVNULL, cwd=cwd)
         except OSError:
             self._proc = None
 
     def submit_output(self, out: Any) -> None:
         """Queue one output if it is a figure without its PDF (never raises: faults show in :func:`fill_figures`)."""
         data = (out.get("data") or {}).get(FIGURE_MIME)
-        if data is None or PDF_MIME in out.get("data", {}):
+        if data is None or PDF_MIME in out.get("data", {}) or self._proc is None:
             return
         try:
             key = _key(data)
         except (TypeError, ValueError):
             return                      # not JSON: fill_figures draws it here and reports the fault
         if key not in self._jobs:
-            self._jobs[key] = self._thread.submit(self._draw, key)
+            try:
+                self._jobs[key] = self._thread.submit(self._draw, key)
+            except RuntimeError:
+                pass                    # closed: drawn when asked for
 
     def _draw(self, key: str) -> bytes:
+        """Ask the worker (runs in the drawer's thread; never draws here)."""
         from .figure_worker import read_frame, write_frame
 
-        if self._proc is not None:
-            try:
-                write_frame(self._proc.stdin, key.encode("utf-8"))
-                reply = read_frame(self._proc.stdout)
-            except (OSError, EOFError, ValueError):
-                reply = None
-            if reply is not None:
-                if reply[:1] == b"\0":
-                    return reply[1:]
-                raise RuntimeError(reply[1:].decode("utf-8", "replace"))
-            self._stop()                # the worker is gone: draw here from now on
-        return draw_pdf(json.loads(key))
+        proc = self._proc
+        if proc is None:
+            raise _WorkerGone()
+        try:
+            write_frame(proc.stdin, key.encode("utf-8"))
+            reply = read_frame(proc.stdout)
+        except (OSError, EOFError, ValueError):
+            reply = None
+        if reply is None:
+            self._stop(kill=True)       # the worker is gone: callers draw from now on
+            raise _WorkerGone()
+        if reply[:1] == b"\0":
+            return reply[1:]
+        raise FigureDrawError(reply[1:].decode("utf-8", "replace"))
 
     def pdf(self, data: dict) -> bytes:
-        """The PDF of figure ``data``: the queued drawing's result, or drawn now.
+        """The PDF of figure ``data``: the worker's drawing, or drawn now in this thread.
 
-        A worker that has not answered within :data:`WORKER_TIMEOUT_S` is killed and the
-        figure drawn here, so a stuck worker cannot hang the build.
+        A worker that has not answered within :data:`WORKER_TIMEOUT_S` is killed, so a
+        stuck worker cannot hang the build.
         """
         from concurrent.futures import TimeoutError as FutureTimeout
 
         job = self._jobs.get(_key(data))
-        if job is None:
-            return draw_pdf(data)
-        try:
-            return job.result(timeout=WORKER_TIMEOUT_S)
-        except FutureTimeout:
-            proc = self._proc
-            if proc is not None:
-                proc.kill()             # its pending read ends; later figures are drawn here
-            return draw_pdf(data)
+        if job is not None:
+            try:
+                return job.result(timeout=WORKER_TIMEOUT_S)
+            except FutureTimeout:
+                self._stop(kill=True)   # its pending read ends; the queued ones give up
+            except _WorkerGone:
+                pass
+        return draw_pdf(data)
 
-    def _stop(self) -> None:
-        """Close the worker's input (it then exits) and reap it in a background thread.
+    def _stop(self, kill: bool = False) -> None:
+        """Stop the worker: close its input (it then exits) or kill it; reap it in a background thread.
 
         The worker's own exit (Python finalising matplotlib) takes a few tenths of a
         second and nothing waits for it; the thread is not a daemon, so the
         interpreter reaps the worker before it ends (killing it after 5 s).
         """
-        import threading
-
-        proc, self._proc = self._proc, None
+        with self._lock:
+            proc, self._proc = self._proc, None
         if proc is None:
             return
+        if kill:
+            proc.kill()
         try:
             proc.stdin.close()
         except OSError:
@@ -203,9 +221,10 @@ class FigureDrawer:
         threading.Thread(target=_reap, args=(proc,), name="splicecalc-figure-worker-exit").start()
 
     def close(self) -> None:
-        """Drop queued drawings and stop the worker."""
+        """Drop queued drawings and stop the worker (killed if a drawing is still under way)."""
+        busy = any(not job.done() for job in self._jobs.values())
+        self._stop(kill=busy)           # first: a thread blocked on the worker's reply is released
         self._thread.shutdown(wait=True, cancel_futures=True)
-        self._stop()
 
 
 def _reap(proc: Any) -> None:
@@ -244,6 +263,16 @@ def mark_pending(nb: Any) -> dict[bytes, tuple[int, dict]]:
     return pending
 
 
+def unmark_pending(nb: Any) -> int:
+    """Remove the stand-in PDFs :func:`mark_pending` put in (a build that stopped); how many."""
+    n = 0
+    for _, data in figure_outputs_of(nb):
+        if PDF_MIME in data and _is_pending(data):
+            del data[PDF_MIME]
+            n += 1
+    return n
+
+
 def _is_pending(data: dict) -> bool:
     try:
         return base64.b64decode(data[PDF_MIME]).startswith(PENDING_PREFIX)
@@ -257,8 +286,8 @@ def _drawn(i: int, spec: Any, drawer: FigureDrawer | None) -> bytes:
         return drawer.pdf(spec) if drawer is not None else draw_pdf(spec)
     except Exception as err:  # noqa: BLE001 - any drawing fault is reported with its cell
         kind = spec.get("kind") if isinstance(spec, dict) else type(spec).__name__
-        raise CalcBuildError(f"the figure in cell {i} ({kind}) could not be drawn: "
-                             f"{type(err).__name__}: {err}") from None
+        why = str(err) if isinstance(err, FigureDrawError) else f"{type(err).__name__}: {err}"
+        raise CalcBuildError(f"the figure in cell {i} ({kind}) could not be drawn: {why}") from None
 
 
 def real_figure_files(files: dict[str, Any], pending: dict[bytes, tuple[int, dict]],
@@ -286,6 +315,6 @@ def fill_figures(nb: Any, drawer: FigureDrawer | None = None) -> int:
     return added
 
 
-__all__ = ["DRAWERS", "FIGURE_MIME", "PDF_MIME", "PENDING_PREFIX", "PNG_MIME", "FigureDrawer", "mark_pending",
+__all__ = ["DRAWERS", "FIGURE_MIME", "FigureDrawError", "unmark_pending", "PDF_MIME", "PENDING_PREFIX", "PNG_MIME", "FigureDrawer", "mark_pending",
            "real_figure_files", "drawer_of", "draw_pdf", "drawing_bundle", "figure_bytes",
            "figure_outputs", "figure_outputs_of", "fill_figures"]

@@ -65,7 +65,10 @@ def cell_jobs(snapshot: tuple[str, str, list[tuple[str, dict]]], priority: list[
 #: a paragraph put between markdown blocks converted in one pandoc call (LaTeX keeps it as a line)
 _BREAK = "SPLICECALCBREAK{:04d}"
 _BREAK_RE = re.compile(r"\n\nSPLICECALCBREAK\d{4}\n\n")
-_HEADING_RE = re.compile(r"^#{1,6}[ \t]+(.*?)[ \t#]*$", re.M)
+#: what makes a markdown block depend on the others in one document: a heading (ATX, or setext
+#: underline; pandoc labels headings uniquely per document) or a bracket (links to headings or to
+#: reference definitions elsewhere, footnotes)
+_CONTEXT_RE = re.compile(r"^ {0,3}(#{1,6}(\s|$)|=+\s*$|-+\s*$)|\[", re.M)
 #: most entries kept in the cache of converted markdown cells
 CACHE_MAX = 4000
 
@@ -96,13 +99,14 @@ class PandocPrefetch:
     Two savings on top of running the calls early (each pandoc call is a process
     start of ~15 ms of CPU, on a machine whose other core runs the kernel):
 
-    * a markdown *cell* (the template's prose: the same in every package made from it)
-      is converted once per pandoc installation and remembered in the user's cache
-      folder (``use_cache``), like ``__pycache__``; the kernel's outputs are never cached;
+    * a markdown *cell* (prose: in a template the same in every package made from it) is
+      converted once per pandoc installation and remembered, keyed by its text, in the
+      user's cache folder (``use_cache``), like ``__pycache__``; the kernel's outputs
+      (which carry the job's values) are never cached;
     * the markdown outputs of one code cell go to pandoc in one call, blocks parted by a
-      marker paragraph, when that gives the same text as one call each (no two equal
-      headings in the batch, whose generated labels would then differ; the parts must
-      come back one per block), else one call each.
+      marker paragraph, when that gives the same text as one call each: blocks with a
+      heading or a bracket (whose labels, links and footnotes depend on the rest of the
+      document) go on their own, and the parts must come back one per block.
     """
 
     def __init__(self, pool: ThreadPoolExecutor, nb_dir: str, priority: list[str] | None = None,
@@ -154,9 +158,9 @@ class PandocPrefetch:
                 self._jobs[job] = Future()
         if not fresh:
             return
-        headings = [h for job in fresh for h in _HEADING_RE.findall(job[0])]
-        batch = len(fresh) > 1 and all(job[2] == "latex" for job in fresh) and len(headings) == len(set(headings))
-        groups = [fresh] if batch else [[job] for job in fresh]
+        # blocks that stand alone in a document are converted together; the others one by one
+        alone = [job for job in fresh if job[2] == "latex" and not _CONTEXT_RE.search(job[0])]
+        groups = ([alone] if len(alone) > 1 else []) + [[job] for job in fresh if not (len(alone) > 1 and job in alone)]
         for group in groups:
             futures = [self._jobs[job] for job in group]
             self._pool.submit(self._run, group, cache is not None).add_done_callback(

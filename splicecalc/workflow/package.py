@@ -282,12 +282,12 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
     from ..report.kernel import KernelLaunch
 
     # the kernel boots (imports, on the other core) while the job is read and the notebook written;
-    # a build that stops before running it shuts it down, having written nothing
+    # a build that stops before the notebook runs shuts it down (the job is validated before the
+    # notebook is written)
     kernel = KernelLaunch(run_dir)
     staged: Path | None = None
     try:
         from ..report.build import build_pdf
-
 
         if src.suffix == ".toml":
             nb_source = notebook_for_job(src, executed)

@@ -171,7 +171,8 @@ def draw_splice_data(data: dict[str, Any]) -> Any:
     # fixed margins (inches) instead of tight_layout: same look, no extra text-layout pass
     W, H = fig.get_size_inches()
     fig.subplots_adjust(left=0.55 / W, right=1.0 - 0.1 / W, bottom=0.4 / H, top=1.0 - 0.75 / H, wspace=0.18)
-    fig.splicecalc_tight = False  # everything is drawn inside these margins: no tight-box pass when saving
+    # saved with a tight box: the equal-aspect axes leave a margin that depends on the splice's
+    # proportions, and the crop gives the drawing the full width of the sheet
     return fig
 
 
