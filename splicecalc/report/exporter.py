@@ -130,7 +130,7 @@ class CalcPackageExporter(PDFExporter):
             prefetch = PandocPrefetch(pool, resources.get("metadata", {}).get("path", ""),
                                       list(self.config.NbConvertBase.display_data_priority))
         try:
-            prefetch.add_cells(nb.cells)          # anything not queued yet (all of it without a build)
+            prefetch.add_cells(nb.cells, together=True)   # anything not queued yet (all of it without a build)
             with prefetch.installed():
                 latex, resources = LatexExporter.from_notebook_node(self, nb, resources=resources, **kw)
         finally:

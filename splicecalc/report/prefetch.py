@@ -5,9 +5,10 @@ waits for messages. :class:`ExportPrefetch` uses that time:
 
 * the exporter (nbconvert, our LaTeX template compiled by Jinja) is made in a
   background thread;
-* every markdown block the template will hand to pandoc is converted as soon as
-  it is known: the notebook's markdown cells at once, each code cell's markdown
-  outputs when the kernel has finished that cell (:meth:`ExportPrefetch.add_cell`).
+* every markdown block the template will hand to pandoc is converted ahead of the
+  template's own calls: the notebook's markdown cells at once (mostly from the cache),
+  the code cells' markdown outputs in one call when the export starts
+  (:meth:`ExportPrefetch.add_cell`, :meth:`ExportPrefetch.exporter`).
 
 During the export :meth:`PandocPrefetch.installed` answers the template's pandoc
 calls from those results; a call not foreseen runs as before. Same text out
@@ -103,8 +104,8 @@ class PandocPrefetch:
       converted once per pandoc installation and remembered, keyed by its text, in the
       user's cache folder (``use_cache``), like ``__pycache__``; the kernel's outputs
       (which carry the job's values) are never cached;
-    * the markdown outputs of one code cell go to pandoc in one call, blocks parted by a
-      marker paragraph, when that gives the same text as one call each: blocks with a
+    * the markdown outputs of the cells added together go to pandoc in one call, blocks
+      parted by a marker paragraph, when that gives the same text as one call each: blocks with a
       heading or a bracket (whose labels, links and footnotes depend on the rest of the
       document) go on their own, and the parts must come back one per block.
     """
@@ -122,10 +123,16 @@ class PandocPrefetch:
         self._cache: dict[str, str] | None = None
         self._cache_new: dict[str, str] = {}
 
-    def add_cells(self, cells: Iterable[Any]) -> None:
-        """Queue the pandoc calls of ``cells`` (a call already queued is not repeated)."""
-        for cell in cells:
-            self._cells.append(self._pool.submit(self._plan, _snapshot(cell)))
+    def add_cells(self, cells: Iterable[Any], together: bool = False) -> None:
+        """Queue the pandoc calls of ``cells`` (a call already queued is not repeated).
+
+        ``together``: plan all the cells as one document (their stand-alone markdown outputs
+        in one pandoc call) rather than cell by cell.
+        """
+        snaps = [_snapshot(cell) for cell in cells]
+        for part in ([snaps] if together else [[snap] for snap in snaps]):
+            if part:
+                self._cells.append(self._pool.submit(self._plan, part))
 
     def _cached(self) -> dict[str, str]:
         with self._lock:
@@ -140,22 +147,23 @@ class PandocPrefetch:
                         pass   # no cache yet, or an unreadable one: convert afresh
             return self._cache
 
-    def _plan(self, snapshot: tuple[str, str, list[tuple[str, dict]]]) -> None:
+    def _plan(self, snapshots: list[tuple[str, str, list[tuple[str, dict]]]]) -> None:
         if self._priority is None:
             from .display import DISPLAY_PRIORITY   # the exporter's (imported here, off the main thread)
 
             self._priority = list(DISPLAY_PRIORITY)
-        cache = self._cached() if snapshot[0] == "markdown" and self._cache_path is not None else None
         fresh: list[_Job] = []
-        for job in cell_jobs(snapshot, self._priority):
-            with self._lock:
-                if job in self._jobs or job in self._done:
-                    continue
-                if cache is not None and _digest(job) in cache:
-                    self._from_cache(job, cache)
-                    continue
-                fresh.append(job)
-                self._jobs[job] = Future()
+        for snapshot in snapshots:
+            cache = self._cached() if snapshot[0] == "markdown" and self._cache_path is not None else None
+            for job in cell_jobs(snapshot, self._priority):
+                with self._lock:
+                    if job in self._jobs or job in self._done:
+                        continue
+                    if cache is not None and _digest(job) in cache:
+                        self._from_cache(job, cache)
+                        continue
+                    fresh.append(job)
+                    self._jobs[job] = Future()
         if not fresh:
             return
         # blocks that stand alone in a document are converted together; the others one by one
@@ -163,7 +171,7 @@ class PandocPrefetch:
         groups = ([alone] if len(alone) > 1 else []) + [[job] for job in fresh if not (len(alone) > 1 and job in alone)]
         for group in groups:
             futures = [self._jobs[job] for job in group]
-            self._pool.submit(self._run, group, cache is not None).add_done_callback(
+            self._pool.submit(self._run, group, self._cache_path is not None).add_done_callback(
                 lambda f, fs=futures: [x.set_result(None) for x in fs])
 
     def _from_cache(self, job: _Job, cache: dict[str, str]) -> None:
@@ -278,14 +286,21 @@ class ExportPrefetch:
         self._pool = pandoc_pool()
         self._exporter = self._pool.submit(_make_exporter, dict(exporter_options))
         self.pandoc = PandocPrefetch(self._pool, nb_dir)
+        self._deferred: list[Any] = []
         self.pandoc.add_cells(c for c in nb.cells if c.cell_type == "markdown")
 
     def add_cell(self, cell: Any) -> None:
-        """A code cell the kernel has finished: convert its markdown outputs now."""
-        self.pandoc.add_cells([cell])
+        """A code cell the kernel has finished: its markdown outputs are converted when the export
+        starts, all in one pandoc call (stand-alone blocks; see :class:`PandocPrefetch`), while the
+        worker finishes the last figures. Converting them cell by cell during execution took
+        CPU from the kernel on a two-core machine for no earlier result."""
+        self._deferred.append(cell)
 
     def exporter(self) -> Any:
         """The exporter, made in the background, answering pandoc calls from this prefetch."""
+        if self._deferred:
+            self.pandoc.add_cells(self._deferred, together=True)
+            self._deferred = []
         exporter = self._exporter.result()
         exporter.pandoc_prefetch = self.pandoc
         return exporter
