@@ -249,6 +249,22 @@ def test_bad_input_raises_only_input_error(span, x, I_, side):
             pass
 
 
+def test_absurd_sizes_are_refused_before_they_overflow():
+    # the closed forms use L^4 and 1/(E I): sizes far outside any beam are input errors, not inf/nan
+    import warnings
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")                       # no overflow warning on the way
+        for kw, field in ((dict(span_mm=1e300), "span_mm"), (dict(I=1e-300), "I"), (dict(E=1e300), "E")):
+            args = dict(span_mm=5000.0, loads=[G(1.0)], I=1e8) | kw
+            with pytest.raises(InputError, match=field):
+                SimpleBeam(args.pop("span_mm"), args.pop("loads"), **args)
+        with pytest.raises(InputError, match="w"):
+            SimpleBeam(5000.0, [G(1e300)])
+        with pytest.raises(InputError, match="P"):
+            SimpleBeam(5000.0, [P(1e300, 100.0)])
+
+
 def test_bad_input_messages():
     with pytest.raises(InputError, match="span_mm"):
         SimpleBeam(-1.0, [G(1.0)])

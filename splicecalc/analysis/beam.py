@@ -25,7 +25,7 @@ import numpy as np
 
 from ..actions.loads import UDL, Load, PointLoad, check_loads_on_span
 from ..core.numeric import root_bisect, sorted_unique
-from ..core.errors import InputError, require_positive
+from ..core.errors import InputError, require_in_range
 from ..materials.steel import E_MPa
 
 
@@ -62,10 +62,17 @@ class SimpleBeam:
 
     def __init__(self, span_mm: float, loads: Sequence[Load] | Load, E: float = E_MPa,
                  I: float | None = None) -> None:
-        self.L = require_positive("span_mm", span_mm, "mm")
+        # bounds far outside any beam, so that the closed forms (L^4, 1/EI) stay finite: a span from
+        # 1 mm to 1 km, E from 1 MPa to 10^7 MPa, I from 1 mm4 to 10^15 mm4, loads up to 10^6 kN/m, 10^7 kN
+        self.L = require_in_range("span_mm", span_mm, 1.0, 1e6, "mm")
         self.loads = check_loads_on_span(loads, self.L)
-        self.E = require_positive("E", E, "MPa")
-        self.I = None if I is None else require_positive("I", I, "mm4")
+        for ld in self.loads:
+            if isinstance(ld, PointLoad):
+                require_in_range(f"load {ld.name!r}.P", ld.P, -1e10, 1e10, "N")
+            else:
+                require_in_range(f"load {ld.name!r}.w", ld.w, -1e6, 1e6, "N/mm")
+        self.E = require_in_range("E", E, 1.0, 1e7, "MPa")
+        self.I = None if I is None else require_in_range("I", I, 1.0, 1e15, "mm4")
         L = self.L
         pts = [ld for ld in self.loads if isinstance(ld, PointLoad)]
         udls = [ld for ld in self.loads if isinstance(ld, UDL)]
