@@ -167,8 +167,10 @@ class PandocPrefetch:
         if not fresh:
             return
         # blocks that stand alone in a document are converted together; the others one by one
-        alone = [job for job in fresh if job[2] == "latex" and not _CONTEXT_RE.search(job[0])]
-        groups = ([alone] if len(alone) > 1 else []) + [[job] for job in fresh if not (len(alone) > 1 and job in alone)]
+        batch = [job for job in fresh if job[2] == "latex" and not _CONTEXT_RE.search(job[0])]
+        if len(batch) < 2:
+            batch = []
+        groups = ([batch] if batch else []) + [[job] for job in fresh if job not in batch]
         for group in groups:
             futures = [self._jobs[job] for job in group]
             self._pool.submit(self._run, group, self._cache_path is not None).add_done_callback(
