@@ -29,6 +29,12 @@ KEY_TAG = {
 }
 
 
+#: record status of a check that was made (demand against resistance)
+CHECKED = "checked"
+#: record status of a check the package does not make: it stays in the summary and is never a pass
+NOT_CHECKED = "not checked"
+
+
 def display(value: float, unit: str) -> tuple[float, str]:
     """Convert an internal float to its report unit: (value, unit)."""
     du = DISPLAY_UNIT.get(unit, unit)
@@ -44,6 +50,12 @@ class CheckRecord:
     provided one, so the same ratio applies. ``ok`` is ``utilisation <= 1``.
     ``values`` holds named intermediate results as ``name -> (value, unit)``
     in report units; ``location_mm`` says where along the beam it governs.
+
+    ``status`` is :data:`CHECKED` for a check that was made, or :data:`NOT_CHECKED`
+    for a check the package does not make (made with :func:`not_checked`): such a
+    record has ``ok`` False (so no "all checks pass" can be printed over it),
+    utilisation 0 (it never governs), verdict ``NOT CHECKED`` and its ``note`` says
+    why and what information or separate check is needed.
     """
 
     id: str
@@ -58,6 +70,12 @@ class CheckRecord:
     latex: tuple[str, ...] = ()
     location_mm: float | None = None
     note: str = ""
+    status: str = CHECKED
+
+    @property
+    def checked(self) -> bool:
+        """False for a NOT CHECKED record (:func:`not_checked`)."""
+        return self.status != NOT_CHECKED
 
     # ----------------------------------------------------------------- output
     def to_dict(self) -> dict[str, Any]:
@@ -80,6 +98,9 @@ class CheckRecord:
             d["location_m"] = round(self.location_mm / 1000.0, 4)
         if self.note:
             d["note"] = self.note
+        if not self.checked:
+            d["status"] = self.status
+            d[f"demand{sfx}"] = d[f"resistance{sfx}"] = d["utilisation"] = None
         return d
 
     def to_json(self) -> str:
@@ -87,14 +108,20 @@ class CheckRecord:
 
     @property
     def verdict(self) -> str:
+        if not self.checked:
+            return "NOT CHECKED"
         return "OK" if self.ok else "NOT OK"
 
     def summary_line(self) -> str:
+        if not self.checked:
+            return f"{self.title:<48} {'-':>10}   {'-':>10} {'':<5} u =   -    NOT CHECKED  [{self.clause}]"
         return (f"{self.title:<48} {self.demand:10.2f} / {self.resistance:10.2f} {self.unit:<5} "
                 f"u = {self.utilisation:5.3f}  {self.verdict:<6}  [{self.clause}]")
 
     def _repr_markdown_(self) -> str:
         steps = "\n\n".join(self.latex)
+        if not self.checked:
+            return f"**{html.escape(self.title)}** — *{self.clause}*\n\n**NOT CHECKED**: {html.escape(self.note)}"
         colour = "green" if self.ok else "red"
         return (f"**{html.escape(self.title)}** — *{self.clause}*\n\n{steps}\n\n"
                 f"$E_d = {self.demand:.3g}$ {self.unit}, $R_d = {self.resistance:.3g}$ {self.unit}, "
@@ -163,8 +190,56 @@ class Calc:
         return rec
 
 
+def not_checked(*, id: str, title: str, clause: str, reason: str, location_mm: float | None = None,
+                values: dict[str, tuple[float, str]] | None = None) -> CheckRecord:
+    """A record for a check the package does not make: ``reason`` says why and what is needed.
+
+    ``clause`` names where the check would come from (code clause or published guidance).
+    The record is never a pass (``ok`` False, verdict ``NOT CHECKED``) and never governs
+    (utilisation 0); summaries count it apart from failures.
+    """
+    if not isinstance(reason, str) or not reason.strip():
+        raise ValueError("a NOT CHECKED record needs the reason and what is needed to make the check")
+    return CheckRecord(id=id, title=title, clause=clause, demand=0.0, resistance=0.0, unit="", utilisation=0.0,
+                       ok=False, values=dict(values or {}), location_mm=location_mm, note=reason.strip(),
+                       status=NOT_CHECKED)
+
+
+def count_verdicts(records) -> tuple[int, int]:
+    """(number of checks NOT OK, number NOT CHECKED) among ``records``."""
+    bad = gap = 0
+    for r in records:
+        if not r.checked:
+            gap += 1
+        elif not r.ok:
+            bad += 1
+    return bad, gap
+
+
+def verdict_sentence(records) -> str:
+    """"All checks pass." only when every record is a check that passes; otherwise the counts."""
+    recs = list(records)
+    if not recs:
+        return "No checks."
+    bad, gap = count_verdicts(recs)
+    if not bad and not gap:
+        return "All checks pass."
+    parts = []
+    if bad:
+        parts.append(f"{bad} check(s) NOT OK")
+    if gap:
+        parts.append(f"{gap} check(s) NOT CHECKED (see their notes: not a pass)")
+    return "; ".join(parts) + "."
+
+
+def summary_order(r: CheckRecord) -> tuple:
+    """Sort key of a summary: NOT CHECKED first, then highest utilisation, then title."""
+    return (r.checked, -r.utilisation, r.title)
+
+
 def records_to_json(records: list[CheckRecord]) -> str:
     return json.dumps([r.to_dict() for r in records], indent=2)
 
 
-__all__ = ["CheckRecord", "Calc", "utilisation", "display", "records_to_json", "asdict"]
+__all__ = ["CHECKED", "NOT_CHECKED", "not_checked", "count_verdicts", "verdict_sentence", "summary_order",
+           "CheckRecord", "Calc", "utilisation", "display", "records_to_json", "asdict"]

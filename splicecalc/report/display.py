@@ -16,7 +16,7 @@ from __future__ import annotations
 import math
 from typing import Any, Iterable, Sequence
 
-from ..core.record import CheckRecord
+from ..core.record import CheckRecord, summary_order, verdict_sentence
 
 CHECK_MIME = "application/vnd.splicecalc.check+json"
 TABLE_MIME = "application/vnd.splicecalc.table+json"
@@ -69,6 +69,8 @@ def check_payload(record: CheckRecord) -> dict[str, Any]:
         "resistance": _finite(record.resistance), "utilisation": _finite(record.utilisation),
         "ok": bool(record.ok), "verdict": record.verdict,
     })
+    if not record.checked:
+        p.update({"demand": None, "resistance": None, "utilisation": None})
     return p
 
 
@@ -95,6 +97,9 @@ class CheckOutput:
         u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf")
         md = [f"**{r.title}** — *{r.clause}*", ""]
         md += [s.strip() + "\n" for s in r.latex]
+        if not r.checked:
+            md.append(f"**NOT CHECKED**: {r.note}")
+            return {CHECK_MIME: p, "text/markdown": "\n".join(md), "text/plain": r.summary_line()}
         if r.note:
             md.append(f"*{r.note}*\n")
         md.append(f"$E_d$ = {fmt_number(r.demand)}{_unit_md(r.unit)}, $R_d$ = {fmt_number(r.resistance)}"
@@ -138,14 +143,16 @@ def summary_output(records: Iterable[CheckRecord], title: str = "Summary of chec
     for r in recs:
         if not isinstance(r, CheckRecord):
             raise TypeError(f"summary expects CheckRecords, got {type(r).__name__}")
-    recs.sort(key=lambda r: (-r.utilisation, r.title))
+    recs.sort(key=summary_order)
     rows = []
     for r in recs:
+        if not r.checked:
+            rows.append([r.title, r.clause, "-", "-", "", "-", r.verdict])
+            continue
         unit = f"${UNIT_TEX.get(r.unit, r.unit)}$" if r.unit else ""
         rows.append([r.title, r.clause, fmt_number(r.demand), fmt_number(r.resistance), unit,
                      fmt_utilisation(r.utilisation), r.verdict])
-    n_bad = sum(not r.ok for r in recs)
-    notes = ("All checks pass." if n_bad == 0 else f"{n_bad} check(s) NOT OK.") if recs else "No checks."
+    notes = verdict_sentence(recs)
     return TableOutput(["Check", "Clause", "$E_d$", "$R_d$", "Unit", "Util.", "Verdict"], rows,
                        title=title, align="llrrlrl", kind="summary", notes=notes)
 

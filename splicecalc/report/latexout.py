@@ -90,6 +90,8 @@ def check_latex(p: dict[str, Any]) -> str:
     u = p.get("utilisation")
     u_txt = r"$\infty$" if u is None else f"{u:.2f}"
     verdict = "\\calcok" if p.get("ok") else "\\calcfail"
+    if p.get("status") == "not checked":     # core.record.NOT_CHECKED: no numbers, never a pass
+        ut, u_txt, verdict = "", "-", "\\textcolor{failred}{\\textbf{NOT CHECKED}}"
     out.append(f"\\calcverdict{{{fmt_number(p.get('demand'))}{ut}}}{{{fmt_number(p.get('resistance'))}{ut}}}"
                f"{{{u_txt}}}{{{verdict}}}")
     return "\n\n".join(out) + "\n"

@@ -34,7 +34,7 @@ from typing import Any
 
 from ..actions import PointLoad
 from ..core.errors import InputError
-from ..core.record import CheckRecord
+from ..core.record import CheckRecord, summary_order
 from ..core.units import convert
 from ..design.beam import BeamDesign, design_beam
 from ..job.model import Job
@@ -74,12 +74,13 @@ class PackageRecords:
 
     @property
     def summary_records(self) -> tuple[CheckRecord, ...]:
-        """Every record, highest utilisation first (ties by title)."""
-        return tuple(sorted(self.records, key=lambda r: (-r.utilisation, r.title)))
+        """Every record: NOT CHECKED ones first, then highest utilisation first (ties by title)."""
+        return tuple(sorted(self.records, key=summary_order))
 
     @property
     def governing(self) -> CheckRecord | None:
-        return max(self.records, key=lambda r: r.utilisation, default=None)
+        """The made check with the highest utilisation (NOT CHECKED records never govern)."""
+        return max((r for r in self.records if r.checked), key=lambda r: r.utilisation, default=None)
 
     @property
     def historic_steel_used(self) -> bool:

@@ -19,7 +19,7 @@ import sys
 from typing import Any, Iterable, Sequence
 
 from ..actions import PointLoad, UDL
-from ..core.record import CheckRecord
+from ..core.record import CheckRecord, verdict_sentence
 from ..report.headless import HEADLESS_ENV
 from ..report.display import (TABLE_MIME, UNIT_TEX, TableOutput, fmt_utilisation, publish, show_check,
                               show_section, show_table, summary_output)
@@ -495,9 +495,8 @@ def show_existing(result: CalcResult) -> None:
 def show_summary(result: CalcResult) -> None:
     """Every record of the package, highest utilisation first (each listed once)."""
     recs = result.summary_records
-    n_bad = sum(not r.ok for r in recs)
     gov = result.governing
-    show_text(("**All checks pass.** " if n_bad == 0 else f"**{n_bad} check(s) NOT OK.** ")
+    show_text(f"**{verdict_sentence(recs)}** "
               + (f"Governing: {gov.title} (utilisation {fmt_utilisation(gov.utilisation)}). " if gov else "")
               + result.headline + ".")
     publish(summary_output(recs, title=f"Summary of the {len(recs)} checks (highest utilisation first)"))
