@@ -28,7 +28,7 @@ from pathlib import Path
 import pytest
 
 from splicecalc.actions import UDL
-from splicecalc.cli.run import add_parser, result_dict, run_command
+from splicecalc.cli.run import add_parser, beam_dict, run_command
 from splicecalc.design.beam import design_beam
 from splicecalc.job import BeamSpec, Job, load_job, loads_job
 
@@ -251,7 +251,7 @@ def test_render_only_the_chosen_section(sketch, sketch_design):
 
 # ------------------------------------------------------------------ JSON and CLI
 def test_json_keys_carry_units(sketch_design):
-    out = json.loads(json.dumps(result_dict(sketch_design, "job.toml")))
+    out = json.loads(json.dumps(beam_dict(sketch_design, "job.toml")))
     bend = next(c for c in out["checks"] if c["id"] == "bending")
     assert "demand_kNm" in bend and "resistance_kNm" in bend and "M_c_Rd_kNm" in bend["values"]
     assert "location_m" in bend and bend["clause"].startswith("EN 1993-1-1:2005, 6.2.5")
@@ -289,7 +289,7 @@ def test_cli_exit_codes(tmp_path, capsys):
     failing.write_text((EXAMPLES / "mezzanine_infill.toml").read_text()
                        .replace('section = "auto"', 'section = "254x102x22 UKB"'))
     assert _run(["run", str(failing)]) == 1
-    assert "NOT OK" in capsys.readouterr().out
+    assert "EXCEEDS capacity" in capsys.readouterr().out
 
 
 def test_second_example_loads_and_designs():
