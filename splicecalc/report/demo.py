@@ -15,10 +15,11 @@ from typing import Any
 import nbformat
 
 from ..core.errors import InputError
+from ..core.shipped import shipped_dir
 from .build import BuildReport, build_pdf, write_atomic
 
-#: repository folder holding the calc templates (source checkout)
-TEMPLATES_DIR = Path(__file__).resolve().parents[2] / "templates"
+#: folder holding the calc templates (inside the installed package, or the repository's templates/)
+TEMPLATES_DIR = shipped_dir("templates")
 
 DEMO_NAME = "demo_cross_section"
 
@@ -51,7 +52,7 @@ DEMO_METADATA: dict[str, Any] = {
 
 
 def template_path(name: str) -> Path:
-    """Path of a calc template ``<name>.ipynb`` (``$SPLICECALC_TEMPLATES`` or the repository's ``templates/``)."""
+    """Path of a calc template ``<name>.ipynb`` (``$SPLICECALC_TEMPLATES``, then the shipped templates)."""
     folders = [Path(p) for p in os.environ.get("SPLICECALC_TEMPLATES", "").split(os.pathsep) if p] + [TEMPLATES_DIR]
     for folder in folders:
         p = folder / f"{name}.ipynb"

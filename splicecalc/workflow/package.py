@@ -22,15 +22,17 @@ from pathlib import Path
 from typing import Any, Iterator
 
 from ..core.errors import InputError
+from ..core.shipped import shipped_dir
 from ..report.errors import CalcBuildError
 from ..report.headless import HEADLESS_ENV  # set by a headless build for the kernel: the form stays hidden
 
-#: templates shipped in the repository's ``templates/`` folder
+#: templates shipped with splicecalc (:func:`splicecalc.core.shipped.shipped_dir`)
 TEMPLATES: tuple[str, ...] = ("beam_splice", "splice_only", "end_connection")
 DEFAULT_TEMPLATE = "beam_splice"
 #: the job file name a new beam_splice package uses
 JOB_FILE = "job.toml"
-EXAMPLES_DIR = Path(__file__).resolve().parents[2] / "examples"
+#: the example job files (inside the installed package, or the repository's examples/)
+EXAMPLES_DIR = shipped_dir("examples")
 DEMO_GLOB = "demo_*.toml"
 
 
@@ -325,7 +327,7 @@ def demo_job_path() -> Path:
     """The demo job file (first ``examples/demo_*.toml``)."""
     found = sorted(EXAMPLES_DIR.glob(DEMO_GLOB))
     if not found:
-        raise InputError("demo", str(EXAMPLES_DIR / DEMO_GLOB), "a demo job file in the repository's examples/")
+        raise InputError("demo", str(EXAMPLES_DIR / DEMO_GLOB), "a demo job file among the shipped examples")
     return found[0]
 
 
