@@ -170,6 +170,10 @@ def build_parser() -> argparse.ArgumentParser:
     if run_parser:
         run_parser(sub)
 
+    review = _optional("splicecalc.cli.review", "add_parser")
+    if review:
+        review(sub)
+
     pkg = _optional("splicecalc.cli.package", "add_parsers")
     if pkg:
         pkg(sub)

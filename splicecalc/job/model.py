@@ -44,7 +44,7 @@ NA_OVERRIDABLE: tuple[str, ...] = tuple(f.name for f in fields(NationalAnnex)
 #: name of the beam self-weight load the design adds (reserved: a job load may not use it)
 SELF_WEIGHT_NAME: str = "beam self-weight"
 
-PROJECT_KEYS: tuple[str, ...] = ("number", "title", "prepared_by", "checked_by", "client",
+PROJECT_KEYS: tuple[str, ...] = ("number", "title", "prepared_by", "checked_by", "approved_by", "client",
                                  "location", "date", "revision")
 
 
@@ -62,6 +62,7 @@ class Project:
     title: str = ""
     prepared_by: str = ""
     checked_by: str = ""
+    approved_by: str = ""
     client: str = ""
     location: str = ""
     date: str = ""

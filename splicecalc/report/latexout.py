@@ -9,6 +9,7 @@ from __future__ import annotations
 import re
 from typing import Any
 
+from ..review.markups import anchor_name
 from .display import UNIT_TEX, fmt_number
 
 _TEX_SPECIAL = {
@@ -75,7 +76,8 @@ def _is_math(step: str) -> bool:
 
 def check_latex(p: dict[str, Any]) -> str:
     """One check: heading with clause, steps, verdict line."""
-    out = [f"\\calccheck{{{escape_tex(p.get('title', ''))}}}{{{escape_tex(p.get('clause', ''))}}}"]
+    out = [f"\\calccheck{{{escape_tex(p.get('title', ''))}}}{{{escape_tex(p.get('clause', ''))}}}"
+           f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}"]
     steps = [s for s in p.get("steps", []) if s.strip()]
     last_math = max((i for i, s in enumerate(steps) if _is_math(s)), default=-1)
     for i, step in enumerate(steps):
@@ -93,7 +95,7 @@ def check_latex(p: dict[str, Any]) -> str:
     if p.get("status") == "not checked":     # core.record.NOT_CHECKED: no numbers, never a pass
         ut, u_txt, verdict = "", "-", "\\textcolor{failred}{\\textbf{NOT CHECKED}}"
     out.append(f"\\calcverdict{{{fmt_number(p.get('demand'))}{ut}}}{{{fmt_number(p.get('resistance'))}{ut}}}"
-               f"{{{u_txt}}}{{{verdict}}}")
+               f"{{{u_txt}}}{{{verdict}}}\\calcmark{{{anchor_name(str(p.get('id', '')), end=True)}}}")
     return "\n\n".join(out) + "\n"
 
 

@@ -1,0 +1,67 @@
+"""The checking conversation: review comments tied to checks, PDF mark-ups read back.
+
+``register`` keeps the append-only log beside the job file; ``package`` finds a package's job,
+notebook and PDF; ``markups`` reads annotations from a PDF a checker marked up; the functions here
+are what the ``splicecalc review`` commands call.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import os
+from dataclasses import dataclass
+from pathlib import Path
+
+from ..core.errors import InputError
+from .markups import Markup, anchor_name, read_markups
+from .package import ReviewPackage, locate
+from .register import (Comment, Register, RegisterError, check_basis, comment_flags, parse_target,
+                       target_label)
+
+
+def add_comment(package: str | os.PathLike, *, on: str, by: str, text: str) -> Comment:
+    """Add a comment on a check id, a sheet or the whole package."""
+    pkg = locate(package)
+    records = pkg.records()
+    ids = None if records is None else [r.get("id") for r in records]
+    target = parse_target(on, ids)
+    basis = None
+    if target["kind"] == "check" and records is not None:
+        basis = next((check_basis(r) for r in records if r.get("id") == target["id"]), None)
+    return pkg.register.add(by=by, text=text, target=target, revision=pkg.revision(), basis=basis)
+
+
+@dataclass(frozen=True)
+class ImportResult:
+    added: tuple[Comment, ...]
+    skipped: tuple[Markup, ...]     # already in the register (same mark-up imported before)
+
+
+def import_markups(package: str | os.PathLike, annotated_pdf: str | os.PathLike, *, by: str) -> ImportResult:
+    """Read the mark-ups of ``annotated_pdf`` into the package's register (each mark-up once)."""
+    pkg = locate(package)
+    records = pkg.records() or []
+    back = {anchor_name(str(r.get("id")))[len("chk-"):]: str(r.get("id")) for r in records}
+    marks = read_markups(annotated_pdf, back)
+    reg = pkg.register
+    seen = {c.source.get("key") for c in reg.comments() if c.source.get("kind") == "pdf"}
+    by_id = {str(r.get("id")): r for r in records}
+    pdf_sha = hashlib.sha256(Path(annotated_pdf).read_bytes()).hexdigest()
+    added, skipped = [], []
+    for m in marks:
+        if m.key in seen:
+            skipped.append(m)
+            continue
+        basis = check_basis(by_id[m.check_id]) if m.check_id in by_id else None
+        who = by if not m.author or m.author.casefold() == by.casefold() else f"{by} (mark-up by {m.author})"
+        c = reg.add(by=who if len(who) <= 120 else by, text=m.text, target=m.target, revision=pkg.revision(),
+                    basis=basis, source={"kind": "pdf", "key": m.key, "sheet": m.sheet, "markup": m.kind,
+                                         "pdf_sha256": pdf_sha})
+        seen.add(m.key)
+        added.append(c)
+    return ImportResult(tuple(added), tuple(skipped))
+
+
+__all__ = ["Comment", "ImportResult", "Markup", "Register", "RegisterError", "ReviewPackage", "add_comment",
+           "anchor_name", "comment_flags", "import_markups", "locate", "parse_target", "read_markups",
+           "target_label"]
