@@ -82,12 +82,14 @@ def pages(demo):
 
 
 # ------------------------------------------------------------------ the printed package
-def test_title_block_on_every_page(demo, pages):
+def test_job_strip_on_every_page(demo, pages):
     number, title = JOB_DOC["project"]["number"], JOB_DOC["project"]["title"]   # as typed in the job file
     assert len(pages) == pdf_page_count(demo.pdf) == demo.report.pages > 10
     for i, text in enumerate(pages, start=1):
-        head = "\n".join(text.splitlines()[:8])
-        assert number in head and title in head and "PROJECT" in head, f"sheet {i}: no title block"
+        head = "\n".join(text.splitlines()[:4])
+        assert number in head and title in head and "DRAFT" in head, f"sheet {i}: no job strip"
+        # sign-off names are on the cover only, not in every sheet's strip
+        assert "checked by" not in head.lower() and "prepared by" not in head.lower()
 
 
 def test_no_line_wider_than_the_sheet(demo):
@@ -99,7 +101,7 @@ def test_sheet_numbering_runs_1_to_M(pages):
     M = len(pages)
     for i, text in enumerate(pages, start=1):
         found = re.findall(r"Sheet (\d+) of (\d+)", text)
-        assert len(found) == 2, f"sheet {i}: header and footer numbers expected, found {found}"
+        assert len(found) == 1, f"sheet {i}: one sheet number in the strip expected, found {found}"
         assert all((int(n), int(m)) == (i, M) for n, m in found), f"sheet {i}: {found}"
 
 
