@@ -19,6 +19,7 @@ from splicecalc.core.errors import InputError
 from splicecalc.core.record import Calc
 from splicecalc.joints import welds
 from splicecalc.joints.connections import design_end_connection, parse_support
+from splicecalc.joints import bolts as B
 from splicecalc.joints.connections import formulas as F
 from splicecalc.sections import get_section
 
@@ -42,19 +43,19 @@ def _rec(design, id):
 
 def test_bolt_group_polar_moment_and_forces():
     # hand calculation, elastic bolt group: 4 rows at 70 mm, one line
-    I_p = F.I_p_bolts(n_1=4, n_2=1, p_1=70.0, p_2=0.0)
+    I_p = B.I_p(n_r=4, n_c=1, p_1=70.0, p_2=0.0)
     assert I_p == pytest.approx(2 * (35.0**2 + 105.0**2), rel=REL)  # sum r^2 = 24 500 mm2
     V, z = 250e3, 50.0
     F_ver = F.F_ver_Ed(V_Ed=V, n=4, z=z, I_p=I_p, x_max=0.0)
     F_hor = F.F_hor_Ed(V_Ed=V, z=z, I_p=I_p, y_max=105.0)
     assert F_ver == pytest.approx(250e3 / 4, rel=REL)
     assert F_hor == pytest.approx(250e3 * 50 * 105 / 24500, rel=REL)  # 53.57 kN
-    assert F.F_v_Ed_res(F_ver=F_ver, F_hor=F_hor) == pytest.approx(sqrt(62500**2 + (250e3 * 50 * 105 / 24500)**2))
+    assert B.F_r_Ed(F_x_Ed=F_hor, F_z_Ed=F_ver) == pytest.approx(sqrt(62500**2 + (250e3 * 50 * 105 / 24500)**2))
 
 
 def test_two_line_group_polar_moment():
     # hand calculation: 3 rows x 2 lines, p1 = 70, p2 = 60: sum r^2 = 6 x 30^2 + 4 x 70^2
-    assert F.I_p_bolts(n_1=3, n_2=2, p_1=70.0, p_2=60.0) == pytest.approx(6 * 30.0**2 + 4 * 70.0**2, rel=REL)
+    assert B.I_p(n_r=3, n_c=2, p_1=70.0, p_2=60.0) == pytest.approx(6 * 30.0**2 + 4 * 70.0**2, rel=REL)
 
 
 def test_end_plate_bolt_shear_0_8_allowance():
@@ -64,7 +65,7 @@ def test_end_plate_bolt_shear_0_8_allowance():
 
 def test_bearing_two_directions():
     # sqrt((50/80)^2 + (40/70)^2), hand calculation
-    assert F.U_bearing_2d(F_ver=50e3, F_b_ver_Rd=80e3, F_hor=40e3, F_b_hor_Rd=70e3) == \
+    assert B.U_b_2d(F_x_Ed=40e3, F_b_x_Rd=70e3, F_z_Ed=50e3, F_b_z_Rd=80e3) == \
         pytest.approx(sqrt((50 / 80)**2 + (40 / 70)**2), rel=REL)
 
 

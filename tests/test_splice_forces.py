@@ -68,8 +68,12 @@ def test_polar_sum_closed_form_against_loop():
 def test_equilibrium_exact(M, V, N):
     f = splice_forces(SEC, M_Ed=M, V_Ed=V, N_Ed=N, gap=10.0, web_rows=4, web_columns=2, web_pitch=70.0,
                       web_gauge=60.0, web_e1=40.0)
-    # flange force x lever arm + web moment = M (moment part), EN 1993-1-8 2.5(1) equilibrium
-    assert f.F_f_M * f.z + f.M_w_Ed == pytest.approx(abs(M), rel=1e-12, abs=1e-3)
+    # flange force x lever arm + web moment = M (moment part), EN 1993-1-8 2.5(1) equilibrium, at each
+    # group's outermost row: flange at a_f (0 here: the joint line), web at a_w (M + V a_w)
+    assert f.M_f_Ed == pytest.approx(abs(M) + abs(V) * f.a_f, rel=1e-12, abs=1e-3)
+    assert f.F_f_M * f.z + f.M_f_Ed * f.I_web / SEC.Iy == pytest.approx(f.M_f_Ed, rel=1e-12, abs=1e-3)
+    assert f.a_w == pytest.approx(10.0 / 2 + 40.0 + 60.0)                   # g/2 + e1 + (columns - 1) p2
+    assert f.M_w_Ed == pytest.approx((abs(M) + abs(V) * f.a_w) * f.I_web / SEC.Iy, rel=1e-12, abs=1e-3)
     # axial: two flanges + web = N
     assert 2 * f.N_f_Ed + f.N_w_Ed == pytest.approx(N, rel=1e-12, abs=1e-6)
     # bolt group equilibrium on one side: sum F_z = V, sum F_x = N_w, sum moments = -(M_w + V e)

@@ -56,6 +56,11 @@ class CheckRecord:
     record has ``ok`` False (so no "all checks pass" can be printed over it),
     utilisation 0 (it never governs), verdict ``NOT CHECKED`` and its ``note`` says
     why and what information or separate check is needed.
+    ``clause`` cites the code (standard, clause, table/equation); ``guidance`` names,
+    in general words, published design guidance or a stated method the check also
+    relies on (e.g. "published UK simple-joint guidance (from memory)"), never
+    dressed up as a code clause. ``tags`` classify the check for code that looks
+    records up (e.g. ``("flange", "bolts")``); they are not shown.
     """
 
     id: str
@@ -71,11 +76,17 @@ class CheckRecord:
     location_mm: float | None = None
     note: str = ""
     status: str = CHECKED
+    guidance: str = ""
+    tags: tuple[str, ...] = ()
 
     @property
     def checked(self) -> bool:
         """False for a NOT CHECKED record (:func:`not_checked`)."""
         return self.status != NOT_CHECKED
+
+    def has(self, *tags: str) -> bool:
+        """True when the record carries every one of ``tags``."""
+        return all(t in self.tags for t in tags)
 
     # ----------------------------------------------------------------- output
     def to_dict(self) -> dict[str, Any]:
@@ -101,6 +112,8 @@ class CheckRecord:
         if not self.checked:
             d["status"] = self.status
             d[f"demand{sfx}"] = d[f"resistance{sfx}"] = d["utilisation"] = None
+        if self.guidance:
+            d["guidance"] = self.guidance
         return d
 
     def to_json(self) -> str:
@@ -177,14 +190,16 @@ class Calc:
         return value
 
     def record(self, *, id: str, title: str, clause: str, demand: float, resistance: float,
-               unit: str, location_mm: float | None = None, note: str = "") -> CheckRecord:
+               unit: str, location_mm: float | None = None, note: str = "", guidance: str = "",
+               tags: tuple[str, ...] = ()) -> CheckRecord:
         """Close the check: convert to report units and compute the utilisation."""
         d, du = display(demand, unit)
         r, _ = display(resistance, unit)
         u = utilisation(demand, resistance)
         rec = CheckRecord(id=id, title=title, clause=clause, demand=d, resistance=r, unit=du,
                           utilisation=u, ok=u <= 1.0 + 1e-9, values=dict(self.values),
-                          latex=tuple(self.latex), location_mm=location_mm, note=note)
+                          latex=tuple(self.latex), location_mm=location_mm, note=note, guidance=guidance,
+                          tags=tuple(tags))
         self.latex = []
         self.values = {}
         return rec
@@ -241,5 +256,10 @@ def records_to_json(records: list[CheckRecord]) -> str:
     return json.dumps([r.to_dict() for r in records], indent=2)
 
 
+def find(records, *tags: str) -> list[CheckRecord]:
+    """The records carrying every one of ``tags`` (in their order)."""
+    return [r for r in records if r.has(*tags)]
+
+
 __all__ = ["CHECKED", "NOT_CHECKED", "not_checked", "count_verdicts", "verdict_sentence", "summary_order",
-           "CheckRecord", "Calc", "utilisation", "display", "records_to_json", "asdict"]
+           "CheckRecord", "Calc", "utilisation", "display", "records_to_json", "asdict", "find"]

@@ -33,13 +33,14 @@ from ..materials.steel import steel
 from ..joints import bolts as B
 from ..joints import plates as P
 from ..joints.bolts import PRELOAD_CLASSES
-from ..joints.splice.checks import detailing_records, flange_records, member_records, web_records
+from ..joints.splice.checks import (TAG_FIT, TAG_FLANGE, TAG_WEB, detailing_records, flange_records, member_records,
+                                    web_records)
 from ..joints.splice.design import (SpliceDesign, check_splice, moment_resistance, serviceability_forces, splice_bolt,
                                     validate_inputs)
-from ..joints.splice.forces import splice_forces
+from ..joints.splice.forces import flange_reach, splice_forces
 from ..joints.splice.geometry import default_edge, geometry, round_down, round_up
 from ..joints.splice.spec import FlangeLayout, SpliceLayout, SpliceSpec, WebLayout
-from ..core.record import Calc
+from ..core.record import Calc, find
 
 #: bolts tried with ``bolts = "auto"`` (size, class)
 AUTO_BOLTS: tuple[tuple[str, str], ...] = tuple((s, c) for s in ("M16", "M20", "M24", "M30") for c in ("8.8", "10.9"))
@@ -167,7 +168,7 @@ def _web_bound(bolt, w: WebLayout, section, forces_fn, spec, na, pg: str, grade:
         return False, fo
     h = (w.rows - 1) * w.pitch + 2 * default_edge(bolt.d_0)
     M_pl = abs(fo.M_w_Ed) + abs(fo.V_Ed) * (spec.gap / 2 + default_edge(bolt.d_0))
-    if M_pl / 2 > P.M_c_Rd(W=P.W_el_plate(t=w.plate, h=h), f_y=mp.f_y, gamma_M0=na.gamma_M0):
+    if M_pl / 2 > P.M_c_Rd(W_y=P.W_el_plate(t=w.plate, h=h), f_y=mp.f_y, gamma_M0=na.gamma_M0):
         return False, fo
     return True, fo
 
@@ -188,15 +189,6 @@ def _first_passing(cands, test, k: int = 2, limit: int = 400):
         if n_full >= limit:
             break
     return found
-
-
-#: member checks at the splice that depend only on the flange group / only on the web group
-_MEMBER_FLANGE = ("beam_bending_holes",)
-_MEMBER_WEB = ("beam_shear", "beam_web_net_shear", "beam_web_block")
-
-
-def _member_ok(recs, ids) -> bool:
-    return all(r.ok for r in recs if r.id in ids)
 
 
 #: results of recent searches, keyed by all their (immutable) inputs: the calc path runs the same
@@ -243,31 +235,32 @@ def _search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, 
     k_min = spec.min_design_moment
     if k_min > 0 and M_c_Rd is None:
         M_c_Rd = moment_resistance(section, grade, na)
-    base = splice_forces(section, M_Ed, V_Ed, N_Ed, gap=spec.gap, web_rows=2, web_columns=1, web_pitch=70.0,
-                         web_gauge=0.0, web_e1=40.0, k_min=k_min, M_c_Rd=M_c_Rd or 0.0)
-    F_f = base.F_f_Ed
     pg = spec.plate_grade
     combos = []
     for size, cls in bolts:
         bolt = splice_bolt(size, cls, spec)
         dummy_web = WebLayout(rows=2, columns=1, pitch=70.0, gauge=0.0, plate=10.0)
 
+        def flange_forces(f: FlangeLayout):
+            a_f = flange_reach(spec.gap, default_edge(bolt.d_0), f.rows, f.pitch)
+            return splice_forces(section, M_Ed, V_Ed, N_Ed, gap=spec.gap, web_rows=2, web_columns=1, web_pitch=70.0,
+                                 web_gauge=0.0, web_e1=40.0, k_min=k_min, M_c_Rd=M_c_Rd or 0.0, flange_a=a_f), a_f
+
         def flange_test(f: FlangeLayout):
+            fo, a_f = flange_forces(f)
+            F_f = fo.F_f_Ed
             if not _flange_bound(bolt, f, F_f, spec, pg, na, section, grade):
                 return None
             lay = SpliceLayout(size, cls, f, dummy_web)
             g = geometry(section, bolt, lay, spec.gap)
-            recs = detailing_records(section, bolt, g, spec)[:2]
-            if g.t_pi > 0:
-                recs += detailing_records(section, bolt, g, spec)[4:]
-            if not all(r.ok for r in recs):
+            if not all(r.ok for r in find(detailing_records(section, bolt, g, spec), TAG_FIT, TAG_FLANGE)):
                 return False
-            F_f_ser, _, _ = serviceability_forces(section, spec, dummy_web, default_edge(bolt.d_0), base, M_Ed, V_Ed,
-                                                  M_Ed_ser, V_Ed_ser)
+            F_f_ser, _, _ = serviceability_forces(section, spec, dummy_web, default_edge(bolt.d_0), fo, M_Ed, V_Ed,
+                                                  M_Ed_ser, V_Ed_ser, a_f)
             if not all(r.ok for r in flange_records(section, grade, bolt, g, spec, F_f, na, Calc(), F_f_ser,
                                                     fast=True)):
                 return False
-            return _member_ok(member_records(section, grade, bolt, g, spec, base, na, Calc()), _MEMBER_FLANGE)
+            return all(r.ok for r in find(member_records(section, grade, bolt, g, spec, fo, na, Calc()), TAG_FLANGE))
 
         def forces_fn(w: WebLayout):
             e1 = default_edge(bolt.d_0)
@@ -282,13 +275,12 @@ def _search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, 
             f0 = FlangeLayout(rows=1, columns=2, pitch=70.0, gauge=section.b / 2, plate=10.0)
             lay = SpliceLayout(size, cls, f0, w)
             g = geometry(section, bolt, lay, spec.gap)
-            recs = detailing_records(section, bolt, g, spec)[2:4]
-            if not all(r.ok for r in recs):
+            if not all(r.ok for r in find(detailing_records(section, bolt, g, spec), TAG_FIT, TAG_WEB)):
                 return False
             _, ratio, _ = serviceability_forces(section, spec, w, g.e1_w, fo, M_Ed, V_Ed, M_Ed_ser, V_Ed_ser)
             if not all(r.ok for r in web_records(section, grade, bolt, g, spec, fo, na, Calc(), ratio, fast=True)):
                 return False
-            return _member_ok(member_records(section, grade, bolt, g, spec, fo, na, Calc()), _MEMBER_WEB)
+            return all(r.ok for r in find(member_records(section, grade, bolt, g, spec, fo, na, Calc()), TAG_WEB))
 
         fl = _first_passing(_flange_candidates(section, bolt, spec), flange_test, k=2)
         if not fl:

@@ -11,7 +11,8 @@ Clause formulas (``@clause``)
     :func:`alpha_b`, :func:`k_1_edge`, :func:`k_1_edge_single`, :func:`k_1_inner`,
     :func:`F_b_Rd`, :func:`F_b_Rd_lap`, :func:`F_t_Rd`, :func:`B_p_Rd`,
     :func:`U_vt`, :func:`F_p_C`, :func:`F_s_Rd`, :func:`F_s_Rd_t`,
-    :func:`beta_Lf`, :func:`beta_p`, :func:`F_Rd_group`
+    :func:`beta_Lf`, :func:`beta_p`, :func:`F_Rd_group`, bolt groups :func:`I_p`, :func:`F_r_Ed`,
+    :func:`U_b_2d` (two-direction bearing, linear utilisation)
 Checks (return :class:`~splicecalc.core.record.CheckRecord`)
     :func:`check_bolt_shear`, :func:`check_bolt_bearing`, :func:`check_bolt_tension`,
     :func:`check_punching`, :func:`check_shear_tension`, :func:`check_slip`,
@@ -339,6 +340,45 @@ def F_Rd_group(n: float, F_v_Rd: float, F_b_Rd_max: float, F_b_Rd_min: float, F_
     return F_Rd_g
 
 
+# ---------------------------------------------------------- bolt groups (one home)
+#: stated convention for a bolt loaded in two directions (splice web bolts, fin plates)
+BEARING_2D_CONVENTION = ("bearing in two directions: U = sqrt((F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2), each F_b,Rd "
+                         "from Table 3.4 with e1/p1 taken in its own direction; U is linear in the load "
+                         "(the vector-sum ratio), the same convention for every bolt group")
+#: where that interaction comes from (not a code clause)
+BEARING_2D_GUIDANCE = "published UK design guidance for bolt groups in two-direction bearing (from memory)"
+#: the elastic bolt-group method (3.12(3) allows an elastic distribution; the formulas are textbook)
+POLAR_GUIDANCE = "elastic (polar) bolt-group method of standard steel-design texts"
+
+
+@clause("EN 1993-1-8:2005, 3.12(3)", units={"p_1": "mm", "p_2": "mm"}, returns="mm2",
+        example=dict(n_r=5, n_c=2, p_1=70.0, p_2=60.0))
+def I_p(n_r: int, n_c: int, p_1: float, p_2: float) -> float:
+    """Polar sum of squares of a rectangular bolt grid about its centroid, sum(x_i^2 + z_i^2)
+    (mm2 per unit bolt area): n_r rows at pitch p_1 (one above the other), n_c columns at p_2."""
+    I_p = n_c * n_r * (n_r ** 2 - 1) * p_1 ** 2 / 12 + n_r * n_c * (n_c ** 2 - 1) * p_2 ** 2 / 12
+    return I_p
+
+
+@clause("EN 1993-1-8:2005, 3.12(3)", units={"F_x_Ed": "N", "F_z_Ed": "N"}, returns="N",
+        example=dict(F_x_Ed=-103e3, F_z_Ed=52e3))
+def F_r_Ed(F_x_Ed: float, F_z_Ed: float) -> float:
+    """Resultant (vector sum) of the two force components on one bolt (N)."""
+    F_r_Ed = (F_x_Ed ** 2 + F_z_Ed ** 2) ** 0.5
+    return F_r_Ed
+
+
+@clause("EN 1993-1-8:2005, 3.6.1, Table 3.4", units={"F_x_Ed": "N", "F_b_x_Rd": "N", "F_z_Ed": "N",
+                                                    "F_b_z_Rd": "N"}, returns="",
+        example=dict(F_x_Ed=60e3, F_b_x_Rd=100e3, F_z_Ed=30e3, F_b_z_Rd=90e3))
+def U_b_2d(F_x_Ed: float, F_b_x_Rd: float, F_z_Ed: float, F_b_z_Rd: float) -> float:
+    """Bearing of a bolt loaded in two directions, linear utilisation (the vector-sum ratio):
+    U = sqrt((F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2) <= 1, each F_b,Rd from Table 3.4 with e_1/p_1
+    in its own direction (interaction from published design guidance, from memory)."""
+    U_b = ((F_x_Ed / F_b_x_Rd) ** 2 + (F_z_Ed / F_b_z_Rd) ** 2) ** 0.5
+    return U_b
+
+
 # ------------------------------------------------------------------------ checks
 def _bolt(bolt) -> Bolt:
     if not isinstance(bolt, Bolt):
@@ -639,7 +679,7 @@ __all__ = [
     "shear_factor_alpha_v", "slip_factor_k_s", "friction_mu",
     "F_v_Rd", "F_v_Rd_n", "alpha_d_end", "alpha_d_inner", "alpha_b", "k_1_edge", "k_1_edge_single",
     "k_1_inner", "F_b_Rd", "F_b_Rd_lap", "F_t_Rd", "B_p_Rd", "U_vt", "F_p_C", "F_s_Rd", "F_s_Rd_t",
-    "beta_Lf", "beta_p", "F_Rd_group",
-    "bearing_resistance", "check_bolt_shear", "check_bolt_bearing", "check_bolt_tension", "check_punching",
+    "beta_Lf", "beta_p", "F_Rd_group", "I_p", "F_r_Ed", "U_b_2d", "BEARING_2D_CONVENTION", "BEARING_2D_GUIDANCE",
+    "POLAR_GUIDANCE", "bearing_resistance", "check_bolt_shear", "check_bolt_bearing", "check_bolt_tension", "check_punching",
     "check_shear_tension", "check_slip", "check_bolt_group",
 ]

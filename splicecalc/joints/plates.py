@@ -16,7 +16,8 @@ memory). Accepted; ``EN_RECOMMENDED`` (1.25 throughout) gives the cautious value
 Clause formulas (``@clause``)
     :func:`A_net_plate`, :func:`A_net_stagger`, :func:`N_pl_Rd`, :func:`N_u_Rd`, :func:`N_net_Rd`,
     :func:`V_eff_1_Rd`, :func:`V_eff_2_Rd`, :func:`V_Rd_g`, :func:`V_Rd_n`, :func:`W_el_plate`,
-    :func:`W_pl_plate`, :func:`M_c_Rd`, :func:`p_1_t_lim`, :func:`lambda_bar_plate`, :func:`chi`,
+    :func:`W_pl_plate`, :func:`M_V_Rd_el` (M_c_Rd is the member formula,
+    :func:`splicecalc.members.en1993_1_1.M_c_Rd`), :func:`p_1_t_lim`, :func:`lambda_bar_plate`, :func:`chi`,
     :func:`N_b_Rd`
 Checks (return :class:`~splicecalc.core.record.CheckRecord`)
     :func:`check_plate_tension`, :func:`check_block_tearing`, :func:`check_plate_shear`,
@@ -32,6 +33,7 @@ from dataclasses import dataclass
 from math import pi, sqrt
 
 from ..core.clause import clause
+from ..members.en1993_1_1 import M_c_Rd, N_net_Rd, N_pl_Rd, N_u_Rd  # one formula, one home: EN 1993-1-1 6.2
 from ..core.errors import InputError, require_choice, require_non_negative, require_positive
 from ..core.record import Calc, CheckRecord
 from ..materials.partial_factors import UK_NA, NationalAnnex
@@ -63,30 +65,6 @@ def A_net_stagger(b: float, t: float, n: float, d_0: float, n_s: float, s: float
     """Net area along a zig-zag line through n holes with n_s staggered gaps of pitch s and gauge p (mm2)."""
     A_net = t * (b - n * d_0 + n_s * s ** 2 / (4 * p))
     return A_net
-
-
-@clause("EN 1993-1-1:2005, 6.2.3(2), Eq. 6.6", units={"A": "mm2", "f_y": "MPa"}, returns="N",
-        example=dict(A=2400.0, f_y=275.0, gamma_M0=1.0))
-def N_pl_Rd(A: float, f_y: float, gamma_M0: float) -> float:
-    """Plastic (gross-section) resistance, Eq. 6.6 (N)."""
-    N_pl_Rd = A * f_y / gamma_M0
-    return N_pl_Rd
-
-
-@clause("EN 1993-1-1:2005, 6.2.3(2), Eq. 6.7", units={"A_net": "mm2", "f_u": "MPa"}, returns="N",
-        example=dict(A_net=1872.0, f_u=410.0, gamma_M2=1.1))
-def N_u_Rd(A_net: float, f_u: float, gamma_M2: float) -> float:
-    """Ultimate net-section resistance, Eq. 6.7 (N)."""
-    N_u_Rd = 0.9 * A_net * f_u / gamma_M2
-    return N_u_Rd
-
-
-@clause("EN 1993-1-1:2005, 6.2.3(4), Eq. 6.8", units={"A_net": "mm2", "f_y": "MPa"}, returns="N",
-        example=dict(A_net=1872.0, f_y=275.0, gamma_M0=1.0))
-def N_net_Rd(A_net: float, f_y: float, gamma_M0: float) -> float:
-    """Net-section yield resistance for category C slip-resistant joints, Eq. 6.8 (N)."""
-    N_net_Rd = A_net * f_y / gamma_M0
-    return N_net_Rd
 
 
 @clause("EN 1993-1-8:2005, 3.10.2(2), Eq. 3.9", units={"f_u": "MPa", "A_nt": "mm2", "f_y": "MPa", "A_nv": "mm2"},
@@ -145,12 +123,14 @@ def W_pl_plate(t: float, h: float) -> float:
     return W_pl
 
 
-@clause("EN 1993-1-1:2005, 6.2.5(2), Eq. 6.13", units={"W": "mm3", "f_y": "MPa"}, returns="Nmm",
-        example=dict(W=66667.0, f_y=275.0, gamma_M0=1.0))
-def M_c_Rd(W: float, f_y: float, gamma_M0: float) -> float:
-    """Bending resistance W f_y / gamma_M0 (N mm), Eq. 6.13 (W_pl) / 6.14 (W_el)."""
-    M_c_Rd = W * f_y / gamma_M0
-    return M_c_Rd
+@clause("EN 1993-1-1:2005, 6.2.8(3)", units={"W_el": "mm3", "f_y": "MPa"}, returns="Nmm",
+        example=dict(rho=0.1, W_el=100e3, f_y=355.0, gamma_M0=1.0))
+def M_V_Rd_el(rho: float, W_el: float, f_y: float, gamma_M0: float) -> float:
+    """Elastic bending resistance with the yield strength reduced to (1 - rho) f_y for coexisting
+    shear over the whole section (N*mm), 6.2.8(3): conservative for a plate (all of it shear area)
+    and for a notched tee (the reduction applied to the flange too)."""
+    M_V_Rd = (1 - rho) * W_el * f_y / gamma_M0
+    return M_V_Rd
 
 
 @clause("EN 1993-1-8:2005, 3.5, Table 3.3", units={"f_y": "MPa", "f_ref": "MPa"}, returns="",
@@ -367,7 +347,7 @@ def check_plate_bending(M_Ed: float, h: float, t: float, grade: str, *, plastic:
     mat = steel(grade, t, field="t")
     calc = calc if calc is not None else Calc()
     W = calc(W_pl_plate if plastic else W_el_plate, t=t, h=h)
-    M_Rd = calc(M_c_Rd, W=W, f_y=mat.f_y, gamma_M0=na.gamma_M0)
+    M_Rd = calc(M_c_Rd, W_y=W, f_y=mat.f_y, gamma_M0=na.gamma_M0)
     calc.keep("W", W, "mm3")
     cl = "EN 1993-1-1:2005, 6.2.5(2), Eq. 6.13" if plastic else "EN 1993-1-1:2005, 6.2.5(2), Eq. 6.14"
     return calc.record(id=id, title=title, clause=cl, demand=M_Ed, resistance=M_Rd, unit="Nmm",
@@ -419,7 +399,7 @@ def check_plate_compression(N_Ed: float, b: float, t: float, p_1: float, grade: 
 
 __all__ = [
     "ALPHA_IMP", "A_net_plate", "A_net_stagger", "N_pl_Rd", "N_u_Rd", "N_net_Rd", "V_eff_1_Rd", "V_eff_2_Rd",
-    "V_Rd_g", "V_Rd_n", "W_el_plate", "W_pl_plate", "M_c_Rd", "p_1_t_lim", "lambda_bar_plate", "chi", "N_b_Rd",
+    "V_Rd_g", "V_Rd_n", "W_el_plate", "W_pl_plate", "M_c_Rd", "M_V_Rd_el", "p_1_t_lim", "lambda_bar_plate", "chi", "N_b_Rd",
     "BlockAreas", "block_tearing_areas", "check_plate_tension", "check_block_tearing", "check_plate_shear",
     "check_plate_bending", "check_plate_compression",
 ]

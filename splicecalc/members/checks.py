@@ -237,8 +237,8 @@ def _W_y(section: Any, grade: str, cls: int, A_f_net: float | None, W_net: float
     if A_f_net is None:
         return W, note
     A_f = section.b * section.tf
-    N_u = calc(f11.N_f_u_Rd, A_f_net=A_f_net, f_u=f_u, gamma_M2=na.gamma_M2_member)
-    N_pl = calc(f11.N_f_pl_Rd, A_f=A_f, f_y=f_y, gamma_M0=na.gamma_M0)
+    N_u = calc(f11.N_u_Rd, A_net=A_f_net, f_u=f_u, gamma_M2=na.gamma_M2_member)
+    N_pl = calc(f11.N_pl_Rd, A=A_f, f_y=f_y, gamma_M0=na.gamma_M0)
     if N_u >= N_pl:
         calc.note("Eq. 6.16 met: fastener holes in the tension flange may be ignored (6.2.5(4)).")
         return W, note + "; holes in the tension flange ignored (Eq. 6.16 met)"

@@ -94,20 +94,31 @@ def M_c_Rd(W_y: float, f_y: float, gamma_M0: float) -> float:
     return M_c_Rd
 
 
-@clause("EN 1993-1-1:2005, 6.2.5(4), Eq. 6.16", units={"A_f": "mm2", "f_y": "MPa"}, returns="N",
-        example=dict(A_f=2412.0, f_y=355.0, gamma_M0=1.0))
-def N_f_pl_Rd(A_f: float, f_y: float, gamma_M0: float) -> float:
-    """Gross yield resistance of the tension flange A_f f_y / gamma_M0 (N), right side of Eq. 6.16."""
-    N_f_pl_Rd = A_f * f_y / gamma_M0
-    return N_f_pl_Rd
+# ------------------------------------------------------------------ tension 6.2.3 (one home: members and plates)
+@clause("EN 1993-1-1:2005, 6.2.3(2), Eq. 6.6", units={"A": "mm2", "f_y": "MPa"}, returns="N",
+        example=dict(A=2400.0, f_y=275.0, gamma_M0=1.0))
+def N_pl_Rd(A: float, f_y: float, gamma_M0: float) -> float:
+    """Plastic resistance of the gross cross-section, Eq. 6.6 (N); also the right side of Eq. 6.16
+    for a tension flange (A = A_f)."""
+    N_pl_Rd = A * f_y / gamma_M0
+    return N_pl_Rd
 
 
-@clause("EN 1993-1-1:2005, 6.2.5(4), Eq. 6.16", units={"A_f_net": "mm2", "f_u": "MPa"}, returns="N",
-        example=dict(A_f_net=1854.0, f_u=470.0, gamma_M2=1.1))
-def N_f_u_Rd(A_f_net: float, f_u: float, gamma_M2: float) -> float:
-    """Net-section resistance of the tension flange 0.9 A_f,net f_u / gamma_M2 (N), left side of Eq. 6.16."""
-    N_f_u_Rd = 0.9 * A_f_net * f_u / gamma_M2
-    return N_f_u_Rd
+@clause("EN 1993-1-1:2005, 6.2.3(2), Eq. 6.7", units={"A_net": "mm2", "f_u": "MPa"}, returns="N",
+        example=dict(A_net=1960.0, f_u=410.0, gamma_M2=1.1))
+def N_u_Rd(A_net: float, f_u: float, gamma_M2: float) -> float:
+    """Ultimate resistance of the net cross-section at the holes, Eq. 6.7 (N); also the left side of
+    Eq. 6.16 for a tension flange (A_net = A_f,net)."""
+    N_u_Rd = 0.9 * A_net * f_u / gamma_M2
+    return N_u_Rd
+
+
+@clause("EN 1993-1-1:2005, 6.2.3(4), Eq. 6.8", units={"A_net": "mm2", "f_y": "MPa"}, returns="N",
+        example=dict(A_net=1960.0, f_y=275.0, gamma_M0=1.0))
+def N_net_Rd(A_net: float, f_y: float, gamma_M0: float) -> float:
+    """Net-section yield resistance for category C slip-resistant connections, Eq. 6.8 (N)."""
+    N_net_Rd = A_net * f_y / gamma_M0
+    return N_net_Rd
 
 
 @clause("EN 1993-1-1:2005, 6.2.5(4), Eq. 6.16", units={"A_f_net": "mm2", "f_u": "MPa", "f_y": "MPa"},
@@ -281,7 +292,7 @@ def delta_lim(L: float, n_lim: float) -> float:
 
 __all__ = [
     "epsilon", "c_t_flange", "c_t_web", "alpha_web", "psi_web", "M_c_Rd",
-    "N_f_pl_Rd", "N_f_u_Rd", "A_f_eff", "W_pl_y_net", "W_el_y_net", "V_pl_Rd", "shear_buckling_ratio",
+    "N_pl_Rd", "N_u_Rd", "N_net_Rd", "A_f_eff", "W_pl_y_net", "W_el_y_net", "V_pl_Rd", "shear_buckling_ratio",
     "rho_V", "M_y_V_Rd", "M_y_V_Rd_el", "lambda_LT", "chi_LT", "f_LT", "chi_LT_mod", "k_c_from_C1", "k_c_linear",
     "M_b_Rd", "delta_lim",
 ]

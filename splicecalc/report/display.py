@@ -96,6 +96,8 @@ class CheckOutput:
         p = check_payload(r)
         u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf")
         md = [f"**{r.title}** — *{r.clause}*", ""]
+        if r.guidance:
+            md += [f"Method from: {r.guidance}", ""]
         md += [s.strip() + "\n" for s in r.latex]
         if not r.checked:
             md.append(f"**NOT CHECKED**: {r.note}")

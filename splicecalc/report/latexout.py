@@ -78,6 +78,8 @@ def check_latex(p: dict[str, Any]) -> str:
     """One check: heading with clause, steps, verdict line."""
     out = [f"\\calccheck{{{escape_tex(p.get('title', ''))}}}{{{escape_tex(p.get('clause', ''))}}}"
            f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}"]
+    if p.get("guidance"):
+        out.append("\\calcsteptext{" + prose_tex("Method from: " + p["guidance"]) + "}")
     steps = [s for s in p.get("steps", []) if s.strip()]
     last_math = max((i for i, s in enumerate(steps) if _is_math(s)), default=-1)
     for i, step in enumerate(steps):

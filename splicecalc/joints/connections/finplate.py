@@ -7,6 +7,7 @@ Shear V_Ed
     * bolt group with the eccentricity z, elastic method, vector sum on the most loaded bolt
       (EN 1993-1-8:2005, 3.7 and Table 3.4): bolt shear; bearing on the plate and on the beam web
       with the two components combined as sqrt((F_ver/F_b,ver)^2 + (F_hor/F_b,hor)^2) <= 1
+      (the package's one convention, linear in the load: :func:`splicecalc.joints.bolts.U_b_2d`)
       (published simple-joint guidance, from memory);
     * fin plate shear gross (1.27) / net, block tearing (Eq. 3.10);
     * fin plate bending V z <= W_el f_y/gamma_M0, required only when h_p < 2.73 z, and
@@ -29,12 +30,13 @@ from dataclasses import replace
 from ...core.record import Calc, CheckRecord
 from ...materials.steel import steel
 from ...members.en1993_1_1 import V_pl_Rd
-from ..bolts import F_b_Rd_lap, F_v_Rd, bearing_resistance, shear_factor_alpha_v
+from ..bolts import BEARING_2D_CONVENTION, BEARING_2D_GUIDANCE, F_b_Rd_lap, F_r_Ed, F_v_Rd, U_b_2d, bearing_resistance, shear_factor_alpha_v
+from .. import bolts as _bolts
 from ..plates import (M_c_Rd, V_Rd_n, W_el_plate, block_tearing_areas, check_block_tearing, check_plate_shear,
                       check_plate_tension)
 from ..welds import check_full_strength_fillet
 from .detail import GUIDANCE, Context, Detail, weld_grade_existing
-from .formulas import (A_tee, A_v_net_web, A_v_tee, F_hor_Ed, F_v_Ed_res, F_ver_Ed, I_p_bolts, U_bearing_2d, V_Rd_M,
+from .formulas import (A_tee, A_v_net_web, A_v_tee, F_hor_Ed, F_ver_Ed, V_Rd_M,
                        V_Rd_fin_LTB, f_p_LT, lambda_LT_fin)
 
 NOTE_TIE = "tying: gamma_Mu in place of gamma_M2 (published simple-joint guidance, from memory)"
@@ -55,7 +57,7 @@ def _bearing_2d(calc: Calc, F_ver: float, Fb_ver: float, F_hor: float, Fb_hor: f
     if Fb_ver <= 0.0 or Fb_hor <= 0.0:
         calc.note("A bearing resistance is 0 (spacing below the Table 3.3 minima): the check fails.")
         return float("inf")
-    return calc(U_bearing_2d, F_ver=F_ver, F_b_ver_Rd=Fb_ver, F_hor=F_hor, F_b_hor_Rd=Fb_hor)
+    return calc(U_b_2d, F_x_Ed=F_hor, F_b_x_Rd=Fb_hor, F_z_Ed=F_ver, F_b_z_Rd=Fb_ver)
 
 
 def _lap_capped(calc: Calc, F_b: float, f_u: float, d: float, t: float, gamma: float) -> float:
@@ -76,11 +78,11 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
 
     # bolt group forces (elastic, eccentricity z)
     n = det.n_1
-    I_p = calc(I_p_bolts, n_1=n, n_2=1, p_1=det.p_1, p_2=0.0)
+    I_p = calc(_bolts.I_p, n_r=n, n_c=1, p_1=det.p_1, p_2=0.0)
     y_max = (n - 1) * det.p_1 / 2.0
     F_ver = calc(F_ver_Ed, V_Ed=V_Ed, n=n, z=z, I_p=I_p, x_max=0.0)
     F_hor = calc(F_hor_Ed, V_Ed=V_Ed, z=z, I_p=I_p, y_max=y_max)
-    F_res = calc(F_v_Ed_res, F_ver=F_ver, F_hor=F_hor)
+    F_res = calc(F_r_Ed, F_x_Ed=F_hor, F_z_Ed=F_ver)
     a_v = shear_factor_alpha_v(b.bolt_class)
     Fv = calc(F_v_Rd, alpha_v=a_v, f_ub=b.f_ub, A_s=b.A_s, gamma_M2=na.gamma_M2)
     calc.keep("F_ver", F_ver, "N")
@@ -98,7 +100,7 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     calc.keep("F_b_hor_Rd", Fb_h, "N")
     out.append(calc.record(id="fp_bearing_plate", title="Bolt bearing on the fin plate (two directions)",
                            clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=U_p, resistance=1.0, unit="",
-                           note=f"vector interaction of the two bearing directions ({GUIDANCE})"))
+                           note=BEARING_2D_CONVENTION, guidance=BEARING_2D_GUIDANCE))
     # bearing on the beam web
     Fbw_v = bearing_resistance(b, beam.tw, fu_b, e1b, det.e_2b, det.p_1, None, gamma_M2=na.gamma_M2, calc=calc)
     Fbw_h = bearing_resistance(b, beam.tw, fu_b, det.e_2b, e1b, None, det.p_1, gamma_M2=na.gamma_M2, calc=calc)
@@ -107,7 +109,7 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     calc.keep("F_b_hor_Rd", Fbw_h, "N")
     out.append(calc.record(id="fp_bearing_web", title="Bolt bearing on the beam web (two directions)",
                            clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=U_w, resistance=1.0, unit="",
-                           note=f"vector interaction of the two bearing directions ({GUIDANCE})"))
+                           note=BEARING_2D_CONVENTION, guidance=BEARING_2D_GUIDANCE))
 
     # fin plate shear, block tearing, bending, LTB
     out.append(check_plate_shear(V_Ed, det.h_p, det.t_p, det.plate_grade, n_holes=n, d_0=d0, k_v=1.27, na=na,
@@ -116,7 +118,7 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     out.append(check_block_tearing(V_Ed, blk.A_nt, blk.A_nv, det.plate_grade, det.t_p, eccentric=True, na=na,
                                    calc=calc, id="fp_plate_block", title="Fin plate block tearing"))
     W = calc(W_el_plate, t=det.t_p, h=det.h_p)
-    M = calc(M_c_Rd, W=W, f_y=plate.f_y, gamma_M0=na.gamma_M0)
+    M = calc(M_c_Rd, W_y=W, f_y=plate.f_y, gamma_M0=na.gamma_M0)
     V_M = calc(V_Rd_M, M_c_Rd=M, z=z)
     V_bend = V_M
     long_plate = z > det.t_p / 0.15

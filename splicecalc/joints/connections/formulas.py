@@ -67,23 +67,6 @@ def F_v_Rd_ep(F_v_Rd: float, k_t: float = 0.8) -> float:
     return F_v_Rd_red
 
 
-@clause("EN 1993-1-8:2005, 3.7(1)", units={"p_1": "mm", "p_2": "mm"}, returns="mm2",
-        example=dict(n_1=4, n_2=1, p_1=70.0, p_2=60.0))
-def I_p_bolts(n_1: float, n_2: float, p_1: float, p_2: float) -> float:
-    """Polar moment of a rectangular n_1 rows x n_2 lines bolt group about its centroid (mm2 per unit bolt area):
-    sum r^2 = n_2 n_1 (n_1^2 - 1) p_1^2/12 + n_1 n_2 (n_2^2 - 1) p_2^2/12 (elastic method)."""
-    I_p = n_2 * n_1 * (n_1**2 - 1) * p_1**2 / 12 + n_1 * n_2 * (n_2**2 - 1) * p_2**2 / 12
-    return I_p
-
-
-@clause("EN 1993-1-8:2005, 3.7(1)", units={"F_ver": "N", "F_hor": "N"}, returns="N",
-        example=dict(F_ver=50e3, F_hor=42.857e3))
-def F_v_Ed_res(F_ver: float, F_hor: float) -> float:
-    """Resultant force on the most loaded bolt (N), vector sum of its two components (elastic method)."""
-    F_v_Ed = (F_ver**2 + F_hor**2)**0.5
-    return F_v_Ed
-
-
 @clause("EN 1993-1-8:2005, 3.7(1)", units={"V_Ed": "N", "z": "mm", "I_p": "mm2", "x_max": "mm"},
         returns="N", example=dict(V_Ed=200e3, n=4, z=50.0, I_p=24500.0, x_max=0.0))
 def F_ver_Ed(V_Ed: float, n: float, z: float, I_p: float, x_max: float) -> float:
@@ -98,16 +81,6 @@ def F_hor_Ed(V_Ed: float, z: float, I_p: float, y_max: float) -> float:
     """Horizontal force component on the most loaded bolt (N): V_Ed z y_max / I_p."""
     F_hor = V_Ed * z * y_max / I_p
     return F_hor
-
-
-@clause("EN 1993-1-8:2005, 3.6.1, Table 3.4", units={"F_ver": "N", "F_b_ver_Rd": "N", "F_hor": "N",
-                                                    "F_b_hor_Rd": "N"}, returns="",
-        example=dict(F_ver=50e3, F_b_ver_Rd=80e3, F_hor=40e3, F_b_hor_Rd=70e3))
-def U_bearing_2d(F_ver: float, F_b_ver_Rd: float, F_hor: float, F_b_hor_Rd: float) -> float:
-    """Bearing of a bolt loaded in two directions: sqrt((F_ver/F_b,ver,Rd)^2 + (F_hor/F_b,hor,Rd)^2) <= 1
-    (each F_b,Rd from Table 3.4 with e_1, p_1 taken in that direction; published guidance, from memory)."""
-    U_b = sqrt((F_ver / F_b_ver_Rd)**2 + (F_hor / F_b_hor_Rd)**2)
-    return U_b
 
 
 # ------------------------------------------------------------------ fin plate bending and LTB
@@ -190,15 +163,6 @@ def A_v_tee(A_T: float, b: float, t_f: float, t_w: float, r: float) -> float:
     rule of 6.2.6(3)(a) applied to one flange, as in published notched-beam guidance, from memory)."""
     A_v_N = A_T - b * t_f + (t_w + 2 * r) * t_f / 2
     return A_v_N
-
-
-@clause("EN 1993-1-1:2005, 6.2.8(3)", units={"W_el_N": "mm3", "f_y": "MPa"}, returns="Nmm",
-        example=dict(W_el_N=500e3, f_y=275.0, gamma_M0=1.0, rho=0.2))
-def M_v_N_Rd(W_el_N: float, f_y: float, gamma_M0: float, rho: float) -> float:
-    """Elastic moment resistance of the notched tee with shear (N*mm): (1 - rho) W_el,N f_y / gamma_M0
-    (the reduced strength applied to the whole tee: conservative)."""
-    M_v_N_Rd = (1 - rho) * W_el_N * f_y / gamma_M0
-    return M_v_N_Rd
 
 
 @clause("EN 1993-1-1:2005, 6.3.2.1", units={"h_b": "mm", "t_w": "mm", "f_y": "MPa", "f_ref": "MPa"}, returns="mm",

@@ -20,7 +20,8 @@ from ...core.record import Calc, CheckRecord
 from ...materials.partial_factors import UK_NA, NationalAnnex
 from ...members.en1993_1_1 import V_pl_Rd, rho_V
 from .detail import CL_PINNED, GUIDANCE
-from .formulas import A_tee, A_v_tee, M_v_N_Rd, W_el_tee, c_lim_notch, y_c_tee
+from ..plates import M_V_Rd_el
+from .formulas import A_tee, A_v_tee, W_el_tee, c_lim_notch, y_c_tee
 
 NOTE_STABILITY = ("limiting notch length for a laterally restrained beam from published notched-beam guidance "
                   "(from memory); beyond it shorten the notch or stiffen it")
@@ -61,7 +62,7 @@ def check_notch(beam, f_y: float, V_Ed: float, d_n: float, c: float, lever: floa
                            clause="EN 1993-1-1:2005, 6.2.6(2), Eq. 6.18", demand=V_Ed, resistance=V_N, unit="N",
                            note="reduced end shear resistance at the notch; root fillets of the tee ignored in A_T"))
     rho = calc(rho_V, V_Ed=V_Ed, V_pl_Rd=V_N)
-    M_Rd = calc(M_v_N_Rd, W_el_N=W_N, f_y=f_y, gamma_M0=na.gamma_M0, rho=rho)
+    M_Rd = calc(M_V_Rd_el, rho=rho, W_el=W_N, f_y=f_y, gamma_M0=na.gamma_M0)
     calc.keep("W_el_N", W_N, "mm3")
     calc.keep("y_c", y_c, "mm")
     calc.keep("rho", rho)

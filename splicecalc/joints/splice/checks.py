@@ -3,8 +3,7 @@
 Every check is a :class:`~splicecalc.core.record.CheckRecord` with its clause. The
 formulas are the fastener owner's (:mod:`splicecalc.joints.bolts`, ``plates``,
 ``spacing``) and the member owner's (:mod:`splicecalc.members`); the only
-splice-specific formula here is the bearing interaction of a web bolt loaded in
-two directions, :func:`U_b_xz`.
+splice-specific formulas here are the web plate's net modulus and the N-M interaction.
 
 Methods (stated on the calc sheet):
 
@@ -20,7 +19,8 @@ Methods (stated on the calc sheet):
   of its plies. Rows = 1 with outer plates only: single-lap cap 3.6.1(10).
 * Web bolt group: elastic polar forces (see :mod:`.forces`); shear per bolt
   over 2 planes; bearing on the beam web and on the two web plates checked per
-  direction with ``(F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2 <= 1``, each F_b,Rd from
+  direction with the linear utilisation ``sqrt((F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2) <= 1``
+  (:func:`splicecalc.joints.bolts.U_b_2d`, the one convention of the package), each F_b,Rd from
   Table 3.4 with e1/p1 taken in that direction and k1 from the distances across it.
   In the beam web the top and bottom rows take as "end distance" the distance to
   the flange face (conservative: the web is not free there); every bolt is taken
@@ -48,6 +48,7 @@ dependent checks whose inputs are then meaningless report "not checked" as failu
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 from typing import Callable
 
 from ...core.clause import clause
@@ -63,17 +64,9 @@ from ...members.en1993_1_1 import c_t_flange, epsilon, rho_V
 from .geometry import Geometry
 
 CL_DETAIL = "EN 1993-1-8:2005, 3.5(1)"
+#: the fit rules are detailing practice, not code clauses
+GUIDE_FIT = "detailing practice: washers, nuts and plates clear of the root fillets (common practice, no code clause)"
 CL_BEAR = "EN 1993-1-8:2005, 3.6.1, Table 3.4"
-
-
-@clause(CL_BEAR, units={"F_x_Ed": "N", "F_b_x_Rd": "N", "F_z_Ed": "N", "F_b_z_Rd": "N"}, returns="",
-        example=dict(F_x_Ed=60e3, F_b_x_Rd=100e3, F_z_Ed=30e3, F_b_z_Rd=90e3))
-def U_b_xz(F_x_Ed: float, F_b_x_Rd: float, F_z_Ed: float, F_b_z_Rd: float) -> float:
-    """Bearing of a bolt loaded in two directions: (F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2 <= 1.
-
-    Each F_b,Rd is Table 3.4 with e_1/p_1 in that direction (splice method, stated)."""
-    U_b = (F_x_Ed / F_b_x_Rd) ** 2 + (F_z_Ed / F_b_z_Rd) ** 2
-    return U_b
 
 
 @clause("EN 1993-1-1:2005, 6.2.5(5)", units={"t": "mm", "h": "mm", "d_0": "mm", "p": "mm"}, returns="mm3",
@@ -85,15 +78,6 @@ def W_el_net_plate(t: float, h: float, n_r: int, d_0: float, p: float) -> float:
     I_net = t * h ** 3 / 12 - t * d_0 * p ** 2 * n_r * (n_r ** 2 - 1) / 12 - n_r * t * d_0 ** 3 / 12
     W_el_net = I_net / (h / 2)
     return W_el_net
-
-
-@clause("EN 1993-1-1:2005, 6.2.8(3)", units={"W": "mm3", "f_y": "MPa"}, returns="Nmm",
-        example=dict(rho=0.1, W=100e3, f_y=355.0, gamma_M0=1.0))
-def M_V_Rd_plate(rho: float, W: float, f_y: float, gamma_M0: float) -> float:
-    """Bending resistance of a rectangular plate (all shear area) with the yield strength
-    reduced to (1 - rho) f_y for coexisting shear, 6.2.8(3) (N*mm)."""
-    M_V_Rd = (1 - rho) * W * f_y / gamma_M0
-    return M_V_Rd
 
 
 @clause("EN 1993-1-1:2005, 6.2.1(7), Eq. 6.2", units={"N_Ed": "N", "N_Rd": "N", "M_Ed": "Nmm", "M_Rd": "Nmm"},
@@ -147,6 +131,16 @@ def _record(calc: Calc, **kw) -> CheckRecord:
     return calc.record(**kw)
 
 
+#: tags every splice record carries by group: code looks checks up by these, never by list position
+TAG_FLANGE, TAG_WEB, TAG_FIT, TAG_DETAILING, TAG_MEMBER = "flange", "web", "fit", "detailing", "member"
+
+
+def _tag(records: list[CheckRecord], *tags: str) -> list[CheckRecord]:
+    """The records with ``tags`` added (order kept)."""
+    return [r if all(t in r.tags for t in tags) else replace(r, tags=tuple(dict.fromkeys(r.tags + tags)))
+            for r in records]
+
+
 # ======================================================================== detailing
 def detailing_records(section, bolt, g: Geometry, spec, loc=None) -> list[CheckRecord]:
     """Fit of the layout: bolt lines in the flange width, clear of the root radius, web plates
@@ -156,26 +150,30 @@ def detailing_records(section, bolt, g: Geometry, spec, loc=None) -> list[CheckR
     emin = S.e_min(d_0=d0)
     out = [
         _record(c, id="fit_flange_width", title="Flange bolt lines fit the flange width", clause=CL_DETAIL,
+                tags=(TAG_FIT, TAG_DETAILING, TAG_FLANGE), guidance=GUIDE_FIT,
                 demand=g.g_f + 2 * g.p2o_f + 2 * emin, resistance=section.b, unit="mm", location_mm=loc,
                 note="gauge + 2 gauge_outer + 2 x 1.2 d0 <= b"),
         _record(c, id="fit_flange_root", title="Flange bolts clear of the root radius", clause=CL_DETAIL,
+                tags=(TAG_FIT, TAG_DETAILING, TAG_FLANGE), guidance=GUIDE_FIT,
                 demand=g.washer_clear_gauge, resistance=g.g_f, unit="mm", location_mm=loc,
                 note=f"gauge >= t_w + 2 r + washer OD ({bolt.washer_od:g} mm): washer and nut clear of the fillet"),
         _record(c, id="fit_web_depth", title="Web plates fit between the root fillets", clause=CL_DETAIL,
+                tags=(TAG_FIT, TAG_DETAILING, TAG_WEB), guidance=GUIDE_FIT,
                 demand=g.h_wp, resistance=g.d_web, unit="mm", location_mm=loc,
                 note="h_wp = (rows - 1) p + 2 e_v <= d = h - 2 t_f - 2 r"),
         _record(c, id="fit_web_washer", title="Web bolts: washer clear of the flange fillet", clause=CL_DETAIL,
+                tags=(TAG_FIT, TAG_DETAILING, TAG_WEB), guidance=GUIDE_FIT,
                 demand=bolt.washer_od / 2, resistance=g.e_v + (g.d_web - g.h_wp) / 2, unit="mm", location_mm=loc),
     ]
     if g.t_pi > 0.0:
         out.append(_record(c, id="fit_inner_plate", title="Inner flange plates fit beside the root radius",
-                           clause=CL_DETAIL, demand=emin, resistance=min(g.e2_pi_in, g.e2_pi_out), unit="mm",
+                           clause=CL_DETAIL, tags=(TAG_FIT, TAG_DETAILING, TAG_FLANGE), guidance=GUIDE_FIT, demand=emin, resistance=min(g.e2_pi_in, g.e2_pi_out), unit="mm",
                            location_mm=loc, note=f"inner plates {g.b_pi:g} mm wide, 5 mm clear of the root radius"))
     return out
 
 
 # ======================================================================== flange group
-def flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na: NationalAnnex, calc: Calc,
+def _flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na: NationalAnnex, calc: Calc,
                    F_f_ser: float | None = None, loc=None, fast: bool = False) -> list[CheckRecord]:
     """Flange bolts, flange cover plates and the beam flange for the flange force F_f (N).
 
@@ -295,49 +293,39 @@ def flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na:
               fclause="EN 1993-1-1:2005, 6.2.3", N_Ed=F_f * share_i / 2, b=g.b_pi, t=g.t_pi, grade=pg,
               n_holes=cols // 2, d_0=d0, category_C=spec.category == "C", na=na, calc=calc,
               id="inner_plate_tension", title="Inner flange plate (each): tension (gross, net)", location_mm=loc)
-    if spec.category == "C":
-        A_fn = (section.b - cols * d0) * section.tf
-        if A_fn > 0:
-            N_n = calc(P.N_net_Rd, A_net=A_fn, f_y=fy_b, gamma_M0=na.gamma_M0)
-            out.append(calc.record(id="beam_flange_net_C", title="Beam flange: net section at f_y (category C)",
-                                   clause="EN 1993-1-8:2005, 3.4.1(1)", demand=F_f, resistance=N_n, unit="N",
-                                   location_mm=loc, note="N_net,Rd = A_f,net f_y / gamma_M0, EN 1993-1-1 6.2.3(4)"))
+    # (the beam flange net section, with f_y for category C, is a member record: beam_flange_net)
     if fast and not all(r.ok for r in out):
         return out
-    # -- block tearing (concentric, Eq. 3.9): centre block and both edge strips
-    L_v = g.e1_f + (rows - 1) * g.p1_f - (rows - 0.5) * d0
+    # -- block tearing (concentric, Eq. 3.9): centre block and both edge strips; inner plates eccentric (Eq. 3.10)
     spread = g.g_f + 2 * g.p2o_f
+    p2_mean = spread / (cols - 1)             # (cols - 1)(p2_mean - d0) = spread - (cols - 1) d0
+    blocks = []
     for who, t, e2, grade_, F in (("outer plate", g.t_po, g.e2_po, pg, F_o),
                                   ("beam flange", section.tf, g.e2_bf, grade, F_f)):
-        A_nv = 2 * t * L_v
-        for pat, A_nt in (("centre block", t * (spread - (cols - 1) * d0)), ("edge strips", 2 * t * (e2 - d0 / 2))):
-            if A_nt <= 0 or A_nv <= 0:
-                out.append(_fail(f"block_{who}_{pat}", f"Block tearing, {who}, {pat}", "EN 1993-1-8:2005, 3.10.2(2), Eq. 3.9",
-                                 InputError("block areas", (A_nt, A_nv), "positive net areas"), loc))
-                continue
-            _safe(out, P.check_block_tearing, fid=f"block_{who}", ftitle=f"Block tearing, {who}",
-                  fclause="EN 1993-1-8:2005, 3.10.2(2), Eq. 3.9", F_Ed=F, A_nt=A_nt, A_nv=A_nv, grade=grade_, t=t,
-                  eccentric=False, na=na, calc=calc, id=f"block_{who.replace(' ', '_')}_{pat.split()[0]}",
-                  title=f"Block tearing, {who}, {pat}", location_mm=loc)
+        for pat, pattern in (("centre block", "inner"), ("edge strips", "outer")):
+            blocks.append((f"block_{who.replace(' ', '_')}_{pat.split()[0]}", f"Block tearing, {who}, {pat}",
+                           "EN 1993-1-8:2005, 3.10.2(2), Eq. 3.9", False, t, e2, cols, p2_mean, pattern, grade_, F))
     if inner:
-        cols_i = cols // 2
-        e2i = min(g.e2_pi_in, g.e2_pi_out)
-        A_nt = g.t_pi * (e2i + (cols_i - 1) * g.p2o_f - (cols_i - 0.5) * d0)
-        A_nv = g.t_pi * L_v
-        if A_nt > 0 and A_nv > 0:
-            _safe(out, P.check_block_tearing, fid="block_inner", ftitle="Block tearing, inner plate",
-                  fclause="EN 1993-1-8:2005, 3.10.2(3), Eq. 3.10", F_Ed=F_f * share_i / 2, A_nt=A_nt, A_nv=A_nv,
-                  grade=pg, t=g.t_pi, eccentric=True, na=na, calc=calc, id="block_inner_plate",
-                  title="Block tearing, inner plate (each; one shear plane, eccentric Eq. 3.10)", location_mm=loc)
-        else:
-            out.append(_fail("block_inner_plate", "Block tearing, inner plate", "EN 1993-1-8:2005, 3.10.2(3), Eq. 3.10",
-                             InputError("block areas", (A_nt, A_nv), "positive net areas"), loc))
+        blocks.append(("block_inner_plate", "Block tearing, inner plate (each; one shear plane, eccentric Eq. 3.10)",
+                       "EN 1993-1-8:2005, 3.10.2(3), Eq. 3.10", True, g.t_pi, min(g.e2_pi_in, g.e2_pi_out), cols // 2,
+                       g.p2o_f, "one_side", pg, F_f * share_i / 2))
+    for bid, btitle, bclause, ecc, t, e2, n2, p2b, pattern, grade_, F in blocks:
+        try:
+            ba = P.block_tearing_areas(t=t, d_0=d0, n_1=rows, e_1=g.e1_f, p_1=g.p1_f if rows > 1 else 0.0,
+                                       n_2=n2, e_2=e2 if e2 > 0 else 1e-9, p_2=p2b if n2 > 1 else 0.0,
+                                       pattern=pattern)
+        except InputError as e:
+            out.append(_fail(bid, btitle, bclause, e, loc))
+            continue
+        _safe(out, P.check_block_tearing, fid=bid, ftitle=btitle, fclause=bclause, F_Ed=F, A_nt=ba.A_nt,
+              A_nv=ba.A_nv, grade=grade_, t=t, eccentric=ecc, na=na, calc=calc, id=bid, title=btitle,
+              location_mm=loc)
     # -- compression: buckling between fasteners and across the joint
     p_free = max(g.p1_f if rows > 1 else 0.0, spec.gap + 2 * g.e1_f)
     # oversize holes are not "filled by fasteners": net area in compression too (EN 1993-1-1 6.2.4)
     over = hole == "oversize"
-    A_no = (g.b_po - cols * d0) * g.t_po if over else None
-    A_ni = (g.b_pi - (cols // 2) * d0) * g.t_pi if (over and inner) else None
+    A_no = P.A_net_plate(b=g.b_po, t=g.t_po, n=cols, d_0=d0) if over else None
+    A_ni = P.A_net_plate(b=g.b_pi, t=g.t_pi, n=cols // 2, d_0=d0) if (over and inner) else None
     _safe(out, P.check_plate_compression, fid="outer_plate_compression", ftitle="Outer flange plate: compression",
           fclause="EN 1993-1-8:2005, 3.5, Table 3.3", N_Ed=F_o, b=g.b_po, t=g.t_po, p_1=p_free, grade=pg, na=na,
           A_net=A_no, calc=calc, id="outer_plate_compression",
@@ -400,13 +388,13 @@ def web_bolt_bearing(bolt, g: Geometry, section, t: float, fu: float, ply: str, 
         fbx, fbz = cache[kx]
         if fbx <= 0 or fbz <= 0:
             return math.inf, (x, z, Fx, Fz, fbx, fbz)
-        U = U_b_xz(F_x_Ed=Fx, F_b_x_Rd=fbx, F_z_Ed=Fz, F_b_z_Rd=fbz)
+        U = B.U_b_2d(F_x_Ed=Fx, F_b_x_Rd=fbx, F_z_Ed=Fz, F_b_z_Rd=fbz)
         if U > worst[0]:
             worst = (U, (x, z, Fx, Fz, fbx, fbz))
     return worst
 
 
-def web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: NationalAnnex, calc: Calc,
+def _web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: NationalAnnex, calc: Calc,
                 ser_ratio: float | None = None, loc=None, fast: bool = False) -> list[CheckRecord]:
     """Web bolts (elastic polar forces), web plates and the beam web.
 
@@ -434,7 +422,7 @@ def web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Nation
             x, z, Fx, Fz, fbx, fbz = gv
             c.note(f"Governing bolt at x = {x:g} mm, z = {z:g} mm from the group centroid; "
                    f"F_b,Rd in x (e1 along the beam) and in z (e1 vertical), Table 3.4")
-            c(U_b_xz, F_x_Ed=abs(Fx), F_b_x_Rd=fbx, F_z_Ed=abs(Fz), F_b_z_Rd=fbz)
+            c(B.U_b_2d, F_x_Ed=abs(Fx), F_b_x_Rd=fbx, F_z_Ed=abs(Fz), F_b_z_Rd=fbz)
         if gv is not None:
             c.keep("F_x_Ed", abs(gv[2]), "N")
             c.keep("F_z_Ed", abs(gv[3]), "N")
@@ -442,7 +430,7 @@ def web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Nation
             c.keep("F_b_z_Rd", gv[5], "N")
         out.append(c.record(id=f"web_bearing_{ply}", title=f"Web bolts: bearing on the {what}, two directions",
                             clause=CL_BEAR, demand=U, resistance=1.0, unit="", location_mm=loc,
-                            note="(F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2 <= 1, worst bolt"))
+                            note=B.BEARING_2D_CONVENTION + "; worst bolt", guidance=B.BEARING_2D_GUIDANCE))
         if fast and not out[-1].ok:
             return out
     if spec.category in ("B", "C"):
@@ -484,7 +472,7 @@ def web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Nation
         W_n = calc(W_el_net_plate, t=g.t_wp, h=g.h_wp, n_r=g.n_r, d_0=d0, p=g.p_w if g.n_r > 1 else 0.0)
         if W_n <= 0.0:
             raise InputError("web plate", g.h_wp, "a plate deeper than its holes")
-        M_Rd = calc(M_V_Rd_plate, rho=rho, W=W_n, f_y=fy_p, gamma_M0=na.gamma_M0)
+        M_Rd = calc(P.M_V_Rd_el, rho=rho, W_el=W_n, f_y=fy_p, gamma_M0=na.gamma_M0)
         calc.keep("W_el_net", W_n, "mm3")
         calc.keep("rho", rho)
         out.append(calc.record(id="web_plate_bending", title="Web plate (each of 2): in-plane bending at the first "
@@ -497,7 +485,7 @@ def web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Nation
             A_g = g.h_wp * g.t_wp
             N_Rd = calc(P.N_pl_Rd, A=A_g, f_y=fy_p, gamma_M0=na.gamma_M0)
             if forces.N_w_Ed > 0.0:     # tension: net section at the bolt column (holes filled in compression)
-                N_u = calc(P.N_u_Rd, A_net=(g.h_wp - g.n_r * d0) * g.t_wp, f_u=mat_p.f_u,
+                N_u = calc(P.N_u_Rd, A_net=P.A_net_plate(b=g.h_wp, t=g.t_wp, n=g.n_r, d_0=d0), f_u=mat_p.f_u,
                            gamma_M2=na.gamma_M2_member)
                 N_Rd = min(N_Rd, N_u)
             if N_Rd <= 0.0 or M_Rd <= 0.0:
@@ -514,45 +502,83 @@ def web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Nation
 
 
 # ======================================================================== member at the splice
-def member_records(section, grade: str, bolt, g: Geometry, spec, forces, na: NationalAnnex, calc: Calc,
-                   loc=None) -> list[CheckRecord]:
-    """The beam at the splice: bending with flange holes (6.2.5(4)), web net shear, axial block tearing."""
+def _member_records(section, grade: str, bolt, g: Geometry, spec, forces, na: NationalAnnex, calc: Calc,
+                    loc=None) -> list[CheckRecord]:
+    """The beam at the splice: tension flange net of holes for the flange force (6.2.3), bending with
+    flange holes (6.2.5(4)), shear, web net shear, axial block tearing of the web.
+
+    Each record is tagged ``flange`` or ``web``: the group of the layout it depends on."""
     from ...members import check_bending, check_shear
-    out: list[CheckRecord] = []
+    from ..connections.formulas import A_v_net_web
+    fl: list[CheckRecord] = []
+    wb: list[CheckRecord] = []
     d0 = bolt.d_0
     cols = 2 if g.p2o_f == 0 else 4
-    A_f_net = (section.b - cols * d0) * section.tf
+    A_f_net = P.A_net_plate(b=section.b, t=section.tf, n=cols, d_0=d0)
+    # the beam's own tension flange, net of its holes, for the flange force the splice design assumes
+    # (same moment split and lever arm as the bolts; taken at the outermost flange bolt row)
+    _safe(fl, P.check_plate_tension, fid="beam_flange_net", ftitle="Beam tension flange at the splice: net section",
+          fclause="EN 1993-1-1:2005, 6.2.3", N_Ed=forces.F_f_Ed, b=section.b, t=section.tf, grade=grade,
+          n_holes=cols, d_0=d0, category_C=spec.category == "C", na=na, calc=calc, id="beam_flange_net",
+          title="Beam tension flange at the splice: gross and net section (6.2.3) for F_f,Ed", location_mm=loc)
+    if fl and fl[-1].id == "beam_flange_net":
+        fl[-1] = replace(fl[-1], note=fl[-1].note + "; F_f,Ed from the stiffness split of the moment at the outermost "
+                         "flange bolt row (M + V a), the force the flange bolts are designed for")
     if A_f_net <= 0:
-        out.append(_fail("beam_bending_holes", "Beam at the splice: bending with flange holes",
-                         "EN 1993-1-1:2005, 6.2.5(4)", InputError("flange holes", cols * d0, "less than b"), loc))
+        fl.append(_fail("beam_bending_holes", "Beam at the splice: bending with flange holes",
+                        "EN 1993-1-1:2005, 6.2.5(4)", InputError("flange holes", cols * d0, "less than b"), loc))
     else:
-        _safe(out, check_bending, fid="beam_bending_holes", ftitle="Beam at the splice: bending with flange holes",
-              fclause="EN 1993-1-1:2005, 6.2.5(4)", section=section, grade=grade, M_Ed=forces.M_j_Ed, na=na,
+        _safe(fl, check_bending, fid="beam_bending_holes", ftitle="Beam at the splice: bending with flange holes",
+              fclause="EN 1993-1-1:2005, 6.2.5(4)", section=section, grade=grade, M_Ed=forces.M_f_Ed, na=na,
               calc=calc, A_f_net=A_f_net, location_mm=loc)
-        out[-1] = _retitle(out[-1], "beam_bending_holes", "Beam at the splice: bending with tension-flange holes (6.2.5(4))")
-    _safe(out, check_shear, fid="beam_shear", ftitle="Beam at the splice: shear", fclause="EN 1993-1-1:2005, 6.2.6",
+        fl[-1] = _retitle(fl[-1], "beam_bending_holes", "Beam at the splice: bending with tension-flange holes (6.2.5(4))")
+    _safe(wb, check_shear, fid="beam_shear", ftitle="Beam at the splice: shear", fclause="EN 1993-1-1:2005, 6.2.6",
           section=section, grade=grade, V_Ed=abs(forces.V_Ed), na=na, calc=calc, location_mm=loc)
-    out[-1] = _retitle(out[-1], "beam_shear", "Beam at the splice: shear (gross)")
+    wb[-1] = _retitle(wb[-1], "beam_shear", "Beam at the splice: shear (gross)")
     mat = steel(grade, section.tw)
-    A_vn = section.Av_z - g.n_r * d0 * section.tw
+    A_vn = A_v_net_web(A_v=section.Av_z, n_1=g.n_r, d_0=d0, t_w=section.tw)
     if A_vn > 0:
+        A_vn = calc(A_v_net_web, A_v=section.Av_z, n_1=g.n_r, d_0=d0, t_w=section.tw)
         V_n = calc(P.V_Rd_n, A_v_net=A_vn, f_u=mat.f_u, gamma_M2=na.gamma_M2_member)
         calc.keep("A_v_net", A_vn, "mm2")
-        out.append(calc.record(id="beam_web_net_shear", title="Beam web at the splice: net shear",
-                               clause="EN 1993-1-1:2005, 6.2.6(7)", demand=abs(forces.V_Ed), resistance=V_n, unit="N",
-                               location_mm=loc, note=f"A_v,net = A_v - {g.n_r} d0 t_w"))
+        wb.append(calc.record(id="beam_web_net_shear", title="Beam web at the splice: net shear",
+                              clause="EN 1993-1-1:2005, 6.2.6(7)", demand=abs(forces.V_Ed), resistance=V_n, unit="N",
+                              location_mm=loc, note=f"A_v,net = A_v - {g.n_r} d0 t_w"))
     else:
-        out.append(_fail("beam_web_net_shear", "Beam web at the splice: net shear", "EN 1993-1-1:2005, 6.2.6(7)",
-                         InputError("web holes", g.n_r * d0, "less than the shear depth"), loc))
+        wb.append(_fail("beam_web_net_shear", "Beam web at the splice: net shear", "EN 1993-1-1:2005, 6.2.6(7)",
+                        InputError("web holes", g.n_r * d0, "less than the shear depth"), loc))
     if forces.N_w_Ed > 0.0 and g.n_r > 1:
-        A_nt = section.tw * (g.n_r - 1) * (g.p_w - d0)
-        A_nv = 2 * section.tw * (g.e1_w + (g.n_c - 1) * g.g_w - (g.n_c - 0.5) * d0)
-        if A_nt > 0 and A_nv > 0:
-            _safe(out, P.check_block_tearing, fid="beam_web_block", ftitle="Beam web: block tearing (axial)",
-                  fclause="EN 1993-1-8:2005, 3.10.2(2), Eq. 3.9", F_Ed=forces.N_w_Ed, A_nt=A_nt, A_nv=A_nv,
+        # block pulled out between the top and bottom web bolt rows: load along the beam (n_1 = columns)
+        try:
+            ba = P.block_tearing_areas(t=section.tw, d_0=d0, n_1=g.n_c, e_1=g.e1_w, p_1=g.g_w if g.n_c > 1 else 0.0,
+                                       n_2=g.n_r, e_2=g.e_v, p_2=g.p_w, pattern="inner")
+            _safe(wb, P.check_block_tearing, fid="beam_web_block", ftitle="Beam web: block tearing (axial)",
+                  fclause="EN 1993-1-8:2005, 3.10.2(2), Eq. 3.9", F_Ed=forces.N_w_Ed, A_nt=ba.A_nt, A_nv=ba.A_nv,
                   grade=grade, t=section.tw, eccentric=False, na=na, calc=calc, id="beam_web_block",
                   title="Beam web: block tearing under the web's axial tension", location_mm=loc)
-    return out
+        except InputError:
+            pass                     # no positive block: the web cannot tear out between the rows
+    return _tag(fl, TAG_FLANGE) + _tag(wb, TAG_WEB)
+
+
+def flange_records(*args, **kw) -> list[CheckRecord]:
+    """Flange bolts, flange cover plates and the beam flange, tagged ``flange``
+    (spacing records also ``detailing``); see :func:`_flange_records`."""
+    return [replace(r, tags=r.tags + (TAG_DETAILING,)) if "spacing" in r.id or "outstand" in r.id else r
+            for r in _tag(_flange_records(*args, **kw), TAG_FLANGE)]
+
+
+def web_records(*args, **kw) -> list[CheckRecord]:
+    """Web bolts, web plates and the beam web, tagged ``web`` (spacing also ``detailing``);
+    see :func:`_web_records`."""
+    return [replace(r, tags=r.tags + (TAG_DETAILING,)) if "spacing" in r.id else r
+            for r in _tag(_web_records(*args, **kw), TAG_WEB)]
+
+
+def member_records(*args, **kw) -> list[CheckRecord]:
+    """The beam at the splice, tagged ``member`` and ``flange`` or ``web`` by the group whose layout
+    it depends on; see :func:`_member_records`."""
+    return _tag(_member_records(*args, **kw), TAG_MEMBER)
 
 
 def _retitle(rec: CheckRecord, id: str, title: str) -> CheckRecord:
@@ -560,4 +586,4 @@ def _retitle(rec: CheckRecord, id: str, title: str) -> CheckRecord:
     return replace(rec, id=id, title=title)
 
 
-__all__ = ["U_b_xz", "U_NM", "W_el_net_plate", "M_V_Rd_plate", "detailing_records", "flange_records", "web_records", "member_records", "web_bolt_bearing"]
+__all__ = ["U_NM", "W_el_net_plate", "detailing_records", "flange_records", "web_records", "member_records", "web_bolt_bearing"]

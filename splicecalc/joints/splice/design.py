@@ -16,7 +16,7 @@ from ...materials.partial_factors import UK_NA, NationalAnnex
 from ...materials.steel import normalise_grade
 from ..bolts import PRELOAD_CLASSES, get_bolt
 from .checks import detailing_records, flange_records, member_records, web_records
-from .forces import SpliceForces, splice_forces
+from .forces import SpliceForces, flange_reach, splice_forces
 from .geometry import Geometry, geometry
 from .spec import SpliceLayout, SpliceSpec
 
@@ -135,7 +135,7 @@ def validate_inputs(section, grade, M_Ed, V_Ed, N_Ed, spec, na) -> tuple[str, fl
 
 
 def serviceability_forces(section, spec: SpliceSpec, web, web_e1: float, forces: SpliceForces, M_Ed: float,
-                          V_Ed: float, M_Ed_ser: float | None, V_Ed_ser: float | None):
+                          V_Ed: float, M_Ed_ser: float | None, V_Ed_ser: float | None, flange_a: float = 0.0):
     """Category B slip forces: (flange force F_f,ser (N) or None, web ratio F_r,ser/F_r or None, note).
 
     With no serviceability forces the ULS forces are used (conservative, noted); a
@@ -149,7 +149,7 @@ def serviceability_forces(section, spec: SpliceSpec, web, web_e1: float, forces:
     Ms = abs(require_finite("M_Ed_ser", M_Ed_ser if M_Ed_ser is not None else M_Ed))
     Vs = abs(require_finite("V_Ed_ser", V_Ed_ser if V_Ed_ser is not None else V_Ed))
     fs = splice_forces(section, Ms, Vs, 0.0, gap=spec.gap, web_rows=web.rows, web_columns=web.columns,
-                       web_pitch=web.pitch, web_gauge=web.gauge, web_e1=web_e1)
+                       web_pitch=web.pitch, web_gauge=web.gauge, web_e1=web_e1, flange_a=flange_a)
     ratio = fs.F_web_max / forces.F_web_max if forces.F_web_max > 0 else 1.0
     return fs.F_f_Ed, ratio, ""
 
@@ -184,18 +184,23 @@ def check_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0.
         M_c_Rd = moment_resistance(section, grade, na)
     calc = Calc(render=render)
     w = layout.web
+    a_f = flange_reach(spec.gap, g.e1_f, layout.flange.rows, g.p1_f)
     forces = splice_forces(section, M_Ed, V_Ed, N_Ed, gap=spec.gap, web_rows=w.rows, web_columns=w.columns,
                            web_pitch=w.pitch, web_gauge=w.gauge, web_e1=g.e1_w, k_min=k_min,
-                           M_c_Rd=M_c_Rd or 0.0, calc=calc)
+                           M_c_Rd=M_c_Rd or 0.0, calc=calc, flange_a=a_f)
     force_latex = tuple(calc.latex)
     calc.latex = []
-    F_f_ser, ser_ratio, note = serviceability_forces(section, spec, w, g.e1_w, forces, M_Ed, V_Ed, M_Ed_ser, V_Ed_ser)
+    F_f_ser, ser_ratio, note = serviceability_forces(section, spec, w, g.e1_w, forces, M_Ed, V_Ed, M_Ed_ser, V_Ed_ser,
+                                                     a_f)
     if note:
         notes.append(note)
     if k_min > 0:
         notes.append(f"Design moment includes the minimum {k_min:g} M_c,Rd (user setting).")
     notes.append("Moment shared by stiffness (web M I_web/I_y, h_w = h - 2 t_f); flange force lever arm "
-                 "z = h - t_f (conservative); web bolts by the elastic polar method (EN 1993-1-8 3.12(3)).")
+                 "z = h - t_f (conservative); each bolt group's forces taken at its outermost bolt row "
+                 f"(M + V a: a_f = {a_f:g} mm flange, a_w = {forces.a_w:g} mm web); web bolts by the elastic "
+                 "polar method (EN 1993-1-8 3.12(3)); two-direction bearing as a linear utilisation "
+                 "sqrt((F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2).")
     records: list[CheckRecord] = []
     loc = location_mm
     det = detailing_records(section, bolt, g, spec, loc)

@@ -14,6 +14,12 @@ Method (stated in every calc sheet):
   plate lies at ``h + t_p`` and would give a smaller plate force, but the beam
   flange itself must carry the force at ``h - t_f``. Equilibrium holds exactly:
   ``F_f,M z + M_w = M``.
+* Each bolt group's forces are taken at its outermost bolt row (column), not at
+  the joint line: the moment there is ``M_a = |M| + |V| a`` with ``a`` the distance
+  from the joint line (centre of the gap) to that row, on the side where the moment
+  grows (conservative: either side may be that side). The flange force uses
+  ``a_f = g_a/2 + e_1 + (rows - 1) p_1``, the web share ``a_w = g_a/2 + e_1 +
+  (columns - 1) p_2``; the beam's net tension flange is checked for the same F_f.
 * Web bolt group on one side of the joint: shear ``V``, axial ``N_w`` and the
   moment ``M_w + V e`` with ``e`` from the joint line (centre of the gap) to
   the centroid of the bolt group. Elastic polar method, EN 1993-1-8:2005,
@@ -36,6 +42,7 @@ from dataclasses import dataclass
 
 from ...core.clause import clause
 from ...core.record import Calc
+from ..bolts import F_r_Ed, I_p
 
 CIT_DIST = "EN 1993-1-8:2005, 2.5(1)"
 CIT_POLAR = "EN 1993-1-8:2005, 3.12(3)"
@@ -106,21 +113,14 @@ def e_w(g_a: float, e_1: float, n_c: int, p_2: float) -> float:
     return e_w
 
 
-@clause(CIT_POLAR, units={"M_w_Ed": "Nmm", "V_Ed": "N", "e_w": "mm"}, returns="Nmm",
-        example=dict(M_w_Ed=62e6, V_Ed=300e3, e_w=70.0))
-def M_g_Ed(M_w_Ed: float, V_Ed: float, e_w: float) -> float:
-    """Moment on the web bolt group on one side of the joint (N*mm)."""
-    M_g_Ed = abs(M_w_Ed) + abs(V_Ed) * e_w
-    return M_g_Ed
-
-
-@clause(CIT_POLAR, units={"p_1": "mm", "p_2": "mm"}, returns="mm2",
-        example=dict(n_r=5, n_c=2, p_1=70.0, p_2=60.0))
-def I_p(n_r: int, n_c: int, p_1: float, p_2: float) -> float:
-    """Polar sum of squares of a rectangular n_r x n_c bolt grid about its centroid,
-    sum(x_i^2 + z_i^2) with rows at pitch p_1 (vertical) and columns at gauge p_2 (mm2)."""
-    I_p = n_c * n_r * (n_r ** 2 - 1) * p_1 ** 2 / 12 + n_r * n_c * (n_c ** 2 - 1) * p_2 ** 2 / 12
-    return I_p
+@clause(CIT_DIST, units={"M_Ed": "Nmm", "V_Ed": "N", "e": "mm"}, returns="Nmm",
+        example=dict(M_Ed=62e6, V_Ed=300e3, e=70.0))
+def M_e_Ed(M_Ed: float, V_Ed: float, e: float) -> float:
+    """Moment a distance e from where M acts, on the side where it grows: |M| + |V| e (N*mm). Used for
+    the moment at a group's outermost bolt row (e = a from the joint line) and for the moment on the
+    web bolt group about its centroid (M = M_w, e = e_w)."""
+    M_e_Ed = abs(M_Ed) + abs(V_Ed) * e
+    return M_e_Ed
 
 
 @clause(CIT_POLAR, units={"N_w_Ed": "N", "M_g_Ed": "Nmm", "z_i": "mm", "I_p": "mm2"}, returns="N",
@@ -141,22 +141,11 @@ def F_z_Ed(V_Ed: float, n: int, M_g_Ed: float, x_i: float, I_p: float) -> float:
     return F_z_Ed
 
 
-@clause(CIT_POLAR, units={"F_x_Ed": "N", "F_z_Ed": "N"}, returns="N",
-        example=dict(F_x_Ed=-103e3, F_z_Ed=52e3))
-def F_r_Ed(F_x_Ed: float, F_z_Ed: float) -> float:
-    """Resultant (vector sum) on one bolt (N)."""
-    F_r_Ed = (F_x_Ed ** 2 + F_z_Ed ** 2) ** 0.5
-    return F_r_Ed
-
-
-
-
-
 @dataclass(frozen=True)
 class SpliceForces:
     """Design forces at one splice (N, N*mm, mm)."""
 
-    M_Ed: float            # moment from the analysis
+    M_Ed: float            # moment from the analysis (at the joint line)
     V_Ed: float
     N_Ed: float
     M_j_Ed: float          # design moment incl. the minimum
@@ -171,6 +160,10 @@ class SpliceForces:
     M_g_Ed: float
     bolt_forces: tuple[tuple[float, float, float, float, float], ...]  # (x_i, z_i, F_x, F_z, F_r)
     I_p: float
+    a_f: float = 0.0       # joint line -> outermost flange bolt row (mm)
+    a_w: float = 0.0       # joint line -> outermost web bolt column (mm)
+    M_f_Ed: float = 0.0    # moment at the outermost flange row: the flange force is taken there
+    M_w_a_Ed: float = 0.0  # moment at the outermost web column: the web share is taken there
 
     @property
     def F_web_max(self) -> float:
@@ -183,21 +176,55 @@ def web_bolt_coordinates(n_r: int, n_c: int, p_1: float, p_2: float) -> list[tup
     return [((j - (n_c - 1) / 2) * p_2, ((n_r - 1) / 2 - i) * p_1) for i in range(n_r) for j in range(n_c)]
 
 
+def flange_reach(gap: float, e_1: float, rows: int, p_1: float) -> float:
+    """Distance from the joint line to the outermost flange bolt row (mm)."""
+    return gap / 2 + e_1 + (rows - 1) * p_1
+
+
+def web_reach(gap: float, e_1: float, columns: int, gauge: float) -> float:
+    """Distance from the joint line to the outermost web bolt column (mm)."""
+    return gap / 2 + e_1 + (columns - 1) * gauge
+
+
+def flange_force(section, M_j: float, V_Ed: float, N_Ed: float, a_f: float, calc: Calc | None = None
+                 ) -> tuple[float, float, float, float]:
+    """Flange force at the outermost flange bolt row: (F_f,Ed, M_f,Ed, F_f from moment, N_f) in N, N*mm.
+
+    The moment there (``|M_j| + |V| a_f``) is split by stiffness as at the joint line."""
+    c = calc or Calc()
+    Mf = c(M_e_Ed, M_Ed=M_j, V_Ed=V_Ed, e=a_f) if a_f > 0 else abs(M_j)
+    Iw = I_web(t_w=section.tw, h=section.h, t_f=section.tf)
+    Mwf = c(M_w_Ed, M_j_Ed=Mf, I_web=Iw, I_y=section.Iy)
+    Nf = c(N_f_Ed, N_Ed=N_Ed, b=section.b, t_f=section.tf, A=section.A) if N_Ed else 0.0
+    z = z_f(h=section.h, t_f=section.tf)
+    Ff = c(F_f_Ed, M_j_Ed=Mf, M_w_Ed=Mwf, z_f=z, N_f_Ed=Nf)
+    return Ff, Mf, (Mf - Mwf) / z, Nf
+
+
 def splice_forces(section, M_Ed: float, V_Ed: float, N_Ed: float, *, gap: float, web_rows: int,
                   web_columns: int, web_pitch: float, web_gauge: float, web_e1: float,
-                  k_min: float = 0.0, M_c_Rd: float = 0.0, calc: Calc | None = None) -> SpliceForces:
-    """All splice design forces (floats in N, mm, N*mm). ``calc`` renders each step."""
+                  k_min: float = 0.0, M_c_Rd: float = 0.0, calc: Calc | None = None,
+                  flange_a: float = 0.0) -> SpliceForces:
+    """All splice design forces (floats in N, mm, N*mm). ``calc`` renders each step.
+
+    ``flange_a``: distance from the joint line to the outermost flange bolt row (mm,
+    :func:`flange_reach`); the flange force is taken there and the web group's moment
+    share at its own outermost column (``M + V a``), not at the joint line."""
     c = calc or Calc()
     Mj = c(M_j_Ed, M_Ed=M_Ed, k_min=k_min, M_c_Rd=M_c_Rd) if k_min > 0 else abs(M_Ed)
     Iw = c(I_web, t_w=section.tw, h=section.h, t_f=section.tf)
-    Mw = c(M_w_Ed, M_j_Ed=Mj, I_web=Iw, I_y=section.Iy)
-    Nf = c(N_f_Ed, N_Ed=N_Ed, b=section.b, t_f=section.tf, A=section.A) if N_Ed else 0.0
-    Nw = c(N_w_Ed, N_Ed=N_Ed, N_f_Ed=Nf) if N_Ed else 0.0
     z = c(z_f, h=section.h, t_f=section.tf)
-    Ff = c(F_f_Ed, M_j_Ed=Mj, M_w_Ed=Mw, z_f=z, N_f_Ed=Nf)
-    FfM = (Mj - Mw) / z
+    if c.render:
+        c.note("Flange group: forces at its outermost bolt row, a_f from the joint line")
+    Ff, Mf, FfM, Nf = flange_force(section, Mj, V_Ed, N_Ed, flange_a, calc=c)
+    Nw = c(N_w_Ed, N_Ed=N_Ed, N_f_Ed=Nf) if N_Ed else 0.0
+    aw = web_reach(gap, web_e1, web_columns, web_gauge)
+    if c.render:
+        c.note("Web group: moment share at its outermost bolt column, a_w from the joint line")
+    Mwa = c(M_e_Ed, M_Ed=Mj, V_Ed=V_Ed, e=aw)
+    Mw = c(M_w_Ed, M_j_Ed=Mwa, I_web=Iw, I_y=section.Iy)
     e = c(e_w, g_a=gap, e_1=web_e1, n_c=web_columns, p_2=web_gauge)
-    Mg = c(M_g_Ed, M_w_Ed=Mw, V_Ed=V_Ed, e_w=e)
+    Mg = c(M_e_Ed, M_Ed=Mw, V_Ed=V_Ed, e=e)
     n = web_rows * web_columns
     Ip = I_p(n_r=web_rows, n_c=web_columns, p_1=web_pitch, p_2=web_gauge)
     V = abs(V_Ed)
@@ -219,8 +246,9 @@ def splice_forces(section, M_Ed: float, V_Ed: float, N_Ed: float, *, gap: float,
         fz = c(F_z_Ed, V_Ed=V, n=n, M_g_Ed=Mg, x_i=xg, I_p=Ip)
         c(F_r_Ed, F_x_Ed=fx, F_z_Ed=fz)
     return SpliceForces(M_Ed=M_Ed, V_Ed=V_Ed, N_Ed=N_Ed, M_j_Ed=Mj, I_web=Iw, M_w_Ed=Mw, z=z, F_f_M=FfM,
-                        N_f_Ed=Nf, N_w_Ed=Nw, F_f_Ed=Ff, e_w=e, M_g_Ed=Mg, bolt_forces=tuple(forces), I_p=Ip)
+                        N_f_Ed=Nf, N_w_Ed=Nw, F_f_Ed=Ff, e_w=e, M_g_Ed=Mg, bolt_forces=tuple(forces), I_p=Ip,
+                        a_f=flange_a, a_w=aw, M_f_Ed=Mf, M_w_a_Ed=Mwa)
 
 
-__all__ = ["I_web", "M_j_Ed", "M_w_Ed", "N_f_Ed", "N_w_Ed", "z_f", "F_f_Ed", "e_w", "M_g_Ed", "I_p",
-           "F_x_Ed", "F_z_Ed", "F_r_Ed", "SpliceForces", "splice_forces", "web_bolt_coordinates"]
+__all__ = ["I_web", "M_e_Ed", "flange_force", "flange_reach", "web_reach", "M_j_Ed", "M_w_Ed", "N_f_Ed", "N_w_Ed", "z_f", "F_f_Ed", "e_w",
+           "F_x_Ed", "F_z_Ed", "SpliceForces", "splice_forces", "web_bolt_coordinates"]
