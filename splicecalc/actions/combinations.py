@@ -7,7 +7,12 @@ ULS STR (EN 1990:2002, 6.4.3.2, Table A1.2(B)), chosen by ``na.combination``:
   6.10b  xi gamma_G G + gamma_Q Q_1 + gamma_Q psi_0,i Q_i; the less favourable governs,
   which :func:`governing` finds by evaluating every combination.
 
-Every variable action is taken as leading in turn. All loads on a simply
+Every variable action is taken as leading in turn. Imposed loads of several categories are by
+default ONE variable action (``imposed="single"``, EN 1991-1-1:2002, 3.3.1(2)P; common practice
+on one member): when it leads every part takes gamma_Q, when it accompanies each part takes
+its own category's psi (psi_0, psi_1 or psi_2). ``imposed="separate"`` makes each category
+(each action name) its own action, leading in turn. Imposed loads given an explicit ``group``
+stay separate actions in both modes. All loads on a simply
 supported span act downward, so permanent actions are unfavourable
 (gamma_G,sup) and no variable action is favourable (gamma_Q = 0 would simply
 omit it; the leading-in-turn set includes the case without it only when it is
@@ -48,14 +53,30 @@ _CIT = {
 }
 
 
+#: how imposed loads of several categories combine (see the module docstring)
+IMPOSED_MODES: tuple[str, ...] = ("single", "separate")
+#: name of the single imposed action made of several categories (followed by them, "imposed B+C")
+IMPOSED_TOTAL = "imposed"
+
+
 @dataclass(frozen=True)
 class VariableAction:
-    """One variable action: its name, type (imposed/snow/wind), category and psi factors."""
+    """One variable action: its name, type (imposed/snow/wind), category and psi factors.
+
+    ``parts``: for the total imposed load taken as one action, the (action name, psi factors)
+    of each category in it; empty for an ordinary action (then the action is its own part).
+    """
 
     name: str
     action: str
     category: str | None
     psi: PsiFactors
+    parts: tuple[tuple[str, PsiFactors], ...] = ()
+
+    @property
+    def members(self) -> tuple[tuple[str, PsiFactors], ...]:
+        """(action name, psi) of every load group this action is made of."""
+        return self.parts or ((self.name, self.psi),)
 
 
 @dataclass(frozen=True)
@@ -127,13 +148,37 @@ def _check_psi(psi: object) -> PsiTable:
     return psi
 
 
-def variable_actions(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA) -> tuple[VariableAction, ...]:
+def variable_actions(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA,
+                     imposed: str = "single") -> tuple[VariableAction, ...]:
     """The distinct variable actions among ``loads``, in order of first appearance.
 
-    Loads sharing an action name must share type and category (else InputError).
+    Loads sharing an action name must share type and category (else InputError). With
+    ``imposed="single"`` the imposed categories without an explicit group are merged into one
+    action named ``"imposed"`` (when there are two or more of them), see the module docstring.
     """
     loads = _check_loads(loads)
     psi = _check_psi(psi)
+    require_choice("imposed", imposed, IMPOSED_MODES)
+    vas = _variable_actions(loads, psi)
+    if imposed == "separate":
+        return vas
+    merge = [va for va in vas if va.action == "imposed" and va.name == f"imposed {va.category}"]
+    if len(merge) < 2:
+        return vas
+    name = IMPOSED_TOTAL + " " + "+".join(va.category or "" for va in merge)
+    total = VariableAction(name, "imposed", None, merge[0].psi,
+                           parts=tuple((va.name, va.psi) for va in merge))
+    out: list[VariableAction] = []
+    for va in vas:
+        if va in merge:
+            if va is merge[0]:
+                out.append(total)
+        else:
+            out.append(va)
+    return tuple(out)
+
+
+def _variable_actions(loads: tuple[Load, ...], psi: PsiTable) -> tuple[VariableAction, ...]:
     seen: dict[str, VariableAction] = {}
     for ld in loads:
         if ld.action == "permanent":
@@ -179,7 +224,7 @@ def _has_permanent(loads: tuple[Load, ...]) -> bool:
 
 # --------------------------------------------------------------- ULS STR
 def uls_combinations(loads: Sequence[Load], na: NationalAnnex = UK_NA,
-                     psi: PsiTable = PSI_UK_NA) -> list[Combination]:
+                     psi: PsiTable = PSI_UK_NA, imposed: str = "single") -> list[Combination]:
     """ULS STR combinations, EN 1990:2002, 6.4.3.2, Table A1.2(B), each variable action leading in turn.
 
     ``na.combination == "6.10"``: one Eq. (6.10) combination per leading action.
@@ -188,7 +233,7 @@ def uls_combinations(loads: Sequence[Load], na: NationalAnnex = UK_NA,
     """
     loads = _check_loads(loads)
     na = _check_na(na)
-    vas = variable_actions(loads, psi)
+    vas = variable_actions(loads, psi, imposed)
     gG, gQ, xi = na.gamma_G, na.gamma_Q, na.xi
     hasG = _has_permanent(loads)
     combos: list[Combination] = []
@@ -199,10 +244,11 @@ def uls_combinations(loads: Sequence[Load], na: NationalAnnex = UK_NA,
     def add_variable(f: dict, w: dict, lead) -> None:
         """Leading action gamma_Q, accompanying ones gamma_Q psi_0 (Eq. 6.10 and 6.10b)."""
         for va in vas:
-            if va is lead:
-                f[va.name], w[va.name] = gQ, _g(gQ)
-            else:
-                f[va.name], w[va.name] = gQ * va.psi.psi_0, f"{_g(gQ)} x {_g(va.psi.psi_0)}"
+            for name, ps in va.members:
+                if va is lead:
+                    f[name], w[name] = gQ, _g(gQ)
+                else:
+                    f[name], w[name] = gQ * ps.psi_0, f"{_g(gQ)} x {_g(ps.psi_0)}"
 
     if na.combination == "6.10":
         leads = vas or (None,)
@@ -215,7 +261,8 @@ def uls_combinations(loads: Sequence[Load], na: NationalAnnex = UK_NA,
     # 6.10a: all variable actions with psi_0 (independent of the leading action)
     f, w = base(gG, _g(gG))
     for va in vas:
-        f[va.name], w[va.name] = gQ * va.psi.psi_0, f"{_g(gQ)} x {_g(va.psi.psi_0)}"
+        for name, ps in va.members:
+            f[name], w[name] = gQ * ps.psi_0, f"{_g(gQ)} x {_g(ps.psi_0)}"
     combos.append(_build("ULS 6.10a", "ULS", "6.10a", None, loads, f, w))
     for lead in (vas or (None,)):
         f, w = base(xi * gG, f"{_g(xi)} x {_g(gG)}")
@@ -229,9 +276,9 @@ def uls_combinations(loads: Sequence[Load], na: NationalAnnex = UK_NA,
 def _sls(loads: Sequence[Load], psi: PsiTable, kind: str, with_G: bool,
          lead_factor: Callable[[PsiFactors], float], acc_factor: Callable[[PsiFactors], float],
          lead_word: Callable[[PsiFactors], str], acc_word: Callable[[PsiFactors], str],
-         per_leading: bool) -> list[Combination]:
+         per_leading: bool, imposed: str = "single") -> list[Combination]:
     loads = _check_loads(loads)
-    vas = variable_actions(loads, psi)
+    vas = variable_actions(loads, psi, imposed)
     hasG = with_G and _has_permanent(loads)
     combos = []
     leads: tuple[Any, ...] = (vas or (None,)) if per_leading else (None,)
@@ -241,47 +288,53 @@ def _sls(loads: Sequence[Load], psi: PsiTable, kind: str, with_G: bool,
         f: dict[str, float] = {"G": 1.0} if hasG else {}
         w: dict[str, str] = {"G": "1"} if hasG else {}
         for va in vas:
-            if va is lead:
-                f[va.name], w[va.name] = lead_factor(va.psi), lead_word(va.psi)
-            else:
-                f[va.name], w[va.name] = acc_factor(va.psi), acc_word(va.psi)
+            for name, ps in va.members:
+                if va is lead:
+                    f[name], w[name] = lead_factor(ps), lead_word(ps)
+                else:
+                    f[name], w[name] = acc_factor(ps), acc_word(ps)
         nm = f"SLS {kind}" + (f", leading: {lead.name}" if lead is not None else "")
         combos.append(_build(nm, "SLS", kind, lead.name if lead is not None else None, loads, f, w))
     return combos
 
 
-def sls_characteristic(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA) -> list[Combination]:
+def sls_characteristic(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA,
+                       imposed: str = "single") -> list[Combination]:
     """SLS characteristic G + Q_1 + psi_0,i Q_i, EN 1990:2002, 6.5.3, Eq. (6.14b); each action leading."""
     return _sls(loads, _check_psi(psi), "characteristic", True, lambda p: 1.0, lambda p: p.psi_0,
-                lambda p: "1", lambda p: _g(p.psi_0), True)
+                lambda p: "1", lambda p: _g(p.psi_0), True, imposed)
 
 
-def sls_frequent(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA) -> list[Combination]:
+def sls_frequent(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA,
+                 imposed: str = "single") -> list[Combination]:
     """SLS frequent G + psi_1,1 Q_1 + psi_2,i Q_i, EN 1990:2002, 6.5.3, Eq. (6.15b); each action leading."""
     return _sls(loads, _check_psi(psi), "frequent", True, lambda p: p.psi_1, lambda p: p.psi_2,
-                lambda p: _g(p.psi_1), lambda p: _g(p.psi_2), True)
+                lambda p: _g(p.psi_1), lambda p: _g(p.psi_2), True, imposed)
 
 
-def sls_quasi_permanent(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA) -> list[Combination]:
+def sls_quasi_permanent(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA,
+                        imposed: str = "single") -> list[Combination]:
     """SLS quasi-permanent G + psi_2,i Q_i, EN 1990:2002, 6.5.3, Eq. (6.16b) (one combination)."""
     return _sls(loads, _check_psi(psi), "quasi-permanent", True, lambda p: p.psi_2, lambda p: p.psi_2,
-                lambda p: _g(p.psi_2), lambda p: _g(p.psi_2), False)
+                lambda p: _g(p.psi_2), lambda p: _g(p.psi_2), False, imposed)
 
 
-def sls_variable_characteristic(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA) -> list[Combination]:
+def sls_variable_characteristic(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA,
+                                imposed: str = "single") -> list[Combination]:
     """Variable actions only, characteristic: Q_1 + psi_0,i Q_i (EN 1990 Eq. (6.14b) without G).
 
     For the deflection limit under variable actions (UK NA to BS EN 1993-1-1, NA.2.23).
     Empty when there is no variable action.
     """
     return _sls(loads, _check_psi(psi), "variable characteristic", False, lambda p: 1.0,
-                lambda p: p.psi_0, lambda p: "1", lambda p: _g(p.psi_0), True)
+                lambda p: p.psi_0, lambda p: "1", lambda p: _g(p.psi_0), True, imposed)
 
 
-def sls_combinations(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA) -> list[Combination]:
+def sls_combinations(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA,
+                     imposed: str = "single") -> list[Combination]:
     """All SLS combinations: characteristic, frequent, quasi-permanent and variable characteristic."""
-    return (sls_characteristic(loads, psi) + sls_frequent(loads, psi) + sls_quasi_permanent(loads, psi)
-            + sls_variable_characteristic(loads, psi))
+    return (sls_characteristic(loads, psi, imposed) + sls_frequent(loads, psi, imposed)
+            + sls_quasi_permanent(loads, psi, imposed) + sls_variable_characteristic(loads, psi, imposed))
 
 
 # ------------------------------------------------------------- governing
@@ -311,20 +364,24 @@ def governing(combos: Sequence[Combination], effect: Callable[[Combination], flo
 # --------------------------------------------------------------- rendering
 def render_line_load(combo: Combination, loads: Sequence[Load], span_mm: float,
                      na: NationalAnnex = UK_NA, psi: PsiTable = PSI_UK_NA,
-                     calc: Calc | None = None) -> float:
+                     calc: Calc | None = None, imposed: str = "single") -> float:
     """Render the combined full-span line load of ``combo`` (N/mm) with its EN 1990 equation.
 
     Sums the characteristic full-span UDLs of each action of ``loads`` (partial
     UDLs and point loads are factored the same way but not part of this line)
     and calls the matching formula of :mod:`splicecalc.actions.formulas` through
-    ``calc``; further accompanying actions are added with ``w_acc``.
+    ``calc``; further load groups are added with ``w_acc``. Every factor is the one the
+    combination itself applies (``combo.factor``), so the line shows what the analysis used;
+    ``psi`` and ``imposed`` must be those the combinations were made with.
     """
     if not isinstance(combo, Combination):
         raise InputError("combo", combo, "a Combination")
     loads = _check_loads(loads)
     na = _check_na(na)
     calc = calc or Calc()
-    vas = variable_actions(loads, psi)
+    vas = variable_actions(loads, psi, imposed)
+    uls = combo.limit_state == "ULS"
+    k = combo.kind
 
     def full(key: str) -> float:
         return sum(ld.w for ld in loads if isinstance(ld, UDL) and ld.is_full(span_mm)
@@ -333,15 +390,18 @@ def render_line_load(combo: Combination, loads: Sequence[Load], span_mm: float,
     g_k = full("G")
     lead = next((v for v in vas if v.name == combo.leading), None)
     others = [v for v in vas if v is not lead]
-    if lead is None and combo.kind in ("6.10a", "quasi-permanent") and others:
+    if lead is None and k in ("6.10a", "quasi-permanent") and others:
         lead, others = others[0], others[1:]
-    q_k1 = full(lead.name) if lead else 0.0
-    others.sort(key=lambda v: full(v.name) == 0.0)
-    acc = others[0] if others else None
-    q_k2 = full(acc.name) if acc else 0.0
-    p1 = lead.psi if lead else PsiFactors(0.0, 0.0, 0.0)
-    p2 = acc.psi if acc else PsiFactors(0.0, 0.0, 0.0)
-    k = combo.kind
+    # load groups (action name, psi) with a full-span load, leading action's first
+    lead_parts = [m for m in (lead.members if lead else ()) if full(m[0]) > 0.0]
+    acc_parts = [m for v in others for m in v.members if full(m[0]) > 0.0]
+    first = lead_parts[0] if lead_parts else None
+    second = acc_parts[0] if acc_parts else None
+    rest = lead_parts[1:] + acc_parts[1:]
+    q_k1 = full(first[0]) if first else 0.0
+    q_k2 = full(second[0]) if second else 0.0
+    p1 = first[1] if first else PsiFactors(0.0, 0.0, 0.0)
+    p2 = second[1] if second else PsiFactors(0.0, 0.0, 0.0)
     if k == "6.10":
         w = calc(fm.w_Ed_610, g_k=g_k, q_k1=q_k1, q_k2=q_k2, gamma_G=na.gamma_G, gamma_Q=na.gamma_Q,
                  psi_02=p2.psi_0)
@@ -359,13 +419,7 @@ def render_line_load(combo: Combination, loads: Sequence[Load], span_mm: float,
         w = calc(fm.w_k_freq, g_k=g_k, q_k1=q_k1, q_k2=q_k2, psi_11=p1.psi_1, psi_22=p2.psi_2)
     else:
         w = calc(fm.w_k_qp, g_k=g_k, q_k1=q_k1, q_k2=q_k2, psi_21=p1.psi_2, psi_22=p2.psi_2)
-    uls = combo.limit_state == "ULS"
-    for va in others[1:]:
-        if full(va.name) == 0.0:
-            continue
-        if k in ("frequent", "quasi-permanent"):
-            ps = va.psi.psi_2
-        else:
-            ps = va.psi.psi_0
-        w = calc(fm.w_acc, w_prev=w, gamma_i=na.gamma_Q if uls else 1.0, psi_i=ps, q_ki=full(va.name))
+    gamma = na.gamma_Q if uls else 1.0
+    for name, _ in rest:
+        w = calc(fm.w_acc, w_prev=w, gamma_i=gamma, psi_i=combo.factor(name) / gamma, q_ki=full(name))
     return float(w)

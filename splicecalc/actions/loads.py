@@ -13,7 +13,7 @@ action of a load is named after its type (``"imposed B"``, ``"snow"``,
 ``"wind"``), so all category-B imposed loads lead together; give ``group=`` to
 treat a load as a separate independent action (e.g. ``group="plant"``).
 
-Public API: :data:`ACTIONS`, :data:`CATEGORIES`, :class:`UDL`, :class:`PointLoad`,
+Public API: :data:`ACTIONS`, :data:`CATEGORIES`, :data:`APPLIED_TO`, :class:`UDL`, :class:`PointLoad`,
 :data:`Load`, :func:`check_loads_on_span`, :func:`self_weight_udl`, :data:`g_n`.
 """
 
@@ -137,9 +137,20 @@ class UDL:
         return f"{self.name}: {self.w:.3g} kN/m, {ext} ({self.action_name})"
 
 
+#: how a point load enters the beam: on a flange (the web is checked under it, EN 1993-1-5
+#: section 6) or through a connection to the web (a secondary beam's end plate or fin plate)
+APPLIED_TO: tuple[str, ...] = ("flange", "web")
+
+
 @dataclass(frozen=True)
 class PointLoad:
-    """Concentrated load ``P`` (N, > 0, downwards) at ``x`` (mm from support A)."""
+    """Concentrated load ``P`` (N, > 0, downwards) at ``x`` (mm from support A).
+
+    bearing_length: stiff bearing length s_s (mm, >= 0) over which the load is spread on the
+        flange (EN 1993-1-5 6.3); 0 (default) for a load with no stiff bearing.
+    applied_to: ``"flange"`` (default: on the flange, the web is checked under it) or ``"web"``
+        (through a connection to the web, e.g. a secondary beam's end plate or fin plate).
+    """
 
     name: str
     action: str
@@ -147,6 +158,8 @@ class PointLoad:
     x: float
     category: str | None = None
     group: str = ""
+    bearing_length: float = 0.0
+    applied_to: str = "flange"
 
     def __post_init__(self) -> None:
         f = f"load {self.name!r}" if isinstance(self.name, str) else "load"
@@ -159,6 +172,9 @@ class PointLoad:
         object.__setattr__(self, "P", P)
         object.__setattr__(self, "x", x)
         object.__setattr__(self, "group", _check_group(self.group, f))
+        object.__setattr__(self, "bearing_length", require_non_negative(f"{f}.bearing_length",
+                                                                        self.bearing_length, "mm"))
+        require_choice(f"{f}.applied_to", self.applied_to, APPLIED_TO)
 
     @property
     def kind(self) -> str:
@@ -176,8 +192,13 @@ class PointLoad:
 
     def to_dict(self) -> dict:
         """JSON-ready dict; keys carry units."""
-        return {"name": self.name, "type": "point", "action": self.action, "category": self.category,
-                "group": self.action_name, "P_kN": self.P / 1e3, "x_mm": self.x}
+        d = {"name": self.name, "type": "point", "action": self.action, "category": self.category,
+             "group": self.action_name, "P_kN": self.P / 1e3, "x_mm": self.x}
+        if self.bearing_length:
+            d["bearing_length_mm"] = self.bearing_length
+        if self.applied_to != "flange":
+            d["applied_to"] = self.applied_to
+        return d
 
     def describe(self) -> str:
         return f"{self.name}: {self.P / 1e3:.3g} kN at x = {self.x / 1e3:.3g} m ({self.action_name})"
@@ -212,6 +233,9 @@ def check_loads_on_span(loads: object, span_mm: float, field: str = "loads") -> 
         if isinstance(ld, PointLoad):
             if ld.x > L:
                 raise InputError(f"{f}.x", ld.x, f"a position from 0 to the span {L:g} mm")
+            if ld.bearing_length > L:
+                raise InputError(f"{f}.bearing_length", ld.bearing_length,
+                                 f"a stiff bearing length from 0 to the span {L:g} mm")
         else:
             if ld.x_start >= L:
                 raise InputError(f"{f}.x_start", ld.x_start, f"a position from 0 to below the span {L:g} mm")

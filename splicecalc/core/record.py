@@ -33,6 +33,10 @@ KEY_TAG = {
 CHECKED = "checked"
 #: record status of a check the package does not make: it stays in the summary and is never a pass
 NOT_CHECKED = "not checked"
+#: record status of information that cannot fail (the cross-section class with its governing c/t,
+#: a restraint force, a natural frequency quoted for the reader): ok, utilisation 0, never governs,
+#: shown with verdict INFO and no utilisation
+INFO = "info"
 
 
 def display(value: float, unit: str) -> tuple[float, str]:
@@ -87,6 +91,10 @@ class CheckRecord:
     def has(self, *tags: str) -> bool:
         """True when the record carries every one of ``tags``."""
         return all(t in self.tags for t in tags)
+    @property
+    def is_check(self) -> bool:
+        """True for a check made (demand over resistance); False for INFO and NOT CHECKED records."""
+        return self.status == CHECKED
 
     # ----------------------------------------------------------------- output
     def to_dict(self) -> dict[str, Any]:
@@ -114,6 +122,9 @@ class CheckRecord:
             d[f"demand{sfx}"] = d[f"resistance{sfx}"] = d["utilisation"] = None
         if self.guidance:
             d["guidance"] = self.guidance
+        if self.status == INFO:
+            d["status"] = self.status
+            d["utilisation"] = None
         return d
 
     def to_json(self) -> str:
@@ -123,11 +134,16 @@ class CheckRecord:
     def verdict(self) -> str:
         if not self.checked:
             return "NOT CHECKED"
+        if self.status == INFO:
+            return "INFO"
         return "OK" if self.ok else "NOT OK"
 
     def summary_line(self) -> str:
         if not self.checked:
             return f"{self.title:<48} {'-':>10}   {'-':>10} {'':<5} u =   -    NOT CHECKED  [{self.clause}]"
+        if self.status == INFO:
+            return (f"{self.title:<48} {self.demand:10.2f} ({self.resistance:10.2f}) {self.unit:<5} u =   -    "
+                    f"INFO  [{self.clause}]")
         return (f"{self.title:<48} {self.demand:10.2f} / {self.resistance:10.2f} {self.unit:<5} "
                 f"u = {self.utilisation:5.3f}  {self.verdict:<6}  [{self.clause}]")
 
@@ -204,6 +220,14 @@ class Calc:
         self.values = {}
         return rec
 
+    def info(self, *, id: str, title: str, clause: str, demand: float = 0.0, resistance: float = 0.0,
+             unit: str = "", location_mm: float | None = None, note: str = "") -> CheckRecord:
+        """Close an information record (status :data:`INFO`, no utilisation): e.g. the class with its
+        governing c/t (``demand``) and the limit of the class reached (``resistance``)."""
+        rec = self.record(id=id, title=title, clause=clause, demand=demand, resistance=resistance, unit=unit,
+                          location_mm=location_mm, note=note)
+        return CheckRecord(**{**rec.__dict__, "utilisation": 0.0, "ok": True, "status": INFO})
+
 
 def not_checked(*, id: str, title: str, clause: str, reason: str, location_mm: float | None = None,
                 values: dict[str, tuple[float, str]] | None = None) -> CheckRecord:
@@ -261,5 +285,5 @@ def find(records, *tags: str) -> list[CheckRecord]:
     return [r for r in records if r.has(*tags)]
 
 
-__all__ = ["CHECKED", "NOT_CHECKED", "not_checked", "count_verdicts", "verdict_sentence", "summary_order",
+__all__ = ["CHECKED", "NOT_CHECKED", "INFO", "not_checked", "count_verdicts", "verdict_sentence", "summary_order",
            "CheckRecord", "Calc", "utilisation", "display", "records_to_json", "asdict", "find"]

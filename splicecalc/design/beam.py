@@ -37,13 +37,13 @@ from ..actions import (Combination, PointLoad, PsiTable, UDL, self_weight_udl, s
                        sls_variable_characteristic, uls_combinations)
 from ..analysis import Envelope, SimpleBeam, beam_diagrams, envelope
 from ..core.errors import InputError
-from ..core.record import Calc, CheckRecord
+from ..core.record import Calc, CheckRecord, not_checked
 from ..job.model import SELF_WEIGHT_NAME, Job
 from ..materials import E_MPa, NationalAnnex, steel
 from ..members import en1993_1_1 as f11
-from ..members import (C1_C2_PINNED, C_1_linear, M_cr_C1C2, ShearBucklingError, SlenderSectionError,
-                       check_bending, check_bending_shear, check_deflection, check_ltb, check_shear,
-                       check_web_bearing, classify, section_class)
+from ..members import (C1_C2_PINNED, C_1_linear, M_cr_C1C2, check_bending, check_bending_shear,
+                       check_deflection, check_ltb, check_shear, check_transverse_bending, check_transverse_force,
+                       check_web_bearing, classify, transverse_resistance)
 from ..sections import Section, get_section, list_sections
 
 #: name of the self-weight load added by the design (reserved in job loads)
@@ -68,7 +68,7 @@ class _MassCase:
         self._ctx = ctx
         sw = self_weight_udl(mass, name=SELF_WEIGHT)
         self.loads = (sw, *ctx.job.loads)
-        self.uls = tuple(uls_combinations(self.loads, ctx.na, ctx.psi))
+        self.uls = tuple(uls_combinations(self.loads, ctx.na, ctx.psi, ctx.beam.imposed))
         L = ctx.L
         self.beams = tuple(SimpleBeam(L, c.loads) for c in self.uls)
         self.M = tuple(b.M_max() for b in self.beams)
@@ -83,7 +83,7 @@ class _MassCase:
         """SLS characteristic combinations (Eq. 6.14b): (combination, beam with I = 1, w_max * I, x)."""
         if self._char is None:
             out = []
-            for c in sls_characteristic(self.loads, self._ctx.psi):
+            for c in sls_characteristic(self.loads, self._ctx.psi, self._ctx.beam.imposed):
                 b = SimpleBeam(self._ctx.L, c.loads, I=1.0)
                 w = b.w_max()
                 out.append((c, b, abs(w.value), w.x_mm))
@@ -104,10 +104,11 @@ class _Context:
         self._cases: dict[float, _MassCase] = {}
         self.point_x = tuple(sorted({ld.x for ld in job.loads if isinstance(ld, PointLoad)
                                      and 0.0 < ld.x < self.L}))
+        self.point_groups = _point_groups(self)
         # variable actions only (characteristic, each leading): independent of the section
         var = []
         if any(ld.action != "permanent" for ld in job.loads):
-            for c in sls_variable_characteristic(job.loads, psi):
+            for c in sls_variable_characteristic(job.loads, psi, job.beam.imposed):
                 b = SimpleBeam(self.L, c.loads, I=1.0)
                 w = b.w_max()
                 var.append((c, b, abs(w.value), w.x_mm))
@@ -354,14 +355,14 @@ class _Run:
         return rec
 
     def worst(self) -> CheckRecord | None:
-        """Failing record with the highest utilisation; if all pass, the highest-utilised
-        resistance check (classification, a c/t ratio over its class limit, only when it fails)."""
-        failing = [r for r in self.records if not r.ok]
-        pool = failing or [r for r in self.records if r.id != "classification"] or self.records
+        """The check (demand over resistance) with the highest utilisation, failing or not;
+        information and NOT CHECKED records never govern."""
+        pool = [r for r in self.records if r.is_check] or self.records
         return max(pool, key=lambda r: r.utilisation, default=None)
 
     def failed(self) -> bool:
-        return any(not r.ok for r in self.records)
+        """A check made fails (INFO and NOT CHECKED records do not stop a section)."""
+        return any(not r.ok for r in self.records if r.is_check)
 
 
 def _calc(render: bool) -> Calc:
@@ -428,33 +429,44 @@ def _ltb_one(ctx: _Context, section: Section, case: _MassCase, i: int, k: int, x
 
 def _closed_form_cross_check(ctx: _Context, section: Section, beam: SimpleBeam, combo: Combination, x0: float,
                              x1: float, M_Ed: float, z_g: float, calc: Calc) -> None:
-    """Closed-form M_cr (C_1, C_2, z_g formula) beside the numerical one, kept in the record values.
+    """Closed-form M_cr (C_1, C_2, z_g formula) beside the numerical one, only where a published case fits.
 
-    Whole span under full-length UDLs only: C_1, C_2 for a UDL (published NCCI values);
-    otherwise, when the moment in the segment is close to linear, C_1 from the end-moment
-    ratio psi and C_2 = 0; else C_1 = 1 (uniform moment, a lower bound for z_g <= 0).
+    * one segment (no intermediate restraint) under full-span UDLs only: C_1 = 1.127, C_2 = 0.454
+      for a UDL on a simple span with k = k_w = 1 (published NCCI tables, from memory), every load
+      (the self-weight too, conservative) at the job's load height z_g;
+    * a segment with no transverse load of its own but the self-weight, whose moment is linear
+      to within 2 % of M_Ed at the mid-length: C_1 from the end-moment ratio psi (C_2 plays no part);
+    * any other moment shape: no closed form fits, none is shown (the numerical M_cr governs).
+    The kept values: C_1_closed_form, C_2_closed_form, M_cr_closed_form.
     """
     L_seg = x1 - x0
     one_segment = not ctx.beam.restraints
     only_full_udl = all(isinstance(ld, UDL) and ld.is_full(ctx.L) for ld in combo.loads)
-    M0, M1 = float(beam.M(x0)), float(beam.M(x1))
     lead = "Cross-check only (the numerical $M_{cr}$ below governs): closed-form $M_{cr}$ with "
     if one_segment and only_full_udl:
         C_1, C_2 = C1_C2_PINNED["udl"]
-        calc.note(lead + f"$C_1$ = {C_1:g}, $C_2$ = {C_2:g} for a UDL on a simple span (published NCCI values).")
-    elif M_Ed <= (1.0 + _LINEAR_TOL) * max(abs(M0), abs(M1)):
+        calc.note(lead + f"$C_1$ = {C_1:g}, $C_2$ = {C_2:g} for a UDL on a simple span, $k = k_w = 1$ (published "
+                  "tables, from memory), all load at $z_g$ = " + f"{z_g:.0f} mm (the self-weight too).")
+        z = z_g
+    else:
+        own = [ld for ld in combo.loads if (isinstance(ld, PointLoad) and x0 < ld.x < x1)
+               or (isinstance(ld, UDL) and ld.name != SELF_WEIGHT and ld.extent(ctx.L)[0] < x1
+                   and ld.extent(ctx.L)[1] > x0)]
+        M0, M1, Mm = float(beam.M(x0)), float(beam.M(x1)), float(beam.M(0.5 * (x0 + x1)))
+        if own or M_Ed <= 0.0 or abs(Mm - 0.5 * (M0 + M1)) > 0.02 * M_Ed:
+            calc.note("No published closed form fits this segment's moment diagram and load height: the "
+                      "numerical $M_{cr}$ below is used without a closed-form comparison.")
+            return
         big, small = (M0, M1) if abs(M0) >= abs(M1) else (M1, M0)
         psi = small / big if big != 0.0 else 1.0
-        calc.note(lead + f"$C_1$ from the end-moment ratio $\\psi$ = {psi:.3f} (moment close to linear in "
-                  "the segment), $C_2$ = 0.")
+        calc.note(lead + f"$C_1$ from the end-moment ratio $\\psi$ = {psi:.3f} (no load of its own in the "
+                  "segment but the self-weight: moment linear within 2 %).")
         C_1 = calc(C_1_linear, psi=psi)
-        C_2 = 0.0
-    else:
-        C_1, C_2 = 1.0, 0.0
-        calc.note(lead + "$C_1$ = 1 (uniform moment; the moment in this segment is not linear).")
+        C_2, z = 0.0, 0.0
     M_cr_cf = calc(M_cr_C1C2, C_1=C_1, C_2=C_2, I_z=section.Iz, I_w=section.Iw, I_t=section.It, L=L_seg,
-                   z_g=z_g if C_2 else 0.0, E=E_MPa)
+                   z_g=z, E=E_MPa)
     calc.keep("C_1_closed_form", C_1)
+    calc.keep("C_2_closed_form", C_2)
     calc.keep("M_cr_closed_form", M_cr_cf, "Nmm")
 
 
@@ -471,7 +483,7 @@ def _check_section_all(ctx: _Context, section: Section, render: bool = False,
     run = _Run()
     uls = case.uls
 
-    # --- classification (Table 5.2); Class 4 is refused by the members module
+    # --- classification (Table 5.2): an information record; Class 4 gets effective properties
     run.add(classify(section, grade, na, _calc(render)))
 
     # --- stage 1: bending, shear, deflection (cheap)
@@ -483,15 +495,10 @@ def _check_section_all(ctx: _Context, section: Section, render: bool = False,
     if fail_fast and run.failed():
         return run
 
-    # --- stage 2: web bearing at both supports, bending with shear at the critical points
-    for end, R, x in (("A", case.R_A, 0.0), ("B", case.R_B, L)):
-        i = max(range(len(R)), key=lambda j: (abs(R[j]), -j))
-        rec = check_web_bearing(section, grade, abs(R[i]), ctx.beam.bearing_length, ctx.beam.end_distance, na,
-                                _calc(render), location_mm=x)
-        run.add(replace(rec, id=f"web_bearing_{end}",
-                        title=f"Web bearing at support {end}, {section.designation}",
-                        note=f"{rec.note}; s_s = {ctx.beam.bearing_length:g} mm, c = {ctx.beam.end_distance:g} mm"),
-                uls[i].name)
+    # --- stage 2: web bearing at the supports (where the beam bears on its flange), the web under
+    # every point load, bending with shear at the critical points
+    _support_bearing(ctx, case, section, run, render)
+    _point_loads(ctx, case, section, run, render)
     _bending_shear(ctx, case, section, run, render)
     if fail_fast and run.failed():
         return run
@@ -551,6 +558,112 @@ def _deflections(ctx: _Context, case: _MassCase, section: Section, run: _Run, re
                 c.name)
 
 
+def _support_bearing(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
+    """EN 1993-1-5 section 6 at the supports, only where the beam bears on its flange (``bearing_length``)."""
+    bl = ctx.beam.bearing_length
+    if bl is None:
+        calc = _calc(render)
+        calc.note("The beam hangs on end connections (no stiff bearing length given): it does not bear on its "
+                  "flange at the supports, so the web-bearing check of EN 1993-1-5 section 6 does not apply there. "
+                  "The beam web at each end is checked with its end connection.")
+        run.add(calc.info(id="web_bearing", title=f"Web at the supports, {section.designation}",
+                          clause="EN 1993-1-5:2006, 6.1",
+                          note="beam on end connections: no bearing on the flange, web bearing not applicable; "
+                               "give beam.bearing_length where the beam sits on a bearing"))
+        return
+    for end, R, x in (("A", case.R_A, 0.0), ("B", case.R_B, ctx.L)):
+        i = max(range(len(R)), key=lambda j: (abs(R[j]), -j))
+        rec = check_web_bearing(section, ctx.grade, abs(R[i]), bl, ctx.beam.end_distance, ctx.na,
+                                _calc(render), location_mm=x)
+        run.add(replace(rec, id=f"web_bearing_{end}",
+                        title=f"Web bearing at support {end}, {section.designation}",
+                        note=f"{rec.note}; s_s = {bl:g} mm, c = {ctx.beam.end_distance:g} mm"),
+                case.uls[i].name)
+
+
+def _point_groups(ctx: _Context) -> list[tuple[float, str, tuple[str, ...], float]]:
+    """Point loads inside the span grouped by position and how they enter the beam:
+    (x mm, "flange" | "web", load names, stiff bearing length s_s mm = the smallest of the group)."""
+    groups: dict[tuple[float, str], list[PointLoad]] = {}
+    for ld in ctx.job.loads:
+        if isinstance(ld, PointLoad) and 0.0 < ld.x < ctx.L:
+            groups.setdefault((ld.x, ld.applied_to), []).append(ld)
+    return [(x, how, tuple(ld.name for ld in lds), min(ld.bearing_length for ld in lds))
+            for (x, how), lds in sorted(groups.items())]
+
+
+def _point_loads(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
+    """The web under every point load on a flange: EN 1993-1-5 6.6 Eq. 6.14 and, on the compression
+    flange, the interaction with bending 7.2 Eq. 7.2, each for its governing ULS combination. A load
+    applied through a connection to the web is a NOT CHECKED record (the web is checked locally with
+    that connection)."""
+    groups = ctx.point_groups
+    if not groups:
+        return
+    M_c, _, _, _ = _M_c_Rd_fast(section, ctx)
+    on_top = ctx.beam.load_level != "bottom flange"
+    bl = ctx.beam.bearing_length
+    end_a = -(0.5 * bl + ctx.beam.end_distance) if bl is not None else 0.0     # beam end positions
+    end_b = ctx.L - end_a
+    for k, (x, how, names, s_s) in enumerate(groups, start=1):
+        label = ", ".join(names)
+        where = f"x = {x / 1e3:.3g} m"
+        if how == "web":
+            run.add(not_checked(
+                id=f"web_connection_P{k}", title=f"Web at the connection of {label} ({where}), {section.designation}",
+                clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", location_mm=x,
+                reason="the load is applied through a connection to the web (a secondary beam's end plate or fin "
+                     "plate), not on a flange: EN 1993-1-5 section 6 does not apply; check the web locally with "
+                     "that connection's design (bolt bearing on the web, web shear and block tearing)"))
+            continue
+        c = min(x - end_a, end_b - x) - 0.5 * s_s
+        res = transverse_resistance(section, ctx.grade, s_s, max(c, 0.0), ctx.na)
+        F_Rd = res["F_Rd"]
+        best6 = best7 = None
+        for i, (combo, beam) in enumerate(zip(case.uls, case.beams)):
+            F = sum(ld.P for ld in combo.loads if isinstance(ld, PointLoad) and ld.name in names)
+            if F <= 0.0:
+                continue
+            M = abs(float(beam.M(x)))
+            u6 = F / F_Rd
+            u7 = (u6 + 0.8 * M / M_c) / 1.4
+            if best6 is None or u6 > best6[0] * (1 + 1e-12):
+                best6 = (u6, i, F, M)
+            if best7 is None or u7 > best7[0] * (1 + 1e-12):
+                best7 = (u7, i, F, M)
+        if best6 is None:
+            continue
+        _, i, F, M = best6
+        calc = _calc(render)
+        calc.note(f"Point load {label} at {where} on the {'top' if on_top else 'bottom'} flange, stiff bearing "
+                  f"$s_s$ = {s_s:g} mm.")
+        rec = check_transverse_force(section, ctx.grade, F, s_s, ctx.na, calc, c=max(c, 0.0), location_mm=x,
+                                     name=label)
+        run.add(replace(rec, id=f"transverse_force_P{k}",
+                        title=f"Web under point load {label} ({where}), {section.designation}"), case.uls[i].name)
+        if on_top:
+            assert best7 is not None
+            _, i, F, M = best7
+            rec = check_transverse_bending(section, ctx.grade, F, M, F_Rd, ctx.na, _calc(render), location_mm=x,
+                                           name=label)
+            run.add(replace(rec, id=f"transverse_bending_P{k}",
+                            title=f"Point load {label} and bending ({where}), {section.designation}"),
+                    case.uls[i].name)
+        else:
+            calc = _calc(render)
+            calc.note("The load acts on the tension flange: EN 1993-1-5 7.2(2) asks for section 6 and "
+                      "EN 1993-1-1 6.2.1(5) only; bending is checked by the bending checks.")
+            run.add(calc.info(id=f"transverse_bending_P{k}",
+                              title=f"Point load {label} and bending ({where}), {section.designation}",
+                              clause="EN 1993-1-5:2006, 7.2(2)", location_mm=x,
+                              note="load on the tension flange: no 7.2(1) interaction"))
+
+
+def _M_c_Rd_fast(section: Section, ctx: _Context) -> tuple[float, int, float, str]:
+    from ..members.checks import _M_c_Rd
+    return _M_c_Rd(section, ctx.grade, ctx.na, Calc())
+
+
 def _bending_shear(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
     """M-V interaction (6.2.8) at the supports, point loads and max-M positions of every combination."""
     L = ctx.L
@@ -572,19 +685,6 @@ def _bending_shear(ctx: _Context, case: _MassCase, section: Section, run: _Run, 
 
 
 # ======================================================================== search
-def _refusal(ctx: _Context, section: Section, err: InputError) -> Candidate:
-    """A section the members module refuses (Class 4, or a web needing a shear-buckling check)."""
-    if isinstance(err, ShearBucklingError):
-        f_y = steel(ctx.grade, section.tw).f_y   # 6.2.6(6): epsilon of the web
-        u = f11.shear_buckling_ratio(h_w=section.hw, t_w=section.tw, epsilon=f11.epsilon(f_y=f_y), eta=ctx.na.eta)
-        return Candidate(section.designation, section.family, section.mass_nominal, section.h, False, "shear",
-                         "web slenderness h_w/t_w over 72 eps/eta (EN 1993-1-1:2005, 6.2.6(6))", u, "screen",
-                         note="shear buckling (EN 1993-1-5 section 5) not covered")
-    return Candidate(section.designation, section.family, section.mass_nominal, section.h, False, "classification",
-                     "Class 4 cross-section (EN 1993-1-1:2005, 5.5.2, Table 5.2)", math.inf, "screen",
-                     note="Class 4 (effective properties, EN 1993-1-5) not covered")
-
-
 def _candidate(section: Section, run: _Run, stage: str) -> Candidate:
     gov = run.worst()
     assert gov is not None
@@ -593,16 +693,8 @@ def _candidate(section: Section, run: _Run, stage: str) -> Candidate:
 
 
 def _try(ctx: _Context, section: Section) -> tuple[Candidate, _Run | None]:
-    """Fail-fast checks of one section on floats."""
-    if section_class(section, ctx.grade) == 4:
-        try:
-            classify(section, ctx.grade, ctx.na)
-        except InputError as err:
-            return _refusal(ctx, section, err), None
-    try:
-        run = _check_section_all(ctx, section, render=False, fail_fast=True)
-    except (SlenderSectionError, ShearBucklingError) as err:
-        return _refusal(ctx, section, err), None
+    """Fail-fast checks of one section on floats (Class 4 and slender webs designed, EN 1993-1-5)."""
+    run = _check_section_all(ctx, section, render=False, fail_fast=True)
     stage = "full" if any(r.id.startswith("ltb") for r in run.records) else "screen"
     return _candidate(section, run, stage), run
 
@@ -622,7 +714,8 @@ def _analysis(ctx: _Context, section: Section) -> BeamAnalysis:
     I = section.Iy
     uls = tuple((c, SimpleBeam(ctx.L, c.loads, I=I)) for c in case.uls)
     var = tuple((c, SimpleBeam(ctx.L, c.loads, I=I)) for c, _, _, _ in ctx.variable)
-    char = tuple((c, SimpleBeam(ctx.L, c.loads, I=I)) for c in sls_characteristic(case.loads, ctx.psi))
+    char = tuple((c, SimpleBeam(ctx.L, c.loads, I=I))
+                 for c in sls_characteristic(case.loads, ctx.psi, ctx.beam.imposed))
     return BeamAnalysis(ctx.L, section.designation, case.loads, uls, var, char, case.iM, case.iV,
                         ctx.beam.restraints)
 
@@ -674,10 +767,7 @@ def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None) 
     if chosen is None:
         heaviest = max(secs, key=lambda s: (s.mass_nominal, s.h))
         last = next(c for c in tried if c.designation == heaviest.designation)
-        try:
-            run = _check_section_all(ctx, heaviest, render=render)
-        except (SlenderSectionError, ShearBucklingError):
-            run = _Run()
+        run = _check_section_all(ctx, heaviest, render=render)
         msg = (f"No section of {fams}{depth} passes: the heaviest, {heaviest.designation}, is stopped by "
                f"{last.governing} ({last.title}, u = {last.utilisation:.3f})")
         return _result(ctx, heaviest, run, tuple(tried), (), msg, force_fail=True)

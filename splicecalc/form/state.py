@@ -80,7 +80,7 @@ BEAM_DEFAULTS: dict[str, Any] = {
     "section": "auto",
     "families": ["UKB"],
     "max_depth": "",
-    "bearing_length": "100 mm",
+    "bearing_length": "",          # blank: the beam hangs on end connections (no web bearing check)
     "end_distance": "",
     "restraints": "",
     "load_level": "top flange",

@@ -187,7 +187,7 @@ class JobForm:
         for box in self.family_boxes.values():
             box.observe(self._on_family, names="value")
         rest = [
-            self._text("beam.bearing_length", "Stiff bearing length", "e.g. 100 mm"),
+            self._text("beam.bearing_length", "Stiff bearing length", "blank: hangs on end connections"),
             self._text("beam.end_distance", "Beam end to bearing", "blank: 0 mm"),
             self._text("beam.restraints", "Lateral restraints at", "e.g. 2.4 m, 4.8 m (blank: ends only)"),
             self._dropdown("beam.load_level", "Load applied at", LOAD_LEVELS),

@@ -6,9 +6,10 @@ Layout (every quantity a string with its unit; positions from support A)::
     [beam]      span, grade, section ("auto" or a designation), families, max_depth,
                 bearing_length, end_distance, restraints, load_level, deflection_limit,
                 total_deflection_limit, combination ("6.10" | "6.10ab"), national_annex = {..},
-                psi_table ("UK NA" | "EN recommended")
+                psi_table ("UK NA" | "EN recommended"), imposed ("single" | "separate")
     [[load]]    name, action (permanent | imposed | snow | wind), category (imposed: A-H),
-                group, and either udl (+ optional from, to) or point + at
+                group, and either udl (+ optional from, to) or point + at (+ optional
+                bearing_length, applied_to = "flange" | "web")
     [splices]   handed to splicecalc.joints.splice.spec.parse_splices
     [[support]] each handed to splicecalc.joints.connections.spec.parse_support
 
@@ -35,8 +36,10 @@ from .model import BeamSpec, Job, NA_OVERRIDABLE, PROJECT_KEYS, Project
 TOP_KEYS: tuple[str, ...] = ("project", "beam", "load", "splices", "support")
 BEAM_KEYS: tuple[str, ...] = ("span", "grade", "section", "families", "max_depth", "bearing_length",
                               "end_distance", "restraints", "load_level", "deflection_limit",
-                              "total_deflection_limit", "combination", "national_annex", "psi_table")
-LOAD_KEYS: tuple[str, ...] = ("name", "action", "category", "group", "udl", "from", "to", "point", "at")
+                              "total_deflection_limit", "combination", "national_annex", "psi_table",
+                              "imposed")
+LOAD_KEYS: tuple[str, ...] = ("name", "action", "category", "group", "udl", "from", "to", "point", "at",
+                              "bearing_length", "applied_to")
 
 
 def _unknown(where: str, table: dict, allowed: tuple[str, ...]) -> None:
@@ -95,7 +98,7 @@ def parse_beam(table: Any) -> BeamSpec:
         raise InputError("beam.span", None, "the span with its unit, e.g. '7.2 m' (required)")
     span = _length(t, "span", "beam.span", positive=True)
     kw: dict[str, Any] = {"span": span}
-    for k in ("grade", "section", "load_level", "combination", "psi_table"):
+    for k in ("grade", "section", "load_level", "combination", "psi_table", "imposed"):
         if k in t:
             if not isinstance(t[k], str):
                 raise InputError(f"beam.{k}", t[k], "a text (string)")
@@ -175,9 +178,9 @@ def parse_load(table: Any, index: int, span: float) -> UDL | PointLoad:
         raise InputError(key, name, "exactly one of 'udl' or 'point'")
     span_txt = f"{span / 1000.0:.12g} m"
     if has_udl:
-        for k in ("at",):
+        for k in ("at", "bearing_length", "applied_to"):
             if k in t:
-                raise InputError(f"{key}.{k}", t[k], "no 'at' for a UDL (use 'from' and 'to')")
+                raise InputError(f"{key}.{k}", t[k], f"no '{k}' for a UDL (it belongs to a point load)")
         w = parse_quantity(t["udl"], "N/mm", f"{key}.udl")
         if not w > 0.0:
             raise InputError(f"{key}.udl", t["udl"], "a line load > 0 (loads act downwards)")
@@ -203,7 +206,17 @@ def parse_load(table: Any, index: int, span: float) -> UDL | PointLoad:
     x = parse_quantity(t["at"], "mm", f"{key}.at")
     if not (0.0 <= x <= span):
         raise InputError(f"{key}.at", t["at"], f"a position on the span, 0 to {span_txt}")
-    return PointLoad(name=name, action=action, P=P, x=x, category=cat, group=group)
+    s_s = 0.0
+    if "bearing_length" in t:
+        s_s = parse_quantity(t["bearing_length"], "mm", f"{key}.bearing_length")
+        if not 0.0 <= s_s <= span:
+            raise InputError(f"{key}.bearing_length", t["bearing_length"],
+                             f"the stiff bearing length of load '{name}': 0 up to the span {span_txt} "
+                             "(0 when the load has no stiff bearing)")
+    applied = t.get("applied_to", "flange")
+    require_choice(f"{key}.applied_to", applied, ("flange", "web"))
+    return PointLoad(name=name, action=action, P=P, x=x, category=cat, group=group, bearing_length=s_s,
+                     applied_to=applied)
 
 
 def _optional_parser(module: str, func: str) -> Any:

@@ -37,6 +37,8 @@ LOAD_LEVELS: tuple[str, ...] = ("top flange", "shear centre", "bottom flange")
 COMBINATIONS: tuple[str, ...] = ("6.10", "6.10ab")
 #: psi-factor tables (EN 1990 Table A1.1): UK NA values or EN recommended values
 PSI_TABLES: tuple[str, ...] = ("UK NA", "EN recommended")
+#: imposed loads of several categories: one variable action (EN 1991-1-1 3.3.1(2)P) or separate actions
+IMPOSED_MODES: tuple[str, ...] = ("single", "separate")
 #: national-annex parameters a job may override (numbers), see NationalAnnex
 NA_OVERRIDABLE: tuple[str, ...] = tuple(f.name for f in fields(NationalAnnex)
                                         if f.name not in ("name", "combination"))
@@ -82,7 +84,10 @@ class BeamSpec:
     section: ``"auto"`` (lightest passing section of ``families``) or a designation.
     families: families searched when ``section == "auto"``.
     max_depth: headroom limit on the section depth h, mm, or ``None``.
-    bearing_length: stiff bearing length s_s at each support, mm (EN 1993-1-5, 6.3).
+    bearing_length: stiff bearing length s_s at each support where the beam bears on its bottom
+        flange (a wall plate, a padstone, the top of a column), mm (EN 1993-1-5, 6.3); ``None``
+        (default) when the beam hangs on end connections (no web bearing check at the supports).
+        At most a quarter of the span.
     end_distance: distance c from the beam end to the stiff bearing, mm
         (EN 1993-1-5, Figure 6.1 type (c)); 0 when the beam ends at the bearing.
     restraints: positions of intermediate lateral-torsional restraints, mm from
@@ -95,6 +100,8 @@ class BeamSpec:
     na_overrides: national-annex values replacing the UK NA defaults,
         as ``(name, value)`` pairs, e.g. ``(("xi", 0.85),)``.
     psi_table: ``"UK NA"`` (default) or ``"EN recommended"`` psi factors (EN 1990 Table A1.1).
+    imposed: ``"single"`` (default: the imposed loads of all categories are one variable action,
+        EN 1991-1-1 3.3.1(2)P) or ``"separate"`` (each category its own action, leading in turn).
     """
 
     span: float
@@ -102,7 +109,7 @@ class BeamSpec:
     section: str = "auto"
     families: tuple[str, ...] = ("UKB",)
     max_depth: float | None = None
-    bearing_length: float = 100.0
+    bearing_length: float | None = None
     end_distance: float = 0.0
     restraints: tuple[float, ...] = ()
     load_level: str = "top flange"
@@ -111,6 +118,7 @@ class BeamSpec:
     combination: str = "6.10ab"
     na_overrides: tuple[tuple[str, float], ...] = ()
     psi_table: str = "UK NA"
+    imposed: str = "single"
 
     def __post_init__(self) -> None:
         s = object.__setattr__
@@ -139,7 +147,13 @@ class BeamSpec:
         s(self, "families", tuple(clean))
         if self.max_depth is not None:
             s(self, "max_depth", require_positive("beam.max_depth", self.max_depth, "mm"))
-        s(self, "bearing_length", require_non_negative("beam.bearing_length", self.bearing_length, "mm"))
+        if self.bearing_length is not None:
+            bl = require_non_negative("beam.bearing_length", self.bearing_length, "mm")
+            if bl > span / 4.0:
+                raise InputError("beam.bearing_length", _q(bl, "mm", "mm"),
+                                 f"a stiff bearing length up to a quarter of the span ({span / 4.0:g} mm), "
+                                 "or leave it out when the beam hangs on end connections")
+            s(self, "bearing_length", bl)
         s(self, "end_distance", require_non_negative("beam.end_distance", self.end_distance, "mm"))
         rs = self.restraints
         if not isinstance(rs, (list, tuple)):
@@ -179,6 +193,7 @@ class BeamSpec:
             clean_ov[k] = require_positive(f"beam.national_annex.{k}", v)
         s(self, "na_overrides", tuple(sorted(clean_ov.items())))
         require_choice("beam.psi_table", self.psi_table, PSI_TABLES)
+        require_choice("beam.imposed", self.imposed, IMPOSED_MODES)
 
     @property
     def is_auto(self) -> bool:
@@ -282,7 +297,8 @@ class Job:
         }
         if b.max_depth is not None:
             beam["max_depth"] = _q(b.max_depth, "mm", "mm")
-        beam["bearing_length"] = _q(b.bearing_length, "mm", "mm")
+        if b.bearing_length is not None:
+            beam["bearing_length"] = _q(b.bearing_length, "mm", "mm")
         beam["end_distance"] = _q(b.end_distance, "mm", "mm")
         beam["restraints"] = [_q(x, "mm", "m") for x in b.restraints]
         beam["load_level"] = b.load_level
@@ -294,6 +310,8 @@ class Job:
             beam["national_annex"] = {k: _num(v) for k, v in b.na_overrides}
         if b.psi_table != "UK NA":
             beam["psi_table"] = b.psi_table
+        if b.imposed != "single":
+            beam["imposed"] = b.imposed
         out: dict[str, Any] = {}
         if proj:
             out["project"] = proj
@@ -349,6 +367,10 @@ def load_to_dict(ld: Load) -> dict[str, Any]:
     else:
         d["point"] = _q(ld.P, "N", "kN")
         d["at"] = _q(ld.x, "mm", "m")
+        if ld.bearing_length:
+            d["bearing_length"] = _q(ld.bearing_length, "mm", "mm")
+        if ld.applied_to != "flange":
+            d["applied_to"] = ld.applied_to
     return d
 
 
@@ -389,6 +411,10 @@ def validate_load_on_span(ld: Any, span: float, key: str) -> None:
         if not (0.0 <= ld.x <= span):
             raise InputError(f"{key}.at", _q(ld.x, "mm", "m"),
                              f"a position on the span, 0 to {_q(span, 'mm', 'm')}")
+        if ld.bearing_length > span:
+            raise InputError(f"{key}.bearing_length", _q(ld.bearing_length, "mm", "mm"),
+                             f"the stiff bearing length of load '{ld.name}': 0 up to the span "
+                             f"{_q(span, 'mm', 'm')} (0 when the load has no stiff bearing)")
     else:
         if ld.x_start >= span:
             raise InputError(f"{key}.from", _q(ld.x_start, "mm", "m"),

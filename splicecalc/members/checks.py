@@ -20,10 +20,13 @@ classifies the web with f_y for t_w, and the shear-buckling limit of 6.2.6(6)
 uses the web's epsilon; web bearing uses f_yf and f_yw separately as
 EN 1993-1-5 Eq. 6.8 does.
 
-Not covered (refused with :class:`SlenderSectionError` /
-:class:`ShearBucklingError`, both :class:`~splicecalc.core.errors.InputError`):
-Class 4 cross-sections (effective properties to EN 1993-1-5 section 4) and
-webs needing a shear-buckling check (EN 1993-1-5 section 5).
+Slender parts are designed, not refused: a Class 4 cross-section in major-axis bending
+gets its effective section modulus W_eff,y (EN 1993-1-5 4.4, :func:`effective_section`),
+used for M_c,Rd and lateral-torsional buckling; a web with h_w/t_w > 72 eps/eta gets
+the shear-buckling resistance V_b,Rd of EN 1993-1-5 section 5 (non-rigid end posts,
+flange contribution neglected) and the bending-shear interaction of EN 1993-1-5 7.1.
+:class:`SlenderSectionError` / :class:`ShearBucklingError` remain for callers that
+catch them but are no longer raised by these checks.
 """
 
 from __future__ import annotations
@@ -152,19 +155,6 @@ def _classification(section: Any, grade: str, N_Ed: float, calc: Calc) -> dict[s
                 class_web=cw, section_class=max(cf, cw), alpha=alpha, psi=psi)
 
 
-def _refuse_class_4(section: Any, grade: str, cl: dict[str, Any]) -> None:
-    parts = []
-    if cl["class_flange"] == 4:
-        parts.append(f"the compression flange outstand (c/t = {cl['flange'][0]:.2f} > 14 eps = {cl['flange'][3]:.2f})")
-    if cl["class_web"] == 4:
-        parts.append(f"the web (c/t = {cl['web'][0]:.2f} > Class 3 limit {cl['web'][3]:.2f})")
-    raise SlenderSectionError(
-        "section", _name(section), "a Class 1, 2 or 3 cross-section (EN 1993-1-1:2005, 5.5.2, Table 5.2)",
-        hint=(f"In {steel(grade, section.tf).grade} " + " and ".join(parts) + " is Class 4 (slender). "
-              "Effective properties to EN 1993-1-5 section 4 are not implemented in splicecalc: "
-              "choose a stockier section or a lower grade"))
-
-
 def _section_class_fast(section: Any, grade: str, N_Ed: float = 0.0) -> dict[str, Any]:
     return _classification(section, grade, N_Ed, Calc())
 
@@ -185,13 +175,12 @@ def classify(section: Any, grade: str, na: NationalAnnex = UK_NA, calc: Calc | N
              N_Ed: float = 0.0) -> CheckRecord:
     """Classify the cross-section in major-axis bending (and compression ``N_Ed`` >= 0, N), Table 5.2.
 
-    Record: ``demand`` = c/t of the governing element, ``resistance`` = its
-    limit for the class the section reaches (Class 1, 2 or 3), so the
-    utilisation says how close the section is to the next class boundary;
-    ``values`` hold the class numbers. A Class 4 section raises
-    :class:`SlenderSectionError` (EN 1993-1-5 effective properties not
-    implemented). ``na`` is accepted for a uniform signature (Table 5.2 has no
-    national choices).
+    An information record (``kind == "info"``, no utilisation: a class cannot fail):
+    ``demand`` = c/t of the governing element, ``resistance`` = the limit of the class
+    it reaches (the Class 3 limit for a Class 4 element); ``values`` hold both elements'
+    c/t and classes. A Class 4 section is designed with its effective properties
+    (EN 1993-1-5 4.4, see :func:`effective_section`). ``na`` is accepted for a uniform
+    signature (Table 5.2 has no national choices).
     """
     _check_section(section)
     _check_na(na)
@@ -200,13 +189,10 @@ def classify(section: Any, grade: str, na: NationalAnnex = UK_NA, calc: Calc | N
     if N > 0.0:
         calc.note(f"Web in bending and compression, $N_{{Ed}}$ = {N / 1e3:.1f} kN.")
     cl = _classification(section, grade, N, calc)
-    if cl["section_class"] == 4:
-        calc.latex.clear()
-        calc.values.clear()
-        _refuse_class_4(section, grade, cl)
     k = cl["section_class"]
-    u_f = cl["flange"][0] / cl["flange"][k]
-    u_w = cl["web"][0] / cl["web"][k]
+    kk = min(k, 3)
+    u_f = cl["flange"][0] / cl["flange"][min(cl["class_flange"], 3)]
+    u_w = cl["web"][0] / cl["web"][min(cl["class_web"], 3)]
     gov, data = ("flange", cl["flange"]) if u_f >= u_w else ("web", cl["web"])
     calc.note(f"Flange {_ORD[cl['class_flange']]}, web {_ORD[cl['class_web']]}: section {_ORD[k]}.")
     calc.keep("f_y", cl["f_y"], "MPa")
@@ -219,9 +205,71 @@ def classify(section: Any, grade: str, na: NationalAnnex = UK_NA, calc: Calc | N
     calc.keep("Class_flange", cl["class_flange"])
     calc.keep("Class_web", cl["class_web"])
     calc.keep("Class", k)
-    return calc.record(id="classification", title=f"Cross-section classification, {_name(section)}",
-                       clause="EN 1993-1-1:2005, 5.5.2, Table 5.2", demand=data[0], resistance=data[k], unit="",
-                       note=f"{_ORD[k]}; governing element: {gov} (utilisation = c/t over the {_ORD[k]} limit)")
+    gov = "flange" if cl["class_flange"] > cl["class_web"] else ("web" if cl["class_web"] > cl["class_flange"]
+                                                                   else gov)
+    data = cl["flange"] if gov == "flange" else cl["web"]
+    lim = "Class 3 limit exceeded: effective properties, EN 1993-1-5 4.4" if k == 4 else f"{_ORD[k]} limit"
+    return calc.info(id="classification", title=f"Cross-section classification, {_name(section)}",
+                     clause="EN 1993-1-1:2005, 5.5.2, Table 5.2", demand=data[0], resistance=data[kk], unit="",
+                     note=f"{_ORD[k]}; governing element: {gov}, c/t = {data[0]:.2f} ({lim} {data[kk]:.2f}); "
+                          "information, no utilisation")
+
+
+# ------------------------------------------------------------------ Class 4: effective section
+def effective_section(section: Any, grade: str, calc: Calc | None = None) -> dict[str, float]:
+    """Effective section of a rolled I in sagging major-axis bending, EN 1993-1-5 4.4 (4.3(1) rolled: no shear lag).
+
+    Compression flange first (outstands, k_sigma = 0.43, Table 4.2, psi = 1) with the gross
+    web; then the web with psi from the section with the effective flange (4.4(3)), internal
+    element of width c = h - 2 t_f - 2 r (as in Table 5.2), k_sigma by Table 4.1, the
+    compressed part b_c = c / (1 - psi) reduced to b_eff = rho b_c, split b_e1 = 0.4 b_eff
+    (next to the flange) and b_e2 = 0.6 b_eff (next to the neutral axis), Table 4.1.
+    Returns W_eff (the smaller elastic modulus of the effective section, mm3), rho_f, rho_w,
+    the neutral-axis shift z_n (mm, downwards positive) and I_eff (mm4).
+    The removed parts are taken as rectangles; their own second moments are included.
+    """
+    _check_section(section)
+    calc = _check_calc(calc)
+    f_y, _ = _fy(section, grade)
+    f_yw = _fy_web(section, grade)
+    h, tf, tw = section.h, section.tf, section.tw
+    eps = f11.epsilon(f_y=f_y)
+    eps_w = f11.epsilon(f_y=f_yw)
+    # compression flange outstands
+    c_f = _c_flange(section)
+    lam_f = calc(f15.lambda_p, b_bar=c_f, t=tf, epsilon=eps, k_sigma=0.43)
+    rho_f = calc(f15.rho_outstand, lamb_p=lam_f)
+    dA_f = 2.0 * (1.0 - rho_f) * c_f * tf
+    d_f = (h - tf) / 2.0                               # flange centroid above the gross centroid
+    A1 = section.A - dA_f
+    I_c = section.Iy - dA_f * d_f**2 - 2.0 * (1.0 - rho_f) * c_f * tf**3 / 12.0
+    z1 = -dA_f * d_f / A1                              # neutral axis of the section with the effective flange
+    # web (internal element), stress ratio from that section
+    c_w = _c_web(section)
+    z_t, z_b = c_w / 2.0, -c_w / 2.0
+    psi = (z_b - z1) / (z_t - z1)
+    k_s = calc(f15.k_sigma_internal, psi=psi)
+    lam_w = calc(f15.lambda_p, b_bar=c_w, t=tw, epsilon=eps_w, k_sigma=k_s)
+    rho_w = calc(f15.rho_internal, lamb_p=lam_w, psi=psi)
+    b_c = c_w / (1.0 - psi) if psi < 0.0 else c_w
+    b_eff = rho_w * b_c
+    gap = b_c - b_eff
+    dA_w = gap * tw
+    z_h = z_t - 0.4 * b_eff - gap / 2.0                # centre of the ineffective strip of web
+    A2 = A1 - dA_w
+    I_c2 = I_c - dA_w * z_h**2 - tw * gap**3 / 12.0
+    z2 = (-dA_f * d_f - dA_w * z_h) / A2
+    I_eff = I_c2 - A2 * z2**2
+    W_eff = I_eff / max(h / 2.0 - z2, h / 2.0 + z2)
+    W_eff = min(W_eff, section.Wel_y)
+    calc.keep("rho_flange", rho_f)
+    calc.keep("psi_web", psi)
+    calc.keep("rho_web", rho_w)
+    calc.keep("W_eff_y", W_eff, "mm3")
+    calc.note(f"Effective section (EN 1993-1-5 4.4): flange outstands $\\rho$ = {rho_f:.3f}, web $\\psi$ = "
+              f"{psi:.3f}, $\\rho$ = {rho_w:.3f}; neutral axis {z2:.1f} mm from the gross centroid, "
+              f"$W_{{eff,y}}$ = {W_eff / 1e3:.0f} cm$^3$ ($W_{{el,y}}$ = {section.Wel_y / 1e3:.0f} cm$^3$).")
+    return dict(W_eff=W_eff, rho_f=rho_f, rho_w=rho_w, psi=psi, z_n=-z2, I_eff=I_eff)
 
 
 # ------------------------------------------------------------------ bending
@@ -232,6 +280,12 @@ def _W_y(section: Any, grade: str, cls: int, A_f_net: float | None, W_net: float
     plastic = cls <= 2
     W = section.Wpl_y if plastic else section.Wel_y
     note = ("W_pl,y (Class 1 or 2, Eq. 6.13)" if plastic else "W_el,y (Class 3, Eq. 6.14)")
+    if cls == 4:
+        W = effective_section(section, grade, calc)["W_eff"]
+        note = "W_eff,y (Class 4, Eq. 6.15, effective widths to EN 1993-1-5 4.4)"
+        if A_f_net is not None:   # holes in the tension flange: the elastic net modulus if smaller
+            W_net_el = min(W, W_y_with_holes_elastic(section, grade, A_f_net, na, calc))
+            return W_net_el, note + "; not more than the elastic modulus net of tension-flange holes"
     if W_net is not None:
         return W_net, note + "; net modulus given by the user"
     if A_f_net is None:
@@ -276,16 +330,17 @@ def W_y_with_holes(section: Any, grade: str, A_f_net: float, na: NationalAnnex =
     _check_na(na)
     a, _ = _validate_holes(section, A_f_net, None)
     cl = _section_class_fast(section, grade)
-    if cl["section_class"] == 4:
-        _refuse_class_4(section, grade, cl)
     return _W_y(section, grade, cl["section_class"], a, None, na, Calc())[0]
+
+
+def W_y_with_holes_elastic(section: Any, grade: str, A_f_net: float, na: NationalAnnex, calc: Calc) -> float:
+    """Elastic modulus (mm3) with the tension flange reduced for holes by 6.2.5(4) (Class 3 rule)."""
+    return _W_y(section, grade, 3, A_f_net, None, na, calc)[0]
 
 
 def _M_c_Rd(section: Any, grade: str, na: NationalAnnex, calc: Calc, A_f_net: float | None = None,
             W_net: float | None = None) -> tuple[float, int, float, str]:
     cl = _section_class_fast(section, grade)
-    if cl["section_class"] == 4:
-        _refuse_class_4(section, grade, cl)
     cls = cl["section_class"]
     W, note = _W_y(section, grade, cls, A_f_net, W_net, na, calc)
     M = calc(f11.M_c_Rd, W_y=W, f_y=cl["f_y"], gamma_M0=na.gamma_M0)
@@ -299,8 +354,8 @@ def check_bending(section: Any, grade: str, M_Ed: float, na: NationalAnnex = UK_
 
     ``M_Ed`` in N*mm. ``A_f_net`` (mm2): net area of the tension flange where
     it has fastener holes (6.2.5(4), Eq. 6.16 with gamma_M2 = ``na.gamma_M2_member``);
-    ``W_net`` (mm3): a net modulus given directly instead. Class 4 raises
-    :class:`SlenderSectionError`.
+    ``W_net`` (mm3): a net modulus given directly instead. Class 4: the effective
+    modulus W_eff,y of EN 1993-1-5 4.4 (Eq. 6.15).
     """
     _check_section(section)
     _check_na(na)
@@ -319,28 +374,45 @@ def check_bending(section: Any, grade: str, M_Ed: float, na: NationalAnnex = UK_
 
 # ------------------------------------------------------------------ shear
 def _V_pl_Rd(section: Any, grade: str, na: NationalAnnex, calc: Calc) -> tuple[float, float, float]:
-    """Shear-buckling limit then V_pl,Rd; returns (V_pl_Rd N, A_v mm2, u_hw)."""
+    """Shear-buckling ratio then V_pl,Rd; returns (V_pl_Rd N, A_v mm2, u_hw = (h_w/t_w) / (72 eps/eta))."""
     f_y, _ = _fy(section, grade)
     eps = f11.epsilon(f_y=_fy_web(section, grade))     # 6.2.6(6): epsilon of the web, f_y for t_w
     h_w = _h_w(section)
     u_hw = calc(f11.shear_buckling_ratio, h_w=h_w, t_w=section.tw, epsilon=eps, eta=na.eta)
-    if u_hw > 1.0:
-        raise ShearBucklingError(
-            "section", _name(section), f"a web with h_w/t_w <= 72 eps/eta = {72 * eps / na.eta:.1f} "
-            "(EN 1993-1-1:2005, 6.2.6(6))",
-            hint=(f"h_w/t_w = {h_w / section.tw:.1f}: the web must be checked for shear buckling to "
-                  "EN 1993-1-5 section 5, which splicecalc does not implement; choose a section with a thicker web"))
     A_v = calc(A_v_z, A=section.A, b=section.b, t_f=section.tf, t_w=section.tw, r=section.r, h_w=h_w, eta=na.eta)
     V = calc(f11.V_pl_Rd, A_v=A_v, f_y=f_y, gamma_M0=na.gamma_M0)
     return V, A_v, u_hw
 
 
+def _V_b_Rd(section: Any, grade: str, na: NationalAnnex, calc: Calc) -> float:
+    """Shear-buckling resistance V_b,Rd (N), EN 1993-1-5 5.2, 5.3: no intermediate stiffeners
+    (Eq. 5.5), non-rigid end posts (Table 5.1), flange contribution V_bf,Rd neglected."""
+    f_yw = _fy_web(section, grade)
+    eps = f11.epsilon(f_y=f_yw)
+    h_w = _h_w(section)
+    lam = calc(f15.lambda_w, h_w=h_w, t_w=section.tw, epsilon=eps)
+    chi = calc(f15.chi_w, lamb_w=lam, eta=na.eta)
+    V_b = calc(f15.V_b_Rd, chi_w=chi, f_yw=f_yw, h_w=h_w, t_w=section.tw, eta=na.eta, gamma_M1=na.gamma_M1)
+    calc.keep("lambda_w", lam)
+    calc.keep("chi_w", chi)
+    calc.keep("V_b_Rd", V_b, "N")
+    return V_b
+
+
+def shear_resistance(section: Any, grade: str, na: NationalAnnex = UK_NA) -> tuple[float, bool]:
+    """(V_Rd in N, slender web?) on floats: V_pl,Rd, or min(V_pl,Rd, V_b,Rd) for h_w/t_w > 72 eps/eta."""
+    fast = Calc()
+    V_pl, _, u_hw = _V_pl_Rd(section, grade, na, fast)
+    if u_hw > 1.0:
+        return min(V_pl, _V_b_Rd(section, grade, na, fast)), True
+    return V_pl, False
+
+
 def check_shear(section: Any, grade: str, V_Ed: float, na: NationalAnnex = UK_NA, calc: Calc | None = None, *,
                 location_mm: float | None = None) -> CheckRecord:
-    """Plastic shear resistance V_pl,Rd (6.2.6(2), Eq. 6.18) with A_v from 6.2.6(3)(a).
-
-    ``V_Ed`` in N. First checks the shear-buckling limit h_w/t_w <= 72 eps/eta
-    (6.2.6(6)); beyond it raises :class:`ShearBucklingError`.
+    """Shear resistance: V_pl,Rd (EN 1993-1-1 6.2.6(2), Eq. 6.18) with A_v from 6.2.6(3)(a); for a web
+    with h_w/t_w > 72 eps/eta (6.2.6(6)) also the shear-buckling resistance V_b,Rd of EN 1993-1-5
+    section 5 (Eq. 5.10), the smaller governing. ``V_Ed`` in N.
     """
     _check_section(section)
     _check_na(na)
@@ -351,9 +423,19 @@ def check_shear(section: Any, grade: str, V_Ed: float, na: NationalAnnex = UK_NA
     calc.keep("A_v", A_v, "mm2")
     calc.keep("V_pl_Rd", V_pl, "N")
     calc.keep("hw_tw_over_limit", u_hw)
-    return calc.record(id="shear", title=f"Shear resistance, {_name(section)}",
-                       clause="EN 1993-1-1:2005, 6.2.6, Eq. 6.17", demand=V, resistance=V_pl, unit="N",
-                       location_mm=loc, note="no shear buckling check needed (6.2.6(6))")
+    if u_hw <= 1.0:
+        return calc.record(id="shear", title=f"Shear resistance, {_name(section)}",
+                           clause="EN 1993-1-1:2005, 6.2.6, Eq. 6.17", demand=V, resistance=V_pl, unit="N",
+                           location_mm=loc, note="no shear buckling check needed (6.2.6(6))")
+    calc.note("$h_w/t_w > 72\\varepsilon/\\eta$: the web is checked for shear buckling, EN 1993-1-5 section 5 "
+              "(transverse stiffening at the supports only, non-rigid end posts, flange contribution neglected).")
+    V_b = _V_b_Rd(section, grade, na, calc)
+    V_R = min(V_pl, V_b)
+    gov = "V_b,Rd (shear buckling)" if V_b <= V_pl else "V_pl,Rd"
+    return calc.record(id="shear", title=f"Shear resistance with shear buckling, {_name(section)}",
+                       clause="EN 1993-1-5:2006, 5.5, Eq. 5.10", demand=V, resistance=V_R, unit="N",
+                       location_mm=loc, note=f"slender web (h_w/t_w over 72 eps/eta by {u_hw:.3f}): "
+                                         f"resistance = min(V_pl,Rd, V_b,Rd), {gov} governs")
 
 
 # ------------------------------------------------------------------ bending and shear
@@ -376,9 +458,11 @@ def check_bending_shear(section: Any, grade: str, M_Ed: float, V_Ed: float, na: 
     a, _ = _validate_holes(section, A_f_net, None)
     loc = _loc(location_mm)
     fast = Calc()
-    V_pl, _, _ = _V_pl_Rd(section, grade, na, fast)
+    V_pl, _, u_hw = _V_pl_Rd(section, grade, na, fast)
     M_c, cls, W, note = _M_c_Rd(section, grade, na, fast, a, None)
     f_y, _ = _fy(section, grade)
+    if u_hw > 1.0:
+        return _bending_shear_slender(section, grade, M, V, na, calc, M_c, loc)
     calc.keep("V_pl_Rd", V_pl, "N")
     calc.keep("M_c_Rd", M_c, "Nmm")
     rho = calc(f11.rho_V, V_Ed=V, V_pl_Rd=V_pl)
@@ -398,6 +482,31 @@ def check_bending_shear(section: Any, grade: str, M_Ed: float, V_Ed: float, na: 
     return calc.record(id="bending_shear", title=f"Bending and shear, {_name(section)}",
                        clause="EN 1993-1-1:2005, 6.2.8, Eq. 6.30", demand=M, resistance=M_V, unit="Nmm",
                        location_mm=loc, note=f"{_ORD[cls]}, {note}{extra}")
+
+
+def _bending_shear_slender(section: Any, grade: str, M: float, V: float, na: NationalAnnex, calc: Calc,
+                           M_c: float, loc: float | None) -> CheckRecord:
+    """EN 1993-1-5 7.1 Eq. 7.1 for a web that needs the shear-buckling check; also M_Ed <= M_c,Rd."""
+    f_y, _ = _fy(section, grade)
+    f_yw = _fy_web(section, grade)
+    calc.note("Web with $h_w/t_w > 72\\varepsilon/\\eta$: interaction of bending and shear by EN 1993-1-5 7.1 "
+              "with the shear-buckling resistance of the web, $\\bar\\eta_3 = V_{Ed}/V_{bw,Rd}$.")
+    V_bw = _V_b_Rd(section, grade, na, calc)
+    M_pl = calc(f11.M_c_Rd, W_y=section.Wpl_y, f_y=f_y, gamma_M0=na.gamma_M0)
+    M_f = calc(f15.M_f_Rd, b_f=section.b, t_f=section.tf, h=section.h, f_yf=f_y, gamma_M0=na.gamma_M0)
+    lhs = calc(f15.eta_7_1, M_Ed=M, M_pl_Rd=M_pl, M_f_Rd=M_f, V_Ed=V, V_bw_Rd=V_bw)
+    calc.keep("M_pl_Rd", M_pl, "Nmm")
+    calc.keep("M_f_Rd", M_f, "Nmm")
+    calc.keep("M_c_Rd", M_c, "Nmm")
+    # the bending resistance of the (possibly Class 3 or 4) section also bounds eta_1
+    u_M = M / M_c
+    if u_M > lhs:
+        calc.note(f"$M_{{Ed}}/M_{{c,Rd}}$ = {u_M:.3f} exceeds the Eq. 7.1 value: it governs.")
+        lhs = u_M
+    return calc.record(id="bending_shear", title=f"Bending and shear (slender web), {_name(section)}",
+                       clause="EN 1993-1-5:2006, 7.1, Eq. 7.1", demand=lhs, resistance=1.0, unit="",
+                       location_mm=loc, note=f"eta_1 + (1 - M_f,Rd/M_pl,Rd)(2 eta_3 - 1)^2 <= 1 (eta_3 = V_Ed/V_bw,Rd;"
+                                             f" V_Ed = {V / 1e3:.1f} kN, M_Ed = {M / 1e6:.1f} kNm)")
 
 
 # ------------------------------------------------------------------ lateral-torsional buckling
@@ -453,7 +562,9 @@ def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, 
                     f"loads {float(z_g_mm):+.0f} mm from the shear centre.")
         if C_1 is None and k_c is None:
             C_1 = max(C_1_numerical(section, L_mm, M), 1.0)
-            mcr_text += f" $C_1$ = {C_1:.3f} from the same model with the loads at the shear centre."
+            mcr_text += (f" $C_1$ = {C_1:.3f} for $k_c$: the ratio of the segment's elastic critical moment for "
+                         "its own moment diagram to that for uniform moment, both with the loads at the shear "
+                         "centre (same model).")
     M_c, cls, W, _ = _M_c_Rd(section, grade, na, Calc())
     f_y, _ = _fy(section, grade)
     curve = ltb_curve_rolled(section.h, section.b)
@@ -483,6 +594,7 @@ def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, 
                   "(6.3.2.3, UK NA).")
         chi0 = calc(f11.chi_LT, lamb_LT=lam, alpha_LT=a_LT, lamb_LT_0=lam0, beta=na.beta_LT)
         if k_c is None and C_1 is not None:
+            calc.keep("C_1", C_1)
             k_c = calc(f11.k_c_from_C1, C_1=C_1)
         if k_c is None:
             k_c = 1.0
@@ -490,7 +602,7 @@ def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, 
         f = calc(f11.f_LT, k_c=k_c, lamb_LT=lam)
         chi = calc(f11.chi_LT_mod, chi_LT=chi0, f=f, lamb_LT=lam)
         calc.keep("k_c", k_c)
-        note = f"curve {curve}, k_c = {k_c:.3f}"
+        note = f"curve {curve}, k_c = {k_c:.3f}" + (f" (C_1 = {C_1:.3f})" if C_1 is not None else "")
     M_b = calc(f11.M_b_Rd, chi_LT_mod=chi, W_y=W, f_y=f_y, gamma_M1=na.gamma_M1)
     calc.keep("chi_LT_mod", chi)
     calc.keep("M_b_Rd", M_b, "Nmm")
@@ -502,22 +614,102 @@ def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, 
                        location_mm=loc, note=f"{_ORD[cls]}, {note}")
 
 
-# ------------------------------------------------------------------ web bearing (EN 1993-1-5 section 6)
-def check_web_bearing(section: Any, grade: str, F_Ed: float, s_s: float, c: float = 0.0,
-                      na: NationalAnnex = UK_NA, calc: Calc | None = None, *, M_Ed: float = 0.0,
-                      location_mm: float | None = None) -> CheckRecord:
-    """Web resistance to a transverse force at an unstiffened beam end, EN 1993-1-5 section 6, type (c).
+# ------------------------------------------------------------------ transverse forces (EN 1993-1-5 section 6)
+def _l_y(kind: str, s_s: float, c: float, h_w: float, t_f: float, t_w: float, f_yw: float, k_F: float,
+         m_1: float, m_2: float, calc: Calc) -> float:
+    if kind == "a":
+        return calc(f15.l_y_a, s_s=s_s, t_f=t_f, m_1=m_1, m_2=m_2)
+    le = calc(f15.l_e, k_F=k_F, t_w=t_w, f_yw=f_yw, h_w=h_w, s_s=s_s, c=c, E=E_MPa)
+    return calc(f15.l_y_c, l_e=le, t_f=t_f, m_1=m_1, m_2=m_2)
 
-    ``F_Ed`` (N) is applied through one flange over the stiff bearing length
-    ``s_s`` (mm, 6.3; taken not more than h_w, 6.3(1)); ``c`` (mm) is the distance from the end of the stiff
-    bearing to the beam end. f_yf and f_yw by element thickness. m_2 depends on
-    lambda_F (Eq. 6.9): computed with m_2 for lambda_F > 0.5, redone with
-    m_2 = 0 if lambda_F <= 0.5. ``M_Ed`` (N*mm) at the same section: when
-    non-zero the 7.2 interaction eta_2 + 0.8 eta_1 <= 1.4 reduces the
-    resistance (eta_1 = M_Ed / M_c,Rd); at a simple support M_Ed = 0.
-    7.2(1) is for a force on the compression flange; for a force on the tension
-    flange (e.g. a reaction under a sagging span) 7.2(2) asks only for section 6
-    and EN 1993-1-1 6.2.1(5): pass M_Ed = 0 and check bending separately.
+
+def _F_Rd_type(section: Any, grade: str, kind: str, s_s: float, c: float, na: NationalAnnex,
+               calc: Calc) -> dict[str, float]:
+    """F_Rd of load type ``kind`` ("a" or "c") of Figure 6.1 through ``calc``; m_2 settled on floats first."""
+    f_yf = steel(grade, section.tf, field="section.tf").f_y
+    f_yw = steel(grade, section.tw, field="section.tw").f_y
+    h_w, tw, tf = _h_w(section), section.tw, section.tf
+    fast = Calc()
+    kF = 6.0 if kind == "a" else f15.k_F_c(s_s=s_s, c=c, h_w=h_w)
+    Fcr = f15.F_cr(k_F=kF, t_w=tw, h_w=h_w, E=E_MPa)
+    m1 = f15.m_1(f_yf=f_yf, b_f=section.b, f_yw=f_yw, t_w=tw)
+    ly = _l_y(kind, s_s, c, h_w, tf, tw, f_yw, kF, m1, f15.m_2(h_w=h_w, t_f=tf, lamb_F=1.0), fast)
+    lam_first = f15.lambda_F(l_y=ly, t_w=tw, f_yw=f_yw, F_cr=Fcr)
+    if kind == "a":
+        calc.note("Load type (a) of EN 1993-1-5 Figure 6.1 (force through the flange, carried by web shear on "
+                  "both sides); unstiffened web, no transverse stiffeners ($a \\to \\infty$): $k_F$ = 6.")
+    else:
+        calc.note("Load type (c) of EN 1993-1-5 Figure 6.1 (force through the flange next to an unstiffened "
+                  f"beam end), $c$ = {c:.0f} mm from the end of the stiff bearing to the beam end.")
+        kF = calc(f15.k_F_c, s_s=s_s, c=c, h_w=h_w)
+    Fcr = calc(f15.F_cr, k_F=kF, t_w=tw, h_w=h_w, E=E_MPa)
+    m1 = calc(f15.m_1, f_yf=f_yf, b_f=section.b, f_yw=f_yw, t_w=tw)
+    m2 = calc(f15.m_2, h_w=h_w, t_f=tf, lamb_F=lam_first)
+    ly = _l_y(kind, s_s, c, h_w, tf, tw, f_yw, kF, m1, m2, calc)
+    lam = calc(f15.lambda_F, l_y=ly, t_w=tw, f_yw=f_yw, F_cr=Fcr)
+    chi = calc(f15.chi_F, lamb_F=lam)
+    F_R = calc(f15.F_Rd, f_yw=f_yw, chi_F=chi, l_y=ly, t_w=tw, gamma_M1=na.gamma_M1)
+    return dict(F_Rd=F_R, k_F=kF, l_y=ly, lambda_F=lam, chi_F=chi)
+
+
+def transverse_resistance(section: Any, grade: str, s_s: float = 0.0, c: float | None = None,
+                          na: NationalAnnex = UK_NA, calc: Calc | None = None) -> dict[str, Any]:
+    """Design resistance F_Rd (N) of the unstiffened web to a transverse force through one flange,
+    EN 1993-1-5 6.2-6.5 (Eq. 6.1-6.13).
+
+    ``s_s`` (mm): stiff bearing length (6.3, at most h_w, 6.3(1)); ``c`` (mm): None for a
+    force in the span (type (a), k_F = 6 for a web without transverse stiffeners); a number
+    for a force near an unstiffened beam end at that distance from the end of its stiff
+    bearing: both type (a) and type (c) are computed and the smaller governs. Returns
+    ``F_Rd`` and the governing ``type``, ``k_F``, ``l_y``, ``lambda_F``, ``chi_F``.
+    """
+    _check_section(section)
+    _check_na(na)
+    calc = _check_calc(calc)
+    ss = require_non_negative("s_s", s_s, "mm")
+    h_w = _h_w(section)
+    if ss > h_w:   # 6.3(1): s_s not more than h_w
+        ss = calc(f15.s_s_eff, s_s=ss, h_w=h_w)
+        calc.note("The stiff bearing length is limited to $h_w$ (EN 1993-1-5 6.3(1)).")
+    kinds = ["a"]
+    if c is not None:
+        c_ = require_non_negative("c", c, "mm")
+        kinds = ["a", "c"]
+    else:
+        c_ = 0.0
+    if len(kinds) == 2:   # pick the governing type on floats, render that one
+        ra = _F_Rd_type(section, grade, "a", ss, c_, na, Calc())
+        rc = _F_Rd_type(section, grade, "c", ss, c_, na, Calc())
+        kinds = ["c"] if rc["F_Rd"] < ra["F_Rd"] else ["a"]
+        if kinds == ["a"]:
+            calc.note(f"Type (c) with $c$ = {c_:.0f} mm gives more ({rc['F_Rd'] / 1e3:.0f} kN): type (a) governs.")
+        else:
+            calc.note(f"Type (a) gives {ra['F_Rd'] / 1e3:.0f} kN: the beam end is close, type (c) governs.")
+    out: dict[str, Any] = _F_Rd_type(section, grade, kinds[0], ss, c_, na, calc)
+    out["type"] = kinds[0]
+    out["s_s"] = ss
+    return out
+
+
+def _keep_transverse(calc: Calc, res: dict[str, Any]) -> None:
+    calc.keep("s_s", res["s_s"], "mm")
+    calc.keep("k_F", res["k_F"])
+    calc.keep("l_y", res["l_y"], "mm")
+    calc.keep("lambda_F", res["lambda_F"])
+    calc.keep("chi_F", res["chi_F"])
+    calc.keep("F_Rd", res["F_Rd"], "N")
+
+
+def check_web_bearing(section: Any, grade: str, F_Ed: float, s_s: float, c: float = 0.0,
+                      na: NationalAnnex = UK_NA, calc: Calc | None = None, *,
+                      location_mm: float | None = None) -> CheckRecord:
+    """Web under the support reaction of a beam bearing on its flange, EN 1993-1-5 section 6, type (c):
+    verification 6.6 Eq. 6.14, F_Ed <= F_Rd (resistance Eq. 6.1).
+
+    ``F_Ed`` (N) through one flange over the stiff bearing length ``s_s`` (mm, 6.3; taken not more
+    than h_w, 6.3(1)); ``c`` (mm) from the end of the stiff bearing to the beam end. f_yf and f_yw
+    by element thickness; m_2 (Eq. 6.9) settled on lambda_F. At a simple support M_Ed = 0 and the
+    interaction of 7.2 does not apply (the reaction acts on the tension flange anyway, 7.2(2)).
     """
     _check_section(section)
     _check_na(na)
@@ -525,50 +717,75 @@ def check_web_bearing(section: Any, grade: str, F_Ed: float, s_s: float, c: floa
     F = abs(require_finite("F_Ed", F_Ed))
     ss = require_non_negative("s_s", s_s, "mm")
     c_ = require_non_negative("c", c, "mm")
-    M_E = abs(require_finite("M_Ed", M_Ed))
     loc = _loc(location_mm)
-    f_yf = steel(grade, section.tf, field="section.tf").f_y
-    f_yw = steel(grade, section.tw, field="section.tw").f_y
-    h_w = _h_w(section)
-    tw, tf = section.tw, section.tf
-    if ss > h_w:   # 6.3(1): s_s not more than h_w
-        ss = calc(f15.s_s_eff, s_s=ss, h_w=h_w)
+    if ss > _h_w(section):   # 6.3(1): s_s not more than h_w
+        ss = calc(f15.s_s_eff, s_s=ss, h_w=_h_w(section))
         calc.note("The stiff bearing length is limited to $h_w$ (EN 1993-1-5 6.3(1)).")
-    # first pass on floats to settle m_2 (Eq. 6.9 depends on lambda_F)
-    kF = f15.k_F_c(s_s=ss, c=c_, h_w=h_w)
-    Fcr = f15.F_cr(k_F=kF, t_w=tw, h_w=h_w, E=E_MPa)
-    m1 = f15.m_1(f_yf=f_yf, b_f=section.b, f_yw=f_yw, t_w=tw)
-    le = f15.l_e(k_F=kF, t_w=tw, f_yw=f_yw, h_w=h_w, s_s=ss, c=c_, E=E_MPa)
-    ly = f15.l_y_c(l_e=le, t_f=tf, m_1=m1, m_2=f15.m_2(h_w=h_w, t_f=tf, lamb_F=1.0))
-    lam_first = f15.lambda_F(l_y=ly, t_w=tw, f_yw=f_yw, F_cr=Fcr)
-    # rendered pass
-    kF = calc(f15.k_F_c, s_s=ss, c=c_, h_w=h_w)
-    Fcr = calc(f15.F_cr, k_F=kF, t_w=tw, h_w=h_w, E=E_MPa)
-    m1 = calc(f15.m_1, f_yf=f_yf, b_f=section.b, f_yw=f_yw, t_w=tw)
-    m2 = calc(f15.m_2, h_w=h_w, t_f=tf, lamb_F=lam_first)
-    le = calc(f15.l_e, k_F=kF, t_w=tw, f_yw=f_yw, h_w=h_w, s_s=ss, c=c_, E=E_MPa)
-    ly = calc(f15.l_y_c, l_e=le, t_f=tf, m_1=m1, m_2=m2)
-    lam = calc(f15.lambda_F, l_y=ly, t_w=tw, f_yw=f_yw, F_cr=Fcr)
-    chi = calc(f15.chi_F, lamb_F=lam)
-    F_R = calc(f15.F_Rd, f_yw=f_yw, chi_F=chi, l_y=ly, t_w=tw, gamma_M1=na.gamma_M1)
-    calc.keep("F_Rd", F_R, "N")
-    clause_ = "EN 1993-1-5:2006, 6.2, Eq. 6.1"
-    if M_E > 0.0:
-        M_c, _, _, _ = _M_c_Rd(section, grade, na, Calc())
-        F_R = calc(f15.F_Rd_M, F_Rd=F_R, M_Ed=M_E, M_Rd=M_c)
-        calc.keep("M_c_Rd", M_c, "Nmm")
-        note = "with the bending interaction of EN 1993-1-5 7.2 (eta_2 + 0.8 eta_1 <= 1.4)"
-        clause_ = "EN 1993-1-5:2006, 7.2, Eq. 7.2"
-    else:
-        calc.note("$M_{Ed} = 0$ at the support (simple support): the interaction with bending (EN 1993-1-5 7.2) "
-                  "does not apply.")
-        note = "load type (c); M_Ed = 0 at a simple support, no 7.2 interaction"
-    calc.keep("k_F", kF)
-    calc.keep("l_y", ly, "mm")
-    calc.keep("lambda_F", lam)
-    calc.keep("chi_F", chi)
+    res = dict(_F_Rd_type(section, grade, "c", ss, c_, na, calc))
+    res["s_s"] = ss
+    _keep_transverse(calc, res)
+    calc.note("$M_{Ed} = 0$ at the support (simple support): the interaction with bending (EN 1993-1-5 7.2) "
+              "does not apply.")
     return calc.record(id="web_bearing", title=f"Web bearing at the support, {_name(section)}",
-                       clause=clause_, demand=F, resistance=F_R, unit="N", location_mm=loc, note=note)
+                       clause="EN 1993-1-5:2006, 6.6, Eq. 6.14", demand=F, resistance=res["F_Rd"], unit="N",
+                       location_mm=loc, note="load type (c); resistance EN 1993-1-5 6.2 Eq. 6.1; M_Ed = 0 at a "
+                                             "simple support, no 7.2 interaction")
+
+
+def check_transverse_force(section: Any, grade: str, F_Ed: float, s_s: float = 0.0, na: NationalAnnex = UK_NA,
+                           calc: Calc | None = None, *, c: float | None = None, location_mm: float | None = None,
+                           name: str = "") -> CheckRecord:
+    """Web under a point load on a flange, EN 1993-1-5 section 6: verification 6.6 Eq. 6.14,
+    eta_2 = F_Ed / F_Rd <= 1, with F_Rd of :func:`transverse_resistance` (type (a), or type (c)
+    when the load is close to the beam end ``c``). ``F_Ed`` (N), ``s_s`` stiff bearing length (mm,
+    default 0: a load with no stiff bearing). ``name`` names the load in the title.
+    """
+    _check_section(section)
+    _check_na(na)
+    calc = _check_calc(calc)
+    F = abs(require_finite("F_Ed", F_Ed))
+    loc = _loc(location_mm)
+    res = transverse_resistance(section, grade, s_s, c, na, calc)
+    _keep_transverse(calc, res)
+    what = f" ({name})" if name else ""
+    return calc.record(id="transverse_force", title=f"Web under point load{what}, {_name(section)}",
+                       clause="EN 1993-1-5:2006, 6.6, Eq. 6.14", demand=F, resistance=res["F_Rd"], unit="N",
+                       location_mm=loc, note=f"load type ({res['type']}), s_s = {res['s_s']:g} mm; resistance "
+                                             "EN 1993-1-5 6.2 Eq. 6.1")
+
+
+def check_transverse_bending(section: Any, grade: str, F_Ed: float, M_Ed: float, F_Rd: float,
+                             na: NationalAnnex = UK_NA, calc: Calc | None = None, *,
+                             location_mm: float | None = None, name: str = "") -> CheckRecord:
+    """Interaction of a transverse force on the compression flange with bending, EN 1993-1-5 7.2(1)
+    Eq. 7.2: eta_2 + 0.8 eta_1 <= 1.4, eta_2 = F_Ed / F_Rd (Eq. 6.14), eta_1 = M_Ed / M_c,Rd.
+
+    Record: demand = eta_2 + 0.8 eta_1, resistance = 1.4. eta_1 is taken with the cross-section
+    bending resistance M_c,Rd of EN 1993-1-1 6.2.5 (W_pl for Class 1 and 2, W_el Class 3,
+    W_eff Class 4); EN 1993-1-5 4.6 writes it with W_eff, which for a Class 1 or 2 section
+    is commonly read as the plastic modulus (from memory). For a force on the tension flange
+    7.2(2) asks only for section 6 and EN 1993-1-1 6.2.1(5): do not call this.
+    """
+    _check_section(section)
+    _check_na(na)
+    calc = _check_calc(calc)
+    F = abs(require_finite("F_Ed", F_Ed))
+    M = abs(require_finite("M_Ed", M_Ed))
+    FR = require_positive("F_Rd", F_Rd, "N")
+    loc = _loc(location_mm)
+    M_c, cls, _, _ = _M_c_Rd(section, grade, na, Calc())
+    calc.keep("F_Rd", FR, "N")
+    calc.keep("M_c_Rd", M_c, "Nmm")
+    e2 = calc(f15.eta_2, F_Ed=F, F_Rd=FR)
+    lhs = calc(f15.eta_7_2, eta_2=e2, M_Ed=M, M_Rd=M_c)
+    calc.keep("eta_2", e2)
+    calc.keep("eta_1", M / M_c)
+    what = f" ({name})" if name else ""
+    return calc.record(id="transverse_bending", title=f"Point load and bending{what}, {_name(section)}",
+                       clause="EN 1993-1-5:2006, 7.2, Eq. 7.2", demand=lhs, resistance=1.4, unit="",
+                       location_mm=loc, note=f"eta_2 + 0.8 eta_1 <= 1.4 with eta_2 = {e2:.3f}, eta_1 = M_Ed/M_c,Rd = "
+                                             f"{M / M_c:.3f} ({_ORD[cls]}); F_Ed = {F / 1e3:.1f} kN, "
+                                             f"M_Ed = {M / 1e6:.1f} kNm")
 
 
 # ------------------------------------------------------------------ deflection
@@ -601,4 +818,5 @@ def check_deflection(delta_mm: float, span_mm: float, limit_ratio: float = 360.0
 
 __all__ = ["SlenderSectionError", "ShearBucklingError", "ALPHA_LT", "DEFLECTION_LIMITS", "section_class",
            "classify", "W_y_with_holes", "check_bending", "check_shear", "check_bending_shear",
-           "ltb_curve_rolled", "check_ltb", "check_web_bearing", "check_deflection"]
+           "ltb_curve_rolled", "check_ltb", "check_web_bearing", "check_deflection", "effective_section",
+           "shear_resistance", "transverse_resistance", "check_transverse_force", "check_transverse_bending"]

@@ -71,6 +71,8 @@ def check_payload(record: CheckRecord) -> dict[str, Any]:
     })
     if not record.checked:
         p.update({"demand": None, "resistance": None, "utilisation": None})
+    elif not record.is_check:
+        p.update({"utilisation": None})
     return p
 
 
@@ -104,6 +106,9 @@ class CheckOutput:
             return {CHECK_MIME: p, "text/markdown": "\n".join(md), "text/plain": r.summary_line()}
         if r.note:
             md.append(f"*{r.note}*\n")
+        if not r.is_check:
+            md.append(f"**{r.verdict}** (information, no utilisation)")
+            return {CHECK_MIME: p, "text/markdown": "\n".join(md), "text/plain": r.summary_line()}
         md.append(f"$E_d$ = {fmt_number(r.demand)}{_unit_md(r.unit)}, $R_d$ = {fmt_number(r.resistance)}"
                   f"{_unit_md(r.unit)}: utilisation **{u}** — **{r.verdict}**")
         return {CHECK_MIME: p, "text/markdown": "\n".join(md), "text/plain": r.summary_line()}
@@ -152,6 +157,9 @@ def summary_output(records: Iterable[CheckRecord], title: str = "Summary of chec
             rows.append([r.title, r.clause, "-", "-", "", "-", r.verdict])
             continue
         unit = f"${UNIT_TEX.get(r.unit, r.unit)}$" if r.unit else ""
+        if not r.is_check:
+            rows.append([r.title, r.clause, fmt_number(r.demand), "-", unit, "-", r.verdict])
+            continue
         rows.append([r.title, r.clause, fmt_number(r.demand), fmt_number(r.resistance), unit,
                      fmt_utilisation(r.utilisation), r.verdict])
     notes = verdict_sentence(recs)

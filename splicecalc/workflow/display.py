@@ -140,13 +140,16 @@ def job_tables(job: Any) -> list[TableOutput]:
         ["Steel grade", b.grade, ""],
         ["Section", b.section if not b.is_auto else f"lightest of {', '.join(b.families)}", ""],
         ["Headroom limit on depth", "-" if b.max_depth is None else f"{b.max_depth:g}", "mm"],
-        ["Stiff bearing length at each support", f"{b.bearing_length:g}", "mm"],
+        ["Stiff bearing length at each support", "none (hangs on end connections)" if b.bearing_length is None
+         else f"{b.bearing_length:g}", "" if b.bearing_length is None else "mm"],
         ["Lateral-torsional restraints at", restr, "m"],
         ["Load level", b.load_level, ""],
         ["Deflection limit, variable actions", f"span / {b.deflection_limit:g}", ""],
         ["Deflection limit, total", "-" if b.total_deflection_limit is None else
          f"span / {b.total_deflection_limit:g}", ""],
         ["ULS combination rule", "Eq. 6.10" if b.combination == "6.10" else "worse of Eq. 6.10a and 6.10b", ""],
+        ["Imposed loads of several categories", "one variable action (EN 1991-1-1 3.3.1(2)P)"
+         if b.imposed == "single" else "separate actions, each leading in turn", ""],
         ["National Annex", job.na.name, ""],
     ]
     beam = TableOutput(["Item", "Value", "Unit"], rows, title="Beam", align="lll")
@@ -158,8 +161,10 @@ def job_tables(job: Any) -> list[TableOutput]:
                 f"{ld.x_start / 1000:g} to {(ld.x_end if ld.x_end is not None else job.beam.span) / 1000:g} m"
             lrows.append([ld.name, ld.action, cat, "line load", f"{ld.w:g}", _u("kN/m"), extent])
         else:
+            how = (", through a web connection" if ld.applied_to == "web"
+                   else (f", on the flange, s_s = {ld.bearing_length:g} mm" if ld.bearing_length else ", on the flange"))
             lrows.append([ld.name, ld.action, cat, "point load", f"{ld.P / 1000:g}", _u("kN"),
-                          f"at {ld.x / 1000:g} m"])
+                          f"at {ld.x / 1000:g} m{how}"])
     loads = TableOutput(["Load", "Action", "Cat.", "Type", "Value", "Unit", "Where"], lrows,
                         title="Characteristic loads (beam self-weight added by the design)", align="lllrrll")
     out = [beam, loads]
@@ -247,7 +252,7 @@ def _flat(v: Any) -> str:
 # ======================================================================== actions, analysis
 def show_actions(result: CalcResult) -> None:
     """Characteristic loads with the self-weight, every ULS combination and the governing one rendered."""
-    from ..actions import PSI_UK_NA, render_line_load
+    from ..actions import render_line_load
     from ..core.record import Calc
 
     d = result.design
@@ -272,7 +277,12 @@ def show_actions(result: CalcResult) -> None:
         crow.append([f"C{i + 1}", c.name, f"{abs(M.value) / 1e6:.1f}", f"{abs(V.value) / 1e3:.1f}", gov])
     show_table(["No.", "Combination", r"$\max M_{Ed}\ (\mathrm{kN\,m})$", r"$\max V_{Ed}\ (\mathrm{kN})$",
                 "Governs"], crow, align="llrrl", title="ULS combinations (EN 1990:2002, 6.4.3.2 with the UK NA)",
-               notes="Every variable action leads in turn; the beam self-weight is a permanent action.")
+               notes="Every variable action leads in turn; the beam self-weight is a permanent action. "
+                     + ("Imposed loads of several categories are one variable action (EN 1991-1-1 3.3.1(2)P): "
+                        "leading, every part at gamma_Q; accompanying, each part at its own category's psi."
+                        if result.job.beam.imposed == "single" else
+                        "Imposed loads of each category are separate actions (imposed = \"separate\"), "
+                        "each leading in turn."))
     show_table(["No.", "Factors (ULS)"], [[f"C{i + 1}", c.expression] for i, (c, _) in enumerate(an.uls)],
                align="ll", title="Factors of each ULS combination")
     sls = list(an.sls_variable)
@@ -284,7 +294,7 @@ def show_actions(result: CalcResult) -> None:
                    title="SLS combinations for deflection (EN 1990:2002, 6.5.3)")
     gov, _ = an.uls[an.governing_M]
     calc = Calc(render=True)
-    render_line_load(gov, an.loads, an.span_mm, result.job.na, PSI_UK_NA, calc)
+    render_line_load(gov, an.loads, an.span_mm, result.job.na, result.job.psi, calc, result.job.beam.imposed)
     show_steps(calc.latex, intro=f"Governing combination for bending, {gov.name}, applied to the full-span "
                                  "line loads (partial-length and point loads are factored the same way):")
 
