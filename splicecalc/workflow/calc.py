@@ -322,14 +322,22 @@ def design_connections(job: Job, design: BeamDesign, render: bool = True) -> tup
     if not job.supports:
         return ()
     from ..joints.connections import design_end_connection
+    from ..joints.connections.existing_member import reactions_by_action
+    from ..joints.connections.tying import tying_force_from_loads
 
-    uls = design.analysis.uls
+    an = design.analysis
+    uls = an.uls
     out = []
     for spec in job.supports:
         end = END_LETTER[spec.at]
         reactions = [(abs(b.R_A if end == "A" else b.R_B), c.name) for c, b in uls]
         V, combo = max(reactions, key=lambda t: t[0])
-        d = design_end_connection(design.section, job.beam.grade, V, spec, job.na, render=render)
+        # the existing member takes the characteristic reaction of each action (with the beam self-weight),
+        # the tie force comes from the beam's loads by the consequence class
+        parts = reactions_by_action(an.loads, an.span_mm, end)
+        tying = tying_force_from_loads(an.loads, an.span_mm, spec.consequence_class, job.psi)
+        d = design_end_connection(design.section, job.beam.grade, V, spec, job.na, render=render, reactions=parts,
+                                  tying=tying, psi=job.psi)
         existing_ids = {id(r) for r in d.existing.records}
         own = tuple(_relabel(r, end, f"End {end}") for r in d.records if id(r) not in existing_ids)
         ex = tuple(_relabel(r, end, f"End {end}") for r in d.existing.records)

@@ -197,13 +197,35 @@ def job_tables(job: Any) -> list[TableOutput]:
                 ["Existing member", getattr(m, "designation", str(m))],
                 ["Existing member dimensions h x b x tw x tf x r",
                  f"{m.h:g} x {m.b:g} x {m.tw:g} x {m.tf:g} x {m.r:g} mm"],
-                ["Face connected to", spec.existing_face], ["Existing steel", spec.existing_steel],
-                ["Tying force", f"{spec.tying_force / 1000:g} kN"]]
+                ["Face connected to", spec.existing_face], ["Existing steel", _steel_text(spec.existing_steel)],
+                ["Tying force", f"{spec.tying_force / 1000:g} kN" if spec.tying_given else
+                 f"from the beam's loads, consequence class {spec.consequence_class} (at least 75 kN)"],
+                ["Existing member's own loads", _loads_text(spec.existing_loads)]]
         if spec.notched:
             rows.append(["Top notch depth x length", f"{spec.notch_depth:g} x {spec.notch_length:g} mm"])
         out.append(TableOutput(["Support item", "Value"], rows, title=f"End connection, support[{spec.index}]",
                                align="ll"))
     return out
+
+
+def _steel_text(value: Any) -> str:
+    """The existing steel as the job gave it: a text, or coupon tests in words."""
+    if isinstance(value, str):
+        return value
+    n = getattr(value, "samples", None)
+    return (f"coupon tests ({n} results, EN 1990 Annex D, method '{getattr(value, 'method', '')}')"
+            if n is not None else str(value))
+
+
+def _loads_text(loads: Any) -> str:
+    """One line on the existing member's own loads, or what is missing."""
+    if loads is None:
+        return "not given: the existing member is NOT CHECKED as a member"
+    if getattr(loads, "kind", "") == "column":
+        return (f"column, length {loads.L_y / 1e3:g} m (y) / {loads.L_z / 1e3:g} m (z), N = "
+                f"{loads.axial.permanent / 1e3:g} kN permanent + {loads.axial.imposed / 1e3:g} kN imposed")
+    return (f"beam, span {loads.span / 1e3:g} m, new beam at {loads.at / 1e3:g} m, "
+            f"{loads.udl.permanent:g} + {loads.udl.imposed:g} kN/m, {len(loads.points)} point load(s)")
 
 
 def show_inputs(job: Any) -> None:
@@ -459,8 +481,7 @@ def show_connection(result: CalcResult, part: Any) -> None:
     spec = part.spec
     show_heading(f"End connection at support {part.end} ({spec.connection})")
     rows = [["Design reaction (largest ULS)", f"{part.V_Ed / 1e3:.1f} kN", part.combination],
-            ["Tying force (accidental, structural integrity)", f"{spec.tying_force / 1e3:.1f} kN",
-             "user value or the 75 kN minimum"],
+            ["Tying force (accidental, structural integrity)", f"{d.tie / 1e3:.1f} kN", d.tie_basis],
             ["Existing member", getattr(spec.existing_member, "designation", ""), spec.existing_face]]
     show_table(["Item", "Value", "Source"], rows, align="lll", title=f"Support {part.end} actions")
     desc = d.detail.describe()
@@ -480,7 +501,8 @@ def show_connections(result: CalcResult) -> None:
 
 
 def show_existing(result: CalcResult) -> None:
-    """The existing member at each end: material, local checks, the moment the reaction adds."""
+    """The existing member at each end: material and old-steel cautions, local checks, the moment the
+    reaction adds, and the member check with its own loads (or the NOT CHECKED record and what is needed)."""
     if not result.connections:
         show_text("No existing member: no `[[support]]` table in the job.")
         return
@@ -488,17 +510,36 @@ def show_existing(result: CalcResult) -> None:
         ex = part.design.existing
         m = part.spec.existing_member
         show_heading(f"Existing member at support {part.end}: {getattr(m, 'designation', '')}", level=2)
+        dims = f"{m.h:g} x {m.b:g} x {m.tw:g} x {m.tf:g} x {m.r:g}"
         rows = [["Material", ex.material.label, ""],
-                ["Yield strength", f"{ex.material.f_y:g}", _u("MPa")],
+                ["Yield strength (at the flange thickness)", f"{ex.material.f_y:g}", _u("MPa")],
                 ["Ultimate strength", f"{ex.material.f_u:g}", _u("MPa")],
-                ["Dimensions h x b x tw x tf x r", f"{m.h:g} x {m.b:g} x {m.tw:g} x {m.tf:g} x {m.r:g}", _u("mm")],
-                ["Face connected to", part.spec.existing_face, ""],
-                ["Added moment", f"{ex.M_add_Nmm / 1e6:.2f}", _u("kNm")],
-                ["Eccentricity", f"{ex.e_mm:.1f}", _u("mm")]]
+                ["Dimensions h x b x tw x tf x r", dims, _u("mm")]]
+        if getattr(m, "taper_deg", 0.0):
+            rows.append(["Flange taper (tf measured midway along the outstand)", f"{m.taper_deg:g} deg, "
+                         f"{m.tf_root:.1f} to {m.tf_toe:.1f} mm", ""])
+        rows += [["Face connected to", part.spec.existing_face, ""],
+                 ["Moment added by the reaction", f"{ex.M_add_Nmm / 1e6:.2f}", _u("kNm")],
+                 ["Eccentricity from the member axis", f"{ex.e_mm:.1f}", _u("mm")]]
         show_table(["Item", "Value", "Unit"], rows, align="lrl", title=f"Existing member at support {part.end}",
                    notes=ex.material.note)
+        if ex.material.historic:
+            show_list([ex.caution], "Old steel: cautions")
         show_text(ex.text[0].upper() + ex.text[1:] + ("." if not ex.text.endswith(".") else ""))
-        show_checks(part.existing_records)
+        member = ex.member
+        member_ids = {f"{part.end}.{r.id}" for r in member.records} if member is not None else set()
+        show_checks(r for r in part.existing_records if r.id not in member_ids)
+        if member is None:
+            continue
+        what = {"column": "column", "beam": "supporting beam"}.get(member.kind, "member")
+        show_heading(f"Existing {what} at support {part.end} checked as a member", level=3)
+        if member.basis:
+            show_list(member.basis, "Basis")
+        if member.load_rows:
+            show_table(["Load", "Action", "Characteristic value", "Where"], [list(r) for r in member.load_rows],
+                       align="llrl", title=f"Loads on the existing {what} (characteristic)",
+                       notes=(f"Governing combination: {member.combination}." if member.combination else ""))
+        show_checks(r for r in part.existing_records if r.id in member_ids)
 
 
 # ======================================================================== summary, references, cautions

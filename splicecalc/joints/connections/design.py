@@ -10,8 +10,8 @@ saying which lighter options failed and on which check.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
-from typing import Any
+from dataclasses import dataclass, replace
+from typing import Any, Sequence
 
 from ...core.errors import InputError, require_positive
 from ...core.record import Calc, CheckRecord
@@ -58,21 +58,33 @@ class ConnectionDesign:
     caution: str = EXISTING_STEEL_CAUTION
     warnings: tuple[str, ...] = ()
     beam: Any = None
+    tie: float = TYING_MIN_N
+    tie_basis: str = "75 kN minimum"
 
     @property
     def ok(self) -> bool:
+        """Every check made passes and none is NOT CHECKED."""
         return all(r.ok for r in self.records)
 
     @property
+    def checks_pass(self) -> bool:
+        """Every check made passes (NOT CHECKED records aside: see :attr:`not_checked`)."""
+        return all(r.ok for r in self.records if r.checked)
+
+    @property
+    def not_checked(self) -> list[CheckRecord]:
+        return [r for r in self.records if not r.checked]
+
+    @property
     def governing(self) -> CheckRecord:
-        return max(self.records, key=lambda r: r.utilisation)
+        return max((r for r in self.records if r.checked), key=lambda r: r.utilisation)
 
     def failing(self) -> list[CheckRecord]:
         return [r for r in self.records if not r.ok]
 
     def summary(self) -> str:
         lines = [f"Support {self.spec.index} ({self.spec.at}): {self.detail.describe()}",
-                 f"V_Ed = {self.V_Ed / 1e3:.1f} kN, tying force = {self.spec.tying_force / 1e3:.1f} kN",
+                 f"V_Ed = {self.V_Ed / 1e3:.1f} kN, tying force = {self.tie / 1e3:.1f} kN ({self.tie_basis})",
                  self.choice, self.existing.text]
         lines += [r.summary_line() for r in self.records]
         lines += list(self.warnings)
@@ -81,7 +93,7 @@ class ConnectionDesign:
 
     def to_dict(self) -> dict[str, Any]:
         return {"support": self.spec.index, "at": self.spec.at, "connection": self.spec.connection,
-                "V_Ed_kN": self.V_Ed / 1e3, "tying_force_kN": self.spec.tying_force / 1e3,
+                "V_Ed_kN": self.V_Ed / 1e3, "tying_force_kN": self.tie / 1e3, "tying_basis": self.tie_basis,
                 "detail": self.detail.to_dict(), "ok": self.ok, "choice": self.choice,
                 "existing": {"material": self.existing.material.label, "f_y_MPa": self.existing.material.f_y,
                              "f_u_MPa": self.existing.material.f_u, "historic": self.existing.material.historic,
@@ -203,27 +215,44 @@ def _validate(beam_section: Any, beam_grade: str, V_Ed: float, spec: Any, na: An
 
 
 def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec: SupportSpec,
-                          na: NationalAnnex = UK_NA, render: bool = False) -> ConnectionDesign:
+                          na: NationalAnnex = UK_NA, render: bool = False, *, reactions: Sequence[Any] | None = None,
+                          tying: tuple[float, str] | None = None, psi: Any = None) -> ConnectionDesign:
     """Design one end connection (partial-depth end plate or fin plate) of the new beam.
 
     ``beam_section``: Section of the new beam; ``beam_grade``: e.g. "S355"; ``V_Ed``: design
     reaction (N, > 0); ``spec``: from :func:`~.spec.parse_support`. Returns the chosen detail
     with every CheckRecord (each citing its clause), the existing-member result and the caution.
     ``render=True`` renders the chosen detail's checks with handcalcs.
+
+    ``reactions``: the new beam's characteristic reactions at this end per action
+    (:class:`~.existing_member.ReactionPart`, from :func:`~.existing_member.reactions_by_action`),
+    used with ``spec.existing_loads`` in the member check of the existing member (None: ``V_Ed``
+    taken as a permanent action, conservative). ``tying``: (force N, basis text) computed from the
+    loads (:func:`~.tying.tying_force_from_loads`); a ``tying_force`` in the job overrides it; with
+    neither the 75 kN minimum is used. ``psi``: the job's psi-factor table.
     """
+    from ...materials.historic import existing_material_of
+    from .existing_member import existing_member_checks
+
     V, grade = _validate(beam_section, beam_grade, V_Ed, spec, na)
     bolt = get_bolt(spec.bolt_size, spec.bolt_class)
     mat = existing_material(spec.existing_member, spec.existing_face, spec.existing_steel)
+    if spec.tying_given:
+        tie, tie_basis = spec.tying_force, "given in the job"
+    elif tying is not None:
+        tie, tie_basis = tying
+    else:
+        tie, tie_basis = TYING_MIN_N, "75 kN minimum (the beam's loads were not given to compute it)"
     ctx = Context(beam=beam_section, beam_grade=grade, beam_mat=steel(grade, beam_section.tf),
                   existing=spec.existing_member, face=spec.existing_face, existing_mat=mat, na=na,
-                  tie=spec.tying_force, notch_depth=spec.notch_depth, notch_length=spec.notch_length)
+                  tie=tie, notch_depth=spec.notch_depth, notch_length=spec.notch_length)
     cands, row_note = _candidates(ctx, spec, bolt)
     rejected: list[str] = []
     chosen = None
     best = None
     for det in cands:
         recs, _ = evaluate(ctx, det, V, Calc())
-        worst = max(recs, key=lambda r: r.utilisation)
+        worst = max((r for r in recs if r.checked), key=lambda r: r.utilisation)
         if best is None or worst.utilisation < best[1]:
             best = (det, worst.utilisation)
         if worst.ok:
@@ -252,24 +281,28 @@ def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec:
         parts.append("Lighter options rejected: " + "; ".join(shown) + more + ".")
     calc = Calc(render=render)
     recs, ex = evaluate(ctx, chosen, V, calc)
+    member = existing_member_checks(spec.existing_member, spec.existing_loads,
+                                    lambda t: existing_material_of(spec.existing_steel, t), spec.existing_face,
+                                    chosen, reactions, V, na, psi, tie, calc)
+    ex = replace(ex, records=ex.records + member.records, member=member)
+    recs = list(recs) + list(member.records)
     warnings = []
     if spec.connection == "fin plate":
         warnings.append("The fin plate is WELDED to the existing member: confirm the weldability of the existing "
                         "steel before specifying it (or use a bolted end plate).")
-    if spec.tying_force < TYING_MIN_N - 1e-6:
-        warnings.append(f"Tying force {spec.tying_force / 1e3:g} kN is below the {TYING_MIN_N / 1e3:g} kN minimum of UK "
+    if tie < TYING_MIN_N - 1e-6:
+        warnings.append(f"Tying force {tie / 1e3:g} kN is below the {TYING_MIN_N / 1e3:g} kN minimum of UK "
                         "practice (from memory of the UK NA to EN 1991-1-7): confirm that the building's "
                         "consequence class allows it.")
     if mat.historic:
         warnings.append(f"Existing steel strength from the era band {mat.label} (f_y = {mat.f_y:g} MPa, "
                         f"f_u = {mat.f_u:g} MPa): values from memory of published appraisal guidance; verify.")
-    if spec.existing_face != "column flange" and spec.connection == "end plate":
-        warnings.append(f"Supporting {spec.existing_face}: yield lines of the web under the tying force are not "
-                        "checked (only bolt punching is).")
-    if spec.existing_face != "column flange" and spec.connection == "fin plate":
-        warnings.append("Supporting web under the tying force (fin plate pulling the web) is not checked.")
+    if spec.existing_loads is None:
+        warnings.append("The existing member is NOT CHECKED as a member: its own loads are not given "
+                        "([support.existing_loads]).")
     return ConnectionDesign(spec=spec, detail=chosen, V_Ed=V, records=tuple(recs), existing=ex,
-                            choice=" ".join(parts), warnings=tuple(warnings), beam=beam_section)
+                            choice=" ".join(parts), warnings=tuple(warnings), beam=beam_section, tie=tie,
+                            tie_basis=tie_basis)
 
 
 __all__ = ["ConnectionDesign", "design_end_connection", "evaluate", "WELD_LEGS"]

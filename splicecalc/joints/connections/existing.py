@@ -20,20 +20,22 @@
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import Any
 
 from ...core.errors import InputError, require_positive
-from ...core.record import Calc, CheckRecord
-from ...materials.historic import EXISTING_STEEL_CAUTION, ExistingSteel, existing_steel
+from ...core.record import Calc, CheckRecord, not_checked
+from ...materials.historic import EXISTING_STEEL_CAUTION, ExistingSteel, existing_material_of
 from ...materials.partial_factors import UK_NA, NationalAnnex
 from ...members.en1993_1_1 import V_pl_Rd
 from ..bolts import B_p_Rd, F_t_Rd
 from ..plates import A_net_plate, V_Rd_n
 from .detail import E_NOMINAL_COLUMN, GUIDANCE, Context, Detail
 from .endplate import support_bearing
-from .formulas import F_T_1_Rd, F_T_2_Rd, M_add, M_pl_Rd_u, m_cf, n_tstub, t_p_max_punching
+from .formulas import (F_T_1_Rd, F_T_2_Rd, F_t_wc_Rd, M_add, M_pl_Rd_u, m_cf, n_tstub, omega_1,
+                       t_p_max_punching)
 
-NOTE_ECC = ("moment added by the connection alone: combine with the existing member's own forces in its "
-            "member check (EN 1993-1-1 6.3.3); not checked here")
+NOTE_ECC = ("moment added by the connection alone: it is combined with the existing member's own forces in "
+            "the member check of the existing member (EN 1993-1-1 6.3.3) when its loads are given")
 
 
 @dataclass(frozen=True)
@@ -47,6 +49,7 @@ class ExistingResult:
     axis: str           # "y" (column major axis), "z" (column minor axis) or "torsion" (supporting beam)
     text: str
     caution: str = EXISTING_STEEL_CAUTION
+    member: Any = None  # ExistingMemberResult: the existing member checked as a member (or NOT CHECKED)
 
     @property
     def ok(self) -> bool:
@@ -83,11 +86,12 @@ def existing_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> Exist
                                clause="EN 1993-1-1:2005, 6.2.6(2), Eq. 6.18", demand=V_Ed, resistance=V_R, unit="N",
                                note=_note(ctx, "one shear plane of depth h_p (conservative); a connection on the "
                                                "other side of the web adds to this shear")))
-        if det.kind == "fin plate":
-            t_max = calc(t_p_max_punching, t_w2=t2, f_u2=fu2, f_yp=_fy_plate(det), gamma_M2=na.gamma_M2)
-            out.append(calc.record(id="ex_punching", title=f"Existing {ctx.face}: local punching by the fin plate",
-                                   clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=det.t_p, resistance=t_max,
-                                   unit="mm", note=_note(ctx, f"t_p <= t_w2 f_u2/(f_yp gamma_M2) ({GUIDANCE})")))
+    if det.kind == "fin plate":
+        # local shear of the supporting plate along the welds: webs and, on the same rule, a column flange
+        t_max = calc(t_p_max_punching, t_w2=t2, f_u2=fu2, f_yp=_fy_plate(det), gamma_M2=na.gamma_M2)
+        out.append(calc.record(id="ex_punching", title=f"Existing {ctx.face}: local punching by the fin plate",
+                               clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=det.t_p, resistance=t_max,
+                               unit="mm", note=_note(ctx, f"t_p <= t_2 f_u2/(f_yp gamma_M2) ({GUIDANCE})")))
     # tying into the existing member
     gMu = na.gamma_Mu
     if det.kind == "end plate":
@@ -114,6 +118,27 @@ def existing_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> Exist
                                    clause="EN 1993-1-8:2005, 6.2.4.1, Table 6.2", demand=ctx.tie, resistance=R,
                                    unit="N", note=_note(ctx, "f_u for f_y, gamma_Mu, sum l_eff = h_p (published "
                                                              "guidance, from memory)")))
+    if ctx.face == "column flange":
+        om = calc(omega_1, b_eff=det.h_p, t_wc=ex.tw, A_vc=ex.Av_z)
+        Ft = calc(F_t_wc_Rd, omega=om, b_eff=det.h_p, t_wc=ex.tw, f_wc=fu2, gamma_M=gMu)
+        out.append(calc.record(id="ex_tie_web_tension", title="Tying: existing column web in transverse tension",
+                               clause="EN 1993-1-8:2005, 6.2.6.3(1), Eq. 6.15", demand=ctx.tie, resistance=Ft,
+                               unit="N", note=_note(ctx, "b_eff,t,wc = h_p (the length the plate loads), one-sided "
+                                                         "joint beta = 1; f_u and gamma_Mu for tying (published "
+                                                         "simple-joint guidance, from memory)")))
+    if web and det.kind == "end plate":
+        out.append(not_checked(
+            id="ex_tie_web_yield", title=f"Tying: existing {ctx.face} in bending (yield lines)",
+            clause="EN 1993-1-8:2005, 6.2.4.1",
+            reason=f"the tie force {ctx.tie / 1e3:.0f} kN pulls the bolts out of the existing web: yield-line "
+                   "mechanisms of the web plate are not checked here (only bolt punching is); check them by a "
+                   "yield-line analysis or published guidance for webs under tying"))
+    if web and det.kind == "fin plate":
+        out.append(not_checked(
+            id="ex_tie_web_pull", title=f"Tying: existing {ctx.face} pulled by the welded fin plate",
+            clause="EN 1993-1-8:2005, 6.2.4.1",
+            reason=f"the tie force {ctx.tie / 1e3:.0f} kN pulls the fin plate out of the existing web: web bending "
+                   "(yield lines) and the weld to the web under tension are not checked here"))
     # the moment added to the existing member
     if ctx.face == "column flange":
         e, axis = ex.h / 2.0 + max(det.z, E_NOMINAL_COLUMN), "y"
@@ -140,19 +165,27 @@ def _fy_plate(det: Detail) -> float:
 def existing_material(section, face: str, text: str) -> ExistingSteel:
     """Material of the existing member, strength taken at its flange thickness (thickest element of a
     rolled section, so the same value serves a web or a flange connection)."""
-    return existing_steel(text, section.tf)
+    return existing_material_of(text, section.tf)
 
 
-def check_existing_member(existing_section, existing_steel_text: str, face: str, detail: Detail, V_Ed: float, *,
+def check_existing_member(existing_section, existing_steel_text: Any, face: str, detail: Detail, V_Ed: float, *,
                           beam_section, beam_grade: str = "S275", tying_force: float = 75_000.0,
                           notch_depth: float | None = None, notch_length: float | None = None,
-                          na: NationalAnnex = UK_NA, render: bool = False) -> ExistingResult:
-    """Public entry: local checks of an existing member receiving ``detail`` with reaction V_Ed (N).
+                          na: NationalAnnex = UK_NA, render: bool = False, existing_loads: Any = None,
+                          reactions: Any = None, psi: Any = None) -> ExistingResult:
+    """Public entry: checks of an existing member receiving ``detail`` with reaction V_Ed (N).
 
-    ``existing_steel_text``: era band (e.g. "1950-1958") or grade ("S275"); ``face``:
-    "column flange" | "column web" | "beam web". Raises InputError for bad input.
+    ``existing_steel_text``: era band (e.g. "1950-1958"), "unknown", a grade ("S275") or a
+    :class:`~splicecalc.materials.historic.TestedSteel`; ``face``: "column flange" | "column web" |
+    "beam web". Local checks always; the member check when ``existing_loads`` (from
+    :func:`~.existing_spec.parse_existing_loads`) is given, else a NOT CHECKED record.
+    ``reactions``: the new beam's characteristic reactions per action (None: V_Ed as a permanent
+    action, conservative). Raises InputError for bad input.
     """
+    from dataclasses import replace
+
     from ...materials.steel import steel
+    from .existing_member import existing_member_checks
     from .spec import FACES
     if face not in FACES:
         raise InputError("existing_face", face, "one of " + ", ".join(repr(f) for f in FACES))
@@ -164,7 +197,12 @@ def check_existing_member(existing_section, existing_steel_text: str, face: str,
     ctx = Context(beam=beam_section, beam_grade=beam_grade, beam_mat=steel(beam_grade, beam_section.tf),
                   existing=existing_section, face=face, existing_mat=mat, na=na, tie=tie,
                   notch_depth=notch_depth, notch_length=notch_length)
-    return existing_checks(ctx, detail, V, Calc(render=render))
+    calc = Calc(render=render)
+    res = existing_checks(ctx, detail, V, calc)
+    member = existing_member_checks(existing_section, existing_loads,
+                                    lambda t: existing_material_of(existing_steel_text, t), face, detail, reactions,
+                                    V, na, psi, tie, calc)
+    return replace(res, records=res.records + member.records, member=member)
 
 
 __all__ = ["ExistingResult", "existing_checks", "existing_material", "check_existing_member", "NOTE_ECC"]

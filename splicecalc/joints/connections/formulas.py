@@ -269,3 +269,109 @@ def t_p_max_ductility(d: float, f_ub: float, f_y: float) -> float:
     """Largest end-plate thickness giving rotation capacity (mm): t <= 0.36 d sqrt(f_ub / f_y), Eq. 6.32."""
     t_max = 0.36 * d * sqrt(f_ub / f_y)
     return t_max
+
+# ------------------------------------------------------------------ column web under transverse forces
+@clause("EN 1993-1-8:2005, 6.2.6.2(1), Eq. 6.11", units={"l_load": "mm", "t_fc": "mm", "s": "mm"}, returns="mm",
+        example=dict(l_load=230.0, t_fc=14.2, s=12.7))
+def b_eff_wc(l_load: float, t_fc: float, s: float) -> float:
+    """Effective width of a column web under a transverse force applied through its flange over the
+    length l_load (the plate depth h_p of a simple connection): l_load + 5 (t_fc + s), s = r_c (mm)."""
+    b_eff_wc = l_load + 5 * (t_fc + s)
+    return b_eff_wc
+
+
+@clause("EN 1993-1-8:2005, 6.2.6.2(1), Table 6.3", units={"b_eff": "mm", "t_wc": "mm", "A_vc": "mm2"}, returns="",
+        example=dict(b_eff=366.0, t_wc=8.6, A_vc=2080.0))
+def omega_1(b_eff: float, t_wc: float, A_vc: float) -> float:
+    """Reduction for shear interaction in the column web, beta = 1 (one-sided joint):
+    omega_1 = 1 / sqrt(1 + 1.3 (b_eff t_wc / A_vc)^2)."""
+    omega = 1 / sqrt(1 + 1.3 * (b_eff * t_wc / A_vc)**2)
+    return omega
+
+
+@clause("EN 1993-1-8:2005, 6.2.6.2(2)", units={"sigma_com_Ed": "MPa", "f_y_wc": "MPa"}, returns="",
+        example=dict(sigma_com_Ed=150.0, f_y_wc=275.0))
+def k_wc(sigma_com_Ed: float, f_y_wc: float) -> float:
+    """Reduction for the longitudinal compressive stress in the column web: 1 when sigma <= 0.7 f_y,wc,
+    else 1.7 - sigma_com,Ed / f_y,wc."""
+    if sigma_com_Ed <= 0.7 * f_y_wc: k_wc = 1.0
+    else: k_wc = 1.7 - sigma_com_Ed / f_y_wc
+    return k_wc
+
+
+@clause("EN 1993-1-8:2005, 6.2.6.2(1), Eq. 6.13", units={"b_eff": "mm", "d_wc": "mm", "f_y_wc": "MPa", "E": "MPa",
+                                                          "t_wc": "mm"}, returns="",
+        example=dict(b_eff=366.0, d_wc=200.3, f_y_wc=275.0, t_wc=8.6))
+def rho_wc(b_eff: float, d_wc: float, f_y_wc: float, t_wc: float, E: float = 210000.0) -> float:
+    """Reduction for plate buckling of the column web: lambda_p = 0.932 sqrt(b_eff d_wc f_y,wc/(E t_wc^2));
+    rho = 1 for lambda_p <= 0.72, else (lambda_p - 0.2)/lambda_p^2."""
+    lamb_p = 0.932 * sqrt(b_eff * d_wc * f_y_wc / (E * t_wc**2))
+    if lamb_p <= 0.72: rho = 1.0
+    else: rho = (lamb_p - 0.2) / lamb_p**2
+    return rho
+
+
+@clause("EN 1993-1-8:2005, 6.2.6.2(1), Eq. 6.9", units={"b_eff": "mm", "t_wc": "mm", "f_y_wc": "MPa"}, returns="N",
+        example=dict(omega=0.6, k_wc=1.0, rho=1.0, b_eff=366.0, t_wc=8.6, f_y_wc=275.0, gamma_M0=1.0, gamma_M1=1.0))
+def F_c_wc_Rd(omega: float, k_wc: float, rho: float, b_eff: float, t_wc: float, f_y_wc: float, gamma_M0: float,
+              gamma_M1: float) -> float:
+    """Unstiffened column web in transverse compression (N):
+    min(omega k_wc b_eff t_wc f_y,wc / gamma_M0, omega k_wc rho b_eff t_wc f_y,wc / gamma_M1)."""
+    F_c_wc_Rd = min(omega * k_wc * b_eff * t_wc * f_y_wc / gamma_M0, omega * k_wc * rho * b_eff * t_wc * f_y_wc / gamma_M1)
+    return F_c_wc_Rd
+
+
+@clause("EN 1993-1-8:2005, 6.2.6.3(1), Eq. 6.15", units={"b_eff": "mm", "t_wc": "mm", "f_wc": "MPa"}, returns="N",
+        example=dict(omega=0.6, b_eff=230.0, t_wc=8.6, f_wc=410.0, gamma_M=1.1))
+def F_t_wc_Rd(omega: float, b_eff: float, t_wc: float, f_wc: float, gamma_M: float) -> float:
+    """Unstiffened column web in transverse tension (N): omega b_eff,t,wc t_wc f_y,wc / gamma_M0
+    (for tying: f_u for f_y and gamma_Mu, published guidance, from memory)."""
+    F_t_wc_Rd = omega * b_eff * t_wc * f_wc / gamma_M
+    return F_t_wc_Rd
+
+
+# ------------------------------------------------------------------ structural integrity (tying)
+@clause("EN 1991-1-7:2006, A.5.1, Eq. (A.1)", units={"W_acc": "N", "T_min": "N"}, returns="N",
+        example=dict(k_T=0.8, W_acc=120e3))
+def T_tie(k_T: float, W_acc: float, T_min: float = 75000.0) -> float:
+    """Horizontal tie force of a framed structure, T = k_T (g_k + psi q_k) s L >= T_min (N).
+
+    (g_k + psi q_k) s L = W_acc is the beam's total load in the accidental combination (line loads
+    already carry the spacing s). k_T = 0.8 internal ties (EN 1991-1-7 A.5.1, class 2b), 0.5 for class
+    2a by the UK NA (from memory); T_min = 75 kN.
+    """
+    T = max(k_T * W_acc, T_min)
+    return T
+
+
+
+# ------------------------------------------------------------------ torsion of a supporting beam
+@clause("EN 1993-1-1:2005, 6.2.7(5)", units={"T_Ed": "Nmm", "h": "mm", "t_f": "mm", "a": "mm", "L": "mm"},
+        returns="Nmm", example=dict(T_Ed=5e6, h=457.0, t_f=17.0, a=2100.0, L=6000.0))
+def M_fl_warping(T_Ed: float, h: float, t_f: float, a: float, L: float) -> float:
+    """Lateral moment in each flange when the whole torque T_Ed at a is carried by warping (N*mm):
+    flange force T_Ed/(h - t_f) on a flange span L with forks at the ends (flange-bending analogy,
+    published torsion design guidance, conservative)."""
+    F_fl = T_Ed / (h - t_f)
+    M_fl = F_fl * a * (L - a) / L
+    return M_fl
+
+
+@clause("EN 1993-1-1:2005, 6.2.7(5)", units={"M_y_Ed": "Nmm", "W_el_y": "mm3", "M_fl": "Nmm", "b": "mm",
+                                              "t_f": "mm", "f_y": "MPa"}, returns="",
+        example=dict(M_y_Ed=80e6, W_el_y=1120e3, M_fl=3e6, b=152.0, t_f=17.0, f_y=230.0, gamma_M0=1.0))
+def U_bending_warping(M_y_Ed: float, W_el_y: float, M_fl: float, b: float, t_f: float, f_y: float,
+                      gamma_M0: float) -> float:
+    """Elastic flange-tip stress from major-axis bending plus warping over f_y/gamma_M0 (6.2.1(5) criterion):
+    (M_y/W_el,y + M_fl/(t_f b^2/6)) gamma_M0/f_y."""
+    W_fl = t_f * b**2 / 6
+    U_w = (M_y_Ed / W_el_y + M_fl / W_fl) * gamma_M0 / f_y
+    return U_w
+
+
+@clause("EN 1993-1-1:2005, 6.2.7(9)", units={"T_Ed": "Nmm", "t_max": "mm", "I_t": "mm4"}, returns="MPa",
+        example=dict(T_Ed=3e6, t_max=17.0, I_t=50e4))
+def tau_t_Ed(T_Ed: float, t_max: float, I_t: float) -> float:
+    """St Venant shear stress at the thickest element, tau_t = T_Ed t_max / I_t (MPa), the whole torque by St Venant."""
+    tau_t = T_Ed * t_max / I_t
+    return tau_t

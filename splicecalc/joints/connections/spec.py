@@ -11,7 +11,11 @@ Example (TOML)::
     existing_face = "column flange"     # "column web" | "beam web"
     existing_steel = "1950-1958"        # era band, or a grade "S275"
     notch_top = "40 mm x 120 mm"        # depth x length, optional
-    tying_force = "75 kN"               # optional, default 75 kN
+    tying_force = "75 kN"               # optional; default: from the new beam's loads by the UK NA rule
+    consequence_class = "2b"            # optional: "1", "2a", "2b" (default) or "3", for the tying force
+    [support.existing_loads]            # optional: loads and restraints of the existing member
+                                        # (see joints/connections/existing_spec.py); without it the
+                                        # existing member is NOT CHECKED as a member
     rows = 4                            # optional; missing -> automatic choice
     pitch = "70 mm"                     # optional
     gauge = "90 mm"                     # optional (end plate: bolt cross-centres)
@@ -39,7 +43,9 @@ ENDS = ("start", "end")
 #: the UK building-regulation guidance and the UK NA to EN 1991-1-7, flagged)
 TYING_MIN_N = 75_000.0
 _KEYS = ("at", "connection", "bolts", "plate", "existing_member", "existing_face", "existing_steel",
-         "notch_top", "tying_force", "rows", "pitch", "gauge", "weld_leg")
+         "notch_top", "tying_force", "rows", "pitch", "gauge", "weld_leg", "existing_loads", "consequence_class")
+#: consequence classes of EN 1991-1-7 / UK NA for the tying force
+CONSEQUENCE_CLASSES = ("1", "2a", "2b", "3")
 _BOLT_RE = re.compile(r"^\s*(M\d{2})\s*(?:(?:class|gr\.?|grade)\s*)?(\d{1,2}\.\d)?\s*$", re.I)
 _NOTCH_RE = re.compile(r"^\s*(.+?)\s*[x×*]\s*(.+?)\s*$")
 
@@ -69,6 +75,9 @@ class SupportSpec:
     pitch: float | None = None
     gauge: float | None = None
     weld_leg: float | None = None
+    tying_given: bool = False
+    consequence_class: str = "2b"
+    existing_loads: Any = None
 
     @property
     def field(self) -> str:
@@ -151,12 +160,43 @@ def _existing_member(value: Any, field: str) -> Any:
                 raise InputError(f"{field}.{k}", None, "a measured dimension with its unit, e.g. '254 mm'")
             dims[k] = parse_quantity(value[k], "mm", f"{field}.{k}")
         label = value.get("designation", "measured existing member")
+        from ...sections.tapered import designation_check, tapered_section
+        designation_check(str(label), dims["h"], dims["b"], f"{field}.designation")
         try:
+            if "taper" in value:
+                taper = _angle(value["taper"], f"{field}.taper")
+                return tapered_section(designation=str(label), taper_deg=taper, **dims)
             return measured_section(designation=str(label), **dims)
         except InputError as err:
             raise InputError(f"{field}.{err.field}", err.value, err.allowed, err.hint) from None
     raise InputError(field, value, "a catalogue designation such as '254x254x73 UKC' or a table of measured "
                                    "h, b, tw, tf, r with units")
+
+
+def _angle(text: Any, field: str) -> float:
+    """'8 deg' / '8°' / 8 -> 8.0 (degrees)."""
+    if isinstance(text, (int, float)) and not isinstance(text, bool):
+        v = float(text)
+    else:
+        m = re.match(r"^\s*([0-9.]+)\s*(?:deg|degrees|°)\s*$", str(text))
+        if not m:
+            raise InputError(field, text, "a flange taper in degrees, e.g. '8 deg'")
+        v = float(m.group(1))
+    if not 0.0 <= v <= 15.0:
+        raise InputError(field, text, "a flange taper from 0 to 15 degrees")
+    return v
+
+
+def _existing_steel_value(table: dict, pre: str) -> Any:
+    from ...materials.historic import tested_steel
+    v = table.get("existing_steel")
+    if isinstance(v, dict):
+        return tested_steel(v, f"{pre}.existing_steel")
+    mat = _text(table, "existing_steel", pre)
+    if mat is None:
+        raise InputError(f"{pre}.existing_steel", None, allowed_materials())
+    existing_steel(mat, 10.0, f"{pre}.existing_steel")  # validates (era band, grade, unknown; iron refused)
+    return mat
 
 
 def parse_support(table: dict, index: int) -> SupportSpec:
@@ -190,11 +230,7 @@ def parse_support(table: dict, index: int) -> SupportSpec:
     if face is None or face.lower() not in FACES:
         raise InputError(f"{pre}.existing_face", face, "one of " + ", ".join(repr(f) for f in FACES))
     kw["existing_face"] = face.lower()
-    mat = _text(table, "existing_steel", pre)
-    if mat is None:
-        raise InputError(f"{pre}.existing_steel", None, allowed_materials())
-    existing_steel(mat, 10.0, f"{pre}.existing_steel")  # validates (era band or grade; iron refused)
-    kw["existing_steel"] = mat
+    kw["existing_steel"] = _existing_steel_value(table, pre)
     notch = _text(table, "notch_top", pre)
     if notch is not None:
         kw["notch_depth"], kw["notch_length"] = parse_notch(notch, f"{pre}.notch_top")
@@ -203,6 +239,17 @@ def parse_support(table: dict, index: int) -> SupportSpec:
         if tie <= 0.0:
             raise InputError(f"{pre}.tying_force", table["tying_force"], "a force > 0, e.g. '75 kN'")
         kw["tying_force"] = tie
+        kw["tying_given"] = True
+    if "consequence_class" in table:
+        cc = str(table["consequence_class"]).strip().lower()
+        if cc not in CONSEQUENCE_CLASSES:
+            raise InputError(f"{pre}.consequence_class", table["consequence_class"],
+                             "one of " + ", ".join(repr(c) for c in CONSEQUENCE_CLASSES) + " (EN 1991-1-7, UK NA)")
+        kw["consequence_class"] = cc
+    if "existing_loads" in table:
+        from .existing_spec import parse_existing_loads
+        kw["existing_loads"] = parse_existing_loads(table["existing_loads"], kw["existing_face"],
+                                                    f"{pre}.existing_loads")
     if "rows" in table:
         rows = table["rows"]
         if isinstance(rows, bool) or not isinstance(rows, int) or not 1 <= rows <= 12:
@@ -218,4 +265,4 @@ def parse_support(table: dict, index: int) -> SupportSpec:
 
 
 __all__ = ["SupportSpec", "parse_support", "parse_bolts", "parse_plate", "parse_notch", "CONNECTIONS", "FACES",
-           "TYING_MIN_N"]
+           "TYING_MIN_N", "CONSEQUENCE_CLASSES"]

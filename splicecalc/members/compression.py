@@ -1,0 +1,214 @@
+"""EN 1993-1-1:2005 clause formulas for members in compression and bending (columns).
+
+Flexural buckling (6.3.1), cross-section resistance to axial force and bending
+(6.2.4, 6.2.9.1) and the member interaction of 6.3.3 with the interaction
+factors of Annex B (Method 2). Plain floats in N, mm, MPa, N*mm (or
+forallpeople quantities when rendered). Used by the existing-column check
+(:mod:`splicecalc.joints.connections.existing_member`); nothing here knows a job.
+
+Slenderness arguments are spelled ``lamb_y`` / ``lamb_z`` (handcalcs renders
+``lamb`` as the Greek lambda).
+"""
+
+from __future__ import annotations
+
+from math import pi, sqrt
+
+from ..core.clause import clause
+
+#: imperfection factors for flexural buckling, EN 1993-1-1:2005, Table 6.1
+ALPHA_FLEXURAL: dict[str, float] = {"a0": 0.13, "a": 0.21, "b": 0.34, "c": 0.49, "d": 0.76}
+
+
+def flexural_curves(h: float, b: float, t_f: float) -> tuple[str, str]:
+    """Buckling curves (y-y, z-z) of a rolled I or H section in S235 to S420, EN 1993-1-1:2005, Table 6.2."""
+    if h / b > 1.2:
+        return ("a", "b") if t_f <= 40.0 else ("b", "c")
+    return ("b", "c") if t_f <= 100.0 else ("d", "d")
+
+
+# ------------------------------------------------------------------ axial 6.2.4 and flexural buckling 6.3.1
+@clause("EN 1993-1-1:2005, 6.2.4(2), Eq. 6.10", units={"A": "mm2", "f_y": "MPa"}, returns="N",
+        example=dict(A=9310.0, f_y=275.0, gamma_M0=1.0))
+def N_pl_Rd(A: float, f_y: float, gamma_M0: float) -> float:
+    """Design plastic resistance of the gross cross-section N_pl,Rd = A f_y / gamma_M0 (N)."""
+    N_pl_Rd = A * f_y / gamma_M0
+    return N_pl_Rd
+
+
+@clause("EN 1993-1-1:2005, 6.3.1.3(1), Eq. 6.50", units={"E": "MPa", "I": "mm4", "L_cr": "mm"}, returns="N",
+        example=dict(I=11410e4, L_cr=3600.0))
+def N_cr(I: float, L_cr: float, E: float = 210000.0) -> float:
+    """Elastic critical force for flexural buckling N_cr = pi^2 E I / L_cr^2 (N)."""
+    N_cr = pi**2 * E * I / L_cr**2
+    return N_cr
+
+
+@clause("EN 1993-1-1:2005, 6.3.1.3(1), Eq. 6.50", units={"A": "mm2", "f_y": "MPa", "N_cr": "N"}, returns="",
+        example=dict(A=9310.0, f_y=275.0, N_cr=18.25e6))
+def lambda_flex(A: float, f_y: float, N_cr: float) -> float:
+    """Non-dimensional slenderness lambda = sqrt(A f_y / N_cr) (Class 1, 2, 3)."""
+    lamb = sqrt(A * f_y / N_cr)
+    return lamb
+
+
+@clause("EN 1993-1-1:2005, 6.3.1.2(1), Eq. 6.49", units={}, returns="", example=dict(lamb=0.6, alpha=0.34))
+def chi_flex(lamb: float, alpha: float) -> float:
+    """Reduction factor for flexural buckling chi = 1 / (Phi + sqrt(Phi^2 - lambda^2)) <= 1,
+    Phi = 0.5 [1 + alpha (lambda - 0.2) + lambda^2]."""
+    Phi = 0.5 * (1 + alpha * (lamb - 0.2) + lamb**2)
+    chi = min(1 / (Phi + sqrt(Phi**2 - lamb**2)), 1.0)
+    return chi
+
+
+@clause("EN 1993-1-1:2005, 6.3.1.1(3), Eq. 6.47", units={"A": "mm2", "f_y": "MPa"}, returns="N",
+        example=dict(chi=0.85, A=9310.0, f_y=275.0, gamma_M1=1.0))
+def N_b_Rd(chi: float, A: float, f_y: float, gamma_M1: float) -> float:
+    """Design buckling resistance of a compression member N_b,Rd = chi A f_y / gamma_M1 (N), Class 1, 2, 3."""
+    N_b_Rd = chi * A * f_y / gamma_M1
+    return N_b_Rd
+
+
+# ------------------------------------------------------------------ cross-section N + M, 6.2.9.1
+@clause("EN 1993-1-1:2005, 6.2.9.1(5), Eq. 6.36", units={"M_pl_y_Rd": "Nmm"}, returns="Nmm",
+        example=dict(M_pl_y_Rd=273e6, n=0.3, a=0.23))
+def M_N_y_Rd(M_pl_y_Rd: float, n: float, a: float) -> float:
+    """Reduced plastic moment about y-y for axial force, rolled I or H: M_pl,y,Rd (1 - n)/(1 - 0.5 a) <= M_pl,y,Rd.
+
+    n = N_Ed / N_pl,Rd; a = (A - 2 b t_f)/A <= 0.5.
+    """
+    M_N_y_Rd = min(M_pl_y_Rd * (1 - n) / (1 - 0.5 * a), M_pl_y_Rd)
+    return M_N_y_Rd
+
+
+@clause("EN 1993-1-1:2005, 6.2.9.1(5), Eq. 6.38", units={"M_pl_z_Rd": "Nmm"}, returns="Nmm",
+        example=dict(M_pl_z_Rd=122e6, n=0.3, a=0.23))
+def M_N_z_Rd(M_pl_z_Rd: float, n: float, a: float) -> float:
+    """Reduced plastic moment about z-z: M_pl,z,Rd for n <= a (Eq. 6.37), else
+    M_pl,z,Rd [1 - ((n - a)/(1 - a))^2] (Eq. 6.38)."""
+    if n <= a: M_N_z_Rd = M_pl_z_Rd
+    else: M_N_z_Rd = M_pl_z_Rd * (1 - ((n - a) / (1 - a))**2)
+    return M_N_z_Rd
+
+
+@clause("EN 1993-1-1:2005, 6.2.9.1(6), Eq. 6.41", units={"M_y_Ed": "Nmm", "M_N_y_Rd": "Nmm", "M_z_Ed": "Nmm",
+                                                          "M_N_z_Rd": "Nmm"}, returns="",
+        example=dict(M_y_Ed=80e6, M_N_y_Rd=220e6, M_z_Ed=5e6, M_N_z_Rd=110e6, n=0.3))
+def U_biaxial_NM(M_y_Ed: float, M_N_y_Rd: float, M_z_Ed: float, M_N_z_Rd: float, n: float) -> float:
+    """Bi-axial criterion for I and H sections: [M_y/M_N,y]^alpha + [M_z/M_N,z]^beta, alpha = 2, beta = 5 n >= 1."""
+    beta = max(5 * n, 1.0)
+    U_NM = (M_y_Ed / M_N_y_Rd)**2 + (M_z_Ed / M_N_z_Rd)**beta
+    return U_NM
+
+
+@clause("EN 1993-1-1:2005, 6.2.9.2(1), Eq. 6.42", units={"N_Ed": "N", "A": "mm2", "M_y_Ed": "Nmm", "W_el_y": "mm3",
+                                                          "M_z_Ed": "Nmm", "W_el_z": "mm3", "f_y": "MPa"},
+        returns="", example=dict(N_Ed=600e3, A=9310.0, M_y_Ed=80e6, W_el_y=898e3, M_z_Ed=5e6, W_el_z=307e3,
+                                 f_y=275.0, gamma_M0=1.0))
+def U_elastic_NM(N_Ed: float, A: float, M_y_Ed: float, W_el_y: float, M_z_Ed: float, W_el_z: float, f_y: float,
+                 gamma_M0: float) -> float:
+    """Class 3: largest longitudinal stress over f_y/gamma_M0, (N/A + M_y/W_el,y + M_z/W_el,z) gamma_M0 / f_y."""
+    sigma_x_Ed = N_Ed / A + M_y_Ed / W_el_y + M_z_Ed / W_el_z
+    U_el = sigma_x_Ed * gamma_M0 / f_y
+    return U_el
+
+
+# ------------------------------------------------------------------ member interaction 6.3.3, Annex B
+@clause("EN 1993-1-1:2005, Annex B, Table B.3", units={}, returns="", example=dict(psi=0.0))
+def C_m_linear(psi: float) -> float:
+    """Equivalent uniform moment factor for a linear moment diagram, C_m = 0.6 + 0.4 psi >= 0.4."""
+    C_m = max(0.6 + 0.4 * psi, 0.4)
+    return C_m
+
+
+@clause("EN 1993-1-1:2005, Annex B, Table B.1", units={"N_Ed": "N", "N_Rk": "N"}, returns="",
+        example=dict(N_Ed=600e3, chi=0.8, N_Rk=2.56e6, gamma_M1=1.0))
+def n_ratio(N_Ed: float, chi: float, N_Rk: float, gamma_M1: float) -> float:
+    """n = N_Ed / (chi N_Rk / gamma_M1), for n_y (chi_y) or n_z (chi_z)."""
+    n_i = N_Ed / (chi * N_Rk / gamma_M1)
+    return n_i
+
+
+@clause("EN 1993-1-1:2005, Annex B, Table B.1", units={}, returns="",
+        example=dict(C_my=0.6, lamb_y=0.45, n_y=0.25, cls=1))
+def k_yy_B(C_my: float, lamb_y: float, n_y: float, cls: int) -> float:
+    """k_yy, I sections: Class 1, 2 C_my (1 + (lambda_y - 0.2) n_y) <= C_my (1 + 0.8 n_y);
+    Class 3 C_my (1 + 0.6 lambda_y n_y) <= C_my (1 + 0.6 n_y)."""
+    if cls <= 2: k_yy = min(C_my * (1 + (lamb_y - 0.2) * n_y), C_my * (1 + 0.8 * n_y))
+    else: k_yy = min(C_my * (1 + 0.6 * lamb_y * n_y), C_my * (1 + 0.6 * n_y))
+    return k_yy
+
+
+@clause("EN 1993-1-1:2005, Annex B, Table B.1", units={}, returns="",
+        example=dict(C_mz=0.6, lamb_z=0.75, n_z=0.4, cls=1))
+def k_zz_B(C_mz: float, lamb_z: float, n_z: float, cls: int) -> float:
+    """k_zz, I sections: Class 1, 2 C_mz (1 + (2 lambda_z - 0.6) n_z) <= C_mz (1 + 1.4 n_z);
+    Class 3 C_mz (1 + 0.6 lambda_z n_z) <= C_mz (1 + 0.6 n_z)."""
+    if cls <= 2: k_zz = min(C_mz * (1 + (2 * lamb_z - 0.6) * n_z), C_mz * (1 + 1.4 * n_z))
+    else: k_zz = min(C_mz * (1 + 0.6 * lamb_z * n_z), C_mz * (1 + 0.6 * n_z))
+    return k_zz
+
+
+@clause("EN 1993-1-1:2005, Annex B, Table B.1", units={}, returns="", example=dict(k_zz=0.9, cls=1))
+def k_yz_B(k_zz: float, cls: int) -> float:
+    """k_yz = 0.6 k_zz (Class 1, 2) or k_zz (Class 3)."""
+    if cls <= 2: k_yz = 0.6 * k_zz
+    else: k_yz = k_zz
+    return k_yz
+
+
+@clause("EN 1993-1-1:2005, Annex B, Table B.2", units={}, returns="",
+        example=dict(lamb_z=0.75, n_z=0.4, C_mLT=0.6, cls=1))
+def k_zy_B(lamb_z: float, n_z: float, C_mLT: float, cls: int) -> float:
+    """k_zy for members susceptible to torsional deformation. Class 1, 2: lambda_z >= 0.4:
+    [1 - 0.1 lambda_z n_z/(C_mLT - 0.25)] >= [1 - 0.1 n_z/(C_mLT - 0.25)]; lambda_z < 0.4:
+    0.6 + lambda_z <= 1 - 0.1 lambda_z n_z/(C_mLT - 0.25). Class 3: [1 - 0.05 lambda_z n_z/(C_mLT - 0.25)]
+    >= [1 - 0.05 n_z/(C_mLT - 0.25)]."""
+    if lamb_z >= 0.4: k_zy_12 = max(1 - 0.1 * lamb_z * n_z / (C_mLT - 0.25), 1 - 0.1 * n_z / (C_mLT - 0.25))
+    else: k_zy_12 = min(0.6 + lamb_z, 1 - 0.1 * lamb_z * n_z / (C_mLT - 0.25))
+    if cls >= 3: k_zy = max(1 - 0.05 * lamb_z * n_z / (C_mLT - 0.25), 1 - 0.05 * n_z / (C_mLT - 0.25))
+    else: k_zy = k_zy_12
+    return k_zy
+
+
+@clause("EN 1993-1-1:2005, 6.3.3(4), Eq. 6.61", units={"N_Ed": "N", "N_Rk": "N", "M_y_Ed": "Nmm", "M_y_Rk": "Nmm",
+                                                        "M_z_Ed": "Nmm", "M_z_Rk": "Nmm"}, returns="",
+        example=dict(N_Ed=600e3, chi_y=0.9, N_Rk=2.56e6, k_yy=0.65, M_y_Ed=80e6, chi_LT=0.95, M_y_Rk=273e6,
+                     k_yz=0.5, M_z_Ed=5e6, M_z_Rk=122e6, gamma_M1=1.0))
+def U_6_61(N_Ed: float, chi_y: float, N_Rk: float, k_yy: float, M_y_Ed: float, chi_LT: float, M_y_Rk: float,
+           k_yz: float, M_z_Ed: float, M_z_Rk: float, gamma_M1: float) -> float:
+    """Member interaction, buckling about y-y: N/(chi_y N_Rk/g) + k_yy M_y/(chi_LT M_y,Rk/g) + k_yz M_z/(M_z,Rk/g)."""
+    U_N_y = N_Ed / (chi_y * N_Rk / gamma_M1)
+    U_M_y = k_yy * M_y_Ed / (chi_LT * M_y_Rk / gamma_M1)
+    U_M_z = k_yz * M_z_Ed / (M_z_Rk / gamma_M1)
+    U_y = U_N_y + U_M_y + U_M_z
+    return U_y
+
+
+@clause("EN 1993-1-1:2005, 6.3.3(4), Eq. 6.62", units={"N_Ed": "N", "N_Rk": "N", "M_y_Ed": "Nmm", "M_y_Rk": "Nmm",
+                                                        "M_z_Ed": "Nmm", "M_z_Rk": "Nmm"}, returns="",
+        example=dict(N_Ed=600e3, chi_z=0.7, N_Rk=2.56e6, k_zy=0.9, M_y_Ed=80e6, chi_LT=0.95, M_y_Rk=273e6,
+                     k_zz=0.9, M_z_Ed=5e6, M_z_Rk=122e6, gamma_M1=1.0))
+def U_6_62(N_Ed: float, chi_z: float, N_Rk: float, k_zy: float, M_y_Ed: float, chi_LT: float, M_y_Rk: float,
+           k_zz: float, M_z_Ed: float, M_z_Rk: float, gamma_M1: float) -> float:
+    """Member interaction, buckling about z-z: N/(chi_z N_Rk/g) + k_zy M_y/(chi_LT M_y,Rk/g) + k_zz M_z/(M_z,Rk/g)."""
+    U_N_z = N_Ed / (chi_z * N_Rk / gamma_M1)
+    U_M_y = k_zy * M_y_Ed / (chi_LT * M_y_Rk / gamma_M1)
+    U_M_z = k_zz * M_z_Ed / (M_z_Rk / gamma_M1)
+    U_z = U_N_z + U_M_y + U_M_z
+    return U_z
+
+
+# ------------------------------------------------------------------ torsion with shear 6.2.7(9)
+@clause("EN 1993-1-1:2005, 6.2.7(9), Eq. 6.26", units={"V_pl_Rd": "N", "tau_t_Ed": "MPa", "f_y": "MPa"},
+        returns="N", example=dict(V_pl_Rd=600e3, tau_t_Ed=40.0, f_y=275.0, gamma_M0=1.0))
+def V_pl_T_Rd(V_pl_Rd: float, tau_t_Ed: float, f_y: float, gamma_M0: float) -> float:
+    """Plastic shear resistance of an I or H section reduced for St Venant torsion (N):
+    V_pl,T,Rd = sqrt(1 - tau_t,Ed / (1.25 (f_y/sqrt 3)/gamma_M0)) V_pl,Rd."""
+    V_pl_T_Rd = sqrt(max(1 - tau_t_Ed / (1.25 * (f_y / sqrt(3)) / gamma_M0), 0.0)) * V_pl_Rd
+    return V_pl_T_Rd
+
+
+__all__ = ["ALPHA_FLEXURAL", "flexural_curves", "N_pl_Rd", "N_cr", "lambda_flex", "chi_flex", "N_b_Rd",
+           "M_N_y_Rd", "M_N_z_Rd", "U_biaxial_NM", "U_elastic_NM", "C_m_linear", "n_ratio", "k_yy_B", "k_zz_B",
+           "k_yz_B", "k_zy_B", "U_6_61", "U_6_62", "V_pl_T_Rd"]
