@@ -203,3 +203,47 @@ def test_single_imposed_action_accompanying_takes_each_psi():
     assert imp.factor("imposed B") == imp.factor("imposed E") == 1.5
     assert imp.factor("snow") == pytest.approx(1.5 * 0.5)
     assert len(combos) == 3                                            # 6.10a + two leading actions
+
+
+# ------------------------------------------------------------------ M_cr closed form only where it fits; C_1 shown
+def test_closed_form_for_udl_span_fits_published_c1_c2():
+    """Whole span under UDLs, loads on the top flange: C_1 = 1.127, C_2 = 0.454 (published NCCI tables
+    for a UDL on a fork-supported span, k = k_w = 1; from memory)."""
+    job = Job(beam=BeamSpec(span=6000.0, grade="S355", section="457x191x67 UKB", load_level="top flange"),
+              loads=(UDL("floor", "permanent", 12.0), UDL("office", "imposed", 10.0, category="B")))
+    d = design_beam(job, render=True)
+    rec = d.record("ltb_1")
+    assert rec.values["C_1_closed_form"][0] == pytest.approx(1.127)      # NCCI table (from memory)
+    assert rec.values["C_2_closed_form"][0] == pytest.approx(0.454)      # NCCI table (from memory)
+    # the closed form with every load at the top flange is close to (a little under) the numerical M_cr,
+    # whose self-weight acts at the shear centre
+    ratio = rec.values["M_cr_closed_form"][0] / rec.values["M_cr"][0]
+    assert 0.90 < ratio < 1.02
+    # the C_1 used for k_c is reported: the numerical value for a parabolic diagram, ~1.13 (NCCI 1.127, memory)
+    assert rec.values["C_1"][0] == pytest.approx(1.127, abs=0.015)
+    assert rec.values["k_c"][0] == pytest.approx(1 / sqrt(rec.values["C_1"][0]), rel=1e-9)   # UK NA NA.2.18
+
+
+def test_no_closed_form_where_none_fits():
+    """Segments between restraints under a UDL have a curved, non-tabulated diagram: no closed form shown."""
+    job = Job(beam=BeamSpec(span=7200.0, grade="S355", section="457x191x67 UKB", restraints=(2400.0, 4800.0)),
+              loads=(UDL("floor", "permanent", 12.0), UDL("office", "imposed", 10.0, category="B")))
+    d = design_beam(job, render=True)
+    for k in (1, 2, 3):
+        rec = d.record(f"ltb_{k}")
+        assert "M_cr_closed_form" not in rec.values
+        assert any("No published closed form fits" in s for s in rec.latex)
+
+
+# ------------------------------------------------------------------ search reports the worst check
+def test_rejected_sections_report_their_worst_check():
+    from pathlib import Path
+    from splicecalc.job import load_job
+    job = load_job(Path(__file__).resolve().parents[1] / "examples" / "mezzanine_infill.toml")
+    d = design_beam(job)
+    shown = [c for c in d.lighter_failures if c.stage == "full"][-3:]
+    assert shown
+    for c in shown:
+        full = design_beam(job.with_section(c.designation))
+        worst = max((r for r in full.records if r.is_check), key=lambda r: r.utilisation)
+        assert c.governing == worst.id and c.utilisation == pytest.approx(worst.utilisation, rel=1e-9)

@@ -43,14 +43,13 @@ from ..materials import E_MPa, NationalAnnex, steel
 from ..members import en1993_1_1 as f11
 from ..members import (C1_C2_PINNED, C_1_linear, M_cr_C1C2, check_bending, check_bending_shear,
                        check_deflection, check_ltb, check_shear, check_transverse_bending, check_transverse_force,
-                       check_web_bearing, classify, transverse_resistance)
+                       check_web_bearing, classify, shear_resistance, transverse_resistance)
 from ..sections import Section, get_section, list_sections
 
 #: name of the self-weight load added by the design (reserved in job loads)
 SELF_WEIGHT = SELF_WEIGHT_NAME
-#: C_1 from end moments is used for the closed-form cross-check only when the segment's
-#: largest moment exceeds its larger end moment by at most this fraction
-_LINEAR_TOL = 0.05
+#: failing candidates re-run with every check (worst check reported): the heaviest this many
+SHOWN_FAILURES = 6
 
 
 # ======================================================================== analysis
@@ -105,6 +104,8 @@ class _Context:
         self.point_x = tuple(sorted({ld.x for ld in job.loads if isinstance(ld, PointLoad)
                                      and 0.0 < ld.x < self.L}))
         self.point_groups = _point_groups(self)
+        #: plain-float LTB records of this design call by (section, segment index, combination index)
+        self.ltb_memo: dict[tuple[str, int, int], CheckRecord] = {}
         # variable actions only (characteristic, each leading): independent of the section
         var = []
         if any(ld.action != "permanent" for ld in job.loads):
@@ -475,7 +476,9 @@ def _check_section_all(ctx: _Context, section: Section, render: bool = False,
     """Every member check of ``section``; each check's governing combination found on floats.
 
     With ``fail_fast`` (search) the cheap checks come first and the run stops at the first
-    stage with a failure; LTB solves stop at the first failing segment.
+    stage with a failure; in the LTB stage every segment is solved, each down its combinations
+    (largest moment first) until one fails. :func:`design_beam` re-runs the failures it shows
+    without ``fail_fast``, so each is reported with its worst check.
     With ``render`` the governing case of each check is re-run with handcalcs rendering.
     """
     case = ctx.case(section.mass_nominal)
@@ -514,15 +517,17 @@ def _check_section_all(ctx: _Context, section: Section, render: bool = False,
         combos = sorted(range(len(uls)), key=lambda i: -_segment_M_max(ctx, case, i, x0, x1)[0])
         best: tuple[CheckRecord, int] | None = None
         for i in combos:
-            rec = _ltb_one(ctx, section, case, i, k + 1, x0, x1, Calc(), with_cross_check=False)
+            key = (section.designation, k, i)
+            rec = ctx.ltb_memo.get(key)
+            if rec is None:
+                rec = ctx.ltb_memo[key] = _ltb_one(ctx, section, case, i, k + 1, x0, x1, Calc(),
+                                                   with_cross_check=False)
             if best is None or rec.utilisation > best[0].utilisation:
                 best = (rec, i)
             if fail_fast and not rec.ok:
                 break
         assert best is not None
         ltb[k] = best
-        if fail_fast and not best[0].ok:
-            break
     for k in sorted(ltb):
         _, i = ltb[k]
         x0, x1 = segs[k]
@@ -670,11 +675,18 @@ def _bending_shear(ctx: _Context, case: _MassCase, section: Section, run: _Run, 
     pts = {0.0, L, *ctx.point_x, *(m.x_mm for m in case.M)}
     best: tuple[float, int, float, float, float] | None = None   # (u, i, x, M, V)
     fast = Calc()
+    # with V_Ed <= 0.5 V_Rd there is no reduction (6.2.8(2); EN 1993-1-5 7.1(1) with V_bw,Rd >= V_Rd):
+    # u = M_Ed / M_c,Rd there without calling the check
+    V_Rd, _ = shear_resistance(section, ctx.grade, ctx.na)
+    M_c = _M_c_Rd_fast(section, ctx)[0]
     for i, b in enumerate(case.beams):
         for x in sorted(pts):
             M = abs(float(b.M(x)))
             V = max(abs(float(b.V(x, "left"))), abs(float(b.V(x, "right"))))
-            u = check_bending_shear(section, ctx.grade, M, V, ctx.na, fast).utilisation
+            if V <= 0.5 * V_Rd:
+                u = M / M_c
+            else:
+                u = check_bending_shear(section, ctx.grade, M, V, ctx.na, fast).utilisation
             if best is None or u > best[0] * (1 + 1e-12):
                 best = (u, i, x, M, V)
     assert best is not None
@@ -764,6 +776,14 @@ def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None) 
                     break
     fams = ", ".join(job.beam.families)
     depth = f" with h <= {job.beam.max_depth:g} mm" if job.beam.max_depth is not None else ""
+    # the failures shown that reached the LTB stage (the heaviest few) get every check, so each is
+    # reported with its worst check rather than the first one found failing; a section screened out
+    # by the cheap checks is reported with the worst of those (stage "screen")
+    by_name = {sec.designation: sec for sec in secs}
+    fails = [i for i, c in enumerate(tried) if not c.ok and c.stage == "full"]
+    for i in fails[-SHOWN_FAILURES:]:
+        sec = by_name[tried[i].designation]
+        tried[i] = _candidate(sec, _check_section_all(ctx, sec, render=False), "full")
     if chosen is None:
         heaviest = max(secs, key=lambda s: (s.mass_nominal, s.h))
         last = next(c for c in tried if c.designation == heaviest.designation)

@@ -546,6 +546,7 @@ def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, 
         require_in_range("C_1", C_1, 1.0, 5.0)
     if k_c is not None:
         require_in_range("k_c", k_c, 0.5, 1.0)
+    need_C1 = False
     if M_cr is not None:
         Mcr = require_positive("M_cr", M_cr, "N*mm")
         if L_mm is not None:
@@ -560,11 +561,7 @@ def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, 
         mcr_text = (f"$M_{{cr}}$ = {Mcr / 1e6:.1f} kNm: thin-walled beam finite elements with warping "
                     f"({res.n_elements} elements), segment length {float(L_mm) / 1e3:.3g} m with fork supports, "
                     f"loads {float(z_g_mm):+.0f} mm from the shear centre.")
-        if C_1 is None and k_c is None:
-            C_1 = max(C_1_numerical(section, L_mm, M), 1.0)
-            mcr_text += (f" $C_1$ = {C_1:.3f} for $k_c$: the ratio of the segment's elastic critical moment for "
-                         "its own moment diagram to that for uniform moment, both with the loads at the shear "
-                         "centre (same model).")
+        need_C1 = C_1 is None and k_c is None
     M_c, cls, W, _ = _M_c_Rd(section, grade, na, Calc())
     f_y, _ = _fy(section, grade)
     curve = ltb_curve_rolled(section.h, section.b)
@@ -593,6 +590,11 @@ def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, 
         calc.note(f"Rolled section, $h/b$ = {section.h / section.b:.2f}: curve {curve}, $\\alpha_{{LT}}$ = {a_LT:g} "
                   "(6.3.2.3, UK NA).")
         chi0 = calc(f11.chi_LT, lamb_LT=lam, alpha_LT=a_LT, lamb_LT_0=lam0, beta=na.beta_LT)
+        if need_C1:   # only where the f-modification is used (computed from the same model)
+            C_1 = max(C_1_numerical(section, L_mm, M), 1.0)
+            calc.note(f"$C_1$ = {C_1:.3f} for $k_c$: the ratio of the segment's elastic critical moment for its own "
+                      "moment diagram to that for uniform moment, both with the loads at the shear centre "
+                      "(same model).")
         if k_c is None and C_1 is not None:
             calc.keep("C_1", C_1)
             k_c = calc(f11.k_c_from_C1, C_1=C_1)
