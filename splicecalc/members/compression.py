@@ -27,15 +27,9 @@ def flexural_curves(h: float, b: float, t_f: float) -> tuple[str, str]:
     return ("b", "c") if t_f <= 100.0 else ("d", "d")
 
 
-# ------------------------------------------------------------------ axial 6.2.4 and flexural buckling 6.3.1
-@clause("EN 1993-1-1:2005, 6.2.4(2), Eq. 6.10", units={"A": "mm2", "f_y": "MPa"}, returns="N",
-        example=dict(A=9310.0, f_y=275.0, gamma_M0=1.0))
-def N_pl_Rd(A: float, f_y: float, gamma_M0: float) -> float:
-    """Design plastic resistance of the gross cross-section N_pl,Rd = A f_y / gamma_M0 (N)."""
-    N_pl_Rd = A * f_y / gamma_M0
-    return N_pl_Rd
-
-
+# ------------------------------------------------------------------ flexural buckling 6.3.1
+# (chi, Eq. 6.49, and N_b,Rd, Eq. 6.47, have their one home in splicecalc.joints.plates; N_pl,Rd in
+# splicecalc.members.en1993_1_1)
 @clause("EN 1993-1-1:2005, 6.3.1.3(1), Eq. 6.50", units={"E": "MPa", "I": "mm4", "L_cr": "mm"}, returns="N",
         example=dict(I=11410e4, L_cr=3600.0))
 def N_cr(I: float, L_cr: float, E: float = 210000.0) -> float:
@@ -50,23 +44,6 @@ def lambda_flex(A: float, f_y: float, N_cr: float) -> float:
     """Non-dimensional slenderness lambda = sqrt(A f_y / N_cr) (Class 1, 2, 3)."""
     lamb = sqrt(A * f_y / N_cr)
     return lamb
-
-
-@clause("EN 1993-1-1:2005, 6.3.1.2(1), Eq. 6.49", units={}, returns="", example=dict(lamb=0.6, alpha=0.34))
-def chi_flex(lamb: float, alpha: float) -> float:
-    """Reduction factor for flexural buckling chi = 1 / (Phi + sqrt(Phi^2 - lambda^2)) <= 1,
-    Phi = 0.5 [1 + alpha (lambda - 0.2) + lambda^2]."""
-    Phi = 0.5 * (1 + alpha * (lamb - 0.2) + lamb**2)
-    chi = min(1 / (Phi + sqrt(Phi**2 - lamb**2)), 1.0)
-    return chi
-
-
-@clause("EN 1993-1-1:2005, 6.3.1.1(3), Eq. 6.47", units={"A": "mm2", "f_y": "MPa"}, returns="N",
-        example=dict(chi=0.85, A=9310.0, f_y=275.0, gamma_M1=1.0))
-def N_b_Rd(chi: float, A: float, f_y: float, gamma_M1: float) -> float:
-    """Design buckling resistance of a compression member N_b,Rd = chi A f_y / gamma_M1 (N), Class 1, 2, 3."""
-    N_b_Rd = chi * A * f_y / gamma_M1
-    return N_b_Rd
 
 
 # ------------------------------------------------------------------ cross-section N + M, 6.2.9.1
@@ -171,32 +148,20 @@ def k_zy_B(lamb_z: float, n_z: float, C_mLT: float, cls: int) -> float:
     return k_zy
 
 
-@clause("EN 1993-1-1:2005, 6.3.3(4), Eq. 6.61", units={"N_Ed": "N", "N_Rk": "N", "M_y_Ed": "Nmm", "M_y_Rk": "Nmm",
-                                                        "M_z_Ed": "Nmm", "M_z_Rk": "Nmm"}, returns="",
-        example=dict(N_Ed=600e3, chi_y=0.9, N_Rk=2.56e6, k_yy=0.65, M_y_Ed=80e6, chi_LT=0.95, M_y_Rk=273e6,
-                     k_yz=0.5, M_z_Ed=5e6, M_z_Rk=122e6, gamma_M1=1.0))
-def U_6_61(N_Ed: float, chi_y: float, N_Rk: float, k_yy: float, M_y_Ed: float, chi_LT: float, M_y_Rk: float,
-           k_yz: float, M_z_Ed: float, M_z_Rk: float, gamma_M1: float) -> float:
-    """Member interaction, buckling about y-y: N/(chi_y N_Rk/g) + k_yy M_y/(chi_LT M_y,Rk/g) + k_yz M_z/(M_z,Rk/g)."""
-    U_N_y = N_Ed / (chi_y * N_Rk / gamma_M1)
-    U_M_y = k_yy * M_y_Ed / (chi_LT * M_y_Rk / gamma_M1)
-    U_M_z = k_yz * M_z_Ed / (M_z_Rk / gamma_M1)
-    U_y = U_N_y + U_M_y + U_M_z
-    return U_y
-
-
-@clause("EN 1993-1-1:2005, 6.3.3(4), Eq. 6.62", units={"N_Ed": "N", "N_Rk": "N", "M_y_Ed": "Nmm", "M_y_Rk": "Nmm",
-                                                        "M_z_Ed": "Nmm", "M_z_Rk": "Nmm"}, returns="",
-        example=dict(N_Ed=600e3, chi_z=0.7, N_Rk=2.56e6, k_zy=0.9, M_y_Ed=80e6, chi_LT=0.95, M_y_Rk=273e6,
-                     k_zz=0.9, M_z_Ed=5e6, M_z_Rk=122e6, gamma_M1=1.0))
-def U_6_62(N_Ed: float, chi_z: float, N_Rk: float, k_zy: float, M_y_Ed: float, chi_LT: float, M_y_Rk: float,
-           k_zz: float, M_z_Ed: float, M_z_Rk: float, gamma_M1: float) -> float:
-    """Member interaction, buckling about z-z: N/(chi_z N_Rk/g) + k_zy M_y/(chi_LT M_y,Rk/g) + k_zz M_z/(M_z,Rk/g)."""
-    U_N_z = N_Ed / (chi_z * N_Rk / gamma_M1)
-    U_M_y = k_zy * M_y_Ed / (chi_LT * M_y_Rk / gamma_M1)
-    U_M_z = k_zz * M_z_Ed / (M_z_Rk / gamma_M1)
-    U_z = U_N_z + U_M_y + U_M_z
-    return U_z
+@clause("EN 1993-1-1:2005, 6.3.3(4), Eq. 6.61 and Eq. 6.62", units={"N_Ed": "N", "N_Rk": "N", "M_y_Ed": "Nmm",
+                                                                    "M_y_Rk": "Nmm", "M_z_Ed": "Nmm",
+                                                                    "M_z_Rk": "Nmm"}, returns="",
+        example=dict(N_Ed=600e3, chi_i=0.9, N_Rk=2.56e6, k_iy=0.65, M_y_Ed=80e6, chi_LT=0.95, M_y_Rk=273e6,
+                     k_iz=0.5, M_z_Ed=5e6, M_z_Rk=122e6, gamma_M1=1.0))
+def U_buckling_NM(N_Ed: float, chi_i: float, N_Rk: float, k_iy: float, M_y_Ed: float, chi_LT: float,
+                  M_y_Rk: float, k_iz: float, M_z_Ed: float, M_z_Rk: float, gamma_M1: float) -> float:
+    """Member interaction for buckling about axis i: Eq. 6.61 (i = y: chi_y, k_yy, k_yz) and Eq. 6.62
+    (i = z: chi_z, k_zy, k_zz): N/(chi_i N_Rk/g) + k_iy M_y/(chi_LT M_y,Rk/g) + k_iz M_z/(M_z,Rk/g)."""
+    U_N = N_Ed / (chi_i * N_Rk / gamma_M1)
+    U_M_y = k_iy * M_y_Ed / (chi_LT * M_y_Rk / gamma_M1)
+    U_M_z = k_iz * M_z_Ed / (M_z_Rk / gamma_M1)
+    U_i = U_N + U_M_y + U_M_z
+    return U_i
 
 
 # ------------------------------------------------------------------ torsion with shear 6.2.7(9)
@@ -209,6 +174,6 @@ def V_pl_T_Rd(V_pl_Rd: float, tau_t_Ed: float, f_y: float, gamma_M0: float) -> f
     return V_pl_T_Rd
 
 
-__all__ = ["ALPHA_FLEXURAL", "flexural_curves", "N_pl_Rd", "N_cr", "lambda_flex", "chi_flex", "N_b_Rd",
-           "M_N_y_Rd", "M_N_z_Rd", "U_biaxial_NM", "U_elastic_NM", "C_m_linear", "n_ratio", "k_yy_B", "k_zz_B",
-           "k_yz_B", "k_zy_B", "U_6_61", "U_6_62", "V_pl_T_Rd"]
+__all__ = ["ALPHA_FLEXURAL", "flexural_curves", "N_cr", "lambda_flex", "M_N_y_Rd", "M_N_z_Rd", "U_biaxial_NM",
+           "U_elastic_NM", "C_m_linear", "n_ratio", "k_yy_B", "k_zz_B", "k_yz_B", "k_zy_B", "U_buckling_NM",
+           "V_pl_T_Rd"]

@@ -42,6 +42,7 @@ from ...analysis import SimpleBeam
 from ...core.record import Calc, CheckRecord, not_checked
 from ...materials.partial_factors import NationalAnnex
 from ...members import compression as fc
+from ..plates import N_b_Rd, chi as chi_flex
 from ...members import en1993_1_1 as f11
 from ...members.checks import ALPHA_LT, check_deflection, ltb_curve_rolled
 from ...members.mcr import C_1_numerical, mcr_numerical
@@ -208,7 +209,7 @@ def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float,
     My_Rk, Mz_Rk = Wy * f_y, Wz * f_y
     # --- cross-section
     if cls <= 2:
-        Npl = calc(fc.N_pl_Rd, A=A, f_y=f_y, gamma_M0=na.gamma_M0)
+        Npl = calc(f11.N_pl_Rd, A=A, f_y=f_y, gamma_M0=na.gamma_M0)
         n = N / Npl
         a_w = min((A - 2.0 * sec.b * sec.tf) / A, 0.5)
         MNy = calc(fc.M_N_y_Rd, M_pl_y_Rd=My_Rk / na.gamma_M0, n=n, a=a_w)
@@ -235,8 +236,8 @@ def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float,
     for ax, I, L, curve in (("y", sec.Iy, cl.L_y, cy), ("z", sec.Iz, cl.L_z, cz)):
         Ncr = calc(fc.N_cr, I=I, L_cr=L)
         lam[ax] = calc(fc.lambda_flex, A=A, f_y=f_y, N_cr=Ncr)
-        chi[ax] = calc(fc.chi_flex, lamb=lam[ax], alpha=fc.ALPHA_FLEXURAL[curve])
-        Nb = calc(fc.N_b_Rd, chi=chi[ax], A=A, f_y=f_y, gamma_M1=na.gamma_M1)
+        chi[ax] = calc(chi_flex, lamb_bar=lam[ax], alpha=fc.ALPHA_FLEXURAL[curve])
+        Nb = calc(N_b_Rd, chi=chi[ax], A=A, f_y=f_y, gamma_M1=na.gamma_M1)
         calc.keep(f"chi_{ax}", chi[ax])
         out.append(calc.record(id=f"ex_col_buckling_{ax}", title=f"Existing column: flexural buckling about {ax}-{ax}",
                                clause="EN 1993-1-1:2005, 6.3.1.1(1), Eq. 6.46", demand=N, resistance=Nb, unit="N",
@@ -265,10 +266,10 @@ def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float,
     kzz = calc(fc.k_zz_B, C_mz=Cm, lamb_z=lam["z"], n_z=nz, cls=cls)
     kyz = calc(fc.k_yz_B, k_zz=kzz, cls=cls)
     kzy = calc(fc.k_zy_B, lamb_z=lam["z"], n_z=nz, C_mLT=Cm, cls=cls)
-    U61 = calc(fc.U_6_61, N_Ed=N, chi_y=chi["y"], N_Rk=N_Rk, k_yy=kyy, M_y_Ed=My, chi_LT=chi_LT, M_y_Rk=My_Rk,
-               k_yz=kyz, M_z_Ed=Mz, M_z_Rk=Mz_Rk, gamma_M1=na.gamma_M1)
-    U62 = calc(fc.U_6_62, N_Ed=N, chi_z=chi["z"], N_Rk=N_Rk, k_zy=kzy, M_y_Ed=My, chi_LT=chi_LT, M_y_Rk=My_Rk,
-               k_zz=kzz, M_z_Ed=Mz, M_z_Rk=Mz_Rk, gamma_M1=na.gamma_M1)
+    U61 = calc(fc.U_buckling_NM, N_Ed=N, chi_i=chi["y"], N_Rk=N_Rk, k_iy=kyy, M_y_Ed=My, chi_LT=chi_LT,
+               M_y_Rk=My_Rk, k_iz=kyz, M_z_Ed=Mz, M_z_Rk=Mz_Rk, gamma_M1=na.gamma_M1)
+    U62 = calc(fc.U_buckling_NM, N_Ed=N, chi_i=chi["z"], N_Rk=N_Rk, k_iy=kzy, M_y_Ed=My, chi_LT=chi_LT,
+               M_y_Rk=My_Rk, k_iz=kzz, M_z_Ed=Mz, M_z_Rk=Mz_Rk, gamma_M1=na.gamma_M1)
     inote = (f"Annex B (Method 2), Tables B.1/B.2 (member susceptible to torsional deformation, braced), C_m = "
              f"{Cm:.2f} for the linear moment (Table B.3); {note}")
     calc.keep("U_6_61", U61)
