@@ -16,6 +16,7 @@ import re
 import subprocess
 import sys
 from pathlib import Path
+from types import SimpleNamespace
 
 import pytest
 
@@ -25,6 +26,7 @@ from splicecalc.review import (Register, RegisterError, add_comment, comment_fla
 from splicecalc.review.register import check_basis
 
 CLI = [sys.executable, "-m", "splicecalc.cli.main"]
+pdf_mark = pytest.mark.pdf
 
 
 def cli(*args: str) -> subprocess.CompletedProcess:
@@ -135,12 +137,67 @@ def test_moved_and_gone_flags():
 
 
 # ------------------------------------------------------------------ mark-ups read back from the built PDF
+def _demo_records(job_path: Path) -> list[dict]:
+    """Check records of a job as the calc computes them (the notebook calls the same run_calc)."""
+    from splicecalc.job import load_job
+    from splicecalc.workflow import run_calc
+
+    return [r.to_dict() for r in run_calc(load_job(job_path), render=False).summary_records]
+
+
 @pytest.fixture(scope="module")
 def built(tmp_path_factory):
-    from splicecalc.workflow.package import build_demo
+    """The demo built once, with a register holding one open query on a known check before the build."""
+    from splicecalc.workflow.package import build_package, demo_job_path
 
     out = tmp_path_factory.mktemp("review")
-    return build_demo(out, progress=False)
+    job = out / "job.toml"
+    job.write_text(demo_job_path().read_text(encoding="utf-8"), encoding="utf-8")
+    recs = _demo_records(job)
+    titles = [r["title"] for r in recs]
+    first = next(r["id"] for r in recs if re.fullmatch(r"[A-Za-z0-9 ,:()-]+", r["title"])
+                 and titles.count(r["title"]) == 1 and len(r["title"]) < 40)
+    Register.for_job(job).add(by="B. Checker", text="Query before the build: $\\input{/etc/hostname}$ & 50%",
+                              target={"kind": "check", "id": first})
+    b = build_package(job, out / "calc.pdf", progress=False)
+    return SimpleNamespace(pdf=b.pdf, notebook=b.notebook, report=b.report, queried=first)
+
+
+@pdf_mark
+def test_package_prints_the_threads_and_a_margin_mark(built):
+    pages = subprocess.run(["pdftotext", "-layout", str(built.pdf), "-"], capture_output=True, text=True,
+                           check=True).stdout.split("\f")
+    pages = pages[:-1] if not pages[-1].strip() else pages
+    cover = pages[0]
+    assert re.search(r"Register job\.review\.jsonl: 1 open, 0 answered, 0 closed", cover.replace("\n", " "))
+    # the margin mark sits on the sheet where the queried check is printed (poppler finds its title there)
+    title = next(r["title"] for r in _demo_records(built.pdf.with_name("job.toml")) if r["id"] == built.queried)
+    sheet, _ = _find(built.pdf, len(pages), title.split())
+    assert "query" in pages[sheet - 1] and "R1" in pages[sheet - 1]
+    # the thread is printed literally (register text never reaches TeX as TeX: had \input run, the
+    # command would not be printed)
+    assert any("Query before the build: $\\input{/etc/hostname}$ & 50%" in p for p in pages)
+
+
+def test_rebuild_flags_comments_whose_check_moved(tmp_path):
+    from splicecalc.review import review_payload
+    from splicecalc.workflow.package import demo_job_path
+
+    job = tmp_path / "job.toml"
+    text = demo_job_path().read_text(encoding="utf-8")
+    job.write_text(text, encoding="utf-8")
+    recs = _demo_records(job)
+    reg = Register.for_job(job)
+    bending = next(r for r in recs if "bending" in r["id"] and r.get("utilisation"))
+    reg.add(by="B. Checker", text="u looks low", target={"kind": "check", "id": bending["id"]},
+            basis=check_basis(bending))
+    reg.add(by="B. Checker", text="gone soon", target={"kind": "check", "id": "X9.not_a_check"})
+    assert {c["id"]: c["flag"] for c in review_payload(job, recs)["comments"]} == {"R1": "unchanged", "R2": "gone"}
+    # an input change: every UDL 20 % heavier -> the bending check moves
+    heavier = re.sub(r'(udl\s*=\s*")([0-9.]+)', lambda m: m.group(1) + f"{float(m.group(2)) * 1.2:g}", text)
+    assert heavier != text
+    job.write_text(heavier, encoding="utf-8")
+    assert review_payload(job, _demo_records(job))["comments"][0]["flag"] == "moved"
 
 
 def _words(pdf: Path, page: int) -> list[tuple[str, float, float, float, float]]:
@@ -186,7 +243,6 @@ def _annotate(src: Path, dst: Path, notes: list[tuple[int, str, tuple[float, flo
         w.write(fh)
 
 
-pdf_mark = pytest.mark.pdf
 
 
 @pdf_mark
@@ -211,6 +267,7 @@ def test_markups_import_to_the_check_they_sit_on(built, tmp_path):
         (1, "box", (300, 40, 500, 80), "General: add the survey reference."),
     ])
     res = import_markups(built.pdf, annotated, by="B. Checker")
+    assert len(res.added) == 3
     got = {c.text.split("]")[-1].strip(): c.target for c in res.added}
     assert got["Check the lever arm used here."] == {"kind": "check", "id": target_a["id"]}
     assert got["Where does this come from?"] == {"kind": "check", "id": target_b["id"]}
@@ -224,7 +281,7 @@ def test_markups_import_to_the_check_they_sit_on(built, tmp_path):
     out = cli("review", "list", str(built.pdf), "--json")
     assert out.returncode == 0, out.stderr
     data = json.loads(out.stdout)
-    assert data["counts"]["open"] == 3 and {c["check_flag"] for c in data["comments"]} <= {"unchanged", None}
+    assert data["counts"]["open"] == 4 and {c["check_flag"] for c in data["comments"]} <= {"unchanged", None}
 
 
 @pdf_mark

@@ -20,8 +20,10 @@ from ..core.record import CheckRecord, summary_order, verdict_sentence
 
 CHECK_MIME = "application/vnd.splicecalc.check+json"
 TABLE_MIME = "application/vnd.splicecalc.table+json"
+#: the review register's comments as the package prints them (splicecalc.review)
+REVIEW_MIME = "application/vnd.splicecalc.review+json"
 #: which MIME type of an output the calc package prints, first found first
-DISPLAY_PRIORITY: tuple[str, ...] = (CHECK_MIME, TABLE_MIME, "text/latex", "application/pdf", "image/png",
+DISPLAY_PRIORITY: tuple[str, ...] = (CHECK_MIME, TABLE_MIME, REVIEW_MIME, "text/latex", "application/pdf", "image/png",
                                      "image/jpeg", "text/markdown", "text/plain")
 
 #: report unit -> LaTeX (text mode, inside $...$ via \mathrm)
@@ -202,6 +204,43 @@ def show_summary(records: Iterable[CheckRecord], title: str = "Summary of checks
     publish(summary_output(records, title))
 
 
+class ReviewOutput:
+    """The review comments of a package (payload from :func:`splicecalc.review.review_payload`):
+    the PDF prints a margin mark at each commented check and the threads; Jupyter shows the
+    threads as a collapsible list per part of the package."""
+
+    def __init__(self, payload: dict[str, Any]) -> None:
+        self.payload = payload
+
+    def _repr_mimebundle_(self, include: Any = None, exclude: Any = None) -> dict[str, Any]:
+        import html
+
+        p = self.payload
+        c = p["counts"]
+        head = (f"Review register {p['register']}: {c['open']} open, {c['answered']} answered, "
+                f"{c['closed']} closed")
+        parts: dict[str, list[dict[str, Any]]] = {}
+        for cm in p["comments"]:
+            parts.setdefault(cm["part"], []).append(cm)
+        out = [f"<p><b>{html.escape(head)}</b></p>"]
+        for part, cms in parts.items():
+            n_open = sum(1 for cm in cms if cm["state"] != "closed")
+            out.append(f"<details{' open' if n_open else ''}><summary>{html.escape(part)}: {n_open} not closed, "
+                       f"{len(cms) - n_open} closed</summary><ul>")
+            for cm in cms:
+                flag = {"moved": " — check changed since", "gone": " — check no longer in the package"}.get(
+                    cm.get("flag") or "", "")
+                out.append(f"<li><b>{html.escape(cm['id'])}</b> [{html.escape(cm['state'])}] on "
+                           f"<code>{html.escape(cm['target_label'])}</code>{html.escape(flag)}<ul>")
+                out += [f"<li>{html.escape(e['by'])}, {html.escape(e['date'][:10])} ({html.escape(e['kind'])}): "
+                        f"{html.escape(e['text'])}</li>" for e in cm["thread"]]
+                out.append("</ul></li>")
+            out.append("</ul></details>")
+        lines = [head] + [f"{cm['id']} [{cm['state']}] {cm['target_label']}: {cm['thread'][0]['text'][:80]}"
+                          for cm in p["comments"]]
+        return {REVIEW_MIME: p, "text/html": "\n".join(out), "text/plain": "\n".join(lines)}
+
+
 def show_table(columns: Sequence[str], rows: Sequence[Sequence[Any]], title: str = "",
                align: str = "", notes: str = "") -> None:
     """Display a small data table (e.g. section properties)."""
@@ -243,5 +282,5 @@ def show_section(section: Any, grade: str) -> None:
     publish(section_table(section, grade))
 
 
-__all__ = ["CHECK_MIME", "DISPLAY_PRIORITY", "TABLE_MIME", "CheckOutput", "TableOutput", "check_payload", "fmt_number", "publish",
+__all__ = ["CHECK_MIME", "DISPLAY_PRIORITY", "REVIEW_MIME", "ReviewOutput", "TABLE_MIME", "CheckOutput", "TableOutput", "check_payload", "fmt_number", "publish",
            "fmt_utilisation", "section_table", "show_section", "show_check", "show_summary", "show_table", "summary_output", "UNIT_TEX"]

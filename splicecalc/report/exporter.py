@@ -29,7 +29,7 @@ from .display import DISPLAY_PRIORITY
 from .errors import CalcBuildError
 from .figures import PDF_MIME, figure_outputs_of, fill_figures
 from .latexfix import break_handcalcs
-from .latexout import check_latex, table_latex
+from .latexout import check_latex, review_latex, table_latex
 from .metadata import calc_metadata
 from .prefetch import PandocPrefetch, pandoc_pool
 
@@ -113,6 +113,7 @@ class CalcPackageExporter(PDFExporter):
         yield from super().default_filters()
         yield ("calc_check_latex", check_latex)
         yield ("calc_table_latex", table_latex)
+        yield ("calc_review_latex", review_latex)
 
     # ------------------------------------------------------------------ LaTeX
     def to_latex(self, nb: Any, resources: dict | None = None, **kw: Any) -> tuple[str, dict]:

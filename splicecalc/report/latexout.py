@@ -77,7 +77,7 @@ def _is_math(step: str) -> bool:
 def check_latex(p: dict[str, Any]) -> str:
     """One check: heading with clause, steps, verdict line."""
     out = [f"\\calccheck{{{escape_tex(p.get('title', ''))}}}{{{escape_tex(p.get('clause', ''))}}}"
-           f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}"]
+           f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}\\calcrevmark{{{anchor_name(str(p.get('id', '')))}}}"]
     if p.get("guidance"):
         out.append("\\calcsteptext{" + prose_tex("Method from: " + p["guidance"]) + "}")
     steps = [s for s in p.get("steps", []) if s.strip()]
@@ -128,3 +128,31 @@ def table_latex(p: dict[str, Any]) -> str:
     if p.get("notes"):
         lines.append(f"\\calctablenote{{{escape_tex(p['notes'])}}}")
     return "\n".join(lines) + "\n"
+
+
+_STATE_TEX = {"open": r"\textbf{open}", "answered": "answered", "closed": "closed"}
+
+
+def review_latex(p: dict[str, Any]) -> str:
+    """The review comments: a margin mark at each commented check (through the .aux, so a mark
+    can sit beside a check printed before this list) and every thread, flagged where its check
+    changed since the comment or is no longer in the package."""
+    marks: dict[str, list[str]] = {}
+    for c in p.get("comments", []):
+        if c.get("anchor") and c.get("state") != "closed":
+            marks.setdefault(c["anchor"], []).append(c["id"])
+    out = [f"\\calcrevdef{{{a}}}{{{escape_tex(', '.join(ids))}}}" for a, ids in marks.items()]
+    n = p.get("counts", {})
+    out.append(f"\\calcsteptext{{Register {escape_tex(p.get('register', ''))}: {n.get('open', 0)} open, "
+               f"{n.get('answered', 0)} answered, {n.get('closed', 0)} closed. Digest "
+               f"\\texttt{{{escape_tex(str(p.get('digest', ''))[:16])}}}.}}")
+    for c in p.get("comments", []):
+        flag = {"moved": " \\textcolor{failred}{(check changed since the comment)}",
+                "gone": " \\textcolor{failred}{(check no longer in the package)}"}.get(c.get("flag") or "", "")
+        out.append(f"\\calcrevhead{{{escape_tex(c['id'])}}}{{{_STATE_TEX.get(c.get('state'), escape_tex(c.get('state')))}}}"
+                   f"{{{escape_tex(c.get('target_label', ''))}{flag}}}{{{escape_tex(c.get('revision', ''))}}}")
+        for e in c.get("thread", []):
+            lead = {"comment": "", "reply": "reply: ", "close": "closed: "}.get(e.get("kind"), "")
+            out.append(f"\\calcrevline{{{escape_tex(e.get('by', ''))}, {escape_tex(str(e.get('date', ''))[:10])}}}"
+                       f"{{{lead}{escape_tex(e.get('text', ''))}}}")
+    return "\n".join(out) + "\n"

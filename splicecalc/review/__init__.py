@@ -62,6 +62,33 @@ def import_markups(package: str | os.PathLike, annotated_pdf: str | os.PathLike,
     return ImportResult(tuple(added), tuple(skipped))
 
 
+def _part(target: dict) -> str:
+    if target.get("kind") == "check":
+        head = str(target.get("id", "")).split(".", 1)[0]
+        return f"checks {head}.*"
+    return "sheets and package" if target.get("kind") == "sheet" else "sheets and package"
+
+
+def review_payload(job_file: str | os.PathLike, records: list[dict], approver: str = "") -> dict | None:
+    """What the package prints of its review register: every comment with its thread, whether its
+    check moved since the comment (or is gone), counts and the register's digest; None when the
+    job has no register yet."""
+    reg = Register.for_job(job_file, approver=approver)
+    if not reg.path.exists():
+        return None
+    comments = reg.comments()
+    flags = comment_flags(comments, records)
+    out = []
+    for c in comments:
+        d = c.to_dict()
+        d.pop("basis", None)
+        d.update(flag=flags.get(c.id), part=_part(c.target))
+        if c.target.get("kind") == "check":
+            d["anchor"] = anchor_name(str(c.target.get("id")))
+        out.append(d)
+    return {"register": reg.path.name, "digest": reg.digest(), "counts": reg.counts(), "comments": out}
+
+
 __all__ = ["Comment", "ImportResult", "Markup", "Register", "RegisterError", "ReviewPackage", "add_comment",
            "anchor_name", "comment_flags", "import_markups", "locate", "parse_target", "read_markups",
-           "target_label"]
+           "review_payload", "target_label"]

@@ -321,7 +321,8 @@ MOVED_REL = 1e-3
 
 def check_basis(record: dict[str, Any]) -> dict[str, Any]:
     """What a comment remembers of its check: demand, resistance, utilisation (unit-tagged keys)."""
-    keep = {k: v for k, v in record.items() if k.startswith(("demand", "resistance")) or k == "utilisation"}
+    keep = {k: v for k, v in record.items()
+            if k.startswith(("demand_", "resistance_")) or k in ("utilisation", "unit")}
     return {"id": record.get("id"), **keep}
 
 

@@ -567,6 +567,21 @@ def show_references(result: CalcResult) -> None:
               "Standards and guidance (the UK National Annexes apply throughout)")
 
 
+def show_review(job_file: str, result: CalcResult) -> None:
+    """The review comments on this package (``splicecalc review``): threads, and a margin mark at each
+    commented check in the PDF; in Jupyter a collapsible list per part. Says so when there are none."""
+    from ..report.display import ReviewOutput
+    from ..review import review_payload
+
+    p = review_payload(job_file, [r.to_dict() for r in result.summary_records],
+                       approver=result.job.project.approved_by)
+    if p is None:
+        show_text("No review comments recorded for this package yet (`splicecalc review add` or "
+                  "`splicecalc review import` start the register beside the job file).")
+        return
+    publish(ReviewOutput(p))
+
+
 def show_cautions(result: CalcResult) -> None:
     """The cautions of the package (general ones, then those raised by this job)."""
     show_list(result.cautions)
