@@ -57,8 +57,6 @@ ensure_venv() {
     if [ ! -f "$stamp" ] || [ "$(cat "$stamp")" != "$want" ]; then
         echo "splicecalc: installing splicecalc and its dependencies into .venv ..." >&2
         "$VENV/bin/python" -m pip install -q --disable-pip-version-check -e "$ROOT[test]"
-        # like compileall: render every clause formula once to fill the rendering cache (and smoke-test it)
-        "$VENV/bin/python" -m splicecalc.cli.warm
         echo "$want" > "$stamp"
     fi
     # byte-compile our own sources as a regular (non-editable) install does: every calc kernel

@@ -1,4 +1,4 @@
-"""Figures printed as data and drawn apart from the calc (report.figures, figure_worker, diagram data).
+"""Figures: data printed by the calc and drawn by the kernel (or the exporter's preprocessor).
 
 References: simply supported beam under a UDL, V_max = wL/2, M_max = wL^2/8, w_max = 5wL^4/(384EI)
 (any structural analysis handbook, e.g. the beam tables of the Steel Designers' Manual; standard results).
@@ -16,7 +16,7 @@ from splicecalc.analysis import SimpleBeam, beam_diagram_data, draw_beam_diagram
 from splicecalc.core.errors import InputError
 from splicecalc.report import figures
 from splicecalc.report.errors import CalcBuildError
-from splicecalc.report.figures import FIGURE_MIME, PDF_MIME, PNG_MIME, FigureDrawer, draw_pdf, drawing_bundle, fill_figures
+from splicecalc.report.figures import FIGURE_MIME, PDF_MIME, PNG_MIME, draw_pdf, drawing_bundle, fill_figures
 
 L, w, E, I = 6000.0, 10.0, 210000.0, 1.2e8          # mm, N/mm (= kN/m), MPa, mm4
 
@@ -52,10 +52,13 @@ def test_diagram_data_point_load_steps_and_bad_input():
         draw_beam_diagrams({"kind": "splice"})
 
 
-def test_bundle_headless_carries_data_only():
+def test_bundle_is_drawn_in_the_kernel_png_only_in_front_of_a_person():
+    import base64
+
     d = beam_diagram_data(_beam())
     headless = drawing_bundle(d, "cap", headless=True)
-    assert FIGURE_MIME in headless and PDF_MIME not in headless and PNG_MIME not in headless
+    assert FIGURE_MIME in headless and PNG_MIME not in headless
+    assert base64.b64decode(headless[PDF_MIME]) == draw_pdf(d)   # no creation date: same figure, same bytes
     live = drawing_bundle(d, "cap", headless=False)
     assert live[PDF_MIME] and live[PNG_MIME] and live[FIGURE_MIME] is d
 
@@ -68,66 +71,27 @@ def _notebook(*datas) -> nbformat.NotebookNode:
     return nbformat.v4.new_notebook(cells=cells)
 
 
-def test_worker_draws_what_this_process_draws():
-    d = beam_diagram_data(_beam())
-    nb = _notebook(d, d)                                  # the same figure twice: drawn once
-    drawer = FigureDrawer()
-    try:
-        for cell in nb.cells[1:]:
-            for out in cell.outputs:
-                drawer.submit_output(out)
-        assert len(drawer._jobs) == 1
-        assert fill_figures(nb, drawer) == 2
-    finally:
-        drawer.close()
+def test_fill_figures_draws_data_only_figures_once():
     import base64
 
+    d = beam_diagram_data(_beam())
+    nb = _notebook(d, d)
+    assert fill_figures(nb) == 2
     pdf = base64.b64decode(nb.cells[1].outputs[0].data[PDF_MIME])
-    assert pdf[:4] == b"%PDF" and pdf == draw_pdf(d)       # same matplotlib, no creation date: same bytes
+    assert pdf[:4] == b"%PDF" and pdf == draw_pdf(d)
     assert fill_figures(nb) == 0                           # nothing left to draw
 
 
 def test_a_figure_that_cannot_be_drawn_names_its_cell():
     nb = _notebook(beam_diagram_data(_beam()), {"kind": "no such drawing"})
-    drawer = FigureDrawer()
-    try:
-        for out in nb.cells[2].outputs:
-            drawer.submit_output(out)
-        with pytest.raises(CalcBuildError, match=r"cell 3 \(no such drawing\)"):
-            fill_figures(nb, drawer)
-    finally:
-        drawer.close()
+    with pytest.raises(CalcBuildError, match=r"cell 3 \(no such drawing\)"):
+        fill_figures(nb)
 
 
-def test_figures_drawn_here_when_no_worker_starts(monkeypatch):
-    import subprocess
-
-    def no_process(*_a, **_k):
-        raise OSError("no processes here")
-
-    monkeypatch.setattr(subprocess, "Popen", no_process)
-    d = beam_diagram_data(_beam())
-    nb = _notebook(d)
-    drawer = FigureDrawer()
-    try:
-        drawer.submit_output(nb.cells[1].outputs[0])
-        assert fill_figures(nb, drawer) == 1
-    finally:
-        drawer.close()
-    assert nb.cells[1].outputs[0].data[PDF_MIME]
-
-
-def test_figures_drawn_here_when_the_worker_dies():
-    d = beam_diagram_data(_beam())
-    nb = _notebook(d)
-    drawer = FigureDrawer()
-    try:
-        drawer._proc.kill()
-        drawer._proc.wait()
-        drawer.submit_output(nb.cells[1].outputs[0])
-        assert fill_figures(nb, drawer) == 1 and drawer._proc is None
-    finally:
-        drawer.close()
+def test_a_drawing_error_names_the_figure_and_the_error():
+    nb = _notebook({"kind": "beam_diagrams", "span_m": 1.0})            # a kind we know, bad data
+    with pytest.raises(CalcBuildError, match=r"cell 2 \(beam_diagrams\) could not be drawn: KeyError"):
+        fill_figures(nb)
 
 
 def test_every_drawer_kind_is_importable():
@@ -137,50 +101,10 @@ def test_every_drawer_kind_is_importable():
         figures.drawer_of({"kind": "x"})
 
 
-def test_a_stuck_worker_does_not_hang_the_build(monkeypatch):
-    import signal
-
-    d = beam_diagram_data(_beam())
-    nb = _notebook(d)
-    drawer = FigureDrawer()
-    monkeypatch.setattr(figures, "WORKER_TIMEOUT_S", 0.5)
-    try:
-        drawer._proc.send_signal(signal.SIGSTOP)          # the worker stops answering
-        drawer.submit_output(nb.cells[1].outputs[0])
-        assert fill_figures(nb, drawer) == 1               # killed after the wait, drawn here instead
-    finally:
-        drawer.close()
-    assert base64_pdf(nb.cells[1].outputs[0].data[PDF_MIME])
-
-
 def base64_pdf(text: str) -> bool:
     import base64
 
     return base64.b64decode(text)[:4] == b"%PDF"
-
-
-def test_closing_never_waits_on_a_stuck_worker():
-    # a build that fails while a figure is being drawn closes the drawer: that must not hang
-    import signal
-
-    nb = _notebook(beam_diagram_data(_beam()))
-    drawer = FigureDrawer()
-    drawer._proc.send_signal(signal.SIGSTOP)
-    drawer.submit_output(nb.cells[1].outputs[0])
-    drawer.close()                                          # kills the busy worker, returns
-    assert drawer._proc is None
-    assert fill_figures(nb, drawer) == 1                    # still drawn, here
-
-
-def test_a_worker_error_names_the_figure_and_the_error():
-    nb = _notebook({"kind": "beam_diagrams", "span_m": 1.0})            # a kind the worker knows, bad data
-    drawer = FigureDrawer()
-    try:
-        drawer.submit_output(nb.cells[1].outputs[0])
-        with pytest.raises(CalcBuildError, match=r"cell 2 \(beam_diagrams\) could not be drawn: KeyError"):
-            fill_figures(nb, drawer)
-    finally:
-        drawer.close()
 
 
 _SHOW = """
@@ -196,19 +120,24 @@ def _figure_notebook(data_expr: str) -> nbformat.NotebookNode:
                                            nbformat.v4.new_code_cell(_SHOW % data_expr)])
 
 
-def test_execute_notebook_returns_figures_with_their_pdf(tmp_path):
-    # the kernel runs headless and prints figure data only; the public execute_notebook draws them
+def test_the_exporter_draws_figures_printed_as_data(tmp_path):
+    # a cell that publishes the figure data itself: the exporter's FigurePreprocessor draws it
+    from splicecalc.report.exporter import CalcPackageExporter
     from splicecalc.report.execute import execute_notebook
 
     nb = _figure_notebook('beam_diagram_data(SimpleBeam(6000.0, [UDL("g", "permanent", 10.0)]))')
     out = execute_notebook(nb, cwd=tmp_path, progress=False)
-    data = out.cells[1].outputs[0].data
-    assert FIGURE_MIME in data and base64_pdf(data[PDF_MIME])
+    assert PDF_MIME not in out.cells[1].outputs[0].data
+    latex, res = CalcPackageExporter().to_latex(out, {"metadata": {"name": "t", "path": str(tmp_path)}})
+    pdfs = [v for k, v in res["outputs"].items() if k.endswith(".pdf")]
+    assert len(pdfs) == 1 and pdfs[0][:4] == b"%PDF"
+    assert "includegraphics" in latex
+    assert PDF_MIME not in out.cells[1].outputs[0].data    # the caller's notebook is left as it was
 
 
 @pytest.mark.pdf
 def test_a_build_whose_figure_fails_keeps_the_executed_notebook(tmp_path):
-    # the export stops with the cell named; the executed notebook is still written, without stand-ins
+    # the export stops with the cell named; the executed notebook is still written
     from splicecalc.report.build import build_pdf
 
     src = tmp_path / "calc.ipynb"

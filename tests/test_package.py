@@ -58,24 +58,6 @@ def demo(tmp_path_factory):
     return b
 
 
-def test_prefetched_pandoc_gives_the_same_latex(demo):
-    # the build converts markdown while the kernel runs (template prose cached, outputs batched per cell);
-    # the LaTeX must be what the template's own pandoc calls give, block for block
-    from splicecalc.report import prefetch
-    from splicecalc.report.exporter import CalcPackageExporter
-
-    nb = nbformat.read(demo.notebook, as_version=4)
-    res = {"metadata": {"name": demo.notebook.stem, "path": str(demo.notebook.parent)}}
-    fast, _ = CalcPackageExporter().to_latex(nb, dict(res))
-    plain = prefetch.PandocPrefetch.installed
-    try:
-        prefetch.PandocPrefetch.installed = lambda self: __import__("contextlib").nullcontext()
-        slow, _ = CalcPackageExporter().to_latex(nb, dict(res))
-    finally:
-        prefetch.PandocPrefetch.installed = plain
-    assert fast == slow
-
-
 @pytest.fixture(scope="module")
 def pages(demo):
     return pdf_pages(demo.pdf)

@@ -29,28 +29,6 @@ from .errors import InputError
 _si.environment("structural", top_level=False)
 
 
-def _stable_env_getter(attr: str) -> property:
-    """A property handing out one callable per environment dict (not a new closure per access).
-
-    forallpeople memoises its unit look-ups (``functools.lru_cache``) with the
-    environment getter among the keys; its properties build a fresh closure on
-    every access, so the memo never hits and every displayed quantity scans the
-    unit tables again. One callable per dict object gives the same answers (a
-    reloaded environment brings new dicts, hence new keys), only once each.
-    """
-    def get(self: Any) -> Any:
-        table = getattr(self, attr)
-        memo = self.__dict__.setdefault("_splicecalc_getters", {})
-        fn = memo.get(attr)
-        if fn is None or fn() is not table:
-            fn = memo[attr] = (lambda t=table: t)
-        return fn
-    return property(get)
-
-
-type(_si.environment).units_by_factor = _stable_env_getter("_units_by_factor")
-type(_si.environment).units_by_dimension = _stable_env_getter("_units_by_dimension")
-
 #: float unit name -> SI factor (value_SI = value * factor)
 SI_FACTOR: dict[str, float] = {
     "": 1.0,

@@ -14,7 +14,6 @@ from __future__ import annotations
 import re
 import shutil
 import sys
-import threading
 import time
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -28,9 +27,8 @@ from ..signoff.ledger import is_protected, sidecar_path
 from .compile import LatexRun, require_tool
 from .errors import CalcBuildError, ProtectedPDFError
 from .execute import execute_notebook
+from .exporter import CalcPackageExporter
 from .kernel import KernelLaunch
-from .figures import FigureDrawer, fill_figures, mark_pending, real_figure_files, unmark_pending
-from .prefetch import ExportPrefetch
 from .latexfix import BadBox
 from .metadata import calc_metadata
 
@@ -88,36 +86,6 @@ def _save(path: Path, nb: Any) -> None:
     write_atomic(path, nbformat.writes(nb).encode("utf-8"))
 
 
-def _save_quietly(path: Path, nb: Any) -> None:
-    """Write the executed notebook of a build that failed after execution (figure stand-ins removed)."""
-    try:
-        unmark_pending(nb)
-        _save(path, nb)
-    except Exception:  # noqa: BLE001 - the build's own error is the one to report
-        pass
-
-
-class _Background:
-    """Run ``fn`` in a thread; :meth:`join` waits and raises what it raised."""
-
-    def __init__(self, fn: Any) -> None:
-        self._error: BaseException | None = None
-
-        def run() -> None:
-            try:
-                fn()
-            except BaseException as err:  # noqa: BLE001 - handed to join()
-                self._error = err
-
-        self._thread = threading.Thread(target=run, name="splicecalc-save")
-        self._thread.start()
-
-    def join(self, raise_error: bool = True) -> None:
-        self._thread.join()
-        if self._error is not None and raise_error:
-            raise self._error
-
-
 _PAGES_RE = re.compile(r"Output written on .*?\((\d+) pages?")
 
 
@@ -163,48 +131,16 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
 
     timings: dict[str, float] = {}
     execution_s = 0.0
-    # while the kernel computes, this process makes the exporter and converts markdown with pandoc,
-    # and a worker process draws each figure as soon as its output arrives (two cores: the waiting is used)
-    prefetch = ExportPrefetch(nb, str(nb_path.parent), dict(progress=progress, build_directory=str(work)))
-    drawer = FigureDrawer(cwd=str(nb_path.parent)) if execute else None   # where the kernel would draw
+    if execute:
+        nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings,
+                              kernel=kernel)
+        execution_s = timings.get("kernel_start_s", 0.0) + timings.get("cells_s", 0.0)
     ep = Path(executed_path) if execute and executed_path is not None else None
-    saving: _Background | None = None
-    try:
-        if execute:
-            nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings,
-                                  after_cell=prefetch.add_cell, after_output=drawer.submit_output, kernel=kernel,
-                                  draw_figures=False)
-            execution_s = timings.get("kernel_start_s", 0.0) + timings.get("cells_s", 0.0)
-        try:
-            # the LaTeX is laid out while the worker finishes the last figures (stand-ins until then);
-            # without a worker the figures are drawn first, once
-            if drawer is None:
-                fill_figures(nb)
-            pending = mark_pending(nb)
-            exporter = prefetch.exporter()
-            resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
-            latex, resources = exporter.to_latex(nb, resources)
-            real_figure_files(resources.get("outputs") or {}, pending, drawer)
-            fill_figures(nb, drawer)
-        except BaseException:
-            if ep is not None:          # keep what ran, so the cell or figure named can be looked at
-                _save_quietly(ep, nb)
-            raise
-        if drawer is not None:
-            drawer.close()
-        if ep is not None:              # written while XeLaTeX runs (a process of its own)
-            saving = _Background(lambda: _save(ep, nb))
-        pdf_bytes, resources = exporter.compile(latex, resources)
-    except BaseException:
-        if saving is not None:
-            saving.join(raise_error=False)   # the build's own error is the one to report
-        raise
-    finally:
-        prefetch.close()
-        if drawer is not None:
-            drawer.close()
-    if saving is not None:
-        saving.join()
+    if ep is not None:                  # kept even if the export fails: the cell named can be looked at
+        _save(ep, nb)
+    exporter = CalcPackageExporter(progress=progress, build_directory=str(work))
+    resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
+    pdf_bytes, resources = exporter.from_notebook_node(nb, resources)
     run: LatexRun = resources["latex_run"]
 
     if is_protected(out):   # signed while we were building

@@ -11,13 +11,11 @@ import copy
 import os
 import subprocess
 import sys
-import threading
 import time
 from pathlib import Path
-from typing import Any, Callable
+from typing import Any
 
 import nbformat
-from jupyter_core.utils import ensure_async
 from nbclient import NotebookClient
 from nbclient.exceptions import CellExecutionError, CellTimeoutError, DeadKernelError
 from nbformat import NotebookNode
@@ -25,77 +23,40 @@ from nbformat import NotebookNode
 from ..core.errors import InputError, require_positive
 from .errors import CalcBuildError, CellExecutionFailed
 from .headless import HEADLESS_ENV
-from .kernel import KERNEL_ARGS, KERNEL_NAME, KernelLaunch, ThisPythonKernelManager, reap_kernel
+from .kernel import KERNEL_ARGS, KERNEL_NAME, KernelLaunch, ThisPythonKernelManager
 
 
-class _ProgressClient(NotebookClient):
-    """NotebookClient that ticks a tqdm bar per code cell and remembers the running cell."""
+class _Progress:
+    """nbclient hooks (``on_notebook_start``, ``on_cell_start``, ``on_cell_executed``): a tqdm bar over the
+    code cells, the index of the running cell, and when the kernel was ready."""
 
-    def __init__(self, *args: Any, progress: bool = True,
-                 after_cell: Callable[[NotebookNode], None] | None = None,
-                 after_output: Callable[[NotebookNode], None] | None = None, **kwargs: Any) -> None:
-        super().__init__(*args, **kwargs)
-        self._progress = progress
-        self._after_cell = after_cell
-        self._after_output = after_output
+    def __init__(self, nb: NotebookNode, show: bool) -> None:
+        self._n = sum(c.cell_type == "code" for c in nb.cells)
+        self._show = show
         self._bar: Any = None
+        #: index of the cell running (or last run)
         self.current_index: int | None = None
-        #: perf_counter() when the first cell was sent to the kernel (the kernel is ready then)
-        self.first_cell_at: float | None = None
+        #: perf_counter() when the kernel answered and the first cell could be sent
+        self.ready_at: float | None = None
 
-    async def async_execute_cell(self, cell: NotebookNode, cell_index: int, execution_count: int | None = None,
-                                 store_history: bool = True) -> NotebookNode:
-        if self.first_cell_at is None:
-            self.first_cell_at = time.perf_counter()
+    def notebook_start(self, notebook: NotebookNode, **_: Any) -> None:  # noqa: ARG002
+        self.ready_at = time.perf_counter()
+
+    def cell_start(self, cell: NotebookNode, cell_index: int, **_: Any) -> None:
         self.current_index = cell_index
-        if cell.cell_type == "code" and self._bar is None and self._progress:
+        if cell.cell_type == "code" and self._bar is None and self._show:
             from tqdm import tqdm
 
-            n = sum(c.cell_type == "code" for c in self.nb.cells)
-            self._bar = tqdm(total=n, desc="Executing cells", unit="cell", file=sys.stderr, leave=False)
-        out = await super().async_execute_cell(cell, cell_index, execution_count, store_history)
-        if cell.cell_type == "code":
-            if self._after_cell is not None:
-                self._after_cell(out)
-            if self._bar is not None:
-                self._bar.update(1)
-        return out
+            self._bar = tqdm(total=self._n, desc="Executing cells", unit="cell", file=sys.stderr, leave=False)
 
-    def output(self, outs: list, msg: dict, display_id: str | None, cell_index: int) -> NotebookNode | None:
-        out = super().output(outs, msg, display_id, cell_index)
-        if out is not None and self._after_output is not None:
-            self._after_output(out)
-        return out
+    def cell_executed(self, cell: NotebookNode, **_: Any) -> None:
+        if self._bar is not None and cell.cell_type == "code":
+            self._bar.update(1)
 
-    def close_bar(self) -> None:
+    def close(self) -> None:
         if self._bar is not None:
             self._bar.close()
             self._bar = None
-
-    async def _async_cleanup_kernel(self) -> None:
-        """Ask the kernel to shut down; wait for its exit and tidy up in a background thread.
-
-        The executed notebook is complete once the last reply is in; the kernel's
-        own exit (Python finalising scipy, matplotlib, ...) takes ~0.5 s and
-        needs nothing from the build, so it runs beside the export. The thread
-        is not a daemon: the interpreter waits for it (kill after
-        ``shutdown_wait_time``), and the connection file is removed as before.
-        """
-        km, kc = self.km, self.kc
-        self.km = self.kc = None
-        if km is None:
-            return
-        alive = False
-        try:
-            alive = bool(await ensure_async(km.is_alive()))
-            if alive:
-                await ensure_async(km.request_shutdown())
-        except RuntimeError:
-            pass  # no kernel running: nothing to ask
-        finally:
-            if kc is not None:
-                await ensure_async(kc.stop_channels())
-        threading.Thread(target=reap_kernel, args=(km, alive), name="splicecalc-kernel-exit").start()
 
 
 def _first_line(source: str) -> str:
@@ -111,26 +72,19 @@ def _error_of(cell: NotebookNode) -> tuple[str, str]:
 
 def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = None, timeout: float = 300.0,
                      progress: bool = True, timings: dict[str, float] | None = None,
-                     after_cell: Callable[[NotebookNode], None] | None = None,
-                     after_output: Callable[[NotebookNode], None] | None = None,
-                     kernel: KernelLaunch | None = None, draw_figures: bool = True) -> NotebookNode:
+                     kernel: KernelLaunch | None = None) -> NotebookNode:
     """Execute every code cell of ``nb`` (a path or a NotebookNode) and return the executed notebook.
 
     ``cwd`` is the kernel's working folder (default: the notebook's folder or
     the current one); ``timeout`` (s) applies per cell. A failing cell raises
     :class:`CellExecutionFailed` naming the cell number (1-based, counting all
     cells), its first source line and the exception. ``timings``, if given,
-    receives ``kernel_start_s`` and ``cells_s``. ``after_cell``, if given, is called
-    with each executed code cell as soon as the kernel has finished it (the build
-    starts drawing its figures and converting its text while the kernel goes on);
-    ``after_output`` likewise with each output as it arrives.
+    receives ``kernel_start_s`` and ``cells_s``.
     ``kernel``: a kernel launched beforehand (:class:`KernelLaunch`, its own working
-    folder); by default a new one is started. Either way it is shut down at the end,
-    and ``kernel_start_s`` counts from its launch. The kernel runs headless, so it prints
-    figures as data (:mod:`splicecalc.report.figures`); with ``draw_figures`` (default)
-    they are drawn here before the notebook is returned, so every figure output carries
-    its PDF (a build that draws them itself passes False). The callbacks are the build's
-    own optimisations: a fault in one is ignored (the export does that work again).
+    folder); by default a new one is started. Either way it is shut down at the end
+    (nbclient's ``shutdown_kernel="immediate"``: every output is in by then), and
+    ``kernel_start_s`` counts from its launch. The kernel runs headless
+    (:data:`~splicecalc.report.headless.HEADLESS_ENV`).
     """
     require_positive("timeout", timeout, "s")
     if isinstance(nb, (str, Path)):
@@ -149,11 +103,13 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
     if kernel is not None and (not isinstance(kernel, KernelLaunch) or kernel.used):
         raise InputError("kernel", kernel, "a KernelLaunch that has not run a notebook yet")
 
-    client = _ProgressClient(node, kernel_manager_class=ThisPythonKernelManager, timeout=int(timeout), kernel_name=KERNEL_NAME,
-                             resources={"metadata": {"path": str(cwd)}}, allow_errors=False,
-                             record_timing=False, progress=progress, after_cell=_quiet(after_cell),
-                             after_output=_quiet(after_output),
-                             km=kernel.km if kernel is not None else None, extra_arguments=list(KERNEL_ARGS))
+    hooks = _Progress(node, progress)
+    client = NotebookClient(node, kernel_manager_class=ThisPythonKernelManager, timeout=int(timeout),
+                            kernel_name=KERNEL_NAME, resources={"metadata": {"path": str(cwd)}},
+                            allow_errors=False, record_timing=False, shutdown_kernel="immediate",
+                            on_notebook_start=hooks.notebook_start, on_cell_start=hooks.cell_start,
+                            on_cell_executed=hooks.cell_executed,
+                            km=kernel.km if kernel is not None else None, extra_arguments=list(KERNEL_ARGS))
     t0 = time.perf_counter()
     try:
         if kernel is not None:
@@ -164,47 +120,29 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
             # HEADLESS_ENV tells templates that nobody is looking (the input form stays hidden)
             client.execute(stderr=subprocess.DEVNULL, env={**os.environ, HEADLESS_ENV: "1"})
     except CellExecutionError as exc:
-        idx = client.current_index if client.current_index is not None else -1
+        idx = hooks.current_index if hooks.current_index is not None else -1
         cell = node.cells[idx] if 0 <= idx < len(node.cells) else NotebookNode(source="", outputs=[])
         ename, evalue = _error_of(cell)
         raise CellExecutionFailed(idx + 1, _first_line(cell.source), ename or exc.ename,
                                   evalue or exc.evalue) from None
     except (CellTimeoutError, DeadKernelError) as exc:
-        idx = client.current_index if client.current_index is not None else -1
+        idx = hooks.current_index if hooks.current_index is not None else -1
         first = _first_line(node.cells[idx].source) if 0 <= idx < len(node.cells) else ""
         raise CellExecutionFailed(idx + 1, first, type(exc).__name__, str(exc).splitlines()[0] if str(exc) else "") from None
     except RuntimeError as exc:
-        if client.first_cell_at is None:       # nothing ran: the kernel did not come up
+        if hooks.ready_at is None:       # nothing ran: the kernel did not come up
             raise CalcBuildError(f"the Python kernel could not be started ({sys.executable}): {exc}") from None
-        idx = client.current_index if client.current_index is not None else -1
+        idx = hooks.current_index if hooks.current_index is not None else -1
         first = _first_line(node.cells[idx].source) if 0 <= idx < len(node.cells) else ""
         raise CellExecutionFailed(idx + 1, first, type(exc).__name__, str(exc).splitlines()[0] if str(exc) else "") \
             from None
     finally:
-        client.close_bar()
+        hooks.close()
     end = time.perf_counter()
     if timings is not None:
         start = kernel.launched_at if kernel is not None else t0
-        first = client.first_cell_at if client.first_cell_at is not None else t0
-        timings["kernel_start_s"] = first - start
-        timings["cells_s"] = end - first
+        ready = hooks.ready_at if hooks.ready_at is not None else t0
+        timings["kernel_start_s"] = ready - start
+        timings["cells_s"] = end - ready
     node.metadata["kernelspec"] = {"name": "python3", "display_name": "Python 3", "language": "python"}
-    if draw_figures:
-        from .figures import fill_figures
-
-        fill_figures(node)
     return node
-
-
-def _quiet(fn: Callable[[NotebookNode], None] | None) -> Callable[[NotebookNode], None] | None:
-    """``fn`` that never raises into nbclient (where any error would stop the run)."""
-    if fn is None:
-        return None
-
-    def call(node: NotebookNode) -> None:
-        try:
-            fn(node)
-        except Exception:  # noqa: BLE001 - an optimisation that failed; the export redoes its work
-            pass
-
-    return call

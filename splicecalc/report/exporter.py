@@ -14,7 +14,6 @@ executes and writes atomically).
 
 from __future__ import annotations
 
-import copy
 import tempfile
 from pathlib import Path
 from typing import Any
@@ -27,11 +26,10 @@ from traitlets.config import Config
 from .compile import require_tool, run_xelatex
 from .display import DISPLAY_PRIORITY
 from .errors import CalcBuildError
-from .figures import PDF_MIME, figure_outputs_of, fill_figures
+from .figures import fill_figures
 from .latexfix import break_handcalcs
 from .latexout import check_latex, review_latex, table_latex
 from .metadata import calc_metadata
-from .prefetch import PandocPrefetch, pandoc_pool
 
 #: folder holding our nbconvert template(s)
 LATEX_DIR = Path(__file__).with_name("latex")
@@ -55,6 +53,8 @@ def _signoff_state(nb: Any) -> tuple[str, list[dict]] | None:
 class RefuseErrorsPreprocessor(Preprocessor):
     """A calc package is never printed from a notebook whose cells raised."""
 
+    enabled = Bool(True).tag(config=True)
+
     def preprocess(self, nb: Any, resources: Any) -> tuple[Any, Any]:
         code_no = 0
         for i, cell in enumerate(nb.cells, start=1):
@@ -66,6 +66,18 @@ class RefuseErrorsPreprocessor(Preprocessor):
                     first = next((ln for ln in cell.source.splitlines() if ln.strip()), "")
                     raise CalcBuildError(f"cell {i} holds an error output ({out.get('ename')}: "
                                          f"{out.get('evalue')}; first line {first!r}); re-run the notebook")
+        return nb, resources
+
+
+class FigurePreprocessor(Preprocessor):
+    """Figure outputs printed as data only (:data:`~splicecalc.report.figures.FIGURE_MIME`) get their
+    PDF, drawn here (:func:`~splicecalc.report.figures.fill_figures`); a figure that cannot be drawn
+    stops the export naming its cell."""
+
+    enabled = Bool(True).tag(config=True)
+
+    def preprocess(self, nb: Any, resources: Any) -> tuple[Any, Any]:
+        fill_figures(nb)
         return nb, resources
 
 
@@ -103,11 +115,12 @@ class CalcPackageExporter(PDFExporter):
         base.merge(c)
         return base
 
-    def __init__(self, *args: Any, **kwargs: Any) -> None:
-        super().__init__(*args, **kwargs)
-        self.register_preprocessor(RefuseErrorsPreprocessor(), enabled=True)
-        #: a :class:`~splicecalc.report.prefetch.PandocPrefetch` a build has filled while the kernel ran
-        self.pandoc_prefetch: PandocPrefetch | None = None
+    @default("default_preprocessors")
+    def _default_preprocessors_default(self) -> list[Any]:
+        # ours run after nbconvert's execution (``--execute``) and before outputs are extracted to files
+        base = list(PDFExporter.class_traits()["default_preprocessors"].default())
+        at = next((i for i, p in enumerate(base) if "ExtractOutputPreprocessor" in str(p)), len(base))
+        return base[:at] + [RefuseErrorsPreprocessor, FigurePreprocessor] + base[at:]
 
     def default_filters(self):  # type: ignore[override]
         yield from super().default_filters()
@@ -122,21 +135,7 @@ class CalcPackageExporter(PDFExporter):
         resources = dict(resources or {})
         name = resources.get("metadata", {}).get("name", "") or "Calculation"
         resources["calc"] = calc_metadata(nb.metadata, default_title=name, signoff=_signoff_state(nb))
-        if any(PDF_MIME not in data for _, data in figure_outputs_of(nb)):
-            nb = copy.deepcopy(nb)     # figures printed as data only (a headless run): draw them here
-            fill_figures(nb)
-        prefetch, pool = self.pandoc_prefetch, None
-        if prefetch is None:
-            pool = pandoc_pool()
-            prefetch = PandocPrefetch(pool, resources.get("metadata", {}).get("path", ""),
-                                      list(self.config.NbConvertBase.display_data_priority))
-        try:
-            prefetch.add_cells(nb.cells, together=True)   # anything not queued yet (all of it without a build)
-            with prefetch.installed():
-                latex, resources = LatexExporter.from_notebook_node(self, nb, resources=resources, **kw)
-        finally:
-            if pool is not None:
-                pool.shutdown(wait=False)
+        latex, resources = LatexExporter.from_notebook_node(self, nb, resources=resources, **kw)
         return break_handcalcs(latex), resources
 
     def from_notebook_node(self, nb: Any, resources: dict | None = None, **kw: Any) -> tuple[bytes, dict]:

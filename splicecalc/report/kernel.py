@@ -8,7 +8,6 @@ kernel (:class:`KernelLaunch`) before it loads nbformat, nbclient or nbconvert.
 
 from __future__ import annotations
 
-import asyncio
 import os
 import subprocess
 import sys
@@ -48,26 +47,6 @@ class ThisPythonKernelManager(AsyncKernelManager):
     def _default_ksm(self) -> KernelSpecManager:
         return ThisPythonSpecs()
 
-    async def _async_finish_shutdown(self, waittime: float | None = None, pollinterval: float = 0.1,
-                                     restart: bool = False) -> None:
-        # jupyter_client looks every 0.1 s whether the kernel has exited; look every 0.01 s
-        # (the same graceful shutdown, noticed up to 0.1 s sooner)
-        await super()._async_finish_shutdown(waittime=waittime, pollinterval=min(pollinterval, 0.01),
-                                             restart=restart)
-
-
-def reap_kernel(km: AsyncKernelManager, alive: bool) -> None:
-    """Wait for a kernel asked to shut down (kill it after the grace time), then free its files."""
-    async def finish() -> None:
-        if alive:
-            await km._async_finish_shutdown()
-        await km._async_cleanup_resources()
-
-    try:
-        asyncio.run(finish())
-    except Exception:  # noqa: BLE001 - a kernel that is already gone leaves nothing to tidy
-        pass
-
 
 class KernelLaunch:
     """The calc kernel, launched before its notebook is ready.
@@ -104,4 +83,4 @@ class KernelLaunch:
             pass
 
 
-__all__ = ["KERNEL_ARGS", "KERNEL_NAME", "KernelLaunch", "ThisPythonKernelManager", "ThisPythonSpecs", "reap_kernel"]
+__all__ = ["KERNEL_ARGS", "KERNEL_NAME", "KernelLaunch", "ThisPythonKernelManager", "ThisPythonSpecs"]
