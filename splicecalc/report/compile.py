@@ -1,12 +1,27 @@
-"""Run XeLaTeX the number of passes a calc package needs.
+"""Run XeLaTeX as many passes as a calc package needs, and no more, with TeX locked down.
 
-Pass 1 writes the contents list and the last-page label to the ``.aux``;
-pass 2 typesets "Sheet N of M" and the contents; a third pass runs only if
-the log still asks for one (the contents list moved the pages).
+Passes: XeLaTeX is run again only while the files it writes for the next pass (the
+``.aux`` with the labels and "Sheet N of M", the ``.toc``, hyperref's ``.out``) change,
+as latexmk decides: their SHA-256 before and after a pass are compared, and a pass
+that reads exactly what it writes is the last one.
+A fresh build takes two or three passes. A rebuild is *seeded* with the previous
+build's files (kept in ``seed_dir``, one folder per output name): when the page
+structure is unchanged (a rebuild after signing or revising) the first pass reads
+what it writes and is the only one. When the page count differs from the seed's,
+or a seeded pass fails, the seed is dropped and the build starts again from nothing
+(full passes). The passes write XDV only (``-no-pdf``); the PDF is made once from
+the last one with ``xdvipdfmx -q -E``, the command XeLaTeX itself runs.
+
+Safety: XeLaTeX runs with ``-no-shell-escape`` and paranoid file access
+(``openin_any=p``, ``openout_any=p``, ``shell_escape=f`` in its environment): no
+command runs, no file outside the build folder (or TeX's own tree) is read, none is
+written outside it, and no dot-file is touched.
 """
 
 from __future__ import annotations
 
+import hashlib
+import json
 import os
 import shutil
 import subprocess
@@ -16,10 +31,16 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from .errors import CalcBuildError, ToolMissingError
-from .latexfix import BadBox, first_error, needs_rerun, overfull_boxes
+from .latexfix import BadBox, first_error, overfull_boxes
 
-MAX_PASSES = 3
-MIN_PASSES = 2
+#: most XeLaTeX passes (latexmk's default limit)
+MAX_PASSES = 5
+#: files a pass writes for the next one; their hashes decide whether another pass is needed
+AUX_SUFFIXES = (".aux", ".toc", ".out", ".lof", ".lot")
+#: the seed folder's record of the build that filled it
+SEED_STATE = "seed.json"
+#: what XeLaTeX itself runs to turn its XDV into a PDF
+XDV_DRIVER = ("xdvipdfmx", "-q", "-E")
 
 
 def require_tool(name: str) -> str:
@@ -28,6 +49,13 @@ def require_tool(name: str) -> str:
     if path is None:
         raise ToolMissingError(name)
     return path
+
+
+def tex_environment(workdir: Path) -> dict[str, str]:
+    """The environment of a TeX process: paranoid reading and writing, no shell escape (kpathsea variables)."""
+    env = dict(os.environ)
+    env.update(openin_any="p", openout_any="p", shell_escape="f", TEXMFOUTPUT=str(workdir))
+    return env
 
 
 @dataclass
@@ -40,51 +68,149 @@ class LatexRun:
     seconds: float
     pass_seconds: list[float] = field(default_factory=list)
     overfull: list[BadBox] = field(default_factory=list)
+    #: pages of the PDF (from the log)
+    pages: int = 0
+    #: the first pass read the previous build's files (``seed_dir``)
+    seeded: bool = False
+    #: a seed was offered but dropped (page count changed, or the seeded pass failed)
+    seed_dropped: bool = False
 
 
-def run_xelatex(tex_path: Path, progress: bool = True, timeout_s: float = 300.0) -> LatexRun:
-    """Compile ``tex_path`` with xelatex in its own folder; raise :class:`CalcBuildError` on error."""
+def _hashes(tex_path: Path) -> dict[str, str]:
+    out = {}
+    for sfx in AUX_SUFFIXES:
+        p = tex_path.with_suffix(sfx)
+        if p.is_file():
+            out[sfx] = hashlib.sha256(p.read_bytes()).hexdigest()
+    return out
+
+
+def _pages(log_text: str) -> int:
+    import re
+
+    m = re.search(r"Output written on .*?\((\d+) pages?", log_text)
+    return int(m.group(1)) if m else 0
+
+
+def _clear(tex_path: Path) -> None:
+    for sfx in AUX_SUFFIXES:
+        tex_path.with_suffix(sfx).unlink(missing_ok=True)
+
+
+def _read_seed(seed_dir: Path | None, tex_path: Path) -> int | None:
+    """Copy a seed's files beside ``tex_path``; the seed build's page count, or None without a usable seed."""
+    if seed_dir is None:
+        return None
+    try:
+        state = json.loads((seed_dir / SEED_STATE).read_text(encoding="utf-8"))
+        pages = int(state["pages"])
+        names = [str(n) for n in state["files"]]
+    except (OSError, ValueError, KeyError, TypeError):
+        return None
+    if pages <= 0 or not names or any(Path(n).name != n or Path(n).suffix not in AUX_SUFFIXES for n in names):
+        return None
+    try:
+        for n in names:
+            shutil.copyfile(seed_dir / n, tex_path.with_name(tex_path.stem + Path(n).suffix))
+    except OSError:
+        _clear(tex_path)
+        return None
+    return pages
+
+
+def save_seed(seed_dir: Path, tex_path: Path, pages: int) -> None:
+    """Keep the files of a finished build in ``seed_dir`` for the next build of the same output.
+
+    A failure only costs the next build its seed. The state file is written last (atomically):
+    a seed folder without it, or with files from two builds, is never read as a seed.
+    """
+    from ..core.files import write_atomic
+
+    try:
+        seed_dir.mkdir(parents=True, exist_ok=True)
+        (seed_dir / SEED_STATE).unlink(missing_ok=True)
+        names = []
+        for sfx in AUX_SUFFIXES:
+            src = tex_path.with_suffix(sfx)
+            if src.is_file():
+                shutil.copyfile(src, seed_dir / f"seed{sfx}")
+                names.append(f"seed{sfx}")
+        write_atomic(seed_dir / SEED_STATE, json.dumps({"pages": pages, "files": names}).encode("utf-8"))
+    except OSError:
+        pass
+
+
+def run_xelatex(tex_path: Path, progress: bool = True, timeout_s: float = 300.0,
+                seed_dir: Path | None = None) -> LatexRun:
+    """Compile ``tex_path`` with xelatex in its own folder; raise :class:`CalcBuildError` on error.
+
+    ``seed_dir``: a folder kept from the previous build of the same output (read if it holds
+    a seed, see the module docstring); this function does not write it (:func:`save_seed`).
+    """
     exe = require_tool("xelatex")
+    driver = require_tool(XDV_DRIVER[0])
     tex_path = Path(tex_path)
     workdir = tex_path.parent
     log_path = tex_path.with_suffix(".log")
     pdf_path = tex_path.with_suffix(".pdf")
-    env = dict(os.environ)
-    # keep TeX from asking questions or reading a user's half-configured tree
-    env.setdefault("TEXMFOUTPUT", str(workdir))
-    cmd = [exe, "-interaction=nonstopmode", "-halt-on-error", "-file-line-error-style", tex_path.name]
+    xdv_path = tex_path.with_suffix(".xdv")
+    env = tex_environment(workdir)
+    cmd = [exe, "-no-shell-escape", "-no-pdf", "-interaction=nonstopmode", "-halt-on-error",
+           "-file-line-error-style", tex_path.name]
+    for stale in (pdf_path, xdv_path):
+        stale.unlink(missing_ok=True)
+    seed_pages = _read_seed(seed_dir, tex_path)
+    seeded, dropped = seed_pages is not None, False
     bar = None
     if progress:
         from tqdm import tqdm
 
-        bar = tqdm(total=MIN_PASSES, desc="LaTeX passes", unit="pass", file=sys.stderr, leave=False)
+        bar = tqdm(total=1 if seeded else 3, desc="LaTeX passes", unit="pass", file=sys.stderr, leave=False)
     t0 = time.perf_counter()
     times: list[float] = []
     log_text = ""
     try:
-        for i in range(1, MAX_PASSES + 1):
+        n = 0
+        while True:
+            n += 1
+            before = _hashes(tex_path)
             t = time.perf_counter()
             try:
                 proc = subprocess.run(cmd, cwd=workdir, env=env, stdin=subprocess.DEVNULL,
                                       capture_output=True, timeout=timeout_s)
             except subprocess.TimeoutExpired:
-                raise CalcBuildError(f"xelatex pass {i} did not finish within {timeout_s:.0f} s "
+                raise CalcBuildError(f"xelatex pass {len(times) + 1} did not finish within {timeout_s:.0f} s "
                                      f"(log: {log_path})") from None
             times.append(time.perf_counter() - t)
             log_text = log_path.read_text(encoding="utf-8", errors="replace") if log_path.exists() else ""
             if bar is not None:
-                if i > bar.total:
-                    bar.total = i
+                if len(times) > bar.total:
+                    bar.total = len(times)
                     bar.refresh()
                 bar.update(1)
-            if proc.returncode != 0 or not pdf_path.exists():
+            failed = proc.returncode != 0 or not xdv_path.exists()
+            if seeded and n == 1 and (failed or _pages(log_text) != seed_pages):
+                # the seed does not fit this document: start from nothing
+                seeded, dropped, n = False, True, 0
+                _clear(tex_path)
+                continue
+            if failed:
                 err = first_error(log_text) or proc.stdout.decode(errors="replace")[-400:].strip()
-                raise CalcBuildError(f"xelatex failed on pass {i}: {err} (log: {log_path})")
-            if i >= MIN_PASSES and not needs_rerun(log_text):
+                raise CalcBuildError(f"xelatex failed on pass {len(times)}: {err} (log: {log_path})")
+            if (before and _hashes(tex_path) == before) or n >= MAX_PASSES:
                 break
+        t = time.perf_counter()
+        proc = subprocess.run([driver, *XDV_DRIVER[1:], "-o", pdf_path.name, xdv_path.name], cwd=workdir, env=env,
+                              stdin=subprocess.DEVNULL, capture_output=True, timeout=timeout_s)
+        if proc.returncode != 0 or not pdf_path.exists():
+            raise CalcBuildError(f"xdvipdfmx could not make the PDF: "
+                                 f"{proc.stderr.decode(errors='replace')[-400:].strip()} (folder: {workdir})")
+        times[-1] += time.perf_counter() - t
+    except subprocess.TimeoutExpired:
+        raise CalcBuildError(f"xdvipdfmx did not finish within {timeout_s:.0f} s (folder: {workdir})") from None
     finally:
         if bar is not None:
             bar.close()
     return LatexRun(pdf_path=pdf_path, log_path=log_path, passes=len(times),
                     seconds=time.perf_counter() - t0, pass_seconds=times,
-                    overfull=overfull_boxes(log_text))
+                    overfull=overfull_boxes(log_text), pages=_pages(log_text), seeded=seeded, seed_dropped=dropped)

@@ -23,7 +23,7 @@ from nbconvert.preprocessors import Preprocessor
 from traitlets import Bool, Unicode, default
 from traitlets.config import Config
 
-from .compile import require_tool, run_xelatex
+from .compile import require_tool, run_xelatex, save_seed
 from .display import DISPLAY_PRIORITY
 from .errors import CalcBuildError
 from .figures import fill_figures
@@ -89,6 +89,9 @@ class CalcPackageExporter(PDFExporter):
     progress = Bool(False, help="Show a progress bar over the LaTeX passes").tag(config=True)
     #: keep the .tex/.log here (a fresh temporary folder when empty)
     build_directory = Unicode("", help="Folder for the .tex, .log and figures").tag(config=True)
+    #: the previous build's .aux/.toc/.out, kept per output name (empty: every build starts from nothing)
+    seed_directory = Unicode("", help="Folder keeping the previous build's .aux, .toc and .out to seed "
+                                      "the next one (see splicecalc.report.compile)").tag(config=True)
     exclude_input = Bool(True, help="Hide code cell inputs").tag(config=True)
     exclude_input_prompt = Bool(True).tag(config=True)
     exclude_output_prompt = Bool(True).tag(config=True)
@@ -159,7 +162,10 @@ class CalcPackageExporter(PDFExporter):
             target = workdir / fname
             target.parent.mkdir(parents=True, exist_ok=True)
             target.write_bytes(data if isinstance(data, bytes) else str(data).encode())
-        run = run_xelatex(workdir / f"{stem}.tex", progress=self.progress)
+        seed = Path(self.seed_directory) if self.seed_directory else None
+        run = run_xelatex(workdir / f"{stem}.tex", progress=self.progress, seed_dir=seed)
+        if seed is not None:
+            save_seed(seed, workdir / f"{stem}.tex", run.pages)
         pdf = run.pdf_path.read_bytes()
         resources["latex_run"] = run
         resources["output_extension"] = ".pdf"
