@@ -47,18 +47,18 @@ def import_markups(package: str | os.PathLike, annotated_pdf: str | os.PathLike,
     seen = {c.source.get("key") for c in reg.comments() if c.source.get("kind") == "pdf"}
     by_id = {str(r.get("id")): r for r in records}
     pdf_sha = hashlib.sha256(Path(annotated_pdf).read_bytes()).hexdigest()
-    added, skipped = [], []
+    revision = pkg.revision()
+    items, skipped = [], []
     for m in marks:
         if m.key in seen:
             skipped.append(m)
             continue
-        basis = check_basis(by_id[m.check_id]) if m.check_id in by_id else None
         who = by if not m.author or m.author.casefold() == by.casefold() else f"{by} (mark-up by {m.author})"
-        c = reg.add(by=who if len(who) <= 120 else by, text=m.text, target=m.target, revision=pkg.revision(),
-                    basis=basis, source={"kind": "pdf", "key": m.key, "sheet": m.sheet, "markup": m.kind,
-                                         "pdf_sha256": pdf_sha})
+        items.append({"by": who if len(who) <= 120 else by, "text": m.text, "target": m.target,
+                      "revision": revision, "basis": check_basis(by_id[m.check_id]) if m.check_id in by_id else None,
+                      "source": {"kind": "pdf", "key": m.key, "sheet": m.sheet, "markup": m.kind, "pdf_sha256": pdf_sha}})
         seen.add(m.key)
-        added.append(c)
+    added = reg.add_many(items)
     return ImportResult(tuple(added), tuple(skipped))
 
 

@@ -73,19 +73,40 @@ def _text_in(page: Any, rect: tuple[float, float, float, float]) -> str:
 
 
 def _anchors(reader: Any) -> list[tuple[int, float, str, bool]]:
-    """(page index, top, check id, is_end) for every check destination, in reading order."""
-    out = []
-    for name, dest in reader.named_destinations.items():
-        name = str(name)
-        end = name.startswith(END)
-        if not (end or name.startswith(START)):
+    """(page index, top, check id, is_end) for every check destination, in reading order.
+
+    Walks the document's /Dests name tree directly and keeps only the check destinations (a
+    package has several hundred other destinations: sections, pages, figures).
+    """
+    page_of = {p.indirect_reference.idnum: i for i, p in enumerate(reader.pages) if p.indirect_reference}
+    try:
+        tree = reader.trailer["/Root"]["/Names"]["/Dests"]
+    except (KeyError, TypeError):
+        return []
+    out: list[tuple[int, float, str, bool]] = []
+    stack, seen = [tree], set()
+    while stack:
+        node = stack.pop().get_object()
+        if id(node) in seen or len(seen) > 100_000:
             continue
-        try:
-            page = reader.get_destination_page_number(dest)
-        except Exception:   # noqa: BLE001 - a destination without a page is of no use here
-            continue
-        top = dest.top if dest.top is not None else 0.0
-        out.append((page, float(top), name[len(END if end else START):], end))
+        seen.add(id(node))
+        stack.extend(node.get("/Kids") or [])
+        arr = node.get("/Names") or []
+        for i in range(0, len(arr) - 1, 2):
+            name = str(arr[i])
+            end = name.startswith(END)
+            if not (end or name.startswith(START)):
+                continue
+            try:
+                dest = arr[i + 1].get_object()
+                if hasattr(dest, "get") and "/D" in dest:
+                    dest = dest["/D"].get_object()
+                page = page_of.get(dest[0].idnum)
+                top = float(dest[3]) if len(dest) > 3 and dest[3] is not None else 0.0
+            except (AttributeError, IndexError, KeyError, TypeError, ValueError):
+                continue
+            if page is not None:
+                out.append((page, top, name[len(END if end else START):], end))
     out.sort(key=lambda a: (a[0], -a[1], a[3]))
     return out
 

@@ -12,6 +12,7 @@ import os
 import re
 import tomllib
 from dataclasses import dataclass
+from functools import cached_property
 from pathlib import Path
 from typing import Any
 
@@ -40,10 +41,14 @@ class ReviewPackage:
         proj = data.get("project")
         return {k: v for k, v in proj.items() if isinstance(v, str)} if isinstance(proj, dict) else {}
 
-    def _nb(self) -> dict[str, Any] | None:
+    @cached_property
+    def _notebook_json(self) -> dict[str, Any] | None:
         if self.notebook is None or not self.notebook.exists():
             return None
         return _read_notebook(self.notebook)
+
+    def _nb(self) -> dict[str, Any] | None:
+        return self._notebook_json
 
     def records(self) -> list[dict[str, Any]] | None:
         """The check records printed in the executed notebook, or None if it has not been built."""

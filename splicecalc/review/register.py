@@ -257,10 +257,12 @@ class Register:
     def _append(self, event: dict[str, Any]) -> None:
         """Append one event (caller holds the lock and has validated it against the current state)."""
         raw = self._raw()
+        event = {"v": FORMAT, **event, "prev": hashlib.sha256(raw).hexdigest()}
+        self._write_lines(raw, (json.dumps(event, ensure_ascii=False, sort_keys=True) + "\n").encode("utf-8"))
+
+    def _write_lines(self, raw: bytes, line: bytes) -> None:
         if raw and not raw.endswith(b"\n"):
             raise RegisterError(self.path.name, "a last line without its end", "a register written by splicecalc")
-        event = {"v": FORMAT, **event, "prev": hashlib.sha256(raw).hexdigest()}
-        line = (json.dumps(event, ensure_ascii=False, sort_keys=True) + "\n").encode("utf-8")
         try:
             # append in one write() on an O_APPEND descriptor, then fsync: a crash leaves at worst a
             # missing last line, never a changed earlier one
@@ -286,6 +288,27 @@ class Register:
                           "date": date or _now(), "target": target, "text": text, "basis": basis,
                           "source": source or {"kind": "cli"}})
         return self.comment(cid)
+
+    def add_many(self, items: list[dict[str, Any]]) -> list[Comment]:
+        """Add several comments at once (one lock, one write): each item holds :meth:`add`'s arguments."""
+        if not items:
+            return []
+        with self._locked():
+            n = len(self.comments())
+            lines, ids = [], []
+            raw = self._raw()
+            for k, it in enumerate(items, start=1):
+                cid = f"R{n + k}"
+                ev = {"v": FORMAT, "event": "comment", "id": cid, "revision": str(it.get("revision", "")),
+                      "by": _name(it["by"]), "date": it.get("date") or _now(), "target": it["target"],
+                      "text": _clean_text("comment text", it["text"]), "basis": it.get("basis"),
+                      "source": it.get("source") or {"kind": "cli"}}
+                ev["prev"] = hashlib.sha256(raw + b"".join(lines)).hexdigest()
+                lines.append((json.dumps(ev, ensure_ascii=False, sort_keys=True) + "\n").encode("utf-8"))
+                ids.append(cid)
+            self._write_lines(raw, b"".join(lines))
+        by_id = {c.id: c for c in self.comments()}
+        return [by_id[i] for i in ids]
 
     def reply(self, cid: str, *, by: str, text: str) -> Comment:
         by, text = _name(by), _clean_text("reply text", text)
