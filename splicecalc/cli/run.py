@@ -8,7 +8,8 @@ check; ``--json`` prints :func:`~splicecalc.workflow.parts.whole_job_dict` (ever
 with unit-tagged keys).
 
 Exit codes: 0 every check within capacity; 1 any check exceeds it (a result, not an
-error); 2 bad input or a job that cannot be designed (one line on stderr).
+error); 2 bad input or a job that cannot be designed (one line on stderr); 3 no check exceeds
+capacity but some are NOT CHECKED (listed: a gap is never reported as a pass).
 """
 
 from __future__ import annotations
@@ -26,6 +27,9 @@ from ..core.errors import InputError
 #: verdict words of a part and of the whole job (our wording)
 WITHIN = "within capacity"
 OVER = "EXCEEDS capacity"
+GAP = "NOT CHECKED"
+#: exit code when no check exceeds capacity but some checks are not made
+EXIT_NOT_CHECKED = 3
 
 
 def add_parser(subparsers: Any) -> argparse.ArgumentParser:
@@ -57,20 +61,28 @@ def _u(u: float) -> str:
     return f"{u:.2f}" if math.isfinite(u) else "inf"
 
 
+def _status(part: Any) -> str:
+    """Within / exceeds capacity over the checks made, with the NOT CHECKED count when there are gaps."""
+    over = any(r.checked and not r.ok for r in part.records)
+    gaps = sum(not r.checked for r in part.records)
+    return (OVER if over else WITHIN) + (f", {gaps} {GAP}" if gaps else "")
+
+
 def part_table(part: Any, width: int = 110) -> list[str]:
     """The lines of one part: a heading with its governing check, then one row per check."""
     g = part.governing
     head = f"{part.title}"
     if g is not None:
         head += f"\n  governing: {part.short_title(g)}   u = {_u(g.utilisation)}   " \
-                f"{WITHIN if part.ok else OVER}"
+                f"{_status(part)}"
     else:
         head += "\n  no checks"
     lines = [head]
     if not part.records:
         return lines
     rows = [(part.short_title(r), _num(r.demand), _num(r.resistance), r.unit, _u(r.utilisation),
-             "" if r.ok else "OVER", r.clause) for r in part.records]
+             "" if r.ok else "OVER", r.clause) if r.checked else
+            (part.short_title(r), "-", "-", "", "-", "GAP", f"{GAP}: {r.clause}") for r in part.records]
     w_e = max(3, *(len(r[1]) for r in rows))
     w_r = max(3, *(len(r[2]) for r in rows))
     w_unit = max(4, *(len(r[3]) for r in rows))
@@ -105,7 +117,8 @@ def summary_text(result: Any, source: str = "") -> str:
         lines.append("")
         lines += part_table(part, width)
     recs = result.records
-    bad = [r for r in recs if not r.ok]
+    bad = [r for r in recs if r.checked and not r.ok]
+    gaps = [r for r in recs if not r.checked]
     gov = result.governing
     lines.append("")
     lines.append("By part (highest utilisation of each):")
@@ -115,16 +128,22 @@ def summary_text(result: Any, source: str = "") -> str:
         if g is None:
             lines.append(f"  {pt.key:<{wk}}      -  no checks")
             continue
-        lines.append(f"  {pt.key:<{wk}}  u = {_u(g.utilisation):>5}  {WITHIN if pt.ok else OVER:<16}  "
+        lines.append(f"  {pt.key:<{wk}}  u = {_u(g.utilisation):>5}  {_status(pt):<16}  "
                      f"{pt.short_title(g)}")
     lines.append("")
     if gov is not None:
         if bad:
             lines.append(f"{len(bad)} of {len(recs)} checks {OVER}:")
             lines += [f"  {r.title}  u = {_u(r.utilisation)}  ({r.clause})" for r in bad]
-        else:
+        elif not gaps:
             lines.append(f"All {len(recs)} checks {WITHIN}; highest utilisation {_u(gov.utilisation)}:")
             lines.append(f"  {gov.title} ({gov.clause})")
+        else:
+            lines.append(f"The {len(recs) - len(gaps)} checks made are {WITHIN} (highest utilisation "
+                         f"{_u(gov.utilisation)}, {gov.title}), but this is NOT a pass:")
+    if gaps:
+        lines.append(f"{len(gaps)} check(s) {GAP} (each needs information or a separate check):")
+        lines += [f"  {r.title}: {r.note}" for r in gaps]
     for n in job.notes:
         lines.append(f"Note: {n}")
     lines.append("Design aid only: every result is to be checked by a competent engineer under the codes in "
@@ -151,7 +170,8 @@ def result_dict(result: Any, source: str = "") -> dict[str, Any]:
 def run_command(args: argparse.Namespace) -> int:
     """Run the whole job of ``args.job``; print the parts (or JSON with ``args.json``).
 
-    Returns 0 when every check is within capacity, 1 when any exceeds it, 2 on bad input.
+    Returns 0 when every check is within capacity, 1 when any exceeds it, 2 on bad input,
+    3 when none exceeds it but some are NOT CHECKED.
     """
     from ..job import load_job
     from ..workflow import run_calc
@@ -167,7 +187,9 @@ def run_command(args: argparse.Namespace) -> int:
         print(json.dumps(result_dict(result, str(args.job)), indent=2))
     else:
         print(summary_text(result, str(args.job)))
-    return 0 if result.ok else 1
+    if any(r.checked and not r.ok for r in result.records):
+        return 1
+    return EXIT_NOT_CHECKED if any(not r.checked for r in result.records) else 0
 
 
 __all__ = ["beam_dict", "add_parser", "part_table", "run_command", "summary_text", "result_dict", "WITHIN", "OVER"]

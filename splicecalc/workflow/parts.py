@@ -39,8 +39,8 @@ class Part:
 
     @property
     def governing(self) -> CheckRecord | None:
-        """The record with the highest utilisation (the first of equals)."""
-        return max(self.records, key=lambda r: r.utilisation, default=None)
+        """The made check with the highest utilisation (the first of equals); NOT CHECKED never governs."""
+        return max((r for r in self.records if r.checked), key=lambda r: r.utilisation, default=None)
 
     @property
     def ok(self) -> bool:

@@ -34,6 +34,8 @@ from .endplate import support_bearing
 from .formulas import (F_T_1_Rd, F_T_2_Rd, F_t_wc_Rd, M_add, M_pl_Rd_u, m_cf, n_tstub, omega_1,
                        t_p_max_punching)
 
+GUIDANCE_TIE = ("published UK simple-joint guidance (from memory): tying resistances with f_u for f_y and gamma_Mu, "
+                "sum of effective lengths = plate depth")
 NOTE_ECC = ("moment added by the connection alone: it is combined with the existing member's own forces in "
             "the member check of the existing member (EN 1993-1-1 6.3.3) when its loads are given")
 
@@ -89,7 +91,7 @@ def existing_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> Exist
     if det.kind == "fin plate":
         # local shear of the supporting plate along the welds: webs and, on the same rule, a column flange
         t_max = calc(t_p_max_punching, t_w2=t2, f_u2=fu2, f_yp=_fy_plate(det), gamma_M2=na.gamma_M2)
-        out.append(calc.record(id="ex_punching", title=f"Existing {ctx.face}: local punching by the fin plate",
+        out.append(calc.record(id="ex_punching", guidance=GUIDANCE, title=f"Existing {ctx.face}: local punching by the fin plate",
                                clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=det.t_p, resistance=t_max,
                                unit="mm", note=_note(ctx, f"t_p <= t_2 f_u2/(f_yp gamma_M2) ({GUIDANCE})")))
     # tying into the existing member
@@ -114,14 +116,14 @@ def existing_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> Exist
                 calc.keep("F_T_2_Rd", F2, "N")
             else:
                 R = 0.0
-            out.append(calc.record(id="ex_tie_flange", title="Tying: existing column flange in bending (T-stub)",
+            out.append(calc.record(id="ex_tie_flange", guidance=GUIDANCE_TIE, title="Tying: existing column flange in bending (T-stub)",
                                    clause="EN 1993-1-8:2005, 6.2.4.1, Table 6.2", demand=ctx.tie, resistance=R,
                                    unit="N", note=_note(ctx, "f_u for f_y, gamma_Mu, sum l_eff = h_p (published "
                                                              "guidance, from memory)")))
     if ctx.face == "column flange":
         om = calc(omega_1, b_eff=det.h_p, t_wc=ex.tw, A_vc=ex.Av_z)
         Ft = calc(F_t_wc_Rd, omega=om, b_eff=det.h_p, t_wc=ex.tw, f_wc=fu2, gamma_M=gMu)
-        out.append(calc.record(id="ex_tie_web_tension", title="Tying: existing column web in transverse tension",
+        out.append(calc.record(id="ex_tie_web_tension", guidance=GUIDANCE_TIE, title="Tying: existing column web in transverse tension",
                                clause="EN 1993-1-8:2005, 6.2.6.3(1), Eq. 6.15", demand=ctx.tie, resistance=Ft,
                                unit="N", note=_note(ctx, "b_eff,t,wc = h_p (the length the plate loads), one-sided "
                                                          "joint beta = 1; f_u and gamma_Mu for tying (published "

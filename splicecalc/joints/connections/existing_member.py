@@ -55,6 +55,10 @@ from .formulas import (F_c_wc_Rd, M_fl_warping, U_bending_warping, b_eff_wc, k_w
 E_NOMINAL_FACE = 100.0
 GUIDANCE_ECC = ("nominal eccentricity of simple construction: reaction 100 mm from the column face (published UK "
                 "guidance for simple construction, from memory)")
+GUIDANCE_PUSH = ("stated method: the transverse compression is the tie force reversed (the new beam acting as a "
+                 "restraint strut), spread over the plate depth")
+GUIDANCE_WARPING = ("published torsion design guidance: flange-bending analogy, the whole torque carried by warping "
+                    "(from memory, conservative)")
 NEEDS_COLUMN = ("add [support.existing_loads] with kind = 'column', height (length between restraints) and the "
                 "characteristic axial force (and moments) the column carries at this level")
 NEEDS_BEAM = ("add [support.existing_loads] with kind = 'beam', span, at (where the new beam lands) and the "
@@ -193,8 +197,9 @@ def _column_forces(acts: dict[str, dict[str, Any]], combo: Any, e: float, axis: 
 
 def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float, f_u_w: float, N: float,
                     My: float, Mz: float, na: NationalAnnex, calc: Calc, face: str, det: Any, tie: float,
-                    where: str) -> list[CheckRecord]:
-    """Every member check of the column for one set of design forces."""
+                    where: str, mcr_unit: float) -> list[CheckRecord]:
+    """Every member check of the column for one set of design forces (``mcr_unit``: M_cr per unit
+    moment at the connection, N*mm per N*mm)."""
     out: list[CheckRecord] = []
     cls = _section_class(sec, f_y, compression=True)
     if cls == 4:
@@ -227,7 +232,7 @@ def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float,
     calc.keep("N_Ed", N, "N")
     calc.keep("M_y_Ed", My, "Nmm")
     calc.keep("M_z_Ed", Mz, "Nmm")
-    out.append(calc.record(id="ex_col_section", title="Existing column: cross-section, axial force and bending",
+    out.append(calc.record(id="ex_col_section", guidance=GUIDANCE_ECC, title="Existing column: cross-section, axial force and bending",
                            clause=cl_txt, demand=U, resistance=1.0, unit="", note=note))
     # --- flexural buckling about both axes
     cy, cz = fc.flexural_curves(sec.h, sec.b, sec.tf)
@@ -247,15 +252,15 @@ def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float,
     psi = cl.moment_ratio
     chi_LT = 1.0
     if My > 0.0:
-        res = mcr_numerical(sec, cl.L_z, (np.array([0.0, cl.L_z]), np.array([My, psi * My])))
-        if math.isfinite(res.M_cr):
-            calc.keep("M_cr", res.M_cr, "Nmm")
-            calc.note(f"$M_{{cr}}$ = {res.M_cr / 1e6:.1f} kNm: thin-walled beam finite elements, length "
+        M_cr = mcr_unit * My            # no transverse load: M_cr is proportional to the moment diagram
+        if math.isfinite(M_cr):
+            calc.keep("M_cr", M_cr, "Nmm")
+            calc.note(f"$M_{{cr}}$ = {M_cr / 1e6:.1f} kNm: thin-walled beam finite elements, length "
                       f"{cl.L_z / 1e3:g} m, linear moment with end ratio {psi:g}, no transverse load.")
         kc = calc(f11.k_c_linear, psi=psi)
-        chi_LT = _chi_LT(calc, sec, Wy, f_y, res.M_cr, My, na, k_c=kc)
+        chi_LT = _chi_LT(calc, sec, Wy, f_y, M_cr, My, na, k_c=kc)
         Mb = calc(f11.M_b_Rd, chi_LT_mod=chi_LT, W_y=Wy, f_y=f_y, gamma_M1=na.gamma_M1)
-        out.append(calc.record(id="ex_col_ltb", title="Existing column: lateral-torsional buckling",
+        out.append(calc.record(id="ex_col_ltb", guidance=GUIDANCE_ECC, title="Existing column: lateral-torsional buckling",
                                clause="EN 1993-1-1:2005, 6.3.2.1, Eq. 6.54", demand=My, resistance=Mb, unit="Nmm",
                                note=f"rolled section, UK NA curves, k_c from Table 6.6 (psi = {psi:g}); {note}"))
     # --- member interaction, Annex B
@@ -273,11 +278,11 @@ def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float,
     inote = (f"Annex B (Method 2), Tables B.1/B.2 (member susceptible to torsional deformation, braced), C_m = "
              f"{Cm:.2f} for the linear moment (Table B.3); {note}")
     calc.keep("U_6_61", U61)
-    out.append(calc.record(id="ex_col_interaction_y", title="Existing column: buckling with bending, Eq. 6.61",
+    out.append(calc.record(id="ex_col_interaction_y", guidance=GUIDANCE_ECC, title="Existing column: buckling with bending, Eq. 6.61",
                            clause="EN 1993-1-1:2005, 6.3.3(4), Eq. 6.61", demand=U61, resistance=1.0, unit="",
                            note=inote))
     calc.keep("U_6_62", U62)
-    out.append(calc.record(id="ex_col_interaction_z", title="Existing column: buckling with bending, Eq. 6.62",
+    out.append(calc.record(id="ex_col_interaction_z", guidance=GUIDANCE_ECC, title="Existing column: buckling with bending, Eq. 6.62",
                            clause="EN 1993-1-1:2005, 6.3.3(4), Eq. 6.62", demand=U62, resistance=1.0, unit="",
                            note=inote))
     # --- column web under transverse forces (connection to the flange)
@@ -293,7 +298,7 @@ def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float,
         rho = calc(rho_wc, b_eff=beff, d_wc=d_wc, f_y_wc=f_y_w, t_wc=sec.tw)
         Fc = calc(F_c_wc_Rd, omega=om, k_wc=k, rho=rho, b_eff=beff, t_wc=sec.tw, f_y_wc=f_y_w,
                   gamma_M0=na.gamma_M0, gamma_M1=na.gamma_M1)
-        out.append(calc.record(id="ex_col_web_compression", title="Existing column web in transverse compression",
+        out.append(calc.record(id="ex_col_web_compression", guidance=GUIDANCE_PUSH, title="Existing column web in transverse compression",
                                clause="EN 1993-1-8:2005, 6.2.6.2(1), Eq. 6.9", demand=tie, resistance=Fc, unit="N",
                                note="force = the tie force reversed (the new beam pushing as a restraint strut), "
                                     "spread over the plate depth h_p + 5 (t_fc + r_c); k_wc from the column's design "
@@ -309,11 +314,13 @@ def column_member_checks(sec: Any, cl: ExistingColumnLoads, mat_at: Callable[[fl
     e = (sec.h / 2.0 if face == "column flange" else sec.tw / 2.0) + max(det.z, E_NOMINAL_FACE)
     axis = "y" if face == "column flange" else "z"
     acts = _column_actions(cl, parts)
+    mcr_unit = mcr_numerical(sec, cl.L_z, (np.array([0.0, cl.L_z]), np.array([1.0, cl.moment_ratio]))).M_cr
     combos = _combos({k: (a["action"], a["category"]) for k, a in acts.items()}, na, psi)
     best = None
     for c in combos:
         N, My, Mz, R = _column_forces(acts, c, e, axis, cl.moment_share)
-        recs = _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, Calc(), face, det, tie, c.name)
+        recs = _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, Calc(), face, det, tie, c.name,
+                              mcr_unit)
         u = max((r.utilisation for r in recs), default=0.0)
         if best is None or u > best[0]:
             best = (u, c, N, My, Mz, R)
@@ -321,7 +328,8 @@ def column_member_checks(sec: Any, cl: ExistingColumnLoads, mat_at: Callable[[fl
     calc.note(f"Governing combination {c.name}: {c.expression}. Reaction {R / 1e3:.1f} kN at e = {e:.1f} mm from the "
               f"column axis ({GUIDANCE_ECC}), {cl.moment_share:g} of R e taken by this length: "
               f"$N_{{Ed}}$ = {N / 1e3:.1f} kN, $M_{{y,Ed}}$ = {My / 1e6:.2f} kNm, $M_{{z,Ed}}$ = {Mz / 1e6:.2f} kNm.")
-    recs = _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, calc, face, det, tie, c.name)
+    recs = _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, calc, face, det, tie, c.name,
+                          mcr_unit)
     rows = [("existing axial force", "permanent", f"{cl.axial.permanent / 1e3:g} kN", "at the connection level"),
             ("existing axial force", f"imposed {cl.category}", f"{cl.axial.imposed / 1e3:g} kN", "")]
     for nm, pair in (("existing moment M_y", cl.moment_y), ("existing moment M_z", cl.moment_z)):
@@ -379,11 +387,10 @@ def beam_member_checks(sec: Any, bl: ExistingBeamLoads, mat_at: Callable[[float]
                           reason="the existing beam is Class 4 in bending: effective properties are not applied here")
         return ExistingMemberResult("beam", (rec,))
     W = sec.Wpl_y if cls <= 2 else sec.Wel_y
-    cM, bM = max(uls, key=lambda cb: cb[1].M_max().abs)
-    cV, bV = max(uls, key=lambda cb: cb[1].V_max().abs)
-    M_Ed = bM.M_max().abs
-    x_M = bM.M_max().x_mm
-    V_Ed = bV.V_max().abs
+    ext = [(c, b, b.M_max(), b.V_max()) for c, b in uls]      # extremes found once per combination
+    cM, _, eM, _ = max(ext, key=lambda t: t[2].abs)
+    cV, _, _, eV = max(ext, key=lambda t: t[3].abs)
+    M_Ed, x_M, V_Ed = eM.abs, eM.x_mm, eV.abs
     note = f"Class {cls} in bending, f_y = {f_y:g} MPa at t_f = {sec.tf:g} mm; {where}"
     # bending
     calc.note(f"Governing combination for bending {cM.name}: {cM.expression}.")
@@ -404,8 +411,8 @@ def beam_member_checks(sec: Any, bl: ExistingBeamLoads, mat_at: Callable[[float]
                                       "for the existing beam here"))
     # bending with shear: at the maximum moment and at the connection point, every combination
     worst = None
-    for c, b in uls:
-        for x in (b.M_max().x_mm, a):
+    for c, b, em, _ in ext:
+        for x in (em.x_mm, a):
             Vx = max(abs(float(b.V(x, "left"))), abs(float(b.V(x, "right"))))
             Mx = abs(float(b.M(x)))
             rho = f11.rho_V(V_Ed=Vx, V_pl_Rd=Vpl)
@@ -448,9 +455,11 @@ def beam_member_checks(sec: Any, bl: ExistingBeamLoads, mat_at: Callable[[float]
         q = sum(ld.w for ld in cc.loads if isinstance(ld, UDL))
         pts = [(ld.x - x0, ld.P, z_conn if ld.name.startswith("new beam") else z_own)
                for ld in cc.loads if isinstance(ld, PointLoad) and x0 <= ld.x <= x1]
-        Mfn = (lambda bb, off: (lambda t: np.asarray(bb.M(np.asarray(t) + off))))(b, x0)
-        res = mcr_numerical(sec, Ls, Mfn, q_N_per_mm=q, point_loads=pts, z_g_mm=z_own)
-        C1 = C_1_numerical(sec, Ls, Mfn)
+        # the segment's moment diagram as samples (exact at the point loads, linear between 1/128 steps)
+        xs = np.unique(np.concatenate((np.linspace(x0, x1, 129), [p[0] + x0 for p in pts])))
+        Mdiag = (xs - x0, np.asarray(b.M(xs), dtype=float))
+        res = mcr_numerical(sec, Ls, Mdiag, q_N_per_mm=q, point_loads=pts, z_g_mm=z_own)
+        C1 = C_1_numerical(sec, Ls, Mdiag)
         calc.note(f"Segment {i} ({x0 / 1e3:g} to {x1 / 1e3:g} m), {cc.name}: $M_{{cr}}$ = "
                   f"{res.M_cr / 1e6:.1f} kNm by thin-walled beam finite elements (own loads at the {bl.load_level}, "
                   f"{z_own:+.0f} mm; the new reaction at the bolt group, {z_conn:+.0f} mm from the shear centre with "
@@ -499,7 +508,7 @@ def beam_member_checks(sec: Any, bl: ExistingBeamLoads, mat_at: Callable[[float]
         Mfl = calc(M_fl_warping, T_Ed=T, h=sec.h, t_f=sec.tf, a=a, L=L)
         Uw = calc(U_bending_warping, M_y_Ed=M_at, W_el_y=sec.Wel_y, M_fl=Mfl, b=sec.b, t_f=sec.tf, f_y=f_y,
                   gamma_M0=na.gamma_M0)
-        out.append(calc.record(id="ex_beam_torsion_warping", title="Existing beam: bending with warping from torsion",
+        out.append(calc.record(id="ex_beam_torsion_warping", guidance=GUIDANCE_WARPING, title="Existing beam: bending with warping from torsion",
                                clause="EN 1993-1-1:2005, 6.2.7(5)", demand=Uw, resistance=1.0, unit="",
                                location_mm=a,
                                note="the whole torque by warping (flange-bending analogy, published torsion design "
