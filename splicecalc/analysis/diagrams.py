@@ -25,6 +25,7 @@ import numpy as np
 from ..actions.loads import UDL, PointLoad
 from ..core.errors import InputError, require_finite
 from ..core.numeric import sorted_unique
+from ..core.text import plain_text_figures
 from .beam import SimpleBeam
 from .envelope import Envelope
 
@@ -195,6 +196,7 @@ def _load_panel(ax: Any, loads: list[dict], L_m: float) -> None:
         ax.spines[side].set_visible(False)
 
 
+@plain_text_figures
 def draw_beam_diagrams(data: dict[str, Any]) -> Any:
     """Stacked load sketch, V, M (and w) diagrams of :func:`beam_diagram_data` output, with maxima,
     supports A/B, intermediate restraints (dotted, "R1"...) and splices (dashed, "S1"...; M and V

@@ -467,7 +467,7 @@ def _bearing_geometry(bolt: Bolt, hole: str, e_1, e_2, p_1, p_2) -> list[str]:
 
 
 def _below_minima(calc: Calc, bad: list[str]) -> float:
-    calc.note("Below the EN 1993-1-8 Table 3.3 minima (" + "; ".join(bad).replace("_", "\\_")
+    calc.note("Below the EN 1993-1-8 Table 3.3 minima (" + "; ".join(bad)
               + "): Table 3.4 does not apply, bearing resistance taken as 0.")
     return 0.0
 

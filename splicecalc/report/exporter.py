@@ -28,7 +28,7 @@ from .display import DISPLAY_PRIORITY
 from .errors import CalcBuildError
 from .figures import fill_figures
 from .latexfix import break_handcalcs
-from .latexout import check_latex, review_latex, table_latex
+from .latexout import check_latex, escape_tex, review_latex, table_latex, verbatim_text
 from .metadata import calc_metadata
 
 #: folder holding our nbconvert template(s)
@@ -130,6 +130,10 @@ class CalcPackageExporter(PDFExporter):
         yield ("calc_check_latex", check_latex)
         yield ("calc_table_latex", table_latex)
         yield ("calc_review_latex", review_latex)
+        # user text in the title block, cover and sign-off: the one escaping function (replaces
+        # nbconvert's escape_latex, which leaves control characters and long runs as they are)
+        yield ("escape_latex", escape_tex)
+        yield ("calc_verbatim", verbatim_text)
 
     # ------------------------------------------------------------------ LaTeX
     def to_latex(self, nb: Any, resources: dict | None = None, **kw: Any) -> tuple[str, dict]:

@@ -18,6 +18,7 @@ from importlib import import_module
 from typing import Any, Callable, Iterator
 
 from ..core.errors import InputError
+from ..core.text import plain_text_figures
 from .errors import CalcBuildError
 
 FIGURE_MIME = "application/vnd.splicecalc.figure+json"
@@ -37,7 +38,7 @@ def drawer_of(data: Any) -> Callable[[dict], Any]:
     if kind not in DRAWERS:
         raise InputError("figure kind", kind, f"one of {', '.join(sorted(DRAWERS))}")
     module, name = DRAWERS[kind]
-    return getattr(import_module(module), name)
+    return plain_text_figures(getattr(import_module(module), name))
 
 
 def figure_bytes(fig: Any, fmt: str, dpi: int = 150) -> bytes:

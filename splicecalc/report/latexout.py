@@ -1,5 +1,11 @@
 """LaTeX for the splicecalc outputs (check, table); used as filters by the exporter.
 
+Every text that is not our own LaTeX goes through :func:`splicecalc.core.text.escape_tex`
+(re-exported here as ``escape_tex``; the template's ``escape_latex`` filter is the same
+function). ``$...$`` in a table cell or prose line is set as math only in the small syntax
+of :func:`splicecalc.core.text.safe_math`; anything else is escaped, so text from a job
+file can never run as TeX.
+
 The macros (``\\calccheck``, ``\\calcverdict``, ``calctable`` ...) are defined
 in the template ``latex/calcpackage/index.tex.j2``.
 """
@@ -10,26 +16,17 @@ import re
 from typing import Any
 
 from ..review.markups import anchor_name
+from ..core.text import _INLINE_MATH_RE, _clean, escape_tex as _escape_tex, safe_math
 from .display import UNIT_TEX, fmt_number
 
-_TEX_SPECIAL = {
-    "&": r"\&", "%": r"\%", "$": r"\$", "#": r"\#", "_": r"\_", "{": r"\{", "}": r"\}",
-    "~": r"\textasciitilde{}", "^": r"\textasciicircum{}", "\\": r"\textbackslash{}",
-    "<": r"\textless{}", ">": r"\textgreater{}",
-}
-_TEX_RE = re.compile("|".join(re.escape(k) for k in _TEX_SPECIAL))
-#: characters Latin Modern text fonts lack, mapped to LaTeX
-_UNICODE = {"≤": r"$\leq$", "≥": r"$\geq$", "×": r"$\times$", "·": r"$\cdot$", "√": r"$\surd$",
-            "²": r"\textsuperscript{2}", "³": r"\textsuperscript{3}", "⁴": r"\textsuperscript{4}",
-            "γ": r"$\gamma$", "ε": r"$\varepsilon$", "ρ": r"$\rho$", "χ": r"$\chi$", "λ": r"$\lambda$"}
+#: the one escaping function for user text (job files, metadata, form, command line)
+escape_tex = _escape_tex
 
-
-def escape_tex(text: Any) -> str:
-    """Plain text -> LaTeX text mode."""
-    s = _TEX_RE.sub(lambda m: _TEX_SPECIAL[m.group(0)], str(text))
-    for k, v in _UNICODE.items():
-        s = s.replace(k, v)
-    return s
+#: pandoc reader of the kernel's markdown *outputs* (``data_markdown`` in our template): markdown
+#: with no raw TeX, no raw HTML or attributes and no math, so text from a job file inside an
+#: output (a load name, a designation) is printed as typed and never runs as TeX
+OUTPUT_MD_FORMAT = ("markdown-raw_tex-raw_attribute-raw_html-tex_math_dollars-tex_math_single_backslash"
+                    "-tex_math_double_backslash-latex_macros")
 
 
 _SYMBOL_RE = re.compile(r"\b([A-Za-z]+)_([A-Za-z0-9]+(?:,[A-Za-z0-9]+)*)")
@@ -42,16 +39,8 @@ def _symbol(m: re.Match) -> str:
     return f"${base}_{{{sub}}}$"
 
 
-def prose_tex(text: str) -> str:
-    """A prose line of a check (``Calc.note``) -> LaTeX text.
-
-    Text already written as LaTeX (containing ``$`` or a backslash) is kept;
-    plain text is escaped, ``<=``/``>=`` become relations and code symbols such
-    as ``V_pl,Rd`` are set as math (``$V_{pl,Rd}$``).
-    """
-    if "$" in text or "\\" in text:
-        return text
-    t = text.replace("<=", "≤").replace(">=", "≥")
+def _prose_plain(t: str) -> str:
+    t = t.replace("<=", "≤").replace(">=", "≥")
     out, pos = [], 0
     for m in _SYMBOL_RE.finditer(t):
         out.append(escape_tex(t[pos:m.start()]))
@@ -61,17 +50,47 @@ def prose_tex(text: str) -> str:
     return "".join(out)
 
 
+def prose_tex(text: str) -> str:
+    """A prose line of a check (``Calc.note``, a prose step) -> LaTeX text.
+
+    ``$...$`` in the small math syntax (:func:`splicecalc.core.text.safe_math`) is
+    kept as math; everything else is text: escaped, ``<=``/``>=`` set as relations
+    and code symbols such as ``V_pl,Rd`` as math (``$V_{pl,Rd}$``). A backslash
+    outside such math prints as a backslash.
+    """
+    t = _clean(str(text))
+    out, pos = [], 0
+    for m in _INLINE_MATH_RE.finditer(t):
+        if safe_math(m.group(1)):
+            out.append(_prose_plain(t[pos:m.start()]))
+            out.append(f"${m.group(1)}$")
+            pos = m.end()
+    out.append(_prose_plain(t[pos:]))
+    return "".join(out)
+
+
 def cell_tex(cell: str) -> str:
-    """Table cell: ``$...$`` is kept as math, anything else is escaped text."""
-    c = cell.strip()
-    if len(c) >= 2 and c.startswith("$") and c.endswith("$"):
+    """Table cell: ``$...$`` in the small math syntax is kept as math, anything else is escaped text."""
+    c = _clean(str(cell)).strip()
+    if len(c) >= 2 and c.startswith("$") and c.endswith("$") and safe_math(c[1:-1]):
         return c
     return escape_tex(c)
 
 
+#: control words never taken as rendered math, whoever wrote the step (files, shell, catcodes, definitions)
+_UNSAFE_TEX = re.compile(r"\^\^|\\(?:input|include|openin|openout|read|write|immediate|catcode|def|edef|gdef|xdef"
+                         r"|let|futurelet|csname|special|VerbatimInput|lstinputlisting|usepackage|RequirePackage"
+                         r"|directlua|everyjob|everypar|scantokens|endinput|newcommand|renewcommand"
+                         r"|providecommand|makeatletter|shipout|jobname|openout)(?![A-Za-z])")
+
+
 def _is_math(step: str) -> bool:
-    s = step.lstrip()
-    return s.startswith("$$") or s.startswith("\\[") or s.startswith("\\begin{")
+    """A rendered formula (handcalcs LaTeX) rather than a prose line: display math, and nothing
+    in it that reads or writes files or redefines TeX."""
+    s = step.strip()
+    shaped = ((s.startswith("$$") and s.endswith("$$")) or (s.startswith("\\[") and s.endswith("\\]"))
+              or (s.startswith("\\begin{") and s.rstrip().endswith("}")))
+    return shaped and not _UNSAFE_TEX.search(s)
 
 
 def check_latex(p: dict[str, Any]) -> str:
@@ -101,6 +120,37 @@ def check_latex(p: dict[str, Any]) -> str:
     return "\n\n".join(out) + "\n"
 
 
+def verbatim_text(text: Any) -> str:
+    """Printed text (stdout) for the template's ``Verbatim`` block: control characters other
+    than newlines and tabs dropped, and a line that would end the block (``\\end{Verbatim}``)
+    kept as text (a zero-width space inside the name)."""
+    s = "".join(ch for ch in str(text) if ch in "\n\t" or not (ord(ch) < 32 or 0x7F <= ord(ch) < 0xA0))
+    return re.sub(r"\\end(\s*)\{Verbatim", "\\\\end\\1{Verbatim\u200b", s)
+
+
+#: characters of small text across the line (A4, 20 + 16 mm margins: about 493 pt at ~4.5 pt a character)
+LINE_CHARS = 110
+#: a text column longer than this may be made to wrap
+WRAP_CHARS = 30
+
+
+def _wrapping_spec(rows: list[list[str]], align: str, head: list[str] | None = None) -> str:
+    """Column spec: ``l``/``r``/``c`` as given while the table fits the line; when the longest
+    cells add up to more than the line (long names typed into a job file, notes), the long
+    columns wrap (p columns) in the room the others leave."""
+    rows = [*rows, head] if head else rows
+    longest = [max((len(str(r[j])) for r in rows if j < len(r)), default=0) for j in range(len(align))]
+    if sum(longest) + 2 * len(align) <= LINE_CHARS:
+        return align
+    wide = [j for j, n in enumerate(longest) if n > WRAP_CHARS]
+    if not wide:
+        return align
+    others = sum(n + 2 for j, n in enumerate(longest) if j not in wide)
+    share = max(0.15, (1.0 - others / LINE_CHARS) / len(wide) - 0.02)
+    return "".join(f">{{\\raggedright\\arraybackslash}}p{{{share:.3f}\\linewidth}}" if j in wide else a
+                   for j, a in enumerate(align))
+
+
 def table_latex(p: dict[str, Any]) -> str:
     """A data or summary table as a page-breakable longtable."""
     cols = p["columns"]
@@ -111,7 +161,7 @@ def table_latex(p: dict[str, Any]) -> str:
         spec = (">{\\raggedright\\arraybackslash}p{0.33\\linewidth}"
                 ">{\\raggedright\\arraybackslash}p{0.27\\linewidth}" + "".join(align[2:]))
     else:
-        spec = align
+        spec = _wrapping_spec(p["rows"], align, cols)
     head = " & ".join(f"\\textbf{{{cell_tex(c)}}}" for c in cols) + " \\\\"
     lines = [f"\\begin{{calctable}}{{{spec}}}"]
     if p.get("title"):

@@ -18,6 +18,7 @@ import matplotlib.pyplot as plt  # noqa: E402
 from matplotlib.patches import Circle, Polygon, Rectangle  # noqa: E402
 
 from ...core.errors import InputError  # noqa: E402
+from ...core.text import plain_text_figures  # noqa: E402
 
 _STEEL = dict(facecolor="0.85", edgecolor="black", linewidth=0.8)
 _NEW = dict(facecolor="white", edgecolor="black", linewidth=1.0)
@@ -55,6 +56,7 @@ def _existing(ax, design, y_top, y_bot):
     return f"existing beam {ex.designation} in section, web face (top flanges level)"
 
 
+@plain_text_figures
 def draw_connection(design, path: str | os.PathLike | None = None, length_mm: float | None = None):
     """Elevation of ``design`` (a ConnectionDesign) to scale; write to ``path`` if given."""
     from .design import ConnectionDesign

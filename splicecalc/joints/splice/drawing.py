@@ -15,6 +15,7 @@ from __future__ import annotations
 from typing import Any
 
 from ...core.errors import InputError
+from ...core.text import plain_text_figures
 
 #: the ``kind`` of the data :func:`splice_drawing_data` returns
 SPLICE_KIND = "splice"
@@ -62,6 +63,7 @@ def draw_splice(design: Any, title: str | None = None) -> Any:
     return draw_splice_data(splice_drawing_data(design, title))
 
 
+@plain_text_figures
 def draw_splice_data(data: dict[str, Any]) -> Any:
     """Elevation and plan of a splice from :func:`splice_drawing_data`, to scale; a matplotlib Figure."""
     from types import SimpleNamespace

@@ -1,0 +1,189 @@
+"""Text from users (job files, notebook metadata, the form, the command line) made safe for TeX.
+
+One rule: every such string reaches TeX through :func:`escape_tex`. Nothing a user
+typed is ever passed to XeLaTeX as TeX, to pandoc as raw TeX or math, or to
+matplotlib as mathtext:
+
+* :func:`escape_tex` -- plain text -> LaTeX text mode. Escapes ``# $ % & _ { } ~ ^ \\``
+  (so ``^^5c`` and ``\\input{...}`` print as typed), turns newlines and tabs into
+  spaces, drops other control characters (XeTeX stops on some of them), sets the few
+  symbols Latin Modern lacks as math, and puts break points into long unbroken runs
+  (paths, hashes, 200-character words) so they wrap instead of running off the sheet.
+* :func:`safe_math` -- the one small syntax through which ``$...$`` written in a
+  table cell or a prose line is set as math: letters, digits, sub- and superscripts,
+  braces, a few operators and a fixed list of control words (Greek letters,
+  ``\\mathrm``, ``\\leq`` ...). ``\\input``, ``\\write18``, ``\\catcode``, ``^^`` and
+  every other control word are refused, and the text is then escaped instead. So a
+  load called ``$G_{k,floor}$`` prints with a subscript, and
+  ``$\\input{/etc/passwd}$`` prints as those characters.
+* :func:`plain_text_figures` -- the drawing functions run with matplotlib's
+  ``text.parse_math`` (and ``text.usetex``) off, so every label, title and annotation
+  prints as typed: a ``$`` or ``\\`` in a load name can neither start mathtext nor
+  stop the drawing.
+
+This module imports nothing heavy (no matplotlib, no nbconvert).
+"""
+
+from __future__ import annotations
+
+import functools
+import re
+import unicodedata
+from typing import Any, Callable, TypeVar
+
+_TEX_SPECIAL = {
+    "&": r"\&", "%": r"\%", "$": r"\$", "#": r"\#", "_": r"\_", "{": r"\{", "}": r"\}",
+    "~": r"\textasciitilde{}", "^": r"\textasciicircum{}", "\\": r"\textbackslash{}",
+    "<": r"\textless{}", ">": r"\textgreater{}", '"': r"\textquotedbl{}",
+    # braced so that text starting with them is never an optional argument (``\\[2pt]``) or a star form
+    "[": "{[}", "]": "{]}", "*": "{*}",
+}
+_TEX_RE = re.compile("|".join(re.escape(k) for k in _TEX_SPECIAL))
+#: characters the Latin Modern text fonts lack, set as math (each a fixed string of ours)
+_UNICODE = {"≤": r"$\leq$", "≥": r"$\geq$", "×": r"$\times$", "·": r"$\cdot$", "√": r"$\surd$",
+            "²": r"\textsuperscript{2}", "³": r"\textsuperscript{3}", "⁴": r"\textsuperscript{4}",
+            "γ": r"$\gamma$", "ε": r"$\varepsilon$", "ρ": r"$\rho$", "χ": r"$\chi$", "λ": r"$\lambda$"}
+#: a run of this many characters without a space gets break points
+LONG_RUN = 24
+#: ... one every this many characters
+BREAK_EVERY = 12
+#: what is put between two characters of a long run: a line may break there, nothing is printed
+BREAK_POINT = r"\hspace{0pt}"
+_RUN_RE = re.compile(r"\S{%d,}" % LONG_RUN)
+
+
+def _clean(text: str) -> str:
+    """Newlines, tabs and other whitespace controls -> one space; other control characters,
+    surrogates and unassigned code points dropped (XeTeX refuses some of them outright)."""
+    out = []
+    for ch in text:
+        o = ord(ch)
+        if ch in "\n\r\t\v\f\x85\u2028\u2029":
+            out.append(" ")
+        elif o < 32 or 0x7F <= o < 0xA0:
+            continue
+        else:
+            cat = unicodedata.category(ch)
+            if cat in ("Cs", "Cn", "Co"):      # surrogates, unassigned, private use
+                continue
+            out.append(ch)
+    return "".join(out)
+
+
+#: TeX ligatures of the text fonts (``--`` en dash, ``''`` and ``` `` ``` quotes, ``,,``, ``!``` ...)
+#: broken up, so that the sheet shows the characters typed
+_LIGATURE_RE = re.compile(r"(?<=-)(?=-)|(?<=,)(?=,)")
+
+
+def _escape_run(run: str) -> str:
+    s = _TEX_RE.sub(lambda m: _TEX_SPECIAL[m.group(0)], run)
+    if "'" in s or "`" in s:
+        s = s.replace("'", r"\textquotesingle{}").replace("`", r"\textasciigrave{}")
+    return _LIGATURE_RE.sub("{}", s)
+
+
+def escape_tex(text: Any, *, breaks: bool = True) -> str:
+    """Any text -> LaTeX for text mode that prints exactly those characters.
+
+    ``breaks``: put invisible break points into runs of more than :data:`LONG_RUN`
+    characters without a space (off for PDF metadata strings such as the title).
+    """
+    s = _clean("" if text is None else str(text))
+    if breaks and _RUN_RE.search(s):
+        parts = []
+        for piece in re.split(r"(\s+)", s):
+            if len(piece) >= LONG_RUN and not piece.isspace():
+                chunks = [piece[i:i + BREAK_EVERY] for i in range(0, len(piece), BREAK_EVERY)]
+                parts.append(BREAK_POINT.join(_escape_run(c) for c in chunks))
+            else:
+                parts.append(_escape_run(piece))
+        s = "".join(parts)
+    else:
+        s = _escape_run(s)
+    for k, v in _UNICODE.items():
+        if k in s:
+            s = s.replace(k, v)
+    return s
+
+
+# ---------------------------------------------------------------- the small math syntax
+#: control words allowed inside $...$ (nothing that reads, writes, defines or changes catcodes)
+SAFE_MATH_WORDS = frozenset({
+    "alpha", "beta", "gamma", "delta", "epsilon", "varepsilon", "zeta", "eta", "theta", "kappa",
+    "lambda", "mu", "nu", "xi", "pi", "rho", "sigma", "tau", "phi", "varphi", "chi", "psi", "omega",
+    "Gamma", "Delta", "Theta", "Lambda", "Sigma", "Phi", "Psi", "Omega",
+    "mathrm", "mathit", "mathbf", "max", "min", "sum", "sqrt", "frac", "infty", "leq", "geq", "le", "ge",
+    "neq", "approx", "times", "cdot", "pm", "surd", "ell", "circ", "prime", "quad", "left", "right",
+    "bar", "hat", "tilde", "overline", "text",
+})
+#: control symbols allowed: thin / medium / negative spaces and an escaped percent sign
+SAFE_MATH_SYMBOLS = frozenset({",", ";", "!", " ", ":", "%"})
+_MATH_CHARS = re.compile(r"[A-Za-z0-9 _^{}()\[\],.+\-=/|':;<>!*\\]*")
+_CS_RE = re.compile(r"\\([A-Za-z]+|.)", re.S)
+#: longest math accepted (math cannot break across lines)
+SAFE_MATH_MAX = 120
+
+
+def safe_math(body: str) -> bool:
+    """True when ``body`` (the text between ``$`` and ``$``) uses only the small math syntax."""
+    if not isinstance(body, str) or not body.strip() or len(body) > SAFE_MATH_MAX:
+        return False
+    if not _MATH_CHARS.fullmatch(body) or "^^" in body:
+        return False
+    for m in _CS_RE.finditer(body):
+        name = m.group(1)
+        if name not in SAFE_MATH_WORDS and name not in SAFE_MATH_SYMBOLS:
+            return False
+    depth = 0
+    for i, ch in enumerate(body):
+        if ch in "{}" and i > 0 and body[i - 1] == "\\":
+            return False                    # \{ \} would unbalance the groups we count
+        if ch == "{":
+            depth += 1
+            if depth > 4:
+                return False
+        elif ch == "}":
+            depth -= 1
+            if depth < 0:
+                return False
+    return depth == 0
+
+
+_INLINE_MATH_RE = re.compile(r"\$([^$]*)\$")
+
+
+def text_with_math(text: Any) -> str:
+    """Text where ``$...$`` in the small math syntax (:func:`safe_math`) is set as math; the rest,
+    and any ``$...$`` outside that syntax, escaped with :func:`escape_tex`."""
+    s = _clean("" if text is None else str(text))
+    out, pos = [], 0
+    for m in _INLINE_MATH_RE.finditer(s):
+        if safe_math(m.group(1)):
+            out.append(escape_tex(s[pos:m.start()]))
+            out.append(f"${m.group(1)}$")
+            pos = m.end()
+    out.append(escape_tex(s[pos:]))
+    return "".join(out)
+
+
+# ---------------------------------------------------------------- matplotlib
+F = TypeVar("F", bound=Callable[..., Any])
+
+
+def plain_text_figures(func: F) -> F:
+    """Decorator of a drawing function: every text it puts on the figure is plain text
+    (matplotlib's ``text.parse_math`` off while it draws), so a ``$`` or ``\\`` in a load
+    name or a designation prints as typed and cannot stop the drawing."""
+
+    @functools.wraps(func)
+    def wrapper(*args: Any, **kwargs: Any) -> Any:
+        import matplotlib
+
+        with matplotlib.rc_context({"text.parse_math": False, "text.usetex": False}):
+            return func(*args, **kwargs)
+
+    return wrapper  # type: ignore[return-value]
+
+
+__all__ = ["escape_tex", "safe_math", "text_with_math", "plain_text_figures",
+           "SAFE_MATH_WORDS", "LONG_RUN"]

@@ -1,0 +1,245 @@
+"""Text from a job file, notebook metadata or the command line never runs as TeX.
+
+An injection corpus (TeX specials, file reads, shell escapes, ``^^`` escapes, math,
+markdown and HTML, control characters, Unicode, long runs) goes through the one
+escaping function (unit tests, fast) and, in one package build, into every text
+field of a job and of the notebook metadata: the PDF (read back with poppler's
+``pdftotext``, a tool outside the project) shows the text as typed and no file content.
+"""
+
+from __future__ import annotations
+
+import re
+import shutil
+import subprocess
+import tomllib
+from pathlib import Path
+
+import pytest
+
+from splicecalc.core.text import escape_tex, safe_math, text_with_math
+from splicecalc.report.latexout import cell_tex, check_latex, prose_tex, table_latex, verbatim_text
+
+ROOT = Path(__file__).resolve().parents[1]
+
+#: strings that must print as typed (Latin Modern has every glyph of them)
+CORPUS = [
+    r"# $ % & _ { } ~ ^ \ all specials",
+    r"\input{/etc/hostname}",
+    r"\immediate\write18{touch /tmp/splicecalc-injected}",
+    r"^^5cinput^^7b/etc/hostname^^7d",
+    r"$\vbox{\hsize=12cm\VerbatimInput{/etc/passwd}}$",
+    r"\catcode`\@=11 \makeatletter",
+    r"\def\x{\x}\x loop",
+    r"}}}} \end{document}",
+    r"\end{Verbatim} \begin{Verbatim}",
+    "100% sure; rest after percent",
+    "```fenced``` ~~~tilde~~~",
+    "<script>alert(1)</script>",
+    '<cite data-cite="x}\\input{/etc/hostname}">ref</cite>',
+    "[link](javascript:alert(1)) **bold** _it_ `code`",
+    "Ærø Straße, Zürich, 1½ µm ± é",
+    r"\\ \newline \par \relax",
+    r"\csname input\endcsname{/etc/hostname}",
+    "SPLICECALCBREAK0001",
+    r"\usepackage{shellesc}\ShellEscape{id}",
+    r"a && b \\ & |c|d|",
+    r"--- en--dash ''quotes'' ``back`` ,,low ?` !`",
+    r"$$\input{/etc/hostname}$$ $x\input{y}$",
+    "<!-- an html comment",
+    r"\textbf{bold?} \verb|x| @{} \hline",
+]
+#: strings whose characters are cleaned (controls dropped, newlines to spaces): literal after cleaning
+CLEANED = {
+    "tab\there\x00null\x1besc\x7fdel": "tab here null esc del".replace(" null", "null").replace(" esc", "esc")
+    .replace(" del", "del"),
+    "line1\nline2\n\nline3": "line1 line2  line3",
+}
+#: printed without failing the build (glyphs Latin Modern lacks are left out by XeTeX)
+NO_GLYPH = ["梁 steel 🏗 beam"]
+SECRET_MARKERS = ("root:x:0:0", "/bin/bash", "/usr/sbin/nologin")
+
+
+# ---------------------------------------------------------------- escaping, fast
+_DANGEROUS = re.compile(r"\\(input|write|immediate|VerbatimInput|catcode|def|csname|usepackage|ShellEscape|"
+                        r"end|begin|makeatletter|newline|par|relax|textbf|verb|hline|vbox|x)(?![a-z])")
+
+
+@pytest.mark.parametrize("text", CORPUS + list(CLEANED) + NO_GLYPH + ["W" * 10_000])
+def test_escaped_text_holds_no_control_word_of_the_input(text):
+    out = escape_tex(text)
+    # every backslash in the output starts one of our own fixed macros
+    for m in re.finditer(r"\\([A-Za-z]+|.)", out):
+        assert m.group(1) in {"textbackslash", "textasciitilde", "textasciicircum", "textless", "textgreater",
+                              "textquotesingle", "textasciigrave", "textquotedbl", "hspace", "&", "%", "$", "#", "_", "{",
+                              "}", "leq", "geq", "times", "cdot", "surd", "textsuperscript", "gamma",
+                              "varepsilon", "rho", "chi", "lambda"}, (text, m.group(0))
+    assert "^^" not in out and not any(ord(c) < 32 for c in out)
+    # braces balanced outside escapes (nothing can close a macro argument early)
+    depth = 0
+    for tok in re.finditer(r"\\.|[{}]", out):
+        if tok.group(0) == "{":
+            depth += 1
+        elif tok.group(0) == "}":
+            depth -= 1
+            assert depth >= 0
+    assert depth == 0
+
+
+def test_long_runs_get_break_points():
+    out = escape_tex("W" * 10_000)
+    assert out.count(r"\hspace{0pt}") >= 800
+    assert escape_tex("W" * 10_000, breaks=False) == "W" * 10_000
+
+
+@pytest.mark.parametrize("body, ok", [
+    (r"\mathrm{kN\,m}", True), (r"M_{Ed}", True), (r"\max M_{Ed}\ (\mathrm{kN\,m})", True), (r"\infty", True),
+    (r"\bar\lambda_{LT} \le 0.4", True), (r"G_{k,floor}", True),
+    (r"\input{/etc/passwd}", False), (r"\vbox{\hsize=12cm\VerbatimInput{/etc/passwd}}", False),
+    (r"^^5cinput", False), (r"x^^7b", False), (r"a}\input{b", False), (r"\catcode", False), ("#1", False),
+    ("a%b", False), ("a&b", False), ("~", False), ("x" * 500, False), ("", False), (r"\{", False),
+    (r"\csname x\endcsname", False), (r"\write18{ls}", False),
+])
+def test_safe_math_is_a_small_whitelist(body, ok):
+    assert safe_math(body) is ok  # common practice, no source: a whitelist of harmless control words
+
+
+def test_table_cells_keep_only_safe_math():
+    assert cell_tex(r"$\mathrm{kN}$") == r"$\mathrm{kN}$"
+    assert cell_tex(r"$\input{/etc/hostname}$") == r"\$\textbackslash{}input\{/etc/hostname\}\$"
+    tex = table_latex({"columns": ["Load", "$E_d$"], "rows": [[r"$\VerbatimInput{/etc/passwd}$", "1"],
+                                                            ["W" * 300, "2"]], "align": "lr"})
+    plain = tex.replace(r"\hspace{0pt}", "")
+    assert r"\textbackslash{}VerbatimInput" in plain and r"\VerbatimInput" not in plain.replace(r"\textbackslash{}", "")
+    assert re.search(r"p\{0\.\d+\\linewidth\}r\}", tex)   # the long column wraps instead of running off the sheet
+
+
+def test_prose_and_notes_escape_job_text():
+    name = r"$\input{/etc/hostname}$ \write18{x}"
+    out = prose_tex(f"ULS 6.10, leading: {name}: 1.35 G + 1.5 Q; $V_{{Ed}} \\le 0.5\\,V_{{pl,Rd}}$")
+    assert r"\input" not in out and r"\write" not in out
+    assert r"$V_{Ed} \le 0.5\,V_{pl,Rd}$" in out        # the library's own math stays math
+    p = {"title": name, "clause": name, "steps": [r"\begin{x}\input{/etc/hostname}\end{x}", name,
+                                                  "$$\\input{/etc/hostname}$$"],
+         "note": name, "unit": "kN", "demand": 1.0, "resistance": 2.0, "utilisation": 0.5, "ok": True}
+    tex = check_latex(p)
+    assert not re.search(r"\\(input|write)(?![a-z])", tex.replace(r"\textbackslash{}", "")), tex
+    assert text_with_math("$G_{k}$ and $\\input{x}$") == r"$G_{k}$ and \$\textbackslash{}input\{x\}\$"
+
+
+def test_verbatim_cannot_be_closed_by_printed_text():
+    out = verbatim_text("a\n\\end{Verbatim}\n\\input{/etc/hostname}\x00")
+    assert "\\end{Verbatim}" not in out and "\x00" not in out
+
+
+def test_template_reads_markdown_outputs_without_raw_tex():
+    from splicecalc.report.exporter import LATEX_DIR
+    from splicecalc.report.latexout import OUTPUT_MD_FORMAT
+
+    template = (LATEX_DIR / "calcpackage" / "index.tex.j2").read_text(encoding="utf-8")
+    assert f"convert_pandoc('{OUTPUT_MD_FORMAT}', 'latex')" in template
+    for ext in ("raw_tex", "raw_attribute", "raw_html", "tex_math_dollars"):
+        assert f"-{ext}" in OUTPUT_MD_FORMAT
+
+
+@pytest.mark.skipif(shutil.which("pandoc") is None, reason="pandoc not installed")
+def test_pandoc_outputs_print_tex_as_text():
+    import nbconvert.filters.pandoc as fp
+
+    from splicecalc.report.latexout import OUTPUT_MD_FORMAT
+
+    src = "\n\n".join(f"- {s}" for s in CORPUS)
+    out = fp.pandoc(src, OUTPUT_MD_FORMAT, "latex")
+    assert not re.search(r"\\(input|write18|VerbatimInput|catcode|csname|ShellEscape|cite)\b", out), out
+
+
+def test_figure_labels_are_plain_text():
+    pytest.importorskip("matplotlib")
+    from splicecalc.analysis import SimpleBeam, beam_diagram_data, draw_beam_diagrams
+    from splicecalc.actions.loads import PointLoad
+
+    name = r"$\frac{a}{$ bad \ mathtext ^^ $"
+    data = beam_diagram_data(SimpleBeam(6000.0, (PointLoad(name=name, action="permanent", P=10e3, x=3000.0),)),
+                             title=name)
+    fig = draw_beam_diagrams(data)
+    import io
+
+    buf = io.BytesIO()
+    fig.savefig(buf, format="png")      # a label that is not valid mathtext used to stop the drawing here
+    texts = [t for ax in fig.axes for t in ax.texts] + [ax.title for ax in fig.axes]
+    assert any(name in t.get_text() for t in texts)
+    assert all(not t.get_parse_math() for t in texts)
+
+
+# ---------------------------------------------------------------- one package build
+def _injected_job(tmp_path: Path) -> tuple[Path, list[str]]:
+    """The demo job with the corpus in every text field: project fields, load names and groups,
+    measured existing-member designations (extra small permanent point loads carry the rest)."""
+    from splicecalc.job.loader import dumps_toml
+
+    data = tomllib.loads((ROOT / "examples" / "demo_workshop_gallery.toml").read_text(encoding="utf-8"))
+    strings = list(CORPUS) + list(CLEANED) + NO_GLYPH
+    it = iter(strings)
+    used: list[str] = []
+
+    def take() -> str:
+        s = next(it)
+        used.append(s)
+        return s
+
+    for key in ("number", "title", "prepared_by", "checked_by", "client", "location", "date", "revision"):
+        data["project"][key] = take()
+    for sup in data["support"]:
+        sup["existing_member"]["designation"] = take()
+    for ld in data["load"]:
+        ld["name"] = take()
+        if ld["action"] != "permanent":      # a variable action's group is printed in the combinations
+            ld["group"] = take()
+    x = 9.40       # close to support B, inside the splice clearance the support keeps anyway
+    for s in it:
+        used.append(s)
+        data["load"].append({"name": s, "action": "permanent", "point": "0.1 kN", "at": f"{x:.2f} m"})
+        x += 0.01
+    path = tmp_path / "job.toml"
+    path.write_text(dumps_toml(data), encoding="utf-8")
+    return path, used
+
+
+def _squash(s: str) -> str:
+    return re.sub(r"\s+", "", s)
+
+
+@pytest.mark.pdf
+def test_injection_corpus_prints_as_typed_in_the_package(tmp_path):
+    if shutil.which("xelatex") is None or shutil.which("pdftotext") is None:
+        pytest.skip("XeLaTeX or poppler not installed")
+    import nbformat
+
+    from splicecalc.workflow.package import build_package, new_package
+
+    job, used = _injected_job(tmp_path)
+    made = new_package("beam_splice", tmp_path / "pkg", job=job)
+    nb = nbformat.read(str(made.notebook), as_version=4)
+    meta = nb.metadata["splicecalc"]
+    meta["revisions"] = [{"rev": CORPUS[0], "date": CORPUS[1], "description": CORPUS[4] + " " + "D" * 300,
+                          "by": CORPUS[12], "checked": CORPUS[5]}]
+    meta["basis"] = CORPUS[8]
+    nbformat.write(nb, str(made.notebook))
+    marker = Path("/tmp/splicecalc-injected")
+    marker.unlink(missing_ok=True)
+    out = build_package(made.notebook, tmp_path / "pkg" / "calc.pdf", progress=False)
+    pdf = Path(getattr(out, "pdf", tmp_path / "pkg" / "calc.pdf"))
+    text = subprocess.run(["pdftotext", str(pdf), "-"], capture_output=True, text=True, check=True).stdout
+    flat = _squash(text)
+    hostname = Path("/etc/hostname").read_text().strip() if Path("/etc/hostname").exists() else ""
+    for s in used:
+        if s in NO_GLYPH:
+            continue
+        want = CLEANED.get(s, s)
+        assert _squash(want) in flat, f"not printed as typed: {s!r}"
+    assert not marker.exists()                       # no shell escape ran
+    assert not any(m in text for m in SECRET_MARKERS)
+    if hostname and len(hostname) > 6:
+        # the host name may appear only where the corpus itself wrote it (it does not)
+        assert hostname not in text
+    assert flat.count("D" * 12) >= 25        # the long run wraps in the revision table (columns interleave)
