@@ -93,6 +93,13 @@ def _is_math(step: str) -> bool:
     return shaped and not _UNSAFE_TEX.search(s)
 
 
+def steps_latex(steps: list[str]) -> str:
+    """Rendered steps that are not a check of their own: display math kept (see :func:`_is_math`),
+    prose lines through :func:`prose_tex`."""
+    return "\n".join(s.strip() if _is_math(s) else f"\\par{{\\small {prose_tex(s.strip())}}}\\par"
+                     for s in steps if s.strip())
+
+
 def check_latex(p: dict[str, Any]) -> str:
     """One check: heading with clause, steps, verdict line."""
     out = [f"\\calccheck{{{escape_tex(p.get('title', ''))}}}{{{escape_tex(p.get('clause', ''))}}}"

@@ -81,11 +81,9 @@ def show_steps(latex: Sequence[str], intro: str = "") -> None:
     steps = [s for s in latex if s.strip()]
     if not steps:
         return
-    from ..report.latexout import prose_tex
+    from ..report.latexout import steps_latex
 
-    # prose lines (Calc.note) go through the one text path of the report, as in a check
-    body = "\n".join(s if s.lstrip().startswith(("\\[", "$$", "\\begin")) else f"\\par{{\\small {prose_tex(s)}}}\\par"
-                     for s in steps)
+    body = steps_latex(steps)
     md = "\n\n".join(([intro] if intro else []) + list(steps))
     if intro:
         body = f"\\par{{{_tex_text(intro)}}}\\par\n" + body
