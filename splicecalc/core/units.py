@@ -152,6 +152,9 @@ DIMENSION_NAME = {
 }
 
 
+_ASCII_DIGITS = "0123456789"
+
+
 def parse_quantity(text: Any, dimension_unit: str, field: str) -> float:
     """Parse a job-file quantity such as ``"7.2 m"`` or ``"12.5 kN/m"``.
 
@@ -165,11 +168,13 @@ def parse_quantity(text: Any, dimension_unit: str, field: str) -> float:
     if not isinstance(text, str):
         raise InputError(field, text, f"a {what} written with its unit, e.g. '12 {allowed[0]}' (units: {', '.join(allowed)})")
     s = text.strip()
+    if any(ch.isdigit() and ch not in _ASCII_DIGITS for ch in s):
+        raise InputError(field, text, f"a number written with the digits 0-9, e.g. '12 {allowed[0]}'")
     # split number from unit
     i = 0
-    while i < len(s) and (s[i].isdigit() or s[i] in "+-.eE"):
+    while i < len(s) and (s[i] in _ASCII_DIGITS or s[i] in "+-.eE"):
         # stop at 'e' that is not followed by a digit or sign (unit could start with e)
-        if s[i] in "eE" and not (i + 1 < len(s) and (s[i + 1].isdigit() or s[i + 1] in "+-")):
+        if s[i] in "eE" and not (i + 1 < len(s) and (s[i + 1] in _ASCII_DIGITS or s[i + 1] in "+-")):
             break
         i += 1
     num, unit = s[:i].strip(), s[i:].strip().replace("²", "2").replace("·", "*")

@@ -165,8 +165,8 @@ def table_latex(p: dict[str, Any]) -> str:
     kind = p.get("kind", "data")
     if kind == "summary":
         # check title and clause wrap; numbers stay on one line
-        spec = (">{\\raggedright\\arraybackslash}p{0.33\\linewidth}"
-                ">{\\raggedright\\arraybackslash}p{0.27\\linewidth}" + "".join(align[2:]))
+        spec = (">{\\raggedright\\arraybackslash}p{0.30\\linewidth}"
+                ">{\\raggedright\\arraybackslash}p{0.23\\linewidth}" + "".join(align[2:]))
     else:
         spec = _wrapping_spec(p["rows"], align, cols)
     head = " & ".join(f"\\textbf{{{cell_tex(c)}}}" for c in cols) + " \\\\"
