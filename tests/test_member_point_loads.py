@@ -247,3 +247,42 @@ def test_rejected_sections_report_their_worst_check():
         full = design_beam(job.with_section(c.designation))
         worst = max((r for r in full.records if r.is_check), key=lambda r: r.utilisation)
         assert c.governing == worst.id and c.utilisation == pytest.approx(worst.utilisation, rel=1e-9)
+
+
+# ------------------------------------------------------------------ floor vibration, restraint forces
+def test_floor_frequency_against_the_closed_form():
+    """f_1 = (pi/2) sqrt(E I / (m L^4)) for a simply supported beam with a uniform mass (vibration
+    textbooks); mass = permanent load + 10 % of the imposed floor load (common practice, from memory)."""
+    job = Job(beam=BeamSpec(span=6000.0, grade="S275", section="305x165x40 UKB", load_level="shear centre"),
+              loads=(UDL("finishes", "permanent", 5.0), UDL("office", "imposed", 8.0, category="B")))
+    d = design_beam(job)
+    sec = get_section("305x165x40 UKB")
+    w = 5.0 + 40 * g / 1000 + 0.1 * 8.0                  # kN/m
+    m = w * 1000 / g                                        # kg/m
+    f = 3.141592653589793 / 2 * sqrt(E * 1e6 * sec.Iy * 1e-12 / (m * 6.0**4))
+    rec = d.record("floor_frequency")
+    assert rec.resistance == pytest.approx(f, rel=1e-6) and rec.unit == "Hz"
+    assert rec.demand == 4.0 and rec.clause == "EN 1990:2002, A1.4.4" and rec.guidance
+
+
+def test_no_frequency_check_for_a_roof_beam():
+    job = Job(beam=BeamSpec(span=6000.0, grade="S275", section="305x165x40 UKB"),
+              loads=(UDL("roof", "permanent", 2.0), UDL("snow", "snow", 3.0)))
+    assert not any(r.id == "floor_frequency" for r in design_beam(job).records)
+
+
+def test_restraint_force_by_hand():
+    """EN 1993-1-1 5.3.3: N_Ed = M_Ed / h (5.3.3(4)), e_0 = alpha_m L / 500 with alpha_m = 1 for m = 1,
+    q_d = 8 N_Ed (e_0 + delta_q) / L^2 with delta_q = L/2500 (assumed), force = q_d x tributary length."""
+    job = Job(beam=BeamSpec(span=7200.0, grade="S355", section="457x191x67 UKB", restraints=(2400.0, 4800.0)),
+              loads=(UDL("floor", "permanent", 12.0), UDL("office", "imposed", 10.0, category="B")))
+    d = design_beam(job)
+    M = d.record("bending").demand * 1e6                   # N mm, largest ULS moment
+    N = M / 453.4                                           # h of 457x191x67 UKB (BS 4-1, from memory)
+    L = 7200.0
+    q = 8 * N * (L / 500 + L / 2500) / L**2
+    for k in (1, 2):
+        rec = d.record(f"restraint_force_R{k}")
+        assert rec.status == "info"
+        assert rec.demand == pytest.approx(q * 2400.0 / 1e3, rel=1e-6)     # kN
+        assert rec.clause == "EN 1993-1-1:2005, 5.3.3(2), Eq. 5.13"

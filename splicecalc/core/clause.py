@@ -30,7 +30,7 @@ from typing import Any, Callable
 
 #: One citation format for the whole package.
 CITATION_RE = re.compile(
-    r"^(EN|BS|BS EN|UK NA to BS EN) [0-9]+(-[0-9]+)*(\+A[0-9]+)?:[0-9]{4}"
+    r"^(EN|BS|BS EN|UK NA to BS EN) [0-9]+(-[0-9]+)*(\+A[0-9]+)?:[0-9]{4}(\+A[0-9]+:[0-9]{4})?"
     r"(, [A-Za-z0-9().,\- ]+)?$"
 )
 

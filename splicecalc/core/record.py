@@ -20,12 +20,12 @@ from .units import convert
 #: internal float unit -> unit used in reports and JSON
 DISPLAY_UNIT = {
     "N": "kN", "Nmm": "kNm", "N/mm": "kN/m", "mm": "mm", "mm2": "mm2", "mm3": "mm3",
-    "mm4": "mm4", "MPa": "MPa", "kg": "kg", "kg/m": "kg/m", "": "", "mm6": "mm6",
+    "mm4": "mm4", "MPa": "MPa", "kg": "kg", "kg/m": "kg/m", "": "", "mm6": "mm6", "Hz": "Hz",
 }
 #: unit tag used in JSON keys
 KEY_TAG = {
     "kN": "kN", "kNm": "kNm", "kN/m": "kN_per_m", "mm": "mm", "mm2": "mm2", "mm3": "mm3",
-    "mm4": "mm4", "MPa": "MPa", "kg": "kg", "kg/m": "kg_per_m", "": "", "mm6": "mm6",
+    "mm4": "mm4", "MPa": "MPa", "kg": "kg", "kg/m": "kg_per_m", "": "", "mm6": "mm6", "Hz": "Hz",
 }
 
 

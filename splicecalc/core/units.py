@@ -49,6 +49,7 @@ SI_FACTOR: dict[str, float] = {
     "kg/m": 1.0,
     "1/mm": 1e3,
     "m/s2": 1.0,
+    "Hz": 1.0,
 }
 
 #: SI base dimensions of each float unit (kg, m, s exponents)
@@ -71,6 +72,7 @@ _BASE = {
     "kg/m": lambda: _si.kg / _si.m,
     "1/mm": lambda: 1 / _si.m,
     "m/s2": lambda: _si.m / _si.s ** 2,
+    "Hz": lambda: 1 / _si.s,
 }
 
 

@@ -41,7 +41,8 @@ from ..core.record import Calc, CheckRecord, not_checked
 from ..job.model import SELF_WEIGHT_NAME, Job
 from ..materials import E_MPa, NationalAnnex, steel
 from ..members import en1993_1_1 as f11
-from ..members import (C1_C2_PINNED, C_1_linear, M_cr_C1C2, check_bending, check_bending_shear,
+from ..members import (C1_C2_PINNED, VIBRATION_IMPOSED_SHARE, C_1_linear, M_cr_C1C2, check_bending,
+                       check_bending_shear, check_floor_frequency, restraint_force,
                        check_deflection, check_ltb, check_shear, check_transverse_bending, check_transverse_force,
                        check_web_bearing, classify, shear_resistance, transverse_resistance)
 from ..sections import Section, get_section, list_sections
@@ -61,7 +62,7 @@ class _MassCase:
     section of the same mass.
     """
 
-    __slots__ = ("loads", "uls", "beams", "M", "V", "iM", "iV", "R_A", "R_B", "_char", "_ctx")
+    __slots__ = ("loads", "uls", "beams", "M", "V", "iM", "iV", "R_A", "R_B", "_char", "_ctx", "_vib")
 
     def __init__(self, ctx: "_Context", mass: float) -> None:
         self._ctx = ctx
@@ -77,6 +78,21 @@ class _MassCase:
         self.R_A = tuple(b.R_A for b in self.beams)
         self.R_B = tuple(b.R_B for b in self.beams)
         self._char: tuple | None = None
+        self._vib: tuple | None = None
+
+    def vibration(self) -> tuple[float, float, str] | None:
+        """(w_max * I, x, text) of the mass load for the natural frequency: permanent actions (with the
+        self-weight) plus a share of the imposed floor loads (categories A-G); None without such loads."""
+        if self._vib is None:
+            floor = [ld for ld in self.loads if ld.action == "imposed" and ld.category in "ABCDEFG"]
+            if not floor:
+                self._vib = (None,)
+            else:
+                k = VIBRATION_IMPOSED_SHARE
+                loads = [ld for ld in self.loads if ld.action == "permanent"] + [ld.scaled(k) for ld in floor]
+                w = SimpleBeam(self._ctx.L, loads, I=1.0).w_max()
+                self._vib = ((abs(w.value), w.x_mm, f"G + {k:g} x imposed floor load (categories A-G)"),)
+        return self._vib[0]
 
     def characteristic(self) -> tuple[tuple[Combination, SimpleBeam, float, float], ...]:
         """SLS characteristic combinations (Eq. 6.14b): (combination, beam with I = 1, w_max * I, x)."""
@@ -495,6 +511,7 @@ def _check_section_all(ctx: _Context, section: Section, render: bool = False,
     iV, Vx = case.iV, case.V[case.iV]
     run.add(check_shear(section, grade, Vx.value, na, _calc(render), location_mm=Vx.x_mm), uls[iV].name)
     _deflections(ctx, case, section, run, render)
+    _vibration(ctx, case, section, run, render)
     if fail_fast and run.failed():
         return run
 
@@ -533,6 +550,8 @@ def _check_section_all(ctx: _Context, section: Section, render: bool = False,
         x0, x1 = segs[k]
         rec = _ltb_one(ctx, section, case, i, k + 1, x0, x1, _calc(render), with_cross_check=True)
         run.add(rec, uls[i].name)
+    if not fail_fast or not run.failed():
+        _restraint_forces(ctx, case, section, run, render)
     return run
 
 
@@ -557,9 +576,11 @@ def _deflections(ctx: _Context, case: _MassCase, section: Section, run: _Run, re
         j = max(range(len(ch)), key=lambda t: (ch[t][2], -t))
         c, _, w1, x = ch[j]
         rec = check_deflection(w1 / I, L, ctx.beam.total_deflection_limit, which="total, characteristic",
+                               total=True,
                                calc=_calc(render), location_mm=x)
         run.add(replace(rec, id="deflection_total",
-                        note=f"{c.name}: {c.expression}; E = {E_MPa:g} MPa, I_y = {I / 1e4:.0f} cm4"),
+                        note=f"{c.name}: {c.expression}; E = {E_MPa:g} MPa, I_y = {I / 1e4:.0f} cm4; limit agreed "
+                             "for the project (the UK NA suggests limits for variable actions only)"),
                 c.name)
 
 
@@ -667,6 +688,31 @@ def _point_loads(ctx: _Context, case: _MassCase, section: Section, run: _Run, re
 def _M_c_Rd_fast(section: Section, ctx: _Context) -> tuple[float, int, float, str]:
     from ..members.checks import _M_c_Rd
     return _M_c_Rd(section, ctx.grade, ctx.na, Calc())
+
+
+def _vibration(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
+    """Natural frequency of a floor beam (imposed floor loads present), common practice."""
+    v = case.vibration()
+    if v is None:
+        return
+    w1, x, text = v
+    run.add(check_floor_frequency(w1 / section.Iy, calc=_calc(render), location_mm=x, load_text=text))
+
+
+def _restraint_forces(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
+    """Design force of each intermediate lateral restraint (EN 1993-1-1 5.3.3), information records:
+    N_Ed = largest ULS M_Ed / h, q_d over the length of flange each restraint takes (half way to its
+    neighbours or the supports)."""
+    rs = ctx.beam.restraints
+    if not rs:
+        return
+    M_max = abs(case.M[case.iM].value)
+    N = M_max / section.h
+    pts = (0.0, *rs, ctx.L)
+    for k, x in enumerate(rs, start=1):
+        a = 0.5 * (pts[k + 1] - pts[k - 1])
+        rec = restraint_force(N, ctx.L, a, calc=_calc(render), location_mm=x, name=f"R{k} at x = {x / 1e3:.3g} m")
+        run.add(replace(rec, id=f"restraint_force_R{k}"), case.uls[case.iM].name)
 
 
 def _bending_shear(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
@@ -780,8 +826,9 @@ def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None) 
     # reported with its worst check rather than the first one found failing; a section screened out
     # by the cheap checks is reported with the worst of those (stage "screen")
     by_name = {sec.designation: sec for sec in secs}
-    fails = [i for i, c in enumerate(tried) if not c.ok and c.stage == "full"]
-    for i in fails[-SHOWN_FAILURES:]:
+    m_chosen = chosen[0].mass_nominal if chosen is not None else math.inf
+    shown = [i for i, c in enumerate(tried) if not c.ok and c.mass_kg_per_m <= m_chosen][-SHOWN_FAILURES:]
+    for i in (i for i in shown if tried[i].stage == "full"):
         sec = by_name[tried[i].designation]
         tried[i] = _candidate(sec, _check_section_all(ctx, sec, render=False), "full")
     if chosen is None:

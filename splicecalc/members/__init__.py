@@ -14,7 +14,9 @@ Public API (units: N, mm, MPa, N*mm; ``M_Ed`` in N*mm, ``V_Ed``/``F_Ed`` in N):
   Eq. 6.14), :func:`check_transverse_bending` (7.2, Eq. 7.2), :func:`transverse_resistance`;
 * slender parts: :func:`effective_section` (Class 4, EN 1993-1-5 4.4), shear buckling inside
   :func:`check_shear` / :func:`check_bending_shear` (EN 1993-1-5 5 and 7.1), :func:`shear_resistance`;
-* :func:`check_deflection` (UK NA NA.2.23 suggested limits).
+* :func:`check_deflection` (UK NA NA.2.23 suggested limits; a total limit as agreed, EN 1990 A1.4.3);
+* :func:`check_floor_frequency` (natural frequency of a floor beam, common practice, EN 1990 A1.4.4)
+  and :func:`restraint_force` (design force of a lateral restraint, EN 1993-1-1 5.3.3).
 
 The clause formulas themselves are in :mod:`.en1993_1_1` (incl. ``k_c_linear`` of Table 6.6,
 ``k_c_from_C1`` of the UK NA) and :mod:`.en1993_1_5`.
@@ -26,7 +28,8 @@ from . import en1993_1_1, en1993_1_5
 from .checks import (ALPHA_LT, DEFLECTION_LIMITS, ShearBucklingError, SlenderSectionError, W_y_with_holes,
                      check_bending, check_bending_shear, check_deflection, check_ltb, check_shear,
                      check_transverse_bending, check_transverse_force, check_web_bearing, classify,
-                     effective_section, ltb_curve_rolled, section_class, shear_resistance, transverse_resistance)
+                     effective_section, ltb_curve_rolled, section_class, shear_resistance, transverse_resistance,
+                     FLOOR_FREQUENCY_MIN_HZ, VIBRATION_IMPOSED_SHARE, check_floor_frequency, restraint_force)
 from .mcr import (C1_C2_PINNED, DEFAULT_N_ELEMENTS, C_1_linear, C_1_numerical, M_cr_C1C2, M_cr_closed_form,
                   M_cr_numerical, M_cr_uniform, McrResult, mcr_numerical)
 
@@ -36,6 +39,7 @@ __all__ = [
     "check_bending", "check_bending_shear", "check_deflection", "check_ltb", "check_shear", "check_web_bearing",
     "classify", "ltb_curve_rolled", "section_class", "check_transverse_bending", "check_transverse_force",
     "effective_section", "shear_resistance", "transverse_resistance",
+    "FLOOR_FREQUENCY_MIN_HZ", "VIBRATION_IMPOSED_SHARE", "check_floor_frequency", "restraint_force",
     "C1_C2_PINNED", "DEFAULT_N_ELEMENTS", "C_1_linear", "C_1_numerical", "M_cr_C1C2", "M_cr_closed_form",
     "M_cr_numerical", "M_cr_uniform", "McrResult", "mcr_numerical",
 ]

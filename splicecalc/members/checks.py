@@ -795,14 +795,17 @@ DEFLECTION_LIMITS: dict[str, float] = {"brittle finishes": 360.0, "other": 200.0
 
 
 def check_deflection(delta_mm: float, span_mm: float, limit_ratio: float = 360.0, which: str = "imposed load",
-                     calc: Calc | None = None, *, location_mm: float | None = None) -> CheckRecord:
+                     calc: Calc | None = None, *, location_mm: float | None = None,
+                     total: bool = False) -> CheckRecord:
     """Vertical deflection against span / ``limit_ratio`` (EN 1993-1-1 7.2.1; UK NA NA.2.23 suggested limits).
 
     ``delta_mm`` is the computed deflection (sign ignored) for the SLS
     combination named by ``which`` (e.g. "imposed load", "total"); UK NA
     suggested limits (variable actions, characteristic): span/360 for beams
     carrying brittle finishes, span/200 other beams, span/180 cantilevers
-    (:data:`DEFLECTION_LIMITS`; from memory).
+    (:data:`DEFLECTION_LIMITS`; from memory). ``total=True``: a limit on the total deflection,
+    which the UK NA does not give: it is a limit agreed for the project (EN 1990 A1.4.3, EN 1993-1-1
+    7.2.1(1)B) and is cited so.
     """
     calc = _check_calc(calc)
     d = abs(require_finite("delta_mm", delta_mm))
@@ -814,11 +817,85 @@ def check_deflection(delta_mm: float, span_mm: float, limit_ratio: float = 360.0
     lim = calc(f11.delta_lim, L=L, n_lim=n)
     calc.keep("delta_lim", lim, "mm")
     return calc.record(id="deflection", title=f"Deflection ({which}), span/{n:g}",
-                       clause="UK NA to BS EN 1993-1-1:2008, NA.2.23", demand=d, resistance=lim, unit="mm",
+                       clause=("EN 1990:2002, A1.4.3" if total else "UK NA to BS EN 1993-1-1:2005+A1:2014, NA.2.23"),
+                       demand=d, resistance=lim, unit="mm",
                        location_mm=loc)
+
+
+# ------------------------------------------------------------------ floor vibration, restraint forces
+#: usual minimum natural frequency of a floor beam (Hz): common UK practice for floors (from memory)
+FLOOR_FREQUENCY_MIN_HZ = 4.0
+#: share of the imposed floor load taken as mass for the natural frequency (common practice, from memory)
+VIBRATION_IMPOSED_SHARE = 0.1
+
+
+def check_floor_frequency(delta_mm: float, f_min: float = FLOOR_FREQUENCY_MIN_HZ, calc: Calc | None = None, *,
+                          location_mm: float | None = None, load_text: str = "") -> CheckRecord:
+    """Natural frequency of a floor beam against the usual minimum (common practice, EN 1990 A1.4.4).
+
+    ``delta_mm``: largest deflection (mm) of the beam under its mass load (permanent actions plus a
+    share of the imposed floor load, :data:`VIBRATION_IMPOSED_SHARE`); f_1 = (pi/2) sqrt(5 g /
+    (384 delta)) (exact for a uniform mass). Record: demand = the minimum frequency, resistance = f_1
+    (a minimum requirement), unit Hz. EN 1990 A1.4.4 asks for vibration limits agreed for the
+    project; the 4 Hz floor and the mass load are common UK practice, not code values (from memory).
+    Floors with a frequency near the limit, or sensitive uses, need a response (acceleration) check.
+    """
+    calc = _check_calc(calc)
+    d = require_positive("delta_mm", delta_mm, "mm")
+    fm = require_in_range("f_min", f_min, 1.0, 20.0)
+    loc = _loc(location_mm)
+    f1 = calc(f11.f_1_beam, delta_m=d / 1000.0)
+    calc.keep("delta_mass", d, "mm")
+    calc.keep("f_1", f1, "Hz")
+    return calc.record(id="floor_frequency", title=f"Floor vibration: natural frequency, at least {fm:g} Hz",
+                       clause="EN 1990:2002, A1.4.4", demand=fm, resistance=f1, unit="Hz", location_mm=loc,
+                       note=(f"mass load: {load_text}; " if load_text else "") + f"delta = {d:.2f} mm; "
+                            f"minimum {fm:g} Hz and the mass load are common UK practice for floors (from memory); "
+                            "a response (acceleration) check is needed for sensitive floors",
+                       guidance="common UK floor-vibration practice: f_1 >= 4 Hz under permanent load plus 10 % "
+                                "of the imposed load (from memory)")
+
+
+def restraint_force(N_f_Ed: float, span_mm: float, tributary_mm: float, m: float = 1.0,
+                    calc: Calc | None = None, *, location_mm: float | None = None,
+                    name: str = "") -> CheckRecord:
+    """Design force of one intermediate lateral restraint, EN 1993-1-1 5.3.3(2) (information record).
+
+    ``N_f_Ed`` (N): the compression-flange force the restraints stabilise, N_Ed = M_Ed / h (5.3.3(4));
+    ``span_mm``: the length L of the restrained flange (the span); ``tributary_mm``: the length of
+    flange this restraint collects the equivalent stabilising force q_d from; ``m``: members restrained
+    by the same system (1: this beam alone). delta_q, the in-plane deflection of the restraint system,
+    is taken as L/2500 (a stiff restraint, common practice, from memory). The restraint and its
+    fixings are not designed by the package: the record states the force they need.
+    """
+    calc = _check_calc(calc)
+    N = require_non_negative("N_f_Ed", N_f_Ed, "N")
+    L = require_positive("span_mm", span_mm, "mm")
+    a = require_positive("tributary_mm", tributary_mm, "mm")
+    mm = require_in_range("m", m, 1.0, 100.0)
+    loc = _loc(location_mm)
+    e0 = calc(f11.e_0_bracing, m=mm, L=L)
+    q = calc(f11.q_d_bracing, N_Ed=N, e_0=e0, delta_q=L / 2500.0, L=L)
+    F = q * a
+    calc.keep("N_f_Ed", N, "N")
+    calc.keep("q_d", q, "N/mm")
+    calc.keep("a_trib", a, "mm")
+    calc.keep("F_restraint", F, "N")
+    pct = 100.0 * F / N if N > 0 else 0.0
+    calc.note(f"Restraint force $F = q_d \\cdot a$ = {F / 1e3:.2f} kN over {a / 1e3:.3g} m of flange "
+              f"({pct:.2f} % of the flange force).")
+    what = f" {name}" if name else ""
+    return calc.info(id="restraint_force", title=f"Lateral restraint{what}: design force",
+                     clause="EN 1993-1-1:2005, 5.3.3(2), Eq. 5.13", demand=F, resistance=N, unit="N",
+                     location_mm=loc,
+                     note=f"F = {F / 1e3:.2f} kN = {pct:.2f} % of the compression-flange force N_Ed = M_Ed/h = "
+                          f"{N / 1e3:.0f} kN (5.3.3(4)); delta_q = L/2500 assumed; the restraint and its fixings "
+                          "must be designed for it (not designed here); 6.3.5.2 (2.5 % at plastic hinges) does "
+                          "not apply: elastic analysis, no plastic hinges")
 
 
 __all__ = ["SlenderSectionError", "ShearBucklingError", "ALPHA_LT", "DEFLECTION_LIMITS", "section_class",
            "classify", "W_y_with_holes", "check_bending", "check_shear", "check_bending_shear",
            "ltb_curve_rolled", "check_ltb", "check_web_bearing", "check_deflection", "effective_section",
+           "check_floor_frequency", "restraint_force", "FLOOR_FREQUENCY_MIN_HZ", "VIBRATION_IMPOSED_SHARE",
            "shear_resistance", "transverse_resistance", "check_transverse_force", "check_transverse_bending"]

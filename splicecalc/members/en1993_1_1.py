@@ -9,7 +9,7 @@ Slenderness arguments are spelled ``lamb_LT`` / ``lamb_LT_0`` (handcalcs renders
 
 from __future__ import annotations
 
-from math import sqrt
+from math import pi, sqrt
 
 from ..core.clause import clause
 
@@ -256,7 +256,7 @@ def chi_LT_mod(chi_LT: float, f: float, lamb_LT: float) -> float:
     return chi_LT_mod
 
 
-@clause("UK NA to BS EN 1993-1-1:2008, NA.2.18", units={}, returns="", example=dict(C_1=1.127))
+@clause("UK NA to BS EN 1993-1-1:2005+A1:2014, NA.2.18", units={}, returns="", example=dict(C_1=1.127))
 def k_c_from_C1(C_1: float) -> float:
     """Correction factor k_c = 1/sqrt(C_1) for the moment distribution (UK NA, NA.2.18; from memory)."""
     k_c = 1 / sqrt(C_1)
@@ -282,7 +282,7 @@ def M_b_Rd(chi_LT_mod: float, W_y: float, f_y: float, gamma_M1: float) -> float:
 
 
 # ------------------------------------------------------------------ serviceability
-@clause("UK NA to BS EN 1993-1-1:2008, NA.2.23", units={"L": "mm"}, returns="mm",
+@clause("EN 1993-1-1:2005, 7.2.1(1)", units={"L": "mm"}, returns="mm",
         example=dict(L=7200.0, n_lim=360.0))
 def delta_lim(L: float, n_lim: float) -> float:
     """Deflection limit L / n (mm); UK NA suggested n = 360 (brittle finishes), 200 (other), 180 (cantilevers)."""
@@ -296,3 +296,31 @@ __all__ = [
     "rho_V", "M_y_V_Rd", "M_y_V_Rd_el", "lambda_LT", "chi_LT", "f_LT", "chi_LT_mod", "k_c_from_C1", "k_c_linear",
     "M_b_Rd", "delta_lim",
 ]
+
+
+# ------------------------------------------------------------------ lateral restraints 5.3.3
+@clause("EN 1993-1-1:2005, 5.3.3(1), Eq. 5.12", units={"L": "mm"}, returns="mm", example=dict(m=1.0, L=7200.0))
+def e_0_bracing(m: float, L: float) -> float:
+    """Bow imperfection of the restrained flange e_0 = alpha_m L / 500, alpha_m = sqrt(0.5 (1 + 1/m)) (mm)."""
+    alpha_m = sqrt(0.5 * (1 + 1 / m))
+    e_0 = alpha_m * L / 500
+    return e_0
+
+
+@clause("EN 1993-1-1:2005, 5.3.3(2), Eq. 5.13", units={"N_Ed": "N", "e_0": "mm", "delta_q": "mm", "L": "mm"},
+        returns="N/mm", example=dict(N_Ed=900e3, e_0=14.4, delta_q=2.9, L=7200.0))
+def q_d_bracing(N_Ed: float, e_0: float, delta_q: float, L: float) -> float:
+    """Equivalent stabilising force on the restraint system q_d = N_Ed 8 (e_0 + delta_q) / L^2 (N/mm)."""
+    q_d = N_Ed * 8 * (e_0 + delta_q) / L**2
+    return q_d
+
+
+# ------------------------------------------------------------------ floor vibration (EN 1990 A1.4.4)
+@clause("EN 1990:2002, A1.4.4", units={}, returns="", example=dict(delta_m=0.0084))
+def f_1_beam(delta_m: float, g_acc: float = 9.81) -> float:
+    """Fundamental frequency of a simply supported beam from the deflection delta under its own mass load
+    f_1 = (pi/2) sqrt(5 g / (384 delta)) in Hz, with delta in m and g in m/s2 (plain numbers, so the
+    sheet shows the frequency in Hz): exact for a uniform mass (= (pi/2) sqrt(E I / (m L^4))), the
+    common approximation otherwise."""
+    f_1 = pi / 2 * (5 * g_acc / (384 * delta_m))**0.5
+    return f_1

@@ -32,7 +32,7 @@ UNIT_TEX = {
     "mm2": r"\mathrm{mm^{2}}", "mm3": r"\mathrm{mm^{3}}", "mm4": r"\mathrm{mm^{4}}", "mm6": r"\mathrm{mm^{6}}",
     "MPa": r"\mathrm{MPa}", "kg": r"\mathrm{kg}", "kg/m": r"\mathrm{kg/m}", "": "",
     "cm2": r"\mathrm{cm^{2}}", "cm3": r"\mathrm{cm^{3}}", "cm4": r"\mathrm{cm^{4}}", "cm": r"\mathrm{cm}",
-    "dm6": r"\mathrm{dm^{6}}", "N": r"\mathrm{N}", "Nmm": r"\mathrm{N\,mm}",
+    "dm6": r"\mathrm{dm^{6}}", "N": r"\mathrm{N}", "Nmm": r"\mathrm{N\,mm}", "Hz": r"\mathrm{Hz}",
 }
 
 

@@ -367,7 +367,10 @@ def show_member(result: CalcResult) -> None:
         rows += [[c.designation, f"{c.mass_kg_per_m:g}", "passes", c.governing, fmt_utilisation(c.utilisation)]
                  for c in d.alternatives]
         show_table(["Section", "kg/m", "Verdict", "Governing check", "Util."], rows, align="lrlll",
-                   title="Section search (the heaviest lighter sections tried, the chosen one, the next passing)")
+                   title="Section search (the heaviest lighter sections tried, the chosen one, the next passing)",
+                   notes="Each section with its worst check. A section stopped by the first checks (bending, "
+                         "shear, deflection, floor frequency) shows the worst of those; one that reached the "
+                         "lateral-torsional buckling stage was checked in full.")
     show_checks(result.member_records)
 
 

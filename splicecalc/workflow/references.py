@@ -19,7 +19,7 @@ STANDARDS: tuple[tuple[str, str], ...] = (
     ("EN 1991-1-1:2002", "Eurocode 1 - Actions on structures - Densities, self-weight, imposed loads for "
                          "buildings, with the UK National Annex"),
     ("EN 1993-1-1:2005", "Eurocode 3 - Design of steel structures - General rules and rules for buildings, "
-                         "with the UK National Annex"),
+                         "with the UK National Annex (NA+A1:2014 to BS EN 1993-1-1:2005+A1:2014)"),
     ("EN 1993-1-5:2006", "Eurocode 3 - Plated structural elements, with the UK National Annex"),
     ("EN 1993-1-8:2005", "Eurocode 3 - Design of joints, with the UK National Annex"),
     ("EN 10025-2:2004", "Hot rolled products of structural steels - Non-alloy structural steels"),
@@ -51,7 +51,7 @@ CAUTIONS: tuple[str, ...] = (
     "laminations) has been confirmed; bolted connections to existing members are preferred.",
 )
 
-_STD_RE = re.compile(r"^((?:UK NA to BS EN|BS EN|EN|BS) [0-9]+(?:-[0-9]+)*(?:\+A[0-9]+)?:[0-9]{4})(?:, (.*))?$")
+_STD_RE = re.compile(r"^((?:UK NA to BS EN|BS EN|EN|BS) [0-9]+(?:-[0-9]+)*(?:\+A[0-9]+)?:[0-9]{4}(?:\+A[0-9]+:[0-9]{4})?)(?:, (.*))?$")
 
 
 @dataclass(frozen=True)
