@@ -400,3 +400,21 @@ def test_reactions_by_action_sum_to_the_beam_reaction():
     parts = {p.action_name: p.R for p in reactions_by_action(loads, 8000.0, "A")}
     assert parts["G"] == pytest.approx(40e3 + 20e3 * 6 / 8)              # statics by hand
     assert parts["imposed B"] == pytest.approx(12.0 * 3000 * 6500 / 8000)
+
+
+def test_column_mcr_uniform_moment_matches_closed_form():
+    # uniform moment (moment_ratio = 1): M_cr = (pi^2 E I_z / L^2) sqrt(I_w/I_z + L^2 G I_t/(pi^2 E I_z)),
+    # Timoshenko and Gere (1961), 6.2
+    from splicecalc.core.record import Calc as _Calc
+    loads = parse_existing_loads({"kind": "column", "height": "6 m", "axial": {"permanent": "300 kN"},
+                                  "moment_ratio": 1.0, "moment_y": {"permanent": "60 kNm"}}, "column flange", "x")
+    det = design_end_connection(BEAM, "S355", 150e3, _support()).detail
+    calc = _Calc()
+    res = existing_member_checks(COL, loads, lambda t: existing_material_of("S275", t), "column flange", det,
+                                 None, 100e3, NA610, calc=calc)
+    s, L, E, G = COL, 6000.0, 210000.0, 81000.0
+    Mcr = math.pi**2 * E * s.Iz / L**2 * math.sqrt(s.Iw / s.Iz + L**2 * G * s.It / (math.pi**2 * E * s.Iz))
+    r = _rec(res.records, "ex_col_ltb")
+    assert r.values["M_cr"][0] == pytest.approx(Mcr / 1e6, rel=0.005)
+    lam = math.sqrt(s.Wpl_y * 275.0 / Mcr)                           # 6.3.2.2(1)
+    assert lam > 0.4 and r.resistance < s.Wpl_y * 275.0 / 1e6        # LTB reduces the resistance here

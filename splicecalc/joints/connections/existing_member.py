@@ -197,9 +197,9 @@ def _column_forces(acts: dict[str, dict[str, Any]], combo: Any, e: float, axis: 
 
 def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float, f_u_w: float, N: float,
                     My: float, Mz: float, na: NationalAnnex, calc: Calc, face: str, det: Any, tie: float,
-                    where: str, mcr_unit: float) -> list[CheckRecord]:
-    """Every member check of the column for one set of design forces (``mcr_unit``: M_cr per unit
-    moment at the connection, N*mm per N*mm)."""
+                    where: str, M_cr: float) -> list[CheckRecord]:
+    """Every member check of the column for one set of design forces (``M_cr``: elastic critical
+    moment of the column length for its moment shape, N*mm)."""
     out: list[CheckRecord] = []
     cls = _section_class(sec, f_y, compression=True)
     if cls == 4:
@@ -252,7 +252,6 @@ def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float,
     psi = cl.moment_ratio
     chi_LT = 1.0
     if My > 0.0:
-        M_cr = mcr_unit * My            # no transverse load: M_cr is proportional to the moment diagram
         if math.isfinite(M_cr):
             calc.keep("M_cr", M_cr, "Nmm")
             calc.note(f"$M_{{cr}}$ = {M_cr / 1e6:.1f} kNm: thin-walled beam finite elements, length "
@@ -314,13 +313,14 @@ def column_member_checks(sec: Any, cl: ExistingColumnLoads, mat_at: Callable[[fl
     e = (sec.h / 2.0 if face == "column flange" else sec.tw / 2.0) + max(det.z, E_NOMINAL_FACE)
     axis = "y" if face == "column flange" else "z"
     acts = _column_actions(cl, parts)
-    mcr_unit = mcr_numerical(sec, cl.L_z, (np.array([0.0, cl.L_z]), np.array([1.0, cl.moment_ratio]))).M_cr
+    # no transverse load in the column length: M_cr depends on the shape of the moment diagram only
+    mcr_shape = mcr_numerical(sec, cl.L_z, (np.array([0.0, cl.L_z]), np.array([1e6, 1e6 * cl.moment_ratio]))).M_cr
     combos = _combos({k: (a["action"], a["category"]) for k, a in acts.items()}, na, psi)
     best = None
     for c in combos:
         N, My, Mz, R = _column_forces(acts, c, e, axis, cl.moment_share)
         recs = _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, Calc(), face, det, tie, c.name,
-                              mcr_unit)
+                              mcr_shape)
         u = max((r.utilisation for r in recs), default=0.0)
         if best is None or u > best[0]:
             best = (u, c, N, My, Mz, R)
@@ -329,7 +329,7 @@ def column_member_checks(sec: Any, cl: ExistingColumnLoads, mat_at: Callable[[fl
               f"column axis ({GUIDANCE_ECC}), {cl.moment_share:g} of R e taken by this length: "
               f"$N_{{Ed}}$ = {N / 1e3:.1f} kN, $M_{{y,Ed}}$ = {My / 1e6:.2f} kNm, $M_{{z,Ed}}$ = {Mz / 1e6:.2f} kNm.")
     recs = _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, calc, face, det, tie, c.name,
-                          mcr_unit)
+                          mcr_shape)
     rows = [("existing axial force", "permanent", f"{cl.axial.permanent / 1e3:g} kN", "at the connection level"),
             ("existing axial force", f"imposed {cl.category}", f"{cl.axial.imposed / 1e3:g} kN", "")]
     for nm, pair in (("existing moment M_y", cl.moment_y), ("existing moment M_z", cl.moment_z)):
