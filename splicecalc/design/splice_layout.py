@@ -37,7 +37,7 @@ from ..joints.splice.checks import (TAG_FIT, TAG_FLANGE, TAG_WEB, detailing_reco
                                     web_records)
 from ..joints.splice.design import (SpliceDesign, check_splice, moment_resistance, serviceability_forces, splice_bolt,
                                     validate_inputs)
-from ..joints.splice.forces import flange_reach, splice_forces
+from ..joints.splice.forces import flange_force, flange_reach, splice_forces
 from ..joints.splice.geometry import default_edge, geometry, round_down, round_up
 from ..joints.splice.spec import FlangeLayout, SpliceLayout, SpliceSpec, WebLayout
 from ..core.record import Calc, find
@@ -139,6 +139,12 @@ def _flange_bound(bolt, f: FlangeLayout, F_f: float, spec, pg: str, na, section,
         per_col = (ab_e + (f.rows - 1) * ab_i) * 2.5 * fu * bolt.d * t / na.gamma_M2
         return f.columns * per_col
 
+    # the beam's own tension flange, net of this layout's holes (a member check of the splice, EN 1993-1-1 6.2.3)
+    fb = steel(grade, section.tf)
+    A_fn = (section.b - f.columns * bolt.d_0) * section.tf
+    if A_fn <= 0 or min(section.b * section.tf * fb.f_y / na.gamma_M0,
+                        0.9 * A_fn * fb.f_u / na.gamma_M2_member) < F_f:
+        return False
     share_o = A_o / (A_o + A_i)
     if ply_bound(f.plate, fu_o) < F_f * share_o or ply_bound(section.tf, fu_b) < F_f:
         return False
@@ -236,6 +242,7 @@ def _search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, 
     if k_min > 0 and M_c_Rd is None:
         M_c_Rd = moment_resistance(section, grade, na)
     pg = spec.plate_grade
+    M_j = max(abs(M_Ed), k_min * (M_c_Rd or 0.0)) if k_min > 0 else abs(M_Ed)   # as forces.M_j_Ed
     combos = []
     for size, cls in bolts:
         bolt = splice_bolt(size, cls, spec)
@@ -247,10 +254,11 @@ def _search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, 
                                  web_gauge=0.0, web_e1=40.0, k_min=k_min, M_c_Rd=M_c_Rd or 0.0, flange_a=a_f), a_f
 
         def flange_test(f: FlangeLayout):
-            fo, a_f = flange_forces(f)
-            F_f = fo.F_f_Ed
+            a_f = flange_reach(spec.gap, default_edge(bolt.d_0), f.rows, f.pitch)
+            F_f = flange_force(section, M_j, V_Ed, N_Ed, a_f)[0]          # cheap: the bounds first
             if not _flange_bound(bolt, f, F_f, spec, pg, na, section, grade):
                 return None
+            fo, _ = flange_forces(f)
             lay = SpliceLayout(size, cls, f, dummy_web)
             g = geometry(section, bolt, lay, spec.gap)
             if not all(r.ok for r in find(detailing_records(section, bolt, g, spec), TAG_FIT, TAG_FLANGE)):
@@ -260,7 +268,7 @@ def _search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, 
             if not all(r.ok for r in flange_records(section, grade, bolt, g, spec, F_f, na, Calc(), F_f_ser,
                                                     fast=True)):
                 return False
-            return all(r.ok for r in find(member_records(section, grade, bolt, g, spec, fo, na, Calc()), TAG_FLANGE))
+            return all(r.ok for r in member_records(section, grade, bolt, g, spec, fo, na, Calc(), group=TAG_FLANGE))
 
         def forces_fn(w: WebLayout):
             e1 = default_edge(bolt.d_0)
@@ -280,7 +288,7 @@ def _search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, 
             _, ratio, _ = serviceability_forces(section, spec, w, g.e1_w, fo, M_Ed, V_Ed, M_Ed_ser, V_Ed_ser)
             if not all(r.ok for r in web_records(section, grade, bolt, g, spec, fo, na, Calc(), ratio, fast=True)):
                 return False
-            return all(r.ok for r in find(member_records(section, grade, bolt, g, spec, fo, na, Calc()), TAG_WEB))
+            return all(r.ok for r in member_records(section, grade, bolt, g, spec, fo, na, Calc(), group=TAG_WEB))
 
         fl = _first_passing(_flange_candidates(section, bolt, spec), flange_test, k=2)
         if not fl:
@@ -360,46 +368,4 @@ def design_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0
     return d
 
 
-
-
-
-def design_splices(section, grade: str, span_mm: float, spec: SpliceSpec, *, M_abs, V_abs, at=None,
-                   avoid=(), na: NationalAnnex = UK_NA, render: bool = False, V_c_Rd: float | None = None):
-    """Positions and designs of all splices of a beam: ``(SplicePositions, [SpliceDesign, ...])``.
-
-    Positions by :func:`splicecalc.design.splice_positions.choose_splice_positions`
-    (envelopes ``M_abs``, ``V_abs``; ``at(x)`` -> governing (M, V, N, name)); each
-    splice then designed for its forces. With a mass limit the kit mass is not
-    known beforehand: positions are found with no kit, the splices designed, and
-    the positions re-chosen with the heaviest kit (then the splices redesigned).
-    """
-    from ..members import check_shear
-    from .splice_positions import choose_splice_positions
-    spec = spec if spec is not None else SpliceSpec()
-    M_c = moment_resistance(section, grade, na)
-    if V_c_Rd is None:
-        from ..core.units import convert
-        V_c_Rd = convert(check_shear(section, grade, 0.0, na).resistance, "kN", "N")
-    kw = dict(M_abs=M_abs, V_abs=V_abs, M_c_Rd=M_c, V_c_Rd=V_c_Rd, mass_per_m=section.mass, avoid=avoid, at=at)
-    pos = choose_splice_positions(span_mm, spec, **kw)
-
-    def run(p):
-        return [design_splice(section, grade, s.M_Ed, s.V_Ed, s.N_Ed, spec, na, render, location_mm=s.x, M_c_Rd=M_c)
-                for s in p.splices]
-
-    designs = run(pos)
-    if spec.max_piece_mass and designs and not spec.positions:
-        kit = max(d.plate_mass + d.n_bolts * _bolt_mass(d.layout.bolt_size) for d in designs)
-        pos2 = choose_splice_positions(span_mm, spec, splice_mass_kg=kit, **kw)
-        if pos2.positions != pos.positions:
-            pos, designs = pos2, run(pos2)
-        else:
-            pos = pos2
-    return pos, designs
-
-
-#: mass of one bolt assembly (bolt ~ 3 d long, nut, two washers), kg (estimate from geometry, steel 7850 kg/m3)
-def _bolt_mass(size: str) -> float:
-    d = float(size[1:])
-    return 7850e-9 * (math.pi * d * d / 4 * (3.5 * d) + 2 * 0.9 * d * d * d * 1.3)
-__all__ = ["design_splice", "design_splices", "search_layouts", "AUTO_BOLTS", "FLANGE_T", "WEB_T"]
+__all__ = ["design_splice", "search_layouts", "AUTO_BOLTS", "FLANGE_T", "WEB_T"]

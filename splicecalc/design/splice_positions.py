@@ -34,7 +34,7 @@ from typing import Callable, Sequence
 
 import numpy as np
 
-from ..core.errors import InputError, require_non_negative, require_positive
+from ..core.errors import InputError, require_in_range, require_non_negative, require_positive
 from ..core.numeric import sorted_unique
 from ..core.record import Calc, CheckRecord
 
@@ -69,6 +69,8 @@ class SplicePositions:
     equal_feasible: bool
     method: str
     records: tuple[CheckRecord, ...] = field(default_factory=tuple)
+    piece_masses: tuple[PieceMass, ...] = ()
+    mass_margin: float = 0.0
 
     @property
     def positions(self) -> tuple[float, ...]:
@@ -83,6 +85,8 @@ class SplicePositions:
                         for s in self.splices],
             "pieces_m": [round(p / 1000, 4) for p in self.pieces_mm],
             "piece_mass_kg": [round(m, 1) for m in self.piece_mass_kg],
+            "piece_mass_build_up": [p.to_dict() for p in self.piece_masses],
+            "mass_margin": self.mass_margin,
             "worst_demand": round(self.worst_demand, 4),
             "equal_length": {"x_m": [round(x / 1000, 4) for x in self.equal_positions],
                              "worst_demand": round(self.equal_worst_demand, 4),
@@ -91,13 +95,49 @@ class SplicePositions:
         }
 
 
-def _piece_masses(xs: Sequence[float], L: float, m_per_mm: float, m_splice: float) -> list[float]:
+@dataclass(frozen=True)
+class PieceMass:
+    """Mass build-up of one piece as lifted (kg): the beam steel, the splice kit (cover plates and
+    bolt assemblies) at each of its splice ends, the end connection on an end piece, and the margin."""
+
+    index: int
+    length_mm: float
+    steel_kg: float
+    plates_kg: float
+    bolts_kg: float
+    end_kg: float
+    margin_kg: float
+
+    @property
+    def total_kg(self) -> float:
+        return self.steel_kg + self.plates_kg + self.bolts_kg + self.end_kg + self.margin_kg
+
+    def to_dict(self) -> dict:
+        return {"piece": self.index, "length_m": round(self.length_mm / 1000, 4),
+                "steel_kg": round(self.steel_kg, 2), "splice_plates_kg": round(self.plates_kg, 2),
+                "splice_bolts_kg": round(self.bolts_kg, 2), "end_connection_kg": round(self.end_kg, 2),
+                "margin_kg": round(self.margin_kg, 2), "total_kg": round(self.total_kg, 2)}
+
+
+#: how a piece's mass is counted (stated on the calc sheet)
+MASS_CONVENTION = ("piece mass = (beam steel m' L + at each splice end the whole splice kit of the heaviest splice "
+                   "(cover plates + bolt assemblies: either piece may be lifted with the kit bolted on) + on an end "
+                   "piece its end plate or fin plate with its bolts) x (1 + mass margin)")
+
+
+def _piece_masses(xs: Sequence[float], L: float, m_per_mm: float, kit: tuple[float, float],
+                  end_mass: tuple[float, float] = (0.0, 0.0), margin: float = 0.0) -> list[PieceMass]:
+    """Mass build-up of every piece: kit = (plates kg, bolts kg) of one splice; end_mass at x = 0 and L."""
     cuts = [0.0, *xs, L]
     n = len(cuts) - 1
     out = []
     for i in range(n):
         ends = (1 if i > 0 else 0) + (1 if i < n - 1 else 0)
-        out.append((cuts[i + 1] - cuts[i]) * m_per_mm + ends * m_splice)
+        steel = (cuts[i + 1] - cuts[i]) * m_per_mm
+        e = (end_mass[0] if i == 0 else 0.0) + (end_mass[1] if i == n - 1 else 0.0)
+        base = steel + ends * (kit[0] + kit[1]) + e
+        out.append(PieceMass(index=i + 1, length_mm=cuts[i + 1] - cuts[i], steel_kg=steel, plates_kg=ends * kit[0],
+                             bolts_kg=ends * kit[1], end_kg=e, margin_kg=margin * base))
     return out
 
 
@@ -144,11 +184,104 @@ def envelope(beams: Sequence, names: Sequence[str] | None = None,
     return M_abs, V_abs, at
 
 
+#: variable actions treated as free (patterned over partial spans), EN 1991-1-1:2002, 6.2.1(1)
+FREE_ACTIONS: tuple[str, ...] = ("imposed",)
+PATTERN_NOTE = ("imposed load patterned as a free action over partial spans for the splice shear "
+                "(EN 1991-1-1 6.2.1(1)): at each x the imposed load on the side that increases |V|; the moment "
+                "envelope of a simple span is the fully loaded one (its influence line has one sign)")
+
+
+def _v_parts(loads, L: float, x: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Shear at x (sign of R_A) from the parts of ``loads`` right of x (>= 0) and left of x (<= 0): the
+    influence line of V(x) is (L - xi)/L for xi > x and -xi/L for xi < x."""
+    pos = np.zeros_like(x)
+    neg = np.zeros_like(x)
+    for ld in loads:
+        if hasattr(ld, "P"):
+            xi = float(ld.x)
+            pos += np.where(xi >= x, ld.P * (L - xi) / L, 0.0)
+            neg += np.where(xi <= x, -ld.P * xi / L, 0.0)
+        else:
+            a, b = ld.extent(L)
+            b = min(b, L)
+            s = np.clip(x, a, b)                  # load right of x: [s, b]; left of x: [a, s]
+            pos += ld.w * ((L - s) ** 2 - (L - b) ** 2) / (2 * L)
+            neg -= ld.w * (s ** 2 - a ** 2) / (2 * L)
+    return pos, neg
+
+
+def patterned_envelope(combinations: Sequence, span_mm: float, free_actions: Sequence[str] = FREE_ACTIONS,
+                       N_Ed: float = 0.0) -> tuple[Callable, Callable, Callable]:
+    """Envelopes ``(M_abs, V_abs, at)`` like :func:`envelope`, with the loads of ``free_actions``
+    (imposed) of each ULS combination patterned over partial spans (EN 1991-1-1 6.2.1(1)).
+
+    ``combinations``: :class:`~splicecalc.actions.Combination` objects (factored ``loads``). For the
+    shear at x each free load counts only over the part of its extent on the side of x that adds to
+    |V| (both sides tried); permanent and other variable loads stay where they are. The moment at x is
+    the full-load moment (for downward loads on a simple span every part of a load adds to M).
+    """
+    from ..analysis import SimpleBeam
+    combos = list(combinations)
+    if not combos:
+        raise InputError("combinations", combos, "at least one ULS combination")
+    L = require_positive("span_mm", span_mm, "mm")
+    parts = []
+    for c in combos:
+        full = SimpleBeam(L, c.loads)
+        free = [ld for ld in c.loads if getattr(ld, "action", "") in free_actions]
+        fixed = [ld for ld in c.loads if getattr(ld, "action", "") not in free_actions]
+        parts.append((c, full, fixed, free))
+
+    def V_fixed(fixed, x):
+        if not fixed:
+            return np.zeros_like(x), np.zeros_like(x)
+        pos, neg = _v_parts(fixed, L, x)
+        return pos + neg, pos + neg
+
+    def V_pat(i, x):
+        c, full, fixed, free = parts[i]
+        x = np.atleast_1d(np.asarray(x, dtype=float))
+        vf, _ = V_fixed(fixed, x)
+        if not free:
+            return np.maximum(np.abs(full.V(x, "left")), np.abs(full.V(x, "right")))
+        pos, neg = _v_parts(free, L, x)
+        return np.maximum(np.abs(vf + pos), np.abs(vf + neg))
+
+    def M_abs(x):
+        x = np.atleast_1d(np.asarray(x, dtype=float))
+        return np.max(np.abs(np.vstack([np.atleast_1d(full.M(x)) for _, full, _, _ in parts])), axis=0)
+
+    def V_abs(x):
+        x = np.atleast_1d(np.asarray(x, dtype=float))
+        return np.max(np.vstack([V_pat(i, x) for i in range(len(parts))]), axis=0)
+
+    def at(x: float):
+        best = None
+        v_best = None
+        for i, (c, full, _, free) in enumerate(parts):
+            M = float(full.M(x))
+            V = float(V_pat(i, np.array([x]))[0])
+            if best is None or (abs(M), V) > best[0]:
+                best = ((abs(M), V), (M, V, c.name, bool(free)))
+            if v_best is None or V > v_best[0]:
+                v_best = (V, c.name, bool(free))
+        M, V, nm, _ = best[1]
+        Vm, vnm, vfree = v_best
+        pat = ", imposed patterned" if vfree else ""
+        if vnm == nm:
+            return M, Vm, float(N_Ed), nm + (" (V: imposed patterned)" if vfree else "")
+        return M, max(Vm, V), float(N_Ed), f"{nm} (M), {vnm} (V{pat})"
+
+    return M_abs, V_abs, at
+
+
 def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Callable, M_c_Rd: float,
                             V_c_Rd: float, mass_per_m: float, avoid: Sequence[float] = (),
                             at: Callable | None = None, splice_mass_kg: float = 0.0,
                             splice_zone_mm: float = 600.0, grid_mm: float = 25.0,
-                            max_pieces: int = 20, plate_half_length_mm: float = 0.0) -> SplicePositions:
+                            max_pieces: int = 20, plate_half_length_mm: float = 0.0,
+                            splice_bolts_kg: float = 0.0, end_mass_kg: tuple[float, float] = (0.0, 0.0),
+                            mass_margin: float = 0.0) -> SplicePositions:
     """Choose splice positions on a span (see the module docstring).
 
     span_mm: span (mm); M_abs, V_abs: envelope callables of x (mm) -> N*mm, N
@@ -156,7 +289,10 @@ def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Cal
     beam mass (kg/m); avoid: x (mm) of point loads and restraints (supports at
     0 and L are always added); at(x) -> (M, V, N, name) gives the governing
     combination's forces at a splice (default: the envelopes with N = 0);
-    splice_mass_kg: plates + bolts of one splice; splice_zone_mm: shortest
+    splice_mass_kg: the whole kit of one splice (cover plates + bolt assemblies), of which
+    ``splice_bolts_kg`` are the bolt assemblies (for the build-up); end_mass_kg: the end
+    connections carried by the first and last pieces; mass_margin: fraction added to every
+    piece mass (e.g. 0.03 for rolling tolerance, 0 to 0.2); splice_zone_mm: shortest
     piece allowed (about one cover-plate length); plate_half_length_mm: half the
     longest cover plate, so that the clearance used is at least that much and no
     cover plate reaches over a point load, a restraint or a support.
@@ -166,6 +302,14 @@ def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Cal
     require_positive("V_c_Rd", V_c_Rd, "N")
     m_mm = require_positive("mass_per_m", mass_per_m, "kg/m") / 1000.0
     m_sp = require_non_negative("splice_mass_kg", splice_mass_kg, "kg")
+    m_b = require_non_negative("splice_bolts_kg", splice_bolts_kg, "kg")
+    if m_b > m_sp:
+        raise InputError("splice_bolts_kg", m_b, f"at most the whole kit splice_mass_kg = {m_sp:g} kg")
+    kit = (m_sp - m_b, m_b)
+    ends_kg = tuple(require_non_negative("end_mass_kg", v, "kg") for v in end_mass_kg)
+    if len(ends_kg) != 2:
+        raise InputError("end_mass_kg", end_mass_kg, "two masses (kg): the end connections at x = 0 and x = L")
+    margin = require_in_range("mass_margin", mass_margin, 0.0, 0.2)
     zone = require_positive("splice_zone_mm", splice_zone_mm, "mm")
     clr = max(float(spec.clearance), require_non_negative("plate_half_length_mm", plate_half_length_mm, "mm"))
     pts = sorted({0.0, L, *[require_non_negative("avoid", a, "mm") for a in avoid]})
@@ -188,7 +332,8 @@ def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Cal
         xs = [float(x) for x in xs]
         cuts = [0.0, *xs, L]
         lengths = tuple(b - a for a, b in zip(cuts, cuts[1:]))
-        masses = tuple(_piece_masses(xs, L, m_mm, m_sp))
+        build = tuple(_piece_masses(xs, L, m_mm, kit, ends_kg, margin))
+        masses = tuple(p.total_kg for p in build)
         sps = []
         for x in xs:
             M, V, N, nm = at(x)
@@ -197,10 +342,11 @@ def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Cal
         eq = [L * i / n for i in range(1, n)]
         eq_d = float(np.max(demand(eq))) if eq else 0.0
         eq_ok = all(clear_dist(x) >= clr for x in eq)
-        recs = list(records) + _records(xs, lengths, masses, clr, clear_dist, spec, zone)
+        recs = list(records) + _records(xs, lengths, build, clr, clear_dist, spec, zone, margin)
         return SplicePositions(splices=tuple(sps), pieces_mm=lengths, piece_mass_kg=masses,
                                worst_demand=max((s.demand for s in sps), default=0.0), equal_positions=tuple(eq),
-                               equal_worst_demand=eq_d, equal_feasible=eq_ok, method=method, records=tuple(recs))
+                               equal_worst_demand=eq_d, equal_feasible=eq_ok, method=method, records=tuple(recs),
+                               piece_masses=build, mass_margin=margin)
 
     # ---------------------------------------------------------------- explicit
     if spec.positions:
@@ -223,11 +369,12 @@ def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Cal
     for n in n_list:
         if n == 1:
             ok_len = L <= L_max_len
-            ok_mass = (not spec.max_piece_mass) or L * m_mm <= spec.max_piece_mass
+            ok_mass = (not spec.max_piece_mass) or (L * m_mm + sum(ends_kg)) * (1 + margin) <= spec.max_piece_mass
             if ok_len and ok_mass:
                 return finish([], "one piece (no splice needed)", [])
             continue
-        xs = _optimise(L, n, demand, pts, clr, zone, L_max_len, spec.max_piece_mass, m_mm, m_sp, grid_mm)
+        xs = _optimise(L, n, demand, pts, clr, zone, L_max_len, spec.max_piece_mass, m_mm, m_sp, grid_mm,
+                       ends_kg, margin)
         if xs is not None:
             how = f"{n} pieces, positions minimising the worst splice demand |M|/M_c,Rd + |V|/V_c,Rd"
             return finish(xs, how, [])
@@ -240,11 +387,12 @@ def choose_splice_positions(span_mm: float, spec, *, M_abs: Callable, V_abs: Cal
     raise InputError("splices", what,
                      f"limits that can be met on a {L / 1000:g} m span with splices at least {clr:g} mm clear of "
                      f"supports, point loads and restraints at {[round(p) for p in pts]} mm and pieces no shorter "
-                     f"than the splice zone {zone:g} mm (beam {m_mm * 1000:.1f} kg/m, splice kit {m_sp:.0f} kg)",
+                     f"than the splice zone {zone:g} mm (beam {m_mm * 1000:.1f} kg/m, splice kit {m_sp:.0f} kg with its "
+                     f"bolts, end connections {ends_kg[0]:.0f} + {ends_kg[1]:.0f} kg, margin {margin * 100:g} %)",
                      "Relax the piece limits, reduce the clearance, or give explicit positions.")
 
 
-def _optimise(L, n, demand, pts, clr, zone, L_max_len, m_max, m_mm, m_sp, grid):
+def _optimise(L, n, demand, pts, clr, zone, L_max_len, m_max, m_mm, m_sp, grid, ends_kg=(0.0, 0.0), margin=0.0):
     """Minimax DP over grid cuts; returns positions or None when infeasible."""
     G = max(int(math.ceil(L / grid)), 4 * n)
     xg = np.linspace(0.0, L, G + 1)
@@ -264,15 +412,15 @@ def _optimise(L, n, demand, pts, clr, zone, L_max_len, m_max, m_mm, m_sp, grid):
     d = demand(xc)
     K = xc.size
 
-    def lmax(ends: int) -> float:
+    def lmax(ends: int, end_kg: float = 0.0) -> float:
         lm = L_max_len
         if m_max:
-            lm = min(lm, (m_max - ends * m_sp) / m_mm)
+            lm = min(lm, (m_max / (1 + margin) - ends * m_sp - end_kg) / m_mm)
         return lm
 
     # first piece: 0 -> xc[j]
     INF = math.inf
-    lm1 = lmax(1)
+    lm1 = lmax(1, ends_kg[0])
     val = np.where((xc >= zone) & (xc <= lm1 + 1e-9), d, INF)
     tot = np.where(np.isfinite(val), d, INF)
     back = []
@@ -288,7 +436,7 @@ def _optimise(L, n, demand, pts, clr, zone, L_max_len, m_max, m_mm, m_sp, grid):
         new_tot = np.where(np.isfinite(best), tot[i_best] + d, INF)
         back.append(i_best)
         val, tot = new_val, new_tot
-    lm_last = lmax(1)
+    lm_last = lmax(1, ends_kg[1])
     last_len = L - xc
     feas = (last_len >= zone) & (last_len <= lm_last + 1e-9) & np.isfinite(val)
     if not feas.any():
@@ -302,7 +450,7 @@ def _optimise(L, n, demand, pts, clr, zone, L_max_len, m_max, m_mm, m_sp, grid):
     return sorted(xs)
 
 
-def _records(xs, lengths, masses, clr, clear_dist, spec, zone) -> list[CheckRecord]:
+def _records(xs, lengths, build, clr, clear_dist, spec, zone, margin) -> list[CheckRecord]:
     recs = []
     calc = Calc()
     for k, x in enumerate(xs):
@@ -310,17 +458,27 @@ def _records(xs, lengths, masses, clr, clear_dist, spec, zone) -> list[CheckReco
                                 clause=_CL, demand=clr, resistance=clear_dist(x), unit="mm", location_mm=x,
                                 note="distance to the nearest support, point load or restraint >= clearance "
                                      "(the job's clearance, and not less than half the longest cover plate)"))
-    for k, (Lp, mp) in enumerate(zip(lengths, masses)):
+    for k, (Lp, pm) in enumerate(zip(lengths, build)):
         if spec.max_piece_length:
             recs.append(calc.record(id=f"piece{k + 1}_length", title=f"Piece {k + 1} length (access limit)",
                                     clause=_CL, demand=Lp, resistance=spec.max_piece_length, unit="mm"))
         if spec.max_piece_mass:
-            recs.append(calc.record(id=f"piece{k + 1}_mass", title=f"Piece {k + 1} mass incl. splice kit (access limit)",
-                                    clause=_CL, demand=mp, resistance=spec.max_piece_mass, unit="kg"))
+            calc.keep("m_steel", pm.steel_kg, "kg")
+            calc.keep("m_splice_plates", pm.plates_kg, "kg")
+            calc.keep("m_splice_bolts", pm.bolts_kg, "kg")
+            calc.keep("m_end_connection", pm.end_kg, "kg")
+            calc.keep("m_margin", pm.margin_kg, "kg")
+            recs.append(calc.record(id=f"piece{k + 1}_mass", title=f"Piece {k + 1} mass as lifted (access limit)",
+                                    clause=_CL, demand=pm.total_kg, resistance=spec.max_piece_mass, unit="kg",
+                                    note=f"steel {pm.steel_kg:.1f} + splice plates {pm.plates_kg:.1f} + bolt "
+                                         f"assemblies {pm.bolts_kg:.1f} + end connection {pm.end_kg:.1f} + margin "
+                                         f"{margin * 100:g} % {pm.margin_kg:.1f} = {pm.total_kg:.1f} kg; "
+                                         + MASS_CONVENTION,
+                                    tags=("piece", "mass")))
         if len(lengths) > 1:
             recs.append(calc.record(id=f"piece{k + 1}_min_length", title=f"Piece {k + 1} longer than the splice zone",
                                     clause=_CL, demand=zone, resistance=Lp, unit="mm"))
     return recs
 
 
-__all__ = ["SplicePoint", "SplicePositions", "choose_splice_positions", "envelope"]
+__all__ = ["SplicePoint", "SplicePositions", "PieceMass", "patterned_envelope", "FREE_ACTIONS", "PATTERN_NOTE", "MASS_CONVENTION", "choose_splice_positions", "envelope"]

@@ -340,6 +340,90 @@ def F_Rd_group(n: float, F_v_Rd: float, F_b_Rd_max: float, F_b_Rd_min: float, F_
     return F_Rd_g
 
 
+# ------------------------------------------------------------- assembly masses
+#: Product-standard dimensions used for the mass of a bolt assembly (bolt + nut + 2 washers), mm,
+#: ALL FROM MEMORY of the standards' tables (nominal values; confirm against the documents):
+#: ordinary (non-preloaded) sets: hexagon head bolt ISO 4014 / screw ISO 4017: s (across flats), k (head
+#: height); nut ISO 4032: m (height), s as the bolt; plain washer ISO 7089: d1 (bore), d2 (outside), h.
+_ISO_SET: dict[str, tuple[float, float, float, float, float, float]] = {
+    #        s     k     m_nut  d1    d2    h
+    "M12": (18.0, 7.5, 10.8, 13.0, 24.0, 2.5),
+    "M16": (24.0, 10.0, 14.8, 17.0, 30.0, 3.0),
+    "M20": (30.0, 12.5, 18.0, 21.0, 37.0, 3.0),
+    "M22": (34.0, 14.0, 19.4, 23.0, 39.0, 3.0),
+    "M24": (36.0, 15.0, 21.5, 25.0, 44.0, 4.0),
+    "M27": (41.0, 17.0, 23.8, 28.0, 50.0, 4.0),
+    "M30": (46.0, 18.7, 25.6, 31.0, 56.0, 4.0),
+    "M36": (55.0, 22.5, 31.0, 37.0, 66.0, 5.0),
+}
+#: preloaded (HR) sets, EN 14399-4 bolt and nut (larger across flats), EN 14399-6 washers (from memory)
+_HR_SET: dict[str, tuple[float, float, float, float, float, float]] = {
+    "M12": (22.0, 8.0, 10.0, 13.0, 24.0, 3.0),
+    "M16": (27.0, 10.0, 13.0, 17.0, 30.0, 4.0),
+    "M20": (32.0, 13.0, 16.0, 21.0, 37.0, 4.0),
+    "M22": (36.0, 14.0, 18.0, 23.0, 39.0, 4.0),
+    "M24": (41.0, 15.0, 20.0, 25.0, 44.0, 4.0),
+    "M27": (46.0, 17.0, 22.0, 28.0, 50.0, 5.0),
+    "M30": (50.0, 19.0, 24.0, 31.0, 56.0, 5.0),
+    "M36": (60.0, 23.0, 29.0, 37.0, 66.0, 6.0),
+}
+#: coarse thread pitch P, ISO 261 (from memory): protrusion beyond the nut is taken as 2 P
+_PITCH: dict[str, float] = {"M12": 1.75, "M16": 2.0, "M20": 2.5, "M22": 2.5, "M24": 3.0, "M27": 3.0, "M30": 3.5,
+                            "M36": 4.0}
+STEEL_DENSITY_KG_PER_M3 = 7850.0
+#: the stated convention of an assembly's mass
+ASSEMBLY_CONVENTION = ("bolt + nut + 2 washers per assembly; volumes from the product standards' nominal "
+                       "dimensions (hexagons without chamfers, full-diameter shank, nut bore at d), steel 7850 "
+                       "kg/m3; length = grip + washers + nut + 2 thread pitches, rounded up to 5 mm (to 10 mm "
+                       "above 80 mm)")
+
+
+@dataclass(frozen=True)
+class BoltAssembly:
+    """One bolt assembly (bolt, nut, two washers) and its mass (kg) from the product standards' dimensions."""
+
+    size: str
+    preloaded: bool
+    standard: str
+    grip_mm: float
+    length_mm: float
+    bolt_kg: float
+    nut_kg: float
+    washers_kg: float
+
+    @property
+    def mass_kg(self) -> float:
+        return self.bolt_kg + self.nut_kg + self.washers_kg
+
+
+def bolt_length(size: str, grip_mm: float, preloaded: bool = False) -> float:
+    """Nominal bolt length (mm) for a grip: grip + 2 washers + nut + 2 P, rounded up to the length steps."""
+    s, k, m, d1, d2, h = (_HR_SET if preloaded else _ISO_SET)[size]
+    need = grip_mm + 2 * h + m + 2 * _PITCH[size]
+    step = 5.0 if need <= 80.0 else 10.0
+    return math.ceil(need / step - 1e-9) * step
+
+
+def bolt_assembly(size: str, grip_mm: float, preloaded: bool = False) -> BoltAssembly:
+    """Mass of one assembly for a grip (mm): ISO 4014/4017 + ISO 4032 + 2 x ISO 7089 (ordinary) or
+    EN 14399-4 + 2 x EN 14399-6 (preloaded). See :data:`ASSEMBLY_CONVENTION`."""
+    if size not in _ISO_SET:
+        raise InputError("bolt size", size, f"one of {', '.join(_ISO_SET)}")
+    grip = require_positive("grip_mm", grip_mm, "mm")
+    s, k, m, d1, d2, h = (_HR_SET if preloaded else _ISO_SET)[size]
+    d = _BOLT_DATA[size][0]
+    L = bolt_length(size, grip, preloaded)
+    rho = STEEL_DENSITY_KG_PER_M3 * 1e-9
+    hexagon = math.sqrt(3.0) / 2.0 * s * s
+    bolt_kg = (hexagon * k + pi * d * d / 4.0 * L) * rho
+    nut_kg = (hexagon - pi * d * d / 4.0) * m * rho
+    washers_kg = 2 * pi / 4.0 * (d2 * d2 - d1 * d1) * h * rho
+    std = ("EN 14399-4 bolt and nut, 2 EN 14399-6 washers" if preloaded
+           else "ISO 4014/4017 bolt, ISO 4032 nut, 2 ISO 7089 washers")
+    return BoltAssembly(size=size, preloaded=preloaded, standard=std, grip_mm=grip, length_mm=L, bolt_kg=bolt_kg,
+                        nut_kg=nut_kg, washers_kg=washers_kg)
+
+
 # ---------------------------------------------------------- bolt groups (one home)
 #: stated convention for a bolt loaded in two directions (splice web bolts, fin plates)
 BEARING_2D_CONVENTION = ("bearing in two directions: U = sqrt((F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2), each F_b,Rd "
@@ -680,6 +764,6 @@ __all__ = [
     "F_v_Rd", "F_v_Rd_n", "alpha_d_end", "alpha_d_inner", "alpha_b", "k_1_edge", "k_1_edge_single",
     "k_1_inner", "F_b_Rd", "F_b_Rd_lap", "F_t_Rd", "B_p_Rd", "U_vt", "F_p_C", "F_s_Rd", "F_s_Rd_t",
     "beta_Lf", "beta_p", "F_Rd_group", "I_p", "F_r_Ed", "U_b_2d", "BEARING_2D_CONVENTION", "BEARING_2D_GUIDANCE",
-    "POLAR_GUIDANCE", "bearing_resistance", "check_bolt_shear", "check_bolt_bearing", "check_bolt_tension", "check_punching",
+    "POLAR_GUIDANCE", "BoltAssembly", "bolt_assembly", "bolt_length", "ASSEMBLY_CONVENTION", "bearing_resistance", "check_bolt_shear", "check_bolt_bearing", "check_bolt_tension", "check_punching",
     "check_shear_tension", "check_slip", "check_bolt_group",
 ]

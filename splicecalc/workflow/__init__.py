@@ -17,6 +17,7 @@ from ..core.lazy import lazy_exports
 __getattr__, __dir__, __all__ = lazy_exports(__name__, {
     "CalcError": ".errors",
     **{n: ".calc" for n in ("CalcResult", "ConnectionPart", "SplicePart", "design_connections", "design_member",
-                            "design_splices", "member_checks", "run_calc", "splice_positions")},
+                            "design_splices", "member_checks", "run_calc", "splice_envelope",
+                            "splice_slip_checks")},
     **{n: ".references" for n in ("CAUTIONS", "STANDARDS", "cited_clauses", "standards_list")},
 })

@@ -17,10 +17,13 @@ Chain (each part calls the module that owns its method; nothing is re-derived he
    cited plus the standards list) and cautions.
 
 Splice positions and splice layouts depend on each other (the piece mass includes
-the splice plates; the shortest piece is one cover-plate length): positions are
-found first with no splice kit, the splices are designed, and the positions are
-found again with the heaviest splice kit and the longest cover plate, until they
-no longer change (at most :data:`MAX_ROUNDS` rounds).
+the whole splice kit, plates and bolt assemblies, and an end piece its end connection;
+the shortest piece is one cover-plate length): the one loop that settles them is
+:func:`splicecalc.design.splice_plan.plan_splices`, called here on the ULS envelopes
+with the imposed load patterned (EN 1991-1-1 6.2.1(1)). The end connections are
+designed first, so that their masses are known. Category A splices then repeat the
+SLS deflection checks with the slip in their holes
+(:func:`splicecalc.design.splice_plan.slip_records`).
 
 A part whose module is missing or raises stops the calculation with that error:
 nothing is skipped silently. A design that fails a check is a result (``ok`` False).
@@ -41,10 +44,7 @@ from ..job.model import Job
 from .errors import CalcError
 from .references import CAUTIONS, Reference, cited_clauses, standards_list
 
-#: rounds of (positions -> splice design -> positions) before giving up on convergence
-MAX_ROUNDS = 3
-#: shortest piece when no splice has been designed yet (mm): about one cover-plate length
-FIRST_SPLICE_ZONE_MM = 600.0
+from ..design.splice_plan import FIRST_SPLICE_ZONE_MM, MAX_ROUNDS  # noqa: E402  (the loop's own settings)
 #: end letters used for the supports (as in the member checks: support A at x = 0)
 END_LETTER = {"start": "A", "end": "B"}
 
@@ -105,9 +105,15 @@ class PackageRecords:
                 if t not in out:
                     out.append(t)
         if any(getattr(s.spec, "category", "") == "A" for s in self.splices):
-            out.append("The splices are bearing-type (category A) joints in normal clearance holes: slip in the "
-                       "holes adds deflection and a kink at each splice. Where that matters, use preloaded bolts "
-                       "(category B or C, EN 1993-1-8 3.4.1) or fitted bolts.")
+            slip = getattr(self, "slip_checks", ())
+            if any(r.has("slip") and not r.ok for r in slip):
+                out.append("The category A (bearing) splices slip in their clearance holes and the kinks take the "
+                           "deflection past its limit: specify preloaded bolts, category B (slip-resistant at SLS, "
+                           "EN 1993-1-8 3.4.1), or fitted bolts.")
+            else:
+                out.append("The splices are bearing-type (category A) joints in clearance holes: the kink from slip "
+                           "at each splice is computed and included in the deflection checks (unless the job "
+                           "sets slip = 'ignored', shown as NOT CHECKED).")
         return tuple(out)
 
 
@@ -170,6 +176,8 @@ class CalcResult(PackageRecords):
     splice_rounds: int = 0
     splice_kit_mass_kg: float = 0.0
     splice_zone_mm: float = 0.0
+    splice_plan: Any = None
+    slip_checks: tuple[CheckRecord, ...] = ()
     notes: tuple[str, ...] = field(default=())
     member_checks: tuple[CheckRecord, ...] = ()
 
@@ -190,7 +198,7 @@ class CalcResult(PackageRecords):
     @property
     def records(self) -> tuple[CheckRecord, ...]:
         """Every check record of the package, in the order the parts show them."""
-        return tuple(self.member_records) + tuple(self.position_records) + self.joint_records
+        return tuple(self.member_records) + tuple(self.position_records) + tuple(self.slip_checks) + self.joint_records
 
     @property
     def ok(self) -> bool:
@@ -270,51 +278,59 @@ def member_checks(design: BeamDesign) -> tuple[CheckRecord, ...]:
     return tuple(out)
 
 
-def splice_positions(job: Job, design: BeamDesign, splice_mass_kg: float = 0.0,
-                     splice_zone_mm: float = FIRST_SPLICE_ZONE_MM) -> Any:
-    """Splice positions on the ULS envelopes of the designed section (None when no [splices])."""
-    if job.splices is None:
-        return None
-    from ..design.splice_positions import choose_splice_positions, envelope
+def splice_envelope(job: Job, design: BeamDesign) -> tuple:
+    """ULS envelopes (M_abs, V_abs, at) of the designed section for the splices, imposed load patterned
+    (:func:`splicecalc.design.splice_positions.patterned_envelope`)."""
+    from ..design.splice_positions import patterned_envelope
+    return patterned_envelope([c for c, _ in design.analysis.uls], job.beam.span)
 
-    uls = design.analysis.uls
-    M_abs, V_abs, at = envelope([b for _, b in uls], [c.name for c, _ in uls])
+
+def design_splices(job: Job, design: BeamDesign, render: bool = True,
+                   end_mass_kg: tuple[float, float] = (0.0, 0.0)) -> tuple[Any, tuple[SplicePart, ...]]:
+    """Positions and designs of the splices by the one loop (:func:`~splicecalc.design.splice_plan.plan_splices`);
+    returns ``(plan, parts)`` (``(None, ())`` without ``[splices]``)."""
+    if job.splices is None:
+        return None, ()
+    from ..design.splice_plan import plan_splices
+
+    M_abs, V_abs, at = splice_envelope(job, design)
     avoid = sorted({ld.x for ld in job.loads if isinstance(ld, PointLoad) and 0.0 < ld.x < job.beam.span}
                    | set(job.beam.restraints))
-    return choose_splice_positions(
-        job.beam.span, job.splices, M_abs=M_abs, V_abs=V_abs,
-        M_c_Rd=_resistance(design, "bending", "kNm", "Nmm"), V_c_Rd=_resistance(design, "shear", "kN", "N"),
-        mass_per_m=design.section.mass_nominal, avoid=avoid, at=at, splice_mass_kg=splice_mass_kg,
-        splice_zone_mm=splice_zone_mm, plate_half_length_mm=0.5 * splice_zone_mm)
-
-
-def design_splices(job: Job, design: BeamDesign, positions: Any, render: bool = True) -> tuple[SplicePart, ...]:
-    """Design every splice at its position for the governing combination's forces there."""
-    if positions is None or not positions.splices:
-        return ()
-    from ..design.splice_layout import design_splice
-
-    spec = job.splices
-    M_c_Rd = _resistance(design, "bending", "kNm", "Nmm")
+    plan = plan_splices(design.section, job.beam.grade, job.beam.span, job.splices, M_abs=M_abs, V_abs=V_abs, at=at,
+                        avoid=avoid, na=job.na, M_c_Rd=_resistance(design, "bending", "kNm", "Nmm"),
+                        V_c_Rd=_resistance(design, "shear", "kN", "N"), mass_per_m=design.section.mass_nominal,
+                        end_mass_kg=end_mass_kg, sls_at=lambda x: _sls_at(design, x), render=render)
     out = []
-    for k, sp in enumerate(positions.splices, start=1):
-        M_ser = V_ser = None
-        if spec.category == "B":
-            M_ser, V_ser = _sls_at(design, sp.x)
-        d = design_splice(design.section, job.beam.grade, sp.M_Ed, abs(sp.V_Ed), sp.N_Ed, spec, job.na,
-                          render=render, M_Ed_ser=M_ser, V_Ed_ser=V_ser, location_mm=sp.x, M_c_Rd=M_c_Rd)
+    for k, (sp, d, (M_ser, V_ser)) in enumerate(zip(plan.positions.splices, plan.designs, plan.serviceability),
+                                                start=1):
         recs = tuple(_relabel(r, f"S{k}", f"Splice S{k}") for r in d.records)
         out.append(SplicePart(index=k, x_mm=sp.x, M_Ed=sp.M_Ed, V_Ed=sp.V_Ed, N_Ed=sp.N_Ed,
                               combination=sp.combination, design=d, records=recs, M_Ed_ser=M_ser,
-                              V_Ed_ser=V_ser, spec=spec))
-    return tuple(out)
+                              V_Ed_ser=V_ser, spec=job.splices))
+    return plan, tuple(out)
 
 
-def _kit(splices: tuple[SplicePart, ...]) -> tuple[float, float]:
-    """(heaviest splice plate mass kg, longest cover plate mm) of designed splices."""
-    mass = max((s.design.plate_mass for s in splices), default=0.0)
-    zone = max((max(s.design.geometry.L_fp, s.design.geometry.L_wp) for s in splices), default=0.0)
-    return mass, zone
+def splice_slip_checks(job: Job, design: BeamDesign, plan: Any, render: bool = True) -> tuple[CheckRecord, ...]:
+    """The SLS deflection checks repeated with the slip of category A splices."""
+    if plan is None or not plan.designs:
+        return ()
+    from ..design.splice_plan import DeflectionCase, slip_records
+    a = design.analysis
+    cases = [DeflectionCase("deflection_slip", "variable actions", job.beam.deflection_limit,
+                            tuple((c.name, b) for c, b in a.sls_variable))]
+    if job.beam.total_deflection_limit is not None:
+        cases.append(DeflectionCase("deflection_total_slip", "total, characteristic", job.beam.total_deflection_limit,
+                                    tuple((c.name, b) for c, b in a.sls_characteristic)))
+    return tuple(slip_records(plan, job.splices, design.section, job.beam.span, cases, render=render))
+
+
+def _end_masses(job: Job, connections: tuple) -> tuple[float, float]:
+    """End connection masses (kg) carried by the first (end A) and last (end B) piece."""
+    from ..design.splice_plan import end_connection_mass
+    m = {"A": 0.0, "B": 0.0}
+    for c in connections:
+        m[c.end] = end_connection_mass(c.design).mass_kg
+    return m["A"], m["B"]
 
 
 def design_connections(job: Job, design: BeamDesign, render: bool = True) -> tuple[ConnectionPart, ...]:
@@ -367,32 +383,20 @@ def run_calc(job: Job, render: bool = True) -> CalcResult:
     design = design_member(job, render=render)
     notes: list[str] = list(job.notes)
 
-    positions = None
-    splices: tuple[SplicePart, ...] = ()
-    rounds = 0
-    kit_mass, zone = 0.0, FIRST_SPLICE_ZONE_MM
-    if job.splices is not None:
-        used = (kit_mass, zone)
-        for rounds in range(1, MAX_ROUNDS + 1):
-            positions = splice_positions(job, design, *used)
-            # search layouts on floats; render only the final ones
-            splices = design_splices(job, design, positions, render=False)
-            need = _kit(splices)
-            need = (need[0], max(need[1], FIRST_SPLICE_ZONE_MM) if splices else used[1])
-            if need[0] <= used[0] + 1e-9 and need[1] <= used[1] + 1e-9:
-                break
-            used = (max(used[0], need[0]), max(used[1], need[1]))
-        else:
-            raise CalcError(f"splice positions and splice layouts did not settle in {MAX_ROUNDS} rounds "
-                            "(piece limits too tight for the splice kit): give explicit positions")
-        kit_mass, zone = used
-        if render:
-            splices = design_splices(job, design, positions, render=True)
+    # end connections first: what they weigh is carried by the end pieces
     connections = design_connections(job, design, render=render)
+    plan, splices = design_splices(job, design, render=render, end_mass_kg=_end_masses(job, connections))
+    positions = plan.positions if plan is not None else None
+    slip = splice_slip_checks(job, design, plan, render=render)
+    rounds = plan.rounds if plan is not None else 0
+    kit_mass = plan.kit_mass_kg if plan is not None else 0.0
+    zone = plan.zone_mm if plan is not None else FIRST_SPLICE_ZONE_MM
     return CalcResult(job=job, design=design, positions=positions, splices=splices, connections=connections,
                       splice_rounds=rounds, splice_kit_mass_kg=kit_mass, splice_zone_mm=zone, notes=tuple(notes),
+                      splice_plan=plan, slip_checks=slip,
                       member_checks=member_checks(design))
 
 
 __all__ = ["CalcError", "CalcResult", "ConnectionPart", "SplicePart", "design_connections", "design_member",
-           "design_splices", "member_checks", "run_calc", "splice_positions", "END_LETTER", "MAX_ROUNDS"]
+           "design_splices", "member_checks", "run_calc", "splice_envelope", "splice_slip_checks", "END_LETTER",
+           "MAX_ROUNDS"]

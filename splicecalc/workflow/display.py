@@ -316,10 +316,18 @@ def show_actions(result: CalcResult) -> None:
                    [[f"D{i + 1}", c.name, c.expression] for i, (c, _) in enumerate(sls)], align="lll",
                    title="SLS combinations for deflection (EN 1990:2002, 6.5.3)")
     gov, _ = an.uls[an.governing_M]
+    # the line load the analysis applied: the governing combination's own factored full-span UDLs
+    used = sum(ld.w for ld in gov.loads if isinstance(ld, UDL) and ld.is_full(an.span_mm))
     calc = Calc(render=True)
-    render_line_load(gov, an.loads, an.span_mm, result.job.na, result.job.psi, calc, result.job.beam.imposed)
-    show_steps(calc.latex, intro=f"Governing combination for bending, {gov.name}, applied to the full-span "
-                                 "line loads (partial-length and point loads are factored the same way):")
+    shown = render_line_load(gov, an.loads, an.span_mm, result.job.na, result.job.psi, calc,
+                             result.job.beam.imposed)
+    if abs(shown - used) <= 1e-6 * max(1.0, abs(used)):
+        show_steps(calc.latex, intro=f"Governing combination for bending, {gov.name} ({result.job.beam.psi_table} "
+                                     "psi factors, as the analysis), applied to the full-span line loads "
+                                     "(partial-length and point loads are factored the same way):")
+    else:
+        show_text(f"Governing combination for bending, {gov.name}: {gov.expression}; full-span line load used by "
+                  f"the analysis {used:.2f} kN/m (the sum of the combination's factored full-span loads).")
 
 
 def show_analysis(result: CalcResult) -> None:
@@ -376,15 +384,21 @@ def show_member(result: CalcResult) -> None:
 
 # ======================================================================== splices
 def show_splice_positions(result: CalcResult) -> None:
-    """Where the beam is cut: positions, pieces, the comparison with equal cutting, position checks."""
+    """Where the beam is cut: positions, pieces with their mass build-up, the comparison with equal cutting,
+    position checks, and the slip deflection of category A splices."""
+    from ..design.splice_positions import MASS_CONVENTION, PATTERN_NOTE
+    from ..joints.bolts import ASSEMBLY_CONVENTION
     pos = result.positions
     if pos is None:
         show_text("No `[splices]` table in the job: the beam is delivered in one piece and has no splice.")
         return
-    show_text(f"**Method.** {pos.method}. Splice kit mass used for the piece masses: "
-              f"{result.splice_kit_mass_kg:.1f} kg (cover plates of the heaviest splice, bolts carried "
-              f"separately); shortest piece {result.splice_zone_mm:g} mm; "
-              f"{result.splice_rounds} round(s) of positions and splice layout.")
+    plan = getattr(result, "splice_plan", None)
+    kit = (f"{plan.kit_plates_kg:.1f} kg of cover plates + {plan.kit_bolts_kg:.1f} kg of bolt assemblies = "
+           f"{plan.kit_mass_kg:.1f} kg (the heaviest splice)" if plan is not None
+           else f"{result.splice_kit_mass_kg:.1f} kg")
+    show_text(f"**Method.** {pos.method}. Splice kit used for the piece masses: {kit}; shortest piece "
+              f"{result.splice_zone_mm:g} mm; {result.splice_rounds} round(s) of positions and splice layout. "
+              f"Splice forces from the ULS envelopes with the {PATTERN_NOTE}.")
     if pos.splices:
         rows = [[f"S{k}", f"{s.x / 1000:.3f}", f"{s.M_Ed / 1e6:.1f}", f"{abs(s.V_Ed) / 1e3:.1f}",
                  f"{s.N_Ed / 1e3:.1f}", f"{s.demand:.3f}", s.combination]
@@ -394,10 +408,17 @@ def show_splice_positions(result: CalcResult) -> None:
                    rows, align="lrrrrrl", title="Splice positions and design forces",
                    notes="Demand = |M|/M_c,Rd + |V|/V_c,Rd of the beam at the splice (the quantity minimised).")
     cuts = [0.0, *pos.positions, result.job.beam.span]
-    prow = [[str(i + 1), f"{cuts[i] / 1000:.3f}", f"{cuts[i + 1] / 1000:.3f}", f"{L / 1000:.3f}", f"{m:.0f}"]
-            for i, (L, m) in enumerate(zip(pos.pieces_mm, pos.piece_mass_kg))]
-    show_table(["Piece", "from (m)", "to (m)", "Length (m)", "Mass (kg)"], prow, align="lrrrr",
-               title="Pieces as delivered (mass includes the splice plates at each end)")
+    prow = [[str(p.index), f"{cuts[i] / 1000:.3f}", f"{cuts[i + 1] / 1000:.3f}", f"{p.length_mm / 1000:.3f}",
+             f"{p.steel_kg:.1f}", f"{p.plates_kg:.1f}", f"{p.bolts_kg:.1f}", f"{p.end_kg:.1f}", f"{p.margin_kg:.1f}",
+             f"{p.total_kg:.1f}"]
+            for i, p in enumerate(pos.piece_masses)]
+    show_table(["Piece", "from (m)", "to (m)", "Length (m)", "Steel (kg)", "Splice plates (kg)", "Bolt sets (kg)",
+                "End conn. (kg)", f"Margin {pos.mass_margin * 100:g} % (kg)", "Total (kg)"], prow,
+               align="lrrrrrrrrr", title="Pieces as lifted: mass build-up",
+               notes=MASS_CONVENTION + ". Bolt sets: " + ASSEMBLY_CONVENTION + ".")
+    if plan is not None and plan.kits:
+        show_list([f"S{k}: {kt.describe()}" for k, kt in enumerate(plan.kits, start=1)],
+                  title="Splice kits (plates and bolt assemblies, from the product standards' dimensions)")
     if pos.splices:
         eq = ", ".join(f"{x / 1000:.3f}" for x in pos.equal_positions)
         chosen = ", ".join(f"{x / 1000:.3f}" for x in pos.positions)
@@ -407,6 +428,12 @@ def show_splice_positions(result: CalcResult) -> None:
         show_table(["Cutting", "Positions (m)", "Worst demand", "Clear of supports, loads, restraints"], rows,
                    align="llrl", title="Comparison with equal cutting")
     show_checks(result.position_records)
+    slip = getattr(result, "slip_checks", ())
+    if slip:
+        show_text("**Slip of the category A splices.** Bolts in clearance holes slip before they bear: each "
+                  "splice kinks by theta = 2 s / z and the kinks add to the elastic deflection (virtual work on "
+                  "the simply supported span). The SLS deflection checks are repeated with them.")
+        show_checks(slip)
 
 
 def splice_layout_rows(part: Any, plate_grade: str = "") -> list[list[str]]:

@@ -86,6 +86,8 @@ def job_parts(result: Any) -> tuple[Part, ...]:
                 f"{job.beam.span / 1000:g} m", tuple(result.member_records))]
     if result.position_records:
         out.append(Part("positions", "positions", "Splice positions and pieces", tuple(result.position_records)))
+    if getattr(result, "slip_checks", ()):
+        out.append(Part("slip", "positions", "Deflection with splice slip (category A)", tuple(result.slip_checks)))
     for s in result.splices:
         out.append(Part(s.label, "splice", f"Splice {s.label} at x = {s.x_mm / 1000:.3f} m", tuple(s.records),
                         prefix=f"Splice {s.label}"))

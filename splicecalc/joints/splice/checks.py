@@ -136,9 +136,14 @@ TAG_FLANGE, TAG_WEB, TAG_FIT, TAG_DETAILING, TAG_MEMBER = "flange", "web", "fit"
 
 
 def _tag(records: list[CheckRecord], *tags: str) -> list[CheckRecord]:
-    """The records with ``tags`` added (order kept)."""
-    return [r if all(t in r.tags for t in tags) else replace(r, tags=tuple(dict.fromkeys(r.tags + tags)))
-            for r in records]
+    """The records with ``tags`` added (order kept). The records are the group's own, fresh from its
+    checks and not yet shared, so the tags are set on them in place (a copy per record would cost the
+    layout search, which makes thousands)."""
+    for r in records:
+        new = tuple(t for t in tags if t not in r.tags)
+        if new:
+            object.__setattr__(r, "tags", r.tags + new)
+    return records
 
 
 # ======================================================================== detailing
@@ -503,17 +508,20 @@ def _web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Natio
 
 # ======================================================================== member at the splice
 def _member_records(section, grade: str, bolt, g: Geometry, spec, forces, na: NationalAnnex, calc: Calc,
-                    loc=None) -> list[CheckRecord]:
+                    loc=None, group: str | None = None) -> list[CheckRecord]:
     """The beam at the splice: tension flange net of holes for the flange force (6.2.3), bending with
     flange holes (6.2.5(4)), shear, web net shear, axial block tearing of the web.
 
     Each record is tagged ``flange`` or ``web``: the group of the layout it depends on."""
-    from ...members import check_bending, check_shear
-    from ..connections.formulas import A_v_net_web
+    from ...members import check_bending
+
+
     fl: list[CheckRecord] = []
     wb: list[CheckRecord] = []
     d0 = bolt.d_0
     cols = 2 if g.p2o_f == 0 else 4
+    if group == TAG_WEB:
+        return _tag(_member_web(section, grade, g, forces, na, calc, loc, d0), TAG_WEB)
     A_f_net = P.A_net_plate(b=section.b, t=section.tf, n=cols, d_0=d0)
     # the beam's own tension flange, net of its holes, for the flange force the splice design assumes
     # (same moment split and lever arm as the bolts; taken at the outermost flange bolt row)
@@ -532,6 +540,16 @@ def _member_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Na
               fclause="EN 1993-1-1:2005, 6.2.5(4)", section=section, grade=grade, M_Ed=forces.M_f_Ed, na=na,
               calc=calc, A_f_net=A_f_net, location_mm=loc)
         fl[-1] = _retitle(fl[-1], "beam_bending_holes", "Beam at the splice: bending with tension-flange holes (6.2.5(4))")
+    if group == TAG_FLANGE:
+        return _tag(fl, TAG_FLANGE)
+    return _tag(fl, TAG_FLANGE) + _tag(_member_web(section, grade, g, forces, na, calc, loc, d0), TAG_WEB)
+
+
+def _member_web(section, grade, g, forces, na, calc, loc, d0) -> list[CheckRecord]:
+    """The beam web at the splice: shear, net shear at the web bolts, block tearing under axial tension."""
+    from ...members import check_shear
+    from ..connections.formulas import A_v_net_web
+    wb: list[CheckRecord] = []
     _safe(wb, check_shear, fid="beam_shear", ftitle="Beam at the splice: shear", fclause="EN 1993-1-1:2005, 6.2.6",
           section=section, grade=grade, V_Ed=abs(forces.V_Ed), na=na, calc=calc, location_mm=loc)
     wb[-1] = _retitle(wb[-1], "beam_shear", "Beam at the splice: shear (gross)")
@@ -558,26 +576,28 @@ def _member_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Na
                   title="Beam web: block tearing under the web's axial tension", location_mm=loc)
         except InputError:
             pass                     # no positive block: the web cannot tear out between the rows
-    return _tag(fl, TAG_FLANGE) + _tag(wb, TAG_WEB)
+    return wb
 
 
 def flange_records(*args, **kw) -> list[CheckRecord]:
     """Flange bolts, flange cover plates and the beam flange, tagged ``flange``
     (spacing records also ``detailing``); see :func:`_flange_records`."""
-    return [replace(r, tags=r.tags + (TAG_DETAILING,)) if "spacing" in r.id or "outstand" in r.id else r
-            for r in _tag(_flange_records(*args, **kw), TAG_FLANGE)]
+    recs = _tag(_flange_records(*args, **kw), TAG_FLANGE)
+    _tag([r for r in recs if "spacing" in r.id or "outstand" in r.id], TAG_DETAILING)
+    return recs
 
 
 def web_records(*args, **kw) -> list[CheckRecord]:
     """Web bolts, web plates and the beam web, tagged ``web`` (spacing also ``detailing``);
     see :func:`_web_records`."""
-    return [replace(r, tags=r.tags + (TAG_DETAILING,)) if "spacing" in r.id else r
-            for r in _tag(_web_records(*args, **kw), TAG_WEB)]
+    recs = _tag(_web_records(*args, **kw), TAG_WEB)
+    _tag([r for r in recs if "spacing" in r.id], TAG_DETAILING)
+    return recs
 
 
 def member_records(*args, **kw) -> list[CheckRecord]:
     """The beam at the splice, tagged ``member`` and ``flange`` or ``web`` by the group whose layout
-    it depends on; see :func:`_member_records`."""
+    it depends on (``group="flange"`` / ``"web"``: only that group's checks); see :func:`_member_records`."""
     return _tag(_member_records(*args, **kw), TAG_MEMBER)
 
 

@@ -100,6 +100,46 @@ class SpliceDesign:
         }
 
 
+@dataclass(frozen=True)
+class SpliceKit:
+    """Everything bolted on at one splice (kg): cover plates and bolt assemblies (flange and web sets)."""
+
+    plates_kg: float
+    n_flange_bolts: int
+    flange_assembly: Any
+    n_web_bolts: int
+    web_assembly: Any
+
+    @property
+    def bolts_kg(self) -> float:
+        return self.n_flange_bolts * self.flange_assembly.mass_kg + self.n_web_bolts * self.web_assembly.mass_kg
+
+    @property
+    def mass_kg(self) -> float:
+        return self.plates_kg + self.bolts_kg
+
+    def describe(self) -> str:
+        fa, wa = self.flange_assembly, self.web_assembly
+        return (f"cover plates {self.plates_kg:.1f} kg; {self.n_flange_bolts} flange assemblies {fa.size} x "
+                f"{fa.length_mm:g} ({fa.mass_kg:.3f} kg each: {fa.standard}) and {self.n_web_bolts} web assemblies "
+                f"{wa.size} x {wa.length_mm:g} ({wa.mass_kg:.3f} kg each) = {self.bolts_kg:.1f} kg; kit "
+                f"{self.mass_kg:.1f} kg")
+
+
+def splice_kit(design: "SpliceDesign", spec: SpliceSpec) -> SpliceKit:
+    """The whole kit of a designed splice: plates from the geometry, bolt assemblies from the product
+    standards' dimensions (:func:`splicecalc.joints.bolts.bolt_assembly`) for each group's grip
+    (flange: outer plate + beam flange + inner plate + packing; web: two web plates + beam web);
+    preloaded sets (EN 14399) for categories B and C."""
+    from ..bolts import bolt_assembly
+    g, sec, size = design.geometry, design.section, design.layout.bolt_size
+    pre = spec.category in ("B", "C")
+    grip_f = g.t_po + sec.tf + g.t_pi + spec.packing
+    grip_w = 2 * g.t_wp + sec.tw
+    return SpliceKit(plates_kg=g.plate_mass, n_flange_bolts=4 * g.n_f, flange_assembly=bolt_assembly(size, grip_f, pre),
+                     n_web_bolts=2 * g.n_w, web_assembly=bolt_assembly(size, grip_w, pre))
+
+
 def splice_bolt(size: str, bolt_class: str, spec: SpliceSpec):
     """The bolt with the hole of ``spec.holes``: for oversize holes ``d_0`` is the oversize
     hole (EN 1090-2 clearances, from the bolt data), so spacing, net areas and bearing use it."""
@@ -218,4 +258,4 @@ def check_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0.
                         loc, force_latex, tuple(notes))
 
 
-__all__ = ["SpliceDesign", "check_splice", "serviceability_forces", "splice_bolt", "splice_cost", "moment_resistance", "validate_inputs"]
+__all__ = ["SpliceDesign", "SpliceKit", "splice_kit", "check_splice", "serviceability_forces", "splice_bolt", "splice_cost", "moment_resistance", "validate_inputs"]

@@ -16,6 +16,8 @@ Example (TOML)::
     packing = "0 mm"                # packing thickness in the flange joint, EN 1993-1-8 3.6.1(12)
     exposed = false                 # edges exposed to weather: Table 3.3 maxima 4t + 40 mm
     holes = "normal"                # or "oversize" (EN 1090-2 clearances; bearing x 0.8, k_s = 0.85)
+    mass_margin = "3 %"             # added to every piece mass for an access limit (0 to 20 %; or 0.03)
+    slip = "computed"               # category A: deflection from hole clearance computed ("ignored", or "1.5 mm")
     [splices.cost]                  # cost = per_bolt * n_bolts + per_kg * plate mass (kg)
     per_bolt = 1.0
     per_kg = 0.5
@@ -119,6 +121,9 @@ class SpliceSpec:
     threads_in_shear_plane: bool = True
     cost_per_bolt: float = 1.0
     cost_per_kg: float = 0.5
+    mass_margin: float = 0.0
+    slip: str = "computed"
+    slip_mm: float | None = None
     flange: FlangeLayout | None = None
     web: WebLayout | None = None
 
@@ -137,7 +142,7 @@ class SpliceSpec:
 
 _KEYS = {"pieces", "positions", "max_piece_length", "max_piece_mass", "bolts", "category",
          "friction_class", "flange_plates", "plate_grade", "min_design_moment", "clearance", "gap",
-         "packing", "exposed", "threads_in_shear_plane", "cost", "layout", "holes"}
+         "packing", "exposed", "threads_in_shear_plane", "cost", "layout", "holes", "mass_margin", "slip"}
 _FLANGE_KEYS = {"rows", "columns", "pitch", "gauge", "plate", "inner_plate", "gauge_outer", "e1",
                 "plate_width"}
 _WEB_KEYS = {"rows", "columns", "pitch", "gauge", "plate", "e1", "e_v"}
@@ -170,6 +175,45 @@ def parse_bolts(field: str, v: Any) -> str:
         raise InputError(field, v, f"'auto' or '<size> <class>' with size one of {', '.join(BOLT_SIZES)} "
                          f"and class one of {', '.join(BOLT_CLASSES)}, e.g. 'M20 8.8'")
     return f"{parts[0]} {parts[1]}"
+
+
+def parse_mass_margin(field: str, v: Any) -> float:
+    """'3 %' / '3%' / 0.03 -> 0.03; a fraction from 0 to 0.20 (0 to 20 %)."""
+    allowed = "a margin from 0 to 20 %, e.g. '3 %' or 0.03"
+    if isinstance(v, bool):
+        raise InputError(field, v, allowed)
+    if isinstance(v, str):
+        t = v.strip()
+        if not t.endswith("%"):
+            raise InputError(field, v, allowed)
+        try:
+            x = float(t[:-1].strip()) / 100.0
+        except ValueError:
+            raise InputError(field, v, allowed) from None
+    elif isinstance(v, (int, float)):
+        x = float(v)
+    else:
+        raise InputError(field, v, allowed)
+    if not (0.0 <= x <= 0.20):
+        raise InputError(field, v, allowed, "Write the margin as a percentage, e.g. '3 %' for rolling tolerance.")
+    return x
+
+
+def parse_slip(field: str, v: Any) -> tuple[str, float | None]:
+    """'computed' | 'ignored' | a slip per flange joint with units ('1.5 mm') -> (mode, mm or None)."""
+    allowed = "'computed' (from the hole clearance), 'ignored', or a slip with units such as '2 mm'"
+    if isinstance(v, str):
+        t = v.strip().lower()
+        if t in ("computed", "ignored"):
+            return t, None
+        try:
+            x = parse_quantity(v, "mm", field)
+        except InputError:
+            raise InputError(field, v, allowed) from None
+        if not (0.0 <= x <= 10.0):
+            raise InputError(field, v, "a slip from 0 to 10 mm (e.g. '2 mm'), 'computed' or 'ignored'")
+        return "given", x
+    raise InputError(field, v, allowed)
 
 
 def _check_keys(field: str, table: dict, allowed: set[str]) -> None:
@@ -273,6 +317,10 @@ def parse_splices(table: dict) -> SpliceSpec:
         kw["gap"] = _length("splices.gap", table["gap"], positive=False, hi=50.0)
     if "packing" in table:
         kw["packing"] = _length("splices.packing", table["packing"], positive=False, hi=50.0)
+    if "mass_margin" in table:
+        kw["mass_margin"] = parse_mass_margin("splices.mass_margin", table["mass_margin"])
+    if "slip" in table:
+        kw["slip"], kw["slip_mm"] = parse_slip("splices.slip", table["slip"])
     if "holes" in table:
         c = table["holes"]
         kw["holes"] = require_choice("splices.holes", c.strip().lower() if isinstance(c, str) else c,
