@@ -149,6 +149,13 @@ def existing_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> Exist
     else:
         e, axis = ex.tw / 2.0 + det.z, "torsion"
     M = calc(M_add, V_Ed=V_Ed, e=e)
+    who = "beam (torque)" if axis == "torsion" else f"column (about {axis}-{axis})"
+    out.append(calc.info(id="ex_moment_added", title=f"Existing {who}: moment added by the reaction",
+                         clause="EN 1993-1-8:2005, 2.7(1)", demand=M, resistance=0.0, unit="Nmm",
+                         note=(f"e = {e:.1f} mm from the member axis" + ("" if axis == "torsion" else
+                               f", at least {E_NOMINAL_COLUMN:g} mm from the face (nominal eccentricity of simple "
+                               "construction, published UK guidance, from memory)")
+                               + "; taken into the member check of the existing member")))
     if axis == "torsion":
         what = (f"torsion on the existing beam T = V_Ed x {e:.1f} mm = {M / 1e6:.2f} kNm (unbalanced reaction "
                 "from one side): check the existing beam in torsion or show it is restrained by the floor")

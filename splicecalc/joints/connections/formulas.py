@@ -255,10 +255,12 @@ def t_p_max_punching(t_w2: float, f_u2: float, f_yp: float, gamma_M2: float) -> 
     return t_p_max
 
 
-@clause("EN 1993-1-1:2005, 6.2.1(5)", units={"V_Ed": "N", "e": "mm"}, returns="Nmm",
+@clause("EN 1993-1-8:2005, 2.7(1)", units={"V_Ed": "N", "e": "mm"}, returns="Nmm",
         example=dict(V_Ed=150e3, e=227.0))
 def M_add(V_Ed: float, e: float) -> float:
-    """Moment applied to the supporting member by a reaction V_Ed at eccentricity e from its axis (N*mm)."""
+    """Moment applied to the supporting member by a reaction V_Ed at eccentricity e from its axis (N*mm):
+    the member is designed for the moment of an eccentric intersection (EN 1993-1-8 2.7(1)); the
+    eccentricity of a simple connection (100 mm from a column face) is published guidance."""
     M_add = V_Ed * e
     return M_add
 
