@@ -286,3 +286,28 @@ def test_restraint_force_by_hand():
         assert rec.status == "info"
         assert rec.demand == pytest.approx(q * 2400.0 / 1e3, rel=1e-6)     # kN
         assert rec.clause == "EN 1993-1-1:2005, 5.3.3(2), Eq. 5.13"
+
+
+def test_min_frequency_from_the_job_file():
+    text = """
+[beam]
+span = "6 m"
+section = "305x165x40 UKB"
+min_frequency = 3
+imposed = "separate"
+[[load]]
+name = "office"
+action = "imposed"
+category = "B"
+udl = "8 kN/m"
+"""
+    job = loads_job(text)
+    assert job.beam.min_frequency == 3.0 and job.beam.imposed == "separate"
+    assert design_beam(job).record("floor_frequency").demand == 3.0
+    assert loads_job(job.to_toml()) == job                                 # canonical round trip
+    with pytest.raises(InputError) as err:
+        loads_job(text.replace("min_frequency = 3", "min_frequency = 0.2"))
+    assert "beam.min_frequency" in str(err.value)
+    with pytest.raises(InputError) as err:
+        loads_job(text.replace('imposed = "separate"', 'imposed = "split"'))
+    assert "beam.imposed" in str(err.value)

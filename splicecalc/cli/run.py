@@ -80,8 +80,9 @@ def part_table(part: Any, width: int = 110) -> list[str]:
     lines = [head]
     if not part.records:
         return lines
-    rows = [(part.short_title(r), _num(r.demand), _num(r.resistance), r.unit, _u(r.utilisation),
-             "" if r.ok else "OVER", r.clause) if r.checked else
+    rows = [(part.short_title(r), _num(r.demand), _num(r.resistance), r.unit,
+             _u(r.utilisation) if r.is_check else "-", ("" if r.ok else "OVER") if r.is_check else "INFO",
+             r.clause) if r.checked else
             (part.short_title(r), "-", "-", "", "-", "GAP", f"{GAP}: {r.clause}") for r in part.records]
     w_e = max(3, *(len(r[1]) for r in rows))
     w_r = max(3, *(len(r[2]) for r in rows))

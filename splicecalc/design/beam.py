@@ -696,7 +696,8 @@ def _vibration(ctx: _Context, case: _MassCase, section: Section, run: _Run, rend
     if v is None:
         return
     w1, x, text = v
-    run.add(check_floor_frequency(w1 / section.Iy, calc=_calc(render), location_mm=x, load_text=text))
+    run.add(check_floor_frequency(w1 / section.Iy, ctx.beam.min_frequency, calc=_calc(render), location_mm=x,
+                                  load_text=text))
 
 
 def _restraint_forces(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:

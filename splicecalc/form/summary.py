@@ -96,8 +96,8 @@ def design_summary(source: FormState | Job) -> Summary:
         d = design_beam(job, render=False)
     except Exception as err:  # shown in the form as one line, never a traceback
         return _failure(err)
-    recs = sorted(d.records, key=lambda r: (-(r.utilisation if math.isfinite(r.utilisation) else math.inf),
-                                            r.id))
+    recs = sorted((r for r in d.records if r.is_check),       # information / NOT CHECKED: in the calc
+                  key=lambda r: (-(r.utilisation if math.isfinite(r.utilisation) else math.inf), r.id))
     gov = d.governing_record
     rows = tuple(SummaryRow(r.id, r.title, r.clause, float(r.utilisation), bool(r.ok)) for r in recs)
     notes: list[str] = list(job.notes)

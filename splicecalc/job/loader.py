@@ -6,7 +6,8 @@ Layout (every quantity a string with its unit; positions from support A)::
     [beam]      span, grade, section ("auto" or a designation), families, max_depth,
                 bearing_length, end_distance, restraints, load_level, deflection_limit,
                 total_deflection_limit, combination ("6.10" | "6.10ab"), national_annex = {..},
-                psi_table ("UK NA" | "EN recommended"), imposed ("single" | "separate")
+                psi_table ("UK NA" | "EN recommended"), imposed ("single" | "separate"),
+                min_frequency (Hz, a plain number, floor beams; default 4)
     [[load]]    name, action (permanent | imposed | snow | wind), category (imposed: A-H),
                 group, and either udl (+ optional from, to) or point + at (+ optional
                 bearing_length, applied_to = "flange" | "web")
@@ -37,7 +38,7 @@ TOP_KEYS: tuple[str, ...] = ("project", "beam", "load", "splices", "support")
 BEAM_KEYS: tuple[str, ...] = ("span", "grade", "section", "families", "max_depth", "bearing_length",
                               "end_distance", "restraints", "load_level", "deflection_limit",
                               "total_deflection_limit", "combination", "national_annex", "psi_table",
-                              "imposed")
+                              "imposed", "min_frequency")
 LOAD_KEYS: tuple[str, ...] = ("name", "action", "category", "group", "udl", "from", "to", "point", "at",
                               "bearing_length", "applied_to")
 
@@ -132,7 +133,7 @@ def parse_beam(table: Any) -> BeamSpec:
                                  "(list restraints in increasing order, no duplicates)")
             xs.append(x)
         kw["restraints"] = tuple(xs)
-    for k in ("deflection_limit", "total_deflection_limit"):
+    for k in ("deflection_limit", "total_deflection_limit", "min_frequency"):
         v = _number(t, k, f"beam.{k}")
         if v is not None:
             kw[k] = v

@@ -149,6 +149,7 @@ def job_tables(job: Any) -> list[TableOutput]:
         ["Deflection limit, total", "-" if b.total_deflection_limit is None else
          f"span / {b.total_deflection_limit:g}", ""],
         ["ULS combination rule", "Eq. 6.10" if b.combination == "6.10" else "worse of Eq. 6.10a and 6.10b", ""],
+        ["Smallest natural frequency of a floor beam", f"{b.min_frequency:g}", "Hz"],
         ["Imposed loads of several categories", "one variable action (EN 1991-1-1 3.3.1(2)P)"
          if b.imposed == "single" else "separate actions, each leading in turn", ""],
         ["National Annex", job.na.name, ""],
