@@ -141,14 +141,14 @@ def _flange_bound(bolt, f: FlangeLayout, F_f: float, spec, pg: str, na, section,
 
     # the beam's own tension flange, net of this layout's holes (a member check of the splice, EN 1993-1-1 6.2.3)
     fb = steel(grade, section.tf)
-    A_fn = (section.b - f.columns * bolt.d_0) * section.tf
+    A_fn = P.A_net_plate(b=section.b, t=section.tf, n=f.columns, d_0=bolt.d_0)
     if A_fn <= 0 or min(section.b * section.tf * fb.f_y / na.gamma_M0,
                         0.9 * A_fn * fb.f_u / na.gamma_M2_member) < F_f:
         return False
     share_o = A_o / (A_o + A_i)
     if ply_bound(f.plate, fu_o) < F_f * share_o or ply_bound(section.tf, fu_b) < F_f:
         return False
-    if P.N_u_Rd(A_net=(round_down(section.b) - f.columns * d0) * f.plate, f_u=fu_o, gamma_M2=na.gamma_M2_member) < F_f * share_o:
+    if P.N_u_Rd(A_net=P.A_net_plate(b=round_down(section.b), t=f.plate, n=f.columns, d_0=d0), f_u=fu_o, gamma_M2=na.gamma_M2_member) < F_f * share_o:
         return False
     return True
 

@@ -409,13 +409,13 @@ def show_splice_positions(result: CalcResult) -> None:
                    rows, align="lrrrrrl", title="Splice positions and design forces",
                    notes="Demand = |M|/M_c,Rd + |V|/V_c,Rd of the beam at the splice (the quantity minimised).")
     cuts = [0.0, *pos.positions, result.job.beam.span]
-    prow = [[str(p.index), f"{cuts[i] / 1000:.3f}", f"{cuts[i + 1] / 1000:.3f}", f"{p.length_mm / 1000:.3f}",
+    prow = [[str(p.index), f"{cuts[i] / 1000:.3f}-{cuts[i + 1] / 1000:.3f}", f"{p.length_mm / 1000:.3f}",
              f"{p.steel_kg:.1f}", f"{p.plates_kg:.1f}", f"{p.bolts_kg:.1f}", f"{p.end_kg:.1f}", f"{p.margin_kg:.1f}",
              f"{p.total_kg:.1f}"]
             for i, p in enumerate(pos.piece_masses)]
-    show_table(["Piece", "from (m)", "to (m)", "Length (m)", "Steel (kg)", "Splice plates (kg)", "Bolt sets (kg)",
-                "End conn. (kg)", f"Margin {pos.mass_margin * 100:g} % (kg)", "Total (kg)"], prow,
-               align="lrrrrrrrrr", title="Pieces as lifted: mass build-up",
+    show_table(["Piece", "x (m)", "L (m)", "Steel", "Plates", "Bolt sets", "End conn.",
+                f"Margin {pos.mass_margin * 100:g} %", "Total"], prow,
+               align="llrrrrrrr", title="Pieces as lifted: mass build-up (kg)",
                notes=MASS_CONVENTION + ". Bolt sets: " + ASSEMBLY_CONVENTION + ".")
     if plan is not None and plan.kits:
         show_list([f"S{k}: {kt.describe()}" for k, kt in enumerate(plan.kits, start=1)],

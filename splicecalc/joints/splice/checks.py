@@ -64,6 +64,9 @@ from ...members.en1993_1_1 import c_t_flange, epsilon, rho_V
 from .geometry import Geometry
 
 CL_DETAIL = "EN 1993-1-8:2005, 3.5(1)"
+#: the buckling length of a compression cover plate across the joint is a stated method
+GUIDE_STRIP = ("stated method: the plate strip across the joint, gap + 2 e1 long, is the longest unsupported "
+               "length; buckling curve c with the Table 3.3 note 2 length factor 0.6 (conservative, no source)")
 #: the fit rules are detailing practice, not code clauses
 GUIDE_FIT = "detailing practice: washers, nuts and plates clear of the root fillets (common practice, no code clause)"
 CL_BEAR = "EN 1993-1-8:2005, 3.6.1, Table 3.4"
@@ -335,11 +338,17 @@ def _flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na
           fclause="EN 1993-1-8:2005, 3.5, Table 3.3", N_Ed=F_o, b=g.b_po, t=g.t_po, p_1=p_free, grade=pg, na=na,
           A_net=A_no, calc=calc, id="outer_plate_compression",
           title="Outer flange plate: compression, buckling over max(p1, gap + 2 e1)", location_mm=loc)
+    for r in out:
+        if r.id == "outer_plate_compression":
+            object.__setattr__(r, "guidance", GUIDE_STRIP)
     if inner:
         _safe(out, P.check_plate_compression, fid="inner_plate_compression", ftitle="Inner flange plates: compression",
               fclause="EN 1993-1-8:2005, 3.5, Table 3.3", N_Ed=F_f * share_i / 2, b=g.b_pi, t=g.t_pi, p_1=p_free,
               grade=pg, na=na, A_net=A_ni, calc=calc, id="inner_plate_compression",
               title="Inner flange plate (each): compression, buckling over max(p1, gap + 2 e1)", location_mm=loc)
+        for r in out:
+            if r.id == "inner_plate_compression":
+                object.__setattr__(r, "guidance", GUIDE_STRIP)
     # Table 3.3 note 2: in compression the edge distance must also meet the outstand limit of
     # EN 1993-1-1 Table 5.2 (c = e2 beyond the outer bolt line, Class 3: c/t <= 14 eps, full A f_y)
     plies = [("outer", "Outer flange plate", g.e2_po, g.t_po)]
