@@ -545,14 +545,36 @@ def existing_member_checks(sec: Any, loads: Any, mat_at: Callable[[float], Any],
     calc = calc or Calc()
     psi = psi or PSI_UK_NA
     if loads is None:
-        return _not_checked_member(face, "")
-    parts = tuple(parts) if parts else design_valued_reaction(V_Ed, na)
-    if isinstance(loads, ExistingColumnLoads):
-        return column_member_checks(sec, loads, mat_at, face, det, parts, na, psi, tie, calc)
-    if isinstance(loads, ExistingBeamLoads):
-        e = sec.tw / 2.0 + det.z
-        return beam_member_checks(sec, loads, mat_at, det, parts, na, psi, calc, e)
-    raise TypeError(f"existing loads of type {type(loads).__name__}")
+        res = _not_checked_member(face, "")
+    else:
+        parts = tuple(parts) if parts else design_valued_reaction(V_Ed, na)
+        if isinstance(loads, ExistingColumnLoads):
+            res = column_member_checks(sec, loads, mat_at, face, det, parts, na, psi, tie, calc)
+        elif isinstance(loads, ExistingBeamLoads):
+            e = sec.tw / 2.0 + det.z
+            res = beam_member_checks(sec, loads, mat_at, det, parts, na, psi, calc, e)
+        else:
+            raise TypeError(f"existing loads of type {type(loads).__name__}")
+    return replace(res, records=res.records + (_downstream(face, loads, V_Ed),))
+
+
+def _downstream(face: str, loads: Any, V_Ed: float) -> CheckRecord:
+    """NOT CHECKED: what carries the added load further down (the package stops at the existing member)."""
+    if face == "beam web":
+        if isinstance(loads, ExistingBeamLoads):
+            L, a = loads.span, loads.at
+            share = (f"about {V_Ed * (L - a) / L / 1e3:.1f} kN at its left support and {V_Ed * a / L / 1e3:.1f} kN "
+                     "at its right support (design values, by the lever rule)")
+        else:
+            share = f"{V_Ed / 1e3:.1f} kN (design) shared between its supports"
+        return not_checked(id="ex_downstream", title="Existing beam: its own end connections and supports",
+                           clause="EN 1993-1-8:2005",
+                           reason=f"the new beam adds {share}: the existing beam's end connections and what "
+                                  "supports them are not checked here; check them for the increased reactions")
+    return not_checked(id="ex_downstream", title="Existing column: splices, base and foundation below",
+                       clause="EN 1993-1-8:2005, 6.2.8",
+                       reason=f"the new beam adds {V_Ed / 1e3:.1f} kN (design) to the column below this level: its "
+                              "splices, base plate, holding-down bolts and foundation (EN 1997) are not checked here")
 
 
 __all__ = ["ReactionPart", "ExistingMemberResult", "reactions_by_action", "design_valued_reaction",
