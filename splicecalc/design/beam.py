@@ -82,16 +82,19 @@ class _MassCase:
 
     def vibration(self) -> tuple[float, float, str] | None:
         """(w_max * I, x, text) of the mass load for the natural frequency: permanent actions (with the
-        self-weight) plus a share of the imposed floor loads (categories A-G); None without such loads."""
+        self-weight) plus a share of the imposed floor loads (categories A-G); None without such loads.
+        The deflected shape is the job's part (analysed once per design) plus the self-weight's, summed
+        on 801 points along the span (the largest of the sum; mid-span is one of the points)."""
         if self._vib is None:
-            floor = [ld for ld in self.loads if ld.action == "imposed" and ld.category in "ABCDEFG"]
-            if not floor:
+            v = self._ctx.vibration_shape()
+            if v is None:
                 self._vib = (None,)
             else:
-                k = VIBRATION_IMPOSED_SHARE
-                loads = [ld for ld in self.loads if ld.action == "permanent"] + [ld.scaled(k) for ld in floor]
-                w = SimpleBeam(self._ctx.L, loads, I=1.0).w_max()
-                self._vib = ((abs(w.value), w.x_mm, f"G + {k:g} x imposed floor load (categories A-G)"),)
+                xs, w_rest, w_unit, text = v
+                w_sw = self.loads[0].w                       # the self-weight, first of the loads
+                tot = np.abs(w_rest + w_sw * w_unit)
+                i = int(np.argmax(tot))
+                self._vib = ((float(tot[i]), float(xs[i]), text),)
         return self._vib[0]
 
     def characteristic(self) -> tuple[tuple[Combination, SimpleBeam, float, float], ...]:
@@ -120,6 +123,7 @@ class _Context:
         self.point_x = tuple(sorted({ld.x for ld in job.loads if isinstance(ld, PointLoad)
                                      and 0.0 < ld.x < self.L}))
         self.point_groups = _point_groups(self)
+        self._vib_shape: tuple | None = None
         #: plain-float LTB records of this design call by (section, segment index, combination index)
         self.ltb_memo: dict[tuple[str, int, int], CheckRecord] = {}
         # variable actions only (characteristic, each leading): independent of the section
@@ -130,6 +134,22 @@ class _Context:
                 w = b.w_max()
                 var.append((c, b, abs(w.value), w.x_mm))
         self.variable = tuple(var)
+
+    def vibration_shape(self) -> tuple[np.ndarray, np.ndarray, np.ndarray, str] | None:
+        """Deflected shape (I = 1) of the job's mass load without the self-weight and of a unit full-span
+        line load, on 801 points; None when the beam carries no imposed floor load (categories A-G)."""
+        if self._vib_shape is None:
+            floor = [ld for ld in self.job.loads if ld.action == "imposed" and ld.category in "ABCDEFG"]
+            if not floor:
+                self._vib_shape = (None,)
+            else:
+                k = VIBRATION_IMPOSED_SHARE
+                loads = [ld for ld in self.job.loads if ld.action == "permanent"] + [ld.scaled(k) for ld in floor]
+                xs = np.linspace(0.0, self.L, 801)
+                w_rest = np.asarray(SimpleBeam(self.L, loads, I=1.0).w(xs), dtype=float)
+                w_unit = np.asarray(SimpleBeam(self.L, [UDL("unit", "permanent", 1.0)], I=1.0).w(xs), dtype=float)
+                self._vib_shape = ((xs, w_rest, w_unit, f"G + {k:g} x imposed floor load (categories A-G)"),)
+        return self._vib_shape[0]
 
     def case(self, mass: float) -> _MassCase:
         key = round(float(mass), 9)
