@@ -473,9 +473,13 @@ def show_splice(result: CalcResult, part: Any) -> None:
     rows = [["Design moment (governing combination)", "$M_{Ed}$", f"{fo.M_Ed / 1e6:.1f}", _u("kNm")],
             ["Shear force", "$V_{Ed}$", f"{abs(fo.V_Ed) / 1e3:.1f}", _u("kN")],
             ["Axial force (tension +)", "$N_{Ed}$", f"{fo.N_Ed / 1e3:.1f}", _u("kN")],
-            ["Splice design moment", "$M_{j,Ed}$", f"{fo.M_j_Ed / 1e6:.1f}", _u("kNm")],
-            ["Web share of the moment", "$M_{w,Ed}$", f"{fo.M_w_Ed / 1e6:.1f}", _u("kNm")],
-            ["Flange force", "$F_{f,Ed}$", f"{fo.F_f_Ed / 1e3:.1f}", _u("kN")],
+            ["Splice design moment (joint line)", "$M_{j,Ed}$", f"{fo.M_j_Ed / 1e6:.1f}", _u("kNm")],
+            [f"Moment at the outermost flange row, a_f = {fo.a_f:g} mm", "$M_{f,Ed}$", f"{fo.M_f_Ed / 1e6:.1f}",
+             _u("kNm")],
+            ["Flange force (beam flange and flange bolts)", "$F_{f,Ed}$", f"{fo.F_f_Ed / 1e3:.1f}", _u("kN")],
+            [f"Moment at the outermost web column, a_w = {fo.a_w:g} mm", "$M_{a,Ed}$", f"{fo.M_w_a_Ed / 1e6:.1f}",
+             _u("kNm")],
+            ["Web share of that moment", "$M_{w,Ed}$", f"{fo.M_w_Ed / 1e6:.1f}", _u("kNm")],
             ["Moment on the web bolt group", "$M_{g,Ed}$", f"{fo.M_g_Ed / 1e6:.2f}", _u("kNm")],
             ["Largest web bolt force", "$F_{r,Ed}$", f"{fo.F_web_max / 1e3:.1f}", _u("kN")]]
     if part.M_Ed_ser is not None:
