@@ -241,7 +241,7 @@ def slip_records(plan: SplicePlan, spec: Any, section: Any, span_mm: float, case
         else:
             note += "; category A (bearing) acceptable for deflection"
         out.append(calc.record(id=c.id, title=f"Deflection ({c.which}) with splice slip, span/{c.n_lim:g}",
-                               clause="UK NA to BS EN 1993-1-1:2008, NA.2.23", demand=tot, resistance=lim, unit="mm",
+                               clause="UK NA to BS EN 1993-1-1:2005+A1:2014, NA.2.23", demand=tot, resistance=lim, unit="mm",
                                location_mm=xg, note=note, guidance=SLIP_GUIDANCE, tags=("slip", "deflection")))
     return out
 
