@@ -18,15 +18,11 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
-import nbformat
-
 from ..core.errors import InputError, require_non_negative, require_positive
 from ..core.files import write_atomic
 from ..signoff.ledger import is_protected, sidecar_path
 from .compile import LatexRun, require_tool
 from .errors import CalcBuildError, ProtectedPDFError
-from .execute import execute_notebook
-from .exporter import CalcPackageExporter
 from .kernel import KernelLaunch
 from .latexfix import BadBox
 from .metadata import calc_metadata
@@ -83,6 +79,8 @@ class BuildReport:
 
 def _save(path: Path, nb: Any) -> None:
     """Write the executed notebook atomically."""
+    import nbformat
+
     path.parent.mkdir(parents=True, exist_ok=True)
     write_atomic(path, nbformat.writes(nb).encode("utf-8"))
 
@@ -115,6 +113,13 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
         raise ProtectedPDFError(str(out))
     require_tool("xelatex")
     require_tool("pandoc")
+
+    # nbclient and nbconvert are imported here, not with this module: a build launches its kernel
+    # first (workflow.package), after importing this module for is_protected
+    import nbformat
+
+    from .execute import execute_notebook
+    from .exporter import CalcPackageExporter
 
     nb = nbformat.read(nb_path, as_version=4)
     calc_metadata(nb.metadata, default_title=nb_path.stem)   # bad metadata fails before any cell runs
