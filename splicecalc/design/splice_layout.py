@@ -172,6 +172,18 @@ def _web_bound(bolt, w: WebLayout, section, forces_fn, spec, na, pg: str, grade:
                    gamma_M2=na.gamma_M2)
     if Fr > fbw:
         return False, fo
+    # the end columns bear along the beam towards a free end (the beam end, the plate end): there
+    # alpha_d = e1/(3 d0) caps F_b,x,Rd (Table 3.4, k1 <= 2.5), and U >= |F_x| / F_b,x,Rd
+    a_end = B.alpha_d_end(e_1=default_edge(bolt.d_0), d_0=bolt.d_0)
+    xs = [b[0] for b in fo.bolt_forces]
+    Fx_beam = max(abs(b[2]) for b in fo.bolt_forces if b[0] == min(xs))
+    Fx_plate = max(abs(b[2]) for b in fo.bolt_forces if b[0] == max(xs))
+    if Fx_beam > B.F_b_Rd(k_1=2.5, alpha_b=min(a_end, bolt.f_ub / fu_w, 1.0), f_u=fu_w, d=bolt.d, t=section.tw,
+                          gamma_M2=na.gamma_M2):
+        return False, fo
+    if Fx_plate > B.F_b_Rd(k_1=2.5, alpha_b=min(a_end, bolt.f_ub / mp.f_u, 1.0), f_u=mp.f_u, d=bolt.d,
+                           t=2 * w.plate, gamma_M2=na.gamma_M2):
+        return False, fo
     h = (w.rows - 1) * w.pitch + 2 * default_edge(bolt.d_0)
     M_pl = abs(fo.M_w_Ed) + abs(fo.V_Ed) * (spec.gap / 2 + default_edge(bolt.d_0))
     if M_pl / 2 > P.M_c_Rd(W_y=P.W_el_plate(t=w.plate, h=h), f_y=mp.f_y, gamma_M0=na.gamma_M0):
@@ -301,11 +313,16 @@ def _search_layouts(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float, 
                 combos.append((cf + cw, SpliceLayout(size, cls, f, w)))
     combos.sort(key=lambda c: c[0])
     out: list[SpliceDesign] = []
+    other_sizes: set[str] = set()
     for cost, lay in combos:
         d = check_splice(section, grade, M_Ed, V_Ed, N_Ed, spec=spec, layout=lay, na=na, M_c_Rd=M_c_Rd,
-                         M_Ed_ser=M_Ed_ser, V_Ed_ser=V_Ed_ser)
+                         M_Ed_ser=M_Ed_ser, V_Ed_ser=V_Ed_ser, stop_on_fail=True)
         if d.ok:
             out.append(d)
+            if d.layout.bolt_size != out[0].layout.bolt_size:
+                other_sizes.add(d.layout.bolt_size)
+            if len(other_sizes) >= n_keep - 1:
+                break          # the alternatives below are the first of each other bolt size in cost order
     # alternatives: prefer another bolt size, then another group layout (never the same geometry)
     if not out:
         return []
