@@ -204,16 +204,52 @@ def build_parser() -> argparse.ArgumentParser:
     return p
 
 
+#: set to 1 to see the Python traceback of an unexpected error (for a bug report)
+DEBUG_ENV = "SPLICECALC_DEBUG"
+
+
+def _error(msg: str, code: int) -> int:
+    print(f"splicecalc: error: {' '.join(str(msg).split())}", file=sys.stderr)
+    return code
+
+
 def main(argv: list[str] | None = None) -> int:
+    """Run one command. Every failure is one line on stderr, never a traceback:
+    2 bad input (InputError, a calculation that cannot be made from the inputs, a file that
+    cannot be read or written: the message names the path and what to do), 130 interrupted,
+    1 an unexpected error (one line; ``SPLICECALC_DEBUG=1`` shows the traceback)."""
+    import os
+
+    from ..core.errors import file_error_message
+
     parser = build_parser()
     args = parser.parse_args(argv)
     try:
         return int(args.func(args) or 0)
     except InputError as e:
-        print(f"splicecalc: error: {e}", file=sys.stderr)
-        return 2
+        return _error(str(e), 2)
     except KeyboardInterrupt:
         return 130
+    except RecursionError:
+        return _error("the input is nested too deeply to read (tables or arrays inside each other); "
+                      "write the job file with at most a few levels of nesting", 2)
+    except MemoryError:
+        return _error("out of memory reading or running the input; check the job file is the one meant "
+                      "(job files are a few kB)", 2)
+    except OSError as e:
+        if os.environ.get(DEBUG_ENV):
+            raise
+        return _error(file_error_message(e, "read or write"), 2)
+    except Exception as e:  # noqa: BLE001 - the last line of defence: one line, never a traceback
+        if os.environ.get(DEBUG_ENV):
+            raise
+        from ..workflow.errors import CalcError
+
+        if isinstance(e, CalcError):
+            return _error(str(e), 2)
+        where = type(e).__module__.split(".")[0]
+        return _error(f"unexpected {type(e).__name__}: {e} (in {where}; please report it with the "
+                      f"job file; run with {DEBUG_ENV}=1 to see the details)", 1)
 
 
 if __name__ == "__main__":  # pragma: no cover

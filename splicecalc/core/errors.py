@@ -76,3 +76,31 @@ def require_count(field: str, value: Any, minimum: int = 1) -> int:
     if x < minimum or not float(x).is_integer():
         raise InputError(field, value, f"a whole number >= {minimum}")
     return int(x)
+
+
+# ---------------------------------------------------------------- file-system failures
+def file_error_message(err: OSError, action: str = "write to") -> str:
+    """One line for a failed file operation: the path and what to do about it."""
+    import errno
+
+    path = err.filename or "(a file)"
+    if err.filename2:
+        path = f"{path} -> {err.filename2}"
+    what = {
+        errno.EACCES: "no permission: choose a folder you can write to, or change its permissions",
+        errno.EPERM: "not permitted: choose a folder you can write to, or change its permissions",
+        errno.EROFS: "the file system is read-only: write to another folder (e.g. -o ~/calcs/NAME.pdf)",
+        errno.ENOSPC: "the disk is full: free some space or write to another disk, then run it again",
+        errno.EDQUOT: "the disk quota is used up: free some space or write elsewhere, then run it again",
+        errno.ENOENT: "no such file or folder: check the path (create the folder first)",
+        errno.ENOTDIR: "a part of the path is a file, not a folder: check the path",
+        errno.EISDIR: "that is a folder, not a file: give a file name",
+        errno.EEXIST: "it exists already: choose another name",
+        errno.ENAMETOOLONG: "the name is too long: choose a shorter path",
+        errno.EMFILE: "too many open files: close other programs and run it again",
+    }.get(err.errno or -1, "check the path, the permissions and the free disk space")
+    return f"cannot {action} {path}: {err.strerror or err} ({what}); nothing was left half-written"
+
+
+__all__ = ["InputError", "require_finite", "require_positive", "require_non_negative", "require_in_range",
+           "require_choice", "require_count", "file_error_message"]

@@ -15,7 +15,10 @@ def write_atomic(path: str | os.PathLike, data: bytes | str) -> Path:
     """Write ``data`` (bytes, or text written as UTF-8 with LF newlines) to ``path`` atomically."""
     p = Path(path)
     raw = data.encode("utf-8") if isinstance(data, str) else bytes(data)
-    fd, tmp = tempfile.mkstemp(prefix=f".{p.name}.", suffix=".part", dir=str(p.parent) if str(p.parent) else ".")
+    try:
+        fd, tmp = tempfile.mkstemp(prefix=f".{p.name}.", suffix=".part", dir=str(p.parent) if str(p.parent) else ".")
+    except OSError as err:      # name the file meant, not the temporary one
+        raise OSError(err.errno, err.strerror, str(p)) from None
     try:
         with os.fdopen(fd, "wb") as fh:
             fh.write(raw)
@@ -24,11 +27,13 @@ def write_atomic(path: str | os.PathLike, data: bytes | str) -> Path:
         # mkstemp creates 0600; give the file the mode an ordinary open() would (0666 & ~umask)
         os.chmod(tmp, 0o666 & ~_umask())
         os.replace(tmp, p)
-    except BaseException:
+    except BaseException as err:
         try:
             os.unlink(tmp)
         except OSError:
             pass
+        if isinstance(err, OSError) and err.errno is not None:
+            raise OSError(err.errno, err.strerror, str(p)) from None
         raise
     return p
 

@@ -32,6 +32,7 @@ from ..actions.loads import ACTIONS, CATEGORIES, PointLoad, UDL
 from ..core.errors import InputError, require_choice
 from ..core.files import write_atomic
 from ..core.units import parse_quantity
+from .bounds import check_bounds, check_relations, check_text_lengths
 from .model import BeamSpec, Job, NA_OVERRIDABLE, PROJECT_KEYS, Project
 
 TOP_KEYS: tuple[str, ...] = ("project", "beam", "load", "splices", "support")
@@ -235,6 +236,9 @@ def job_from_dict(data: Any) -> Job:
     """A parsed TOML document (dict) -> validated :class:`Job`."""
     d = _table(data, "job file")
     _unknown("", d, TOP_KEYS)
+    _check_depth(d)
+    check_text_lengths(d)
+    check_bounds(d)             # plausibility of every quantity, in the user's words and units
     if "beam" not in d:
         raise InputError("beam", None, "a [beam] table (required)")
     project = parse_project(d["project"]) if "project" in d else Project()
@@ -271,28 +275,69 @@ def job_from_dict(data: Any) -> Job:
             supports.append(tt if parse is None else parse(tt, i + 1))
         if parse is None:
             notes.append("[[support]] kept as raw tables: splicecalc.joints.connections.spec is not available")
-    return Job(beam=beam, loads=loads, project=project, splices=splices, supports=tuple(supports),
-               splices_table=splices_table, support_tables=tuple(support_tables), notes=tuple(notes))
+    job = Job(beam=beam, loads=loads, project=project, splices=splices, supports=tuple(supports),
+              splices_table=splices_table, support_tables=tuple(support_tables), notes=tuple(notes))
+    check_relations(job, d)     # fields against each other and against the sections the design may use
+    return job
+
+
+#: largest job file read (bytes): a job file is a few kB; anything near this is not one
+MAX_JOB_BYTES = 1_000_000
+#: deepest nesting of tables and arrays in a job file (the deepest the layout uses is 4)
+MAX_DEPTH = 8
+
+
+def _check_depth(data: Any, depth: int = 0, where: str = "") -> None:
+    if depth > MAX_DEPTH:
+        raise InputError(where or "job file", "...", f"tables and arrays nested at most {MAX_DEPTH} deep",
+                         "The job-file layout nests at most 4 levels ([splices.layout.flange] is 3)")
+    if isinstance(data, dict):
+        for k, v in data.items():
+            if isinstance(v, (dict, list)):
+                _check_depth(v, depth + 1, f"{where}.{k}" if where else str(k))
+    elif isinstance(data, list):
+        for i, v in enumerate(data):
+            if isinstance(v, (dict, list)):
+                _check_depth(v, depth + 1, f"{where}[{i + 1}]")
 
 
 def loads_job(text: str, source: str = "job") -> Job:
     """TOML text -> :class:`Job`."""
+    if not isinstance(text, str):
+        raise InputError(source, type(text).__name__, "TOML text")
+    if len(text) > MAX_JOB_BYTES:
+        raise InputError(source, f"{len(text)} characters", f"a job file of at most {MAX_JOB_BYTES // 1000} kB",
+                         "Check it is the job file meant (job files are a few kB)")
     try:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as err:
         raise InputError(source, "...", f"valid TOML ({err})") from None
+    except RecursionError:
+        raise InputError(source, "...", f"tables and arrays nested at most {MAX_DEPTH} deep (the file nests "
+                         "them far deeper)") from None
     return job_from_dict(data)
 
 
 def load_job(path: str | os.PathLike) -> Job:
-    """Read a TOML job file -> :class:`Job`."""
+    """Read a TOML job file -> :class:`Job` (at most :data:`MAX_JOB_BYTES`, UTF-8)."""
     p = Path(path)
     try:
-        text = p.read_text(encoding="utf-8")
+        size = p.stat().st_size
+        if size > MAX_JOB_BYTES:
+            raise InputError("job file", str(p), f"a job file of at most {MAX_JOB_BYTES // 1000} kB "
+                             f"({size // 1000} kB given)", "Check it is the job file meant (job files are a few kB)")
+        raw = p.read_bytes()
     except FileNotFoundError:
         raise InputError("job file", str(p), "an existing file") from None
-    except (OSError, UnicodeDecodeError) as err:
-        raise InputError("job file", str(p), f"a readable UTF-8 text file ({err})") from None
+    except IsADirectoryError:
+        raise InputError("job file", str(p), "a file (this is a folder)") from None
+    except OSError as err:
+        raise InputError("job file", str(p), f"a readable file ({err.strerror or err})") from None
+    try:
+        text = raw.decode("utf-8")
+    except UnicodeDecodeError as err:
+        raise InputError("job file", str(p), f"UTF-8 text (byte {err.start + 1} is not UTF-8)",
+                         "Save the file as UTF-8") from None
     return loads_job(text, source=str(p))
 
 

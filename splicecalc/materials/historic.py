@@ -54,11 +54,18 @@ class EraBand:
     source: str
 
 
+#: first year of the era bands: structural steel in common use in British buildings (from memory);
+#: an earlier date is refused with the advice to identify and test the material (iron was usual)
+STEEL_COMMON_FROM = 1890
+
 #: Era bands of historic British structural steel (values FROM MEMORY, flagged).
 #: fy for t <= t_max; above the last step the band is not used (InputError).
 ERA_BANDS: dict[str, EraBand] = {b.name: b for b in (
-    EraBand("before 1909", 1850, 1908, ((40.0, 200.0), (100.0, 190.0)), 370.0,
-            "early mild steel before the first national standard was in general use (from memory)"),
+    # structural steel sections came into common use in British buildings around 1890; before that
+    # rolled and built-up members were usually wrought iron, castings cast iron (from memory)
+    EraBand("before 1909", STEEL_COMMON_FROM, 1908, ((40.0, 200.0), (100.0, 190.0)), 370.0,
+            f"early mild steel ({STEEL_COMMON_FROM} to 1908) before the first national standard was in general "
+            "use (from memory)"),
     EraBand("1909-1932", 1909, 1932, ((40.0, 210.0), (100.0, 200.0)), 400.0,
             "early issues of the British standard for structural steel (from memory)"),
     EraBand("1933-1949", 1933, 1949, ((16.0, 225.0), (40.0, 220.0), (100.0, 210.0)), 410.0,
@@ -108,6 +115,11 @@ def _era_hint(text: str) -> str:
     """Advice for a text that is neither a known era band nor a grade."""
     first, last = min(b.first_year for b in ERA_BANDS.values()), max(b.last_year for b in ERA_BANDS.values())
     years = [int(p) for p in text.replace("\u2013", "-").replace(" ", "").split("-") if p.isdigit()]
+    if years and min(years) < first:
+        return (f"Structural steel was not in common use before {first}: members of that date are usually "
+                "wrought or cast iron. Have the material identified and tested, then give the tested strengths "
+                "as existing_steel = {tested_fy, tested_fu, samples} if it is steel, or appraise the iron "
+                "member by a specialist method")
     if len(years) == 2 and first <= min(years) and max(years) <= last:
         return ("The years cross two era bands: give the band of the earliest year (the lower strength) "
                 "unless records date the steel")

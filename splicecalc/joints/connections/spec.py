@@ -154,6 +154,10 @@ def _existing_member(value: Any, field: str) -> Any:
         except InputError as err:
             raise InputError(field, value, err.allowed, err.hint) from None
     if isinstance(value, dict):
+        known = ("designation", "h", "b", "tw", "tf", "r", "taper")
+        extra = [k for k in value if k not in known]
+        if extra:
+            raise InputError(f"{field}.{extra[0]}", value[extra[0]], "one of the keys " + ", ".join(known))
         dims = {}
         for k in ("h", "b", "tw", "tf", "r"):
             if k not in value:
