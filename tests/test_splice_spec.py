@@ -33,7 +33,7 @@ def test_explicit_layout():
     ({"pieces": 2.5}, "splices.pieces"),
     ({"positions": "2.6 m"}, "splices.positions"),
     ({"positions": ["5 m", "2 m"]}, "splices.positions"),
-    ({"positions": ["2.6"]}, "splices.positions[0]"),
+    ({"positions": ["2.6"]}, "splices.positions[1]"),
     ({"positions": ["2.6 m"], "pieces": 3}, "splices.pieces"),
     ({"max_piece_length": "3 kN"}, "splices.max_piece_length"),
     ({"max_piece_mass": "-5 kg"}, "splices.max_piece_mass"),

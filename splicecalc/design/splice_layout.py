@@ -369,6 +369,12 @@ def design_splice(section, grade: str, M_Ed: float, V_Ed: float, N_Ed: float = 0
         lay = SpliceLayout(spec.bolt_size, spec.bolt_class, spec.flange, spec.web)
         d = check_splice(section, grade, M_Ed, V_Ed, N_Ed, spec=spec, layout=lay, render=render, **kw)
     else:
+        if spec.bolt_size:      # bolts that cannot fit this section: say so, rather than blame the forces
+            from ..job.bounds import bolt_fit_problem
+
+            why = bolt_fit_problem(section, spec.bolt_size, spec.bolt_class)
+            if why:
+                raise InputError("splices.bolts", spec.bolts, why, "Use a smaller bolt or bolts = 'auto'")
         found = search_layouts(section, grade, M_Ed, V_Ed, N_Ed, spec, na, M_c_Rd, M_Ed_ser=M_Ed_ser,
                                V_Ed_ser=V_Ed_ser)
         if not found:

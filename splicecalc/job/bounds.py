@@ -116,6 +116,25 @@ BOUNDS: tuple[Bound, ...] = (
     # ---------------------------------------------------------------- supports
     Bound("support[].tying_force", "N", 1000.0, 2.0e6, "kN", "a tying force",
           "UK practice asks at least 75 kN; beyond 2000 kN no simple end connection ties it", "'75 kN'"),
+    # loads already on the existing member ([support.existing_loads], characteristic values)
+    Bound("support[].existing_loads.span", "mm", 1000.0, 36000.0, "m", "the existing beam's span",
+          "as for the new beam: rolled sections of buildings", "'6 m'"),
+    Bound("support[].existing_loads.height", "mm", 1000.0, 30000.0, "m", "the existing column's height",
+          "a storey or a few storeys of a building between restraints", "'3.6 m'"),
+    Bound("support[].existing_loads.height_y", "mm", 1000.0, 30000.0, "m", "the existing column's height",
+          "a storey or a few storeys of a building between restraints", "'3.6 m'"),
+    Bound("support[].existing_loads.height_z", "mm", 1000.0, 30000.0, "m", "the existing column's height",
+          "a storey or a few storeys of a building between restraints", "'3.6 m'"),
+    *(Bound(f"support[].existing_loads.axial.{a}", "N", 0.0, 2.0e7, "kN", "an axial force in the column",
+            "beyond 20 000 kN no rolled column of a building carries it: check the unit", "'450 kN'")
+      for a in ("permanent", "imposed")),
+    *(Bound(f"support[].existing_loads.{m}.{a}", "Nmm", 0.0, 5.0e9, "kNm", "a moment in the column",
+            "beyond 5000 kNm no rolled column of a building carries it: check the unit", "'20 kNm'")
+      for m in ("moment_y", "moment_z") for a in ("permanent", "imposed")),
+    *(Bound(f"support[].existing_loads.udl.{a}", "N/mm", 0.0, 1000.0, "kN/m", "a line load on the existing beam",
+            "as for the new beam's loads", "'3.5 kN/m'") for a in ("permanent", "imposed")),
+    *(Bound(f"support[].existing_loads.points[].{a}", "N", 0.0, 5.0e6, "kN", "a point load on the existing beam",
+            "as for the new beam's loads", "'20 kN'") for a in ("permanent", "imposed")),
     Bound("support[].existing_member.h", "mm", 50.0, 1200.0, "mm", "a measured depth",
           "rolled I sections and built-up girders of buildings", "'254 mm'"),
     Bound("support[].existing_member.b", "mm", 30.0, 600.0, "mm", "a measured flange width",
@@ -282,6 +301,23 @@ def _check_supports(job: Any, doc: dict) -> None:
                              "Write e.g. '40 mm x 120 mm'")
 
 
+def bolt_fit_problem(section: Any, size: str, bolt_class: str = "8.8") -> str | None:
+    """Why splice bolts of ``size`` cannot fit ``section`` (two bolt lines on each flange, one line
+    in the web between the root radii, EN 1993-1-8, 3.5, Table 3.3 minima), or None."""
+    from ..joints.bolts import get_bolt
+
+    d0 = get_bolt(size, bolt_class).d_0
+    b_need = 2.0 * E2_MIN * d0 + P2_MIN * d0
+    if section.b < b_need:
+        return (f"bolts that fit the flange of {section.designation}: two bolt lines of {size} need b >= 4.8 d0 = "
+                f"{b_need:.0f} mm (EN 1993-1-8, 3.5, Table 3.3: e2 >= 1.2 d0, p2 >= 2.4 d0); b = {section.b:g} mm")
+    room = section.h - 2.0 * section.tf - 2.0 * section.r
+    if room < 2.0 * E2_MIN * d0:
+        return (f"bolts that fit the web of {section.designation} between the root radii ({room:.0f} mm; one row "
+                f"of {size} needs 2.4 d0 = {2.0 * E2_MIN * d0:.0f} mm, EN 1993-1-8, 3.5, Table 3.3)")
+    return None
+
+
 def _check_splices(job: Any, spec: Any, raw: dict) -> None:
     span = job.beam.span
     max_pieces = int(span // MIN_PIECE_MM)
@@ -316,15 +352,11 @@ def _check_splices(job: Any, spec: Any, raw: dict) -> None:
         from ..joints.bolts import get_bolt
 
         d0 = get_bolt(size, spec.bolt_class).d_0
-        b_need = 2.0 * E2_MIN * d0 + P2_MIN * d0
-        web_need = 2.0 * E2_MIN * d0
-        fits = [c for c in cands if c.b >= b_need and c.h - 2.0 * c.tf - 2.0 * c.r >= web_need]
-        if not fits:
+        problems = [bolt_fit_problem(c, size, spec.bolt_class) for c in cands]
+        if all(problems):
             c = max(cands, key=lambda c: c.b)
-            raise InputError("splices.bolts", raw.get("bolts"),
-                             f"bolts that fit the flange of {_which(job.beam)}: two bolt lines of {size} need "
-                             f"b >= 4.8 d0 = {b_need:.0f} mm (EN 1993-1-8, 3.5, Table 3.3: e2 >= 1.2 d0, "
-                             f"p2 >= 2.4 d0), the widest flange is {c.b:g} mm ({c.designation})",
+            raise InputError("splices.bolts", raw.get("bolts"), bolt_fit_problem(c, size, spec.bolt_class)
+                             + ("" if not job.beam.is_auto else f" (the widest flange the design may use)"),
                              "Use a smaller bolt (e.g. 'M16 8.8') or 'auto'")
         lay = getattr(spec, "flange", None)
         if lay is not None and not job.beam.is_auto:
@@ -346,5 +378,5 @@ def _check_splices(job: Any, spec: Any, raw: dict) -> None:
                                  "with e >= 1.2 d0, EN 1993-1-8, 3.5, Table 3.3)", "Use fewer rows or a smaller pitch")
 
 
-__all__ = ["BOUNDS", "Bound", "TEXT_MAX", "MIN_PIECE_MM", "check_bound", "check_bounds", "check_relations",
+__all__ = ["BOUNDS", "Bound", "TEXT_MAX", "MIN_PIECE_MM", "bolt_fit_problem", "check_bound", "check_bounds", "check_relations",
            "check_text_lengths"]

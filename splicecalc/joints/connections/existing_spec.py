@@ -190,9 +190,9 @@ def parse_existing_loads(table: Any, face: str, pre: str) -> ExistingColumnLoads
         raise InputError(f"{pre}.restraints", rs, "a list of positions, e.g. ['3.0 m']")
     restr = []
     for i, r in enumerate(rs):
-        x = parse_quantity(r, "mm", f"{pre}.restraints[{i}]")
+        x = parse_quantity(r, "mm", f"{pre}.restraints[{i + 1}]")
         if not 0.0 < x < span:
-            raise InputError(f"{pre}.restraints[{i}]", r, f"a position strictly inside the span (0 to "
+            raise InputError(f"{pre}.restraints[{i + 1}]", r, f"a position strictly inside the span (0 to "
                                                          f"{span / 1000:g} m)")
         restr.append(x)
     level = table.get("load_level", "top flange")

@@ -275,7 +275,7 @@ def parse_splices(table: dict) -> SpliceSpec:
         pos = table["positions"]
         if not isinstance(pos, (list, tuple)):
             raise InputError("splices.positions", pos, "a list of lengths, e.g. ['2.6 m', '5.0 m']")
-        xs = tuple(_length(f"splices.positions[{i}]", p) for i, p in enumerate(pos))
+        xs = tuple(_length(f"splices.positions[{i + 1}]", p) for i, p in enumerate(pos))
         if any(b <= a for a, b in zip(xs, xs[1:])):
             raise InputError("splices.positions", pos, "positions in increasing order")
         if "pieces" in kw and kw["pieces"] != len(xs) + 1:
