@@ -11,9 +11,13 @@
   combination and position: classification; bending at max |M|; shear at max |V|;
   bending with shear at the supports, point loads and max-M positions; lateral-torsional
   buckling of every segment between restraints with the numerical M_cr of the real
-  moment diagram and load height (and the closed-form C_1 value beside it as a
-  cross-check); deflection under variable actions (span/N) and, when asked, total
-  (characteristic) deflection; web bearing at both supports (EN 1993-1-5, type (c)).
+  moment diagram and load height (a closed form beside it only where a published
+  C_1, C_2 case fits; the C_1 used for k_c kept); deflection under variable actions
+  (span/N) and, when asked, total (characteristic) deflection; the natural frequency of
+  a floor beam; the web under every point load on a flange (EN 1993-1-5 6.6, 7.2); web
+  bearing at both supports where the beam bears (EN 1993-1-5, type (c)); the design force
+  of each intermediate lateral restraint (EN 1993-1-1 5.3.3). Slender webs and Class 4
+  sections are designed (EN 1993-1-5 sections 5 and 4), not refused.
 
 With ``section = "auto"`` it searches the job's families (honouring ``max_depth``) on
 the plain-float path, lightest first: cheap checks (bending, shear, deflection) before
@@ -615,7 +619,7 @@ def _support_bearing(ctx: _Context, case: _MassCase, section: Section, run: _Run
         run.add(calc.info(id="web_bearing", title=f"Web at the supports, {section.designation}",
                           clause="EN 1993-1-5:2006, 6.1",
                           note="beam on end connections: no bearing on the flange, web bearing not applicable; "
-                               "give beam.bearing_length where the beam sits on a bearing"))
+                               "give the stiff bearing length in the job where the beam sits on a bearing"))
         return
     for end, R, x in (("A", case.R_A, 0.0), ("B", case.R_B, ctx.L)):
         i = max(range(len(R)), key=lambda j: (abs(R[j]), -j))

@@ -639,7 +639,8 @@ def _F_Rd_type(section: Any, grade: str, kind: str, s_s: float, c: float, na: Na
     lam_first = f15.lambda_F(l_y=ly, t_w=tw, f_yw=f_yw, F_cr=Fcr)
     if kind == "a":
         calc.note("Load type (a) of EN 1993-1-5 Figure 6.1 (force through the flange, carried by web shear on "
-                  "both sides); unstiffened web, no transverse stiffeners ($a \\to \\infty$): $k_F$ = 6.")
+                  "both sides); unstiffened web, no transverse stiffeners (their spacing $a$ taken as infinite): "
+                  "$k_F$ = 6.")
     else:
         calc.note("Load type (c) of EN 1993-1-5 Figure 6.1 (force through the flange next to an unstiffened "
                   f"beam end), $c$ = {c:.0f} mm from the end of the stiff bearing to the beam end.")

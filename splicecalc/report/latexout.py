@@ -120,9 +120,14 @@ def check_latex(p: dict[str, Any]) -> str:
     u = p.get("utilisation")
     u_txt = r"$\infty$" if u is None else f"{u:.2f}"
     verdict = "\\calcok" if p.get("ok") else "\\calcfail"
+    d_txt, r_txt = fmt_number(p.get("demand")), fmt_number(p.get("resistance"))
     if p.get("status") == "not checked":     # core.record.NOT_CHECKED: no numbers, never a pass
         ut, u_txt, verdict = "", "-", "\\textcolor{failred}{\\textbf{NOT CHECKED}}"
-    out.append(f"\\calcverdict{{{fmt_number(p.get('demand'))}{ut}}}{{{fmt_number(p.get('resistance'))}{ut}}}"
+    elif p.get("status") == "info":          # core.record.INFO: information, no utilisation
+        u_txt, verdict = "-", "\\textbf{INFO}"
+        if not p.get("demand") and not p.get("resistance"):
+            ut, d_txt, r_txt = "", "-", "-"
+    out.append(f"\\calcverdict{{{d_txt}{ut}}}{{{r_txt}{ut}}}"
                f"{{{u_txt}}}{{{verdict}}}\\calcmark{{{anchor_name(str(p.get('id', '')), end=True)}}}")
     return "\n\n".join(out) + "\n"
 
