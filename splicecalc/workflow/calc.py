@@ -339,7 +339,8 @@ def design_connections(job: Job, design: BeamDesign, render: bool = True) -> tup
         return ()
     from ..joints.connections import design_end_connection
     from ..joints.connections.existing_member import reactions_by_action
-    from ..joints.connections.tying import tying_force_from_loads
+    from ..core.record import Calc
+    from ..joints.connections.tying import tying_force_from_loads, tying_record
 
     an = design.analysis
     uls = an.uls
@@ -351,9 +352,11 @@ def design_connections(job: Job, design: BeamDesign, render: bool = True) -> tup
         # the existing member takes the characteristic reaction of each action (with the beam self-weight),
         # the tie force comes from the beam's loads by the consequence class
         parts = reactions_by_action(an.loads, an.span_mm, end)
-        tying = tying_force_from_loads(an.loads, an.span_mm, spec.consequence_class, job.psi)
+        tcalc = Calc(render=render)
+        tying = tying_force_from_loads(an.loads, an.span_mm, spec.consequence_class, job.psi, tcalc)
         d = design_end_connection(design.section, job.beam.grade, V, spec, job.na, render=render, reactions=parts,
                                   tying=tying, psi=job.psi)
+        tie_rec = tying_record(tcalc, d.tie, d.tie_basis, spec.tying_given)
         existing_ids = {id(r) for r in d.existing.records}
         own = tuple(_relabel(r, end, f"End {end}") for r in d.records if id(r) not in existing_ids)
         ex = tuple(_relabel(r, end, f"End {end}") for r in d.existing.records)
@@ -362,6 +365,7 @@ def design_connections(job: Job, design: BeamDesign, render: bool = True) -> tup
             ex_ids = {r.id for r in d.existing.records}
             own = tuple(_relabel(r, end, f"End {end}") for r in d.records if r.id not in ex_ids)
             ex = tuple(_relabel(r, end, f"End {end}") for r in d.records if r.id in ex_ids)
+        own = (_relabel(tie_rec, end, f"End {end}"),) + own
         out.append(ConnectionPart(index=spec.index, end=end, V_Ed=V, combination=combo, design=d, records=own,
                                   existing_records=ex))
     return tuple(out)

@@ -18,6 +18,8 @@ STANDARDS: tuple[tuple[str, str], ...] = (
     ("EN 1990:2002", "Eurocode - Basis of structural design, with the UK National Annex"),
     ("EN 1991-1-1:2002", "Eurocode 1 - Actions on structures - Densities, self-weight, imposed loads for "
                          "buildings, with the UK National Annex"),
+    ("EN 1991-1-7:2006", "Eurocode 1 - Actions on structures - Accidental actions (tying), with the UK "
+                         "National Annex"),
     ("EN 1993-1-1:2005", "Eurocode 3 - Design of steel structures - General rules and rules for buildings, "
                          "with the UK National Annex (NA+A1:2014 to BS EN 1993-1-1:2005+A1:2014)"),
     ("EN 1993-1-5:2006", "Eurocode 3 - Plated structural elements, with the UK National Annex"),

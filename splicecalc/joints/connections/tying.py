@@ -55,4 +55,15 @@ def tying_force_from_loads(loads: Sequence[Any], span_mm: float, consequence_cla
     return T, basis
 
 
-__all__ = ["K_TIE", "accidental_load", "tying_force_from_loads"]
+def tying_record(calc: Calc, T: float, basis: str, given: bool) -> Any:
+    """An INFO record of the tie force used (the rendered steps of :func:`tying_force_from_loads` when
+    computed; the job's value when given)."""
+    if given:
+        calc.latex.clear()
+        calc.values.clear()
+    return calc.info(id="tie_force", title="Tie force (structural integrity)",
+                     clause="EN 1991-1-7:2006, A.5.1, Eq. (A.1)", demand=T, unit="N",
+                     note=("given in the job" if given else basis))
+
+
+__all__ = ["K_TIE", "accidental_load", "tying_force_from_loads", "tying_record"]
