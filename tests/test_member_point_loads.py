@@ -311,3 +311,42 @@ udl = "8 kN/m"
     with pytest.raises(InputError) as err:
         loads_job(text.replace('imposed = "separate"', 'imposed = "split"'))
     assert "beam.imposed" in str(err.value)
+
+
+# ------------------------------------------------------------------ slender webs in the search and by hand
+def test_search_can_choose_a_slender_web_section():
+    """406x140x39 UKB S355 (h_w/t_w = 59.5 > 72 eps = 58.6) used to be refused; it is now checked for
+    shear buckling (EN 1993-1-5 5) and chosen when it is the lightest that passes."""
+    job = Job(beam=BeamSpec(span=6000.0, grade="S355", families=("UKB",), restraints=(1500.0, 3000.0, 4500.0),
+                            max_depth=410.0, deflection_limit=200),
+              loads=(UDL("floor", "permanent", 18.0), UDL("office", "imposed", 18.0, category="B")))
+    d = design_beam(job)
+    assert d.ok and d.section.designation == "406x140x39 UKB"
+    assert d.record("shear").clause == "EN 1993-1-5:2006, 5.5, Eq. 5.10"
+    assert d.record("bending_shear").clause == "EN 1993-1-5:2006, 7.1, Eq. 7.1"
+
+
+def test_shear_buckling_762x267x134_by_hand():
+    """762x267x134 UKB S355: h 750.0, t_w 12.0, t_f 15.5 mm (BS 4-1, from memory); f_yw = 355 MPa for
+    t_w = 12 mm (EN 10025-2 Table 7); EN 1993-1-5 Eq. 5.5, Table 5.1 (non-rigid end post), Eq. 5.2."""
+    from splicecalc.members import check_shear
+    sec = get_section("762x267x134 UKB")
+    hw = 750.0 - 2 * 15.5
+    eps = sqrt(235 / 355)
+    assert hw / 12.0 > 72 * eps                                   # 59.9 > 58.6: shear buckling to be checked
+    lam_w = hw / (86.4 * 12.0 * eps)                               # 0.852
+    chi_w = 0.83 / lam_w                                           # 0.974 (lambda_w >= 0.83 / eta, eta = 1)
+    V_bw = chi_w * 355 * hw * 12.0 / sqrt(3)                       # 1720 kN
+    rec = check_shear(sec, "S355", 500e3)
+    assert rec.values["V_b_Rd"][0] == pytest.approx(V_bw / 1e3, rel=2e-3)
+    assert rec.resistance == pytest.approx(min(V_bw / 1e3, rec.values["V_pl_Rd"][0]), rel=1e-9)
+
+
+def test_slender_web_checks_render():
+    from splicecalc.core.record import Calc
+    from splicecalc.members import check_bending_shear, check_shear
+    sec = get_section("406x140x39 UKB")
+    for fn, kw in ((check_shear, dict(V_Ed=300e3)), (check_bending_shear, dict(M_Ed=150e6, V_Ed=400e3))):
+        plain = fn(sec, "S355", **kw)
+        rendered = fn(sec, "S355", calc=Calc(render=True), **kw)
+        assert rendered.latex and rendered.utilisation == pytest.approx(plain.utilisation, rel=1e-9)
