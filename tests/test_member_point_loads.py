@@ -350,3 +350,14 @@ def test_slender_web_checks_render():
         plain = fn(sec, "S355", **kw)
         rendered = fn(sec, "S355", calc=Calc(render=True), **kw)
         assert rendered.latex and rendered.utilisation == pytest.approx(plain.utilisation, rel=1e-9)
+
+
+def test_short_line_load_is_a_patch_load():
+    """A 300 mm long wall strip on the flange (shorter than h_w): EN 1993-1-5 section 6 with s_s = 300 mm,
+    F_Ed = 1.35 w s_s (Eq. 6.10a with a permanent load only)."""
+    job = Job(beam=BeamSpec(span=6000.0, grade="S355", section="457x191x67 UKB"),
+              loads=(UDL("wall", "permanent", 400.0, 2850.0, 3150.0),))
+    rec = design_beam(job).record("transverse_force_U1")
+    assert rec.demand == pytest.approx(1.35 * 400.0 * 0.3, rel=1e-9)
+    F_Rd = F_Rd_by_hand(453.4, 189.9, 8.5, 12.7, 355.0, s_s=300.0)
+    assert rec.resistance == pytest.approx(F_Rd / 1e3, rel=2e-3)

@@ -643,24 +643,32 @@ def _point_groups(ctx: _Context) -> list[tuple[float, str, tuple[str, ...], floa
 
 
 def _point_loads(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
-    """The web under every point load on a flange: EN 1993-1-5 6.6 Eq. 6.14 and, on the compression
-    flange, the interaction with bending 7.2 Eq. 7.2, each for its governing ULS combination. A load
-    applied through a connection to the web is a NOT CHECKED record (the web is checked locally with
-    that connection)."""
-    groups = ctx.point_groups
-    if not groups:
+    """The web under every point load on a flange (and every partial line load no longer than h_w, a
+    patch load of its length): EN 1993-1-5 6.6 Eq. 6.14 and, on the compression flange, the interaction
+    with bending 7.2 Eq. 7.2, each for its governing ULS combination. A load applied through a
+    connection to the web is a NOT CHECKED record (the web is checked locally with that connection)."""
+    h_w = section.h - 2.0 * section.tf
+    # short partial line loads (no longer than h_w) act on the flange like a point load spread over
+    # their length: checked the same way, with s_s = their length
+    patches = [(0.5 * (a + b), "flange", (ld.name,), b - a) for ld in ctx.job.loads if isinstance(ld, UDL)
+               for a, b in (ld.extent(ctx.L),) if not ld.is_full(ctx.L) and b - a <= h_w]
+    items = [("P", k, *g) for k, g in enumerate(ctx.point_groups, start=1)]
+    items += [("U", k, *g) for k, g in enumerate(patches, start=1)]
+    if not items:
         return
     M_c, _, _, _ = _M_c_Rd_fast(section, ctx)
     on_top = ctx.beam.load_level != "bottom flange"
     bl = ctx.beam.bearing_length
     end_a = -(0.5 * bl + ctx.beam.end_distance) if bl is not None else 0.0     # beam end positions
     end_b = ctx.L - end_a
-    for k, (x, how, names, s_s) in enumerate(groups, start=1):
+    for kind, k, x, how, names, s_s in items:
         label = ", ".join(names)
         where = f"x = {x / 1e3:.3g} m"
+        what = "point load" if kind == "P" else "short line load"
+        tag = f"{kind}{k}"
         if how == "web":
             run.add(not_checked(
-                id=f"web_connection_P{k}", title=f"Web at the connection of {label} ({where}), {section.designation}",
+                id=f"web_connection_{tag}", title=f"Web at the connection of {label} ({where}), {section.designation}",
                 clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", location_mm=x,
                 reason="the load is applied through a connection to the web (a secondary beam's end plate or fin "
                      "plate), not on a flange: EN 1993-1-5 section 6 does not apply; check the web locally with "
@@ -671,7 +679,10 @@ def _point_loads(ctx: _Context, case: _MassCase, section: Section, run: _Run, re
         F_Rd = res["F_Rd"]
         best6 = best7 = None
         for i, (combo, beam) in enumerate(zip(case.uls, case.beams)):
-            F = sum(ld.P for ld in combo.loads if isinstance(ld, PointLoad) and ld.name in names)
+            if kind == "P":
+                F = sum(ld.P for ld in combo.loads if isinstance(ld, PointLoad) and ld.name in names)
+            else:
+                F = sum(ld.w * s_s for ld in combo.loads if isinstance(ld, UDL) and ld.name in names)
             if F <= 0.0:
                 continue
             M = abs(float(beam.M(x)))
@@ -685,26 +696,27 @@ def _point_loads(ctx: _Context, case: _MassCase, section: Section, run: _Run, re
             continue
         _, i, F, M = best6
         calc = _calc(render)
-        calc.note(f"Point load {label} at {where} on the {'top' if on_top else 'bottom'} flange, stiff bearing "
-                  f"$s_s$ = {s_s:g} mm.")
+        calc.note(f"{what.capitalize()} {label} at {where} on the {'top' if on_top else 'bottom'} flange, "
+                  + (f"stiff bearing $s_s$ = {s_s:g} mm." if kind == "P" else
+                     f"{s_s:g} mm long: a patch load with $s_s$ = its length."))
         rec = check_transverse_force(section, ctx.grade, F, s_s, ctx.na, calc, c=max(c, 0.0), location_mm=x,
                                      name=label)
-        run.add(replace(rec, id=f"transverse_force_P{k}",
-                        title=f"Web under point load {label} ({where}), {section.designation}"), case.uls[i].name)
+        run.add(replace(rec, id=f"transverse_force_{tag}",
+                        title=f"Web under {what} {label} ({where}), {section.designation}"), case.uls[i].name)
         if on_top:
             assert best7 is not None
             _, i, F, M = best7
             rec = check_transverse_bending(section, ctx.grade, F, M, F_Rd, ctx.na, _calc(render), location_mm=x,
                                            name=label)
-            run.add(replace(rec, id=f"transverse_bending_P{k}",
-                            title=f"Point load {label} and bending ({where}), {section.designation}"),
+            run.add(replace(rec, id=f"transverse_bending_{tag}",
+                            title=f"{what.capitalize()} {label} and bending ({where}), {section.designation}"),
                     case.uls[i].name)
         else:
             calc = _calc(render)
             calc.note("The load acts on the tension flange: EN 1993-1-5 7.2(2) asks for section 6 and "
                       "EN 1993-1-1 6.2.1(5) only; bending is checked by the bending checks.")
-            run.add(calc.info(id=f"transverse_bending_P{k}",
-                              title=f"Point load {label} and bending ({where}), {section.designation}",
+            run.add(calc.info(id=f"transverse_bending_{tag}",
+                              title=f"{what.capitalize()} {label} and bending ({where}), {section.designation}",
                               clause="EN 1993-1-5:2006, 7.2(2)", location_mm=x,
                               note="load on the tension flange: no 7.2(1) interaction"))
 

@@ -675,11 +675,13 @@ def transverse_resistance(section: Any, grade: str, s_s: float = 0.0, c: float |
         ss = calc(f15.s_s_eff, s_s=ss, h_w=h_w)
         calc.note("The stiff bearing length is limited to $h_w$ (EN 1993-1-5 6.3(1)).")
     kinds = ["a"]
+    c_ = 0.0
     if c is not None:
         c_ = require_non_negative("c", c, "mm")
-        kinds = ["a", "c"]
-    else:
-        c_ = 0.0
+        # type (c) is the case of a force next to the end: while its k_F = 2 + 6 (s_s + c)/h_w is below
+        # the 6 of type (a); farther from the end the force is of type (a)
+        if 2.0 + 6.0 * (ss + c_) / h_w < 6.0:
+            kinds = ["a", "c"]
     if len(kinds) == 2:   # pick the governing type on floats, render that one
         ra = _F_Rd_type(section, grade, "a", ss, c_, na, Calc())
         rc = _F_Rd_type(section, grade, "c", ss, c_, na, Calc())
