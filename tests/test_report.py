@@ -50,22 +50,34 @@ COND = ("$$\n\\begin{aligned}\n\\mathrm{ratio} &= \\frac{ V_{Ed} }{ V_{pl_{Rd}} 
 
 
 # ------------------------------------------------------------------ equation splitting
-def test_short_row_is_split_into_symbolic_numeric_result():
+def test_short_step_is_set_on_one_line():
     out = latexfix.break_handcalcs(SHORT)
     assert "\\begin{aligned}" not in out and "\\begin{calcsteps}" in out
     rows = out.split("\\begin{calcsteps}")[1].split("\\end{calcsteps}")[0].strip().split("\\\\*")
-    assert len(rows) == 3                                   # symbolic, numeric, result
-    assert rows[0].strip().startswith("V_{pl_{Rd}} &= \\calcfit{A_{v}")
-    assert "355.000" in rows[1] and "839.173" in rows[2]
+    assert len(rows) == 1                                   # symbol = formula = numbers = result
+    row = rows[0].strip()
+    assert row.startswith("V_{pl_{Rd}} &= \\calcfit{A_{v}")
+    assert row.index("A_{v}") < row.index("355.000") < row.index("839.173")
     assert "\\calclhs{V_{pl_{Rd}}}" in out                  # lhs measured for the row width
 
 
-def test_long_form_and_several_steps_keep_every_piece():
+def test_long_step_is_split_into_symbolic_numeric_result():
+    long_pieces = ["\\operatorname{min} \\left( \\frac{ 1 }{ \\Phi_{LT} + \\sqrt { \\Phi_{LT} ^{ 2 } - "
+                   "\\beta \\cdot \\lambda_{LT} ^{ 2 } } } ,\\  1.0 \\right)",
+                   "\\operatorname{min} \\left( \\frac{ 1 }{ 0.792 + \\sqrt { 0.792 ^{ 2 } - 0.750 \\cdot "
+                   "0.744 ^{ 2 } } } ,\\  1.0 \\right)", "0.798"]
+    assert sum(latexfix.shown_chars(p) for p in long_pieces) > latexfix.ONE_LINE_CHARS
+    tex = "$$\n\\begin{aligned}\n\\chi_{LT} &= " + " = ".join(long_pieces[:2]) + " &= 0.798\n\\end{aligned}\n$$"
+    out = latexfix.break_handcalcs(tex)
+    body = out.split("\\begin{calcsteps}")[1].split("\\end{calcsteps}")[0]
+    assert body.count("&= \\calcfit{") == 3 and "0.744" in body and "\\Phi_{LT}" in body
+
+
+def test_several_steps_keep_every_piece():
     out = latexfix.break_handcalcs(LONG)
     body = out.split("\\begin{calcsteps}")[1].split("\\end{calcsteps}")[0]
     steps = body.split("\\\\[0.9ex]")
     assert len(steps) == 2                                  # two statements -> two steps
-    assert steps[0].count("&= \\calcfit{") == 3 and steps[1].count("&= \\calcfit{") == 3
     for piece in ("8550.769", "189.900", "3727.3", "3638.0", "\\operatorname{max}"):
         assert piece in out
 
@@ -352,7 +364,8 @@ def test_demo_page_renders_not_blank(demo, tmp_path):
     img = mpimg.imread(png)
     grey = np.asarray(img[..., :3]).mean(axis=2) if img.ndim == 3 else np.asarray(img)
     dark = float((grey < 0.5).mean())
-    assert 0.01 < dark < 0.5, dark                           # ink on the page, but not a black page
+    # ink on the page, but not a black page (a sheet of rendered equations is about 0.4 % ink at 40 dpi)
+    assert 0.002 < dark < 0.5, dark
 
 
 @pytest.mark.pdf

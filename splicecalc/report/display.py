@@ -87,17 +87,34 @@ def _unit_md(unit: str) -> str:
     return f" {unit}" if unit else ""
 
 
+#: how a check is laid out: in full (heading, rendered steps, verdict) or as one row of a rule table
+LAYOUTS = ("full", "row")
+
+
 class CheckOutput:
     """Rich display of one check (Jupyter calls ``_repr_mimebundle_``)."""
 
-    def __init__(self, record: CheckRecord) -> None:
+    def __init__(self, record: CheckRecord, layout: str = "full", label: str = "") -> None:
         if not isinstance(record, CheckRecord):
             raise TypeError(f"show_check expects a CheckRecord, got {type(record).__name__}")
+        if layout not in LAYOUTS:
+            raise ValueError(f"layout must be one of {', '.join(LAYOUTS)}, not {layout!r}")
         self.record = record
+        self.layout = layout
+        self.label = label
 
     def _repr_mimebundle_(self, include: Any = None, exclude: Any = None) -> dict[str, Any]:
         r = self.record
         p = check_payload(r)
+        if self.layout == "row" and r.checked:
+            # one row of a table of rules (detailing, or a check whose working is shown elsewhere)
+            p["layout"] = "row"
+            if self.label:
+                p["label"] = self.label         # the row's text: the title without its part's prefix
+            u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf")
+            md = (f"| {r.title} | {fmt_number(r.demand)}{_unit_md(r.unit)} | {fmt_number(r.resistance)}"
+                  f"{_unit_md(r.unit)} | {u} | {r.verdict} | {r.clause} |")
+            return {CHECK_MIME: p, "text/markdown": md, "text/plain": r.summary_line()}
         u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf")
         md = [f"**{r.title}** — *{r.clause}*", ""]
         if r.guidance:
@@ -156,17 +173,18 @@ def summary_output(records: Iterable[CheckRecord], title: str = "Summary of chec
     rows = []
     for r in recs:
         if not r.checked:
-            rows.append([r.title, r.clause, "-", "-", "", "-", r.verdict])
+            rows.append([r.title, "-", "-", "", "-", r.verdict])
             continue
         unit = f"${UNIT_TEX.get(r.unit, r.unit)}$" if r.unit else ""
         if not r.is_check:
-            rows.append([r.title, r.clause, fmt_number(r.demand), "-", unit, "-", r.verdict])
+            rows.append([r.title, fmt_number(r.demand), "-", unit, "-", r.verdict])
             continue
-        rows.append([r.title, r.clause, fmt_number(r.demand), fmt_number(r.resistance), unit,
+        rows.append([r.title, fmt_number(r.demand), fmt_number(r.resistance), unit,
                      fmt_utilisation(r.utilisation), r.verdict])
     notes = verdict_sentence(recs)
-    return TableOutput(["Check", "Clause", "$E_d$", "$R_d$", "Unit", "Util.", "Verdict"], rows,
-                       title=title, align="llrrlrl", kind="summary", notes=notes)
+    # the clause of each check is printed with its working and in the summary by part
+    return TableOutput(["Check", "$E_d$", "$R_d$", "Unit", "Util.", "Verdict"], rows,
+                       title=title, align="lrrlrl", kind="summary", notes=notes)
 
 
 def publish(obj: Any) -> None:
@@ -194,9 +212,10 @@ def publish(obj: Any) -> None:
     publish_display_data(data, metadata or None)
 
 
-def show_check(record: CheckRecord) -> None:
-    """Display one check: title and clause, rendered steps, verdict line."""
-    publish(CheckOutput(record))
+def show_check(record: CheckRecord, layout: str = "full", label: str = "") -> None:
+    """Display one check: title and clause, rendered steps, verdict line (``layout="row"``: one
+    table row with E_d, R_d, utilisation and clause, under a rule-table heading)."""
+    publish(CheckOutput(record, layout, label))
 
 
 def show_summary(records: Iterable[CheckRecord], title: str = "Summary of checks") -> None:

@@ -134,6 +134,18 @@ def _steps(body: str) -> list[tuple[str, list[str]]]:
     return steps
 
 
+#: a step whose pieces print in fewer characters than this is set on one line (about half the text width)
+ONE_LINE_CHARS = 44
+_CMD_RE = re.compile(r"\\(mathrm|operatorname|left|right|text|mathit|displaystyle)\b|\\[,;: ]|[{}^_ ]")
+_SYM_RE = re.compile(r"\\[A-Za-z]+")
+
+
+def shown_chars(piece: str) -> int:
+    """Rough count of the characters a LaTeX math piece prints (commands and braces not counted,
+    a symbol command counted as one)."""
+    return len(_SYM_RE.sub("x", _CMD_RE.sub("", piece)))
+
+
 def _format_steps(steps: list[tuple[str, list[str]]]) -> str:
     """One ``calcsteps`` (align*) per block; rows of a step are kept together (``\\*``)."""
     measure = "".join(f"\\calclhs{{{lhs}}}" for lhs, _ in steps if lhs)
@@ -141,6 +153,10 @@ def _format_steps(steps: list[tuple[str, list[str]]]) -> str:
     for lhs, pieces in steps:
         if not lhs:
             blocks.append("&\\calcfit{" + " ".join(pieces) + "}")
+            continue
+        if len(pieces) > 1 and sum(shown_chars(p) for p in pieces) <= ONE_LINE_CHARS:
+            # a short step reads best on one line: symbol = formula = numbers = result
+            blocks.append(f"{lhs} &= \\calcfit{{{' = '.join(pieces)}}}")
             continue
         rows = [f"{lhs} &= \\calcfit{{{pieces[0]}}}"]
         rows += [f"&= \\calcfit{{{p}}}" for p in pieces[1:]]

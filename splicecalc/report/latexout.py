@@ -100,8 +100,26 @@ def steps_latex(steps: list[str]) -> str:
                      for s in steps if s.strip())
 
 
+def _unit_tex(unit: str) -> str:
+    return f"\\,${UNIT_TEX.get(unit, escape_tex(unit))}$" if unit else ""
+
+
+def rule_row_latex(p: dict[str, Any]) -> str:
+    """One check as a row of a rule table (``\\calcrule``: rule, E_d, R_d, u, verdict, clause)."""
+    ut = _unit_tex(p.get("unit", ""))
+    u = p.get("utilisation")
+    u_txt = r"$\infty$" if u is None else f"{u:.2f}"
+    verdict = "\\calcok" if p.get("ok") else "\\calcfail"
+    start = f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}"
+    return (f"\\calcrule{{{start}{escape_tex(p.get('label') or p.get('title', ''))}}}{{{fmt_number(p.get('demand'))}{ut}}}"
+            f"{{{fmt_number(p.get('resistance'))}{ut}}}{{{u_txt}}}{{{verdict}}}{{{escape_tex(p.get('clause', ''))}}}"
+            f"\\calcmark{{{anchor_name(str(p.get('id', '')), end=True)}}}\n")
+
+
 def check_latex(p: dict[str, Any]) -> str:
-    """One check: heading with clause, steps, verdict line."""
+    """One check: heading with clause, steps, verdict line (a row of a rule table for ``layout`` "row")."""
+    if p.get("layout") == "row" and p.get("status") != "not checked":
+        return rule_row_latex(p)
     out = [f"\\calccheck{{{escape_tex(p.get('title', ''))}}}{{{escape_tex(p.get('clause', ''))}}}"
            f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}\\calcrevmark{{{anchor_name(str(p.get('id', '')))}}}"]
     if p.get("guidance"):
@@ -169,13 +187,16 @@ def table_latex(p: dict[str, Any]) -> str:
     align = p.get("align") or "l" * len(cols)
     kind = p.get("kind", "data")
     if kind == "summary":
-        # check title and clause wrap; numbers stay on one line
-        spec = (">{\\raggedright\\arraybackslash}p{0.30\\linewidth}"
-                ">{\\raggedright\\arraybackslash}p{0.23\\linewidth}" + "".join(align[2:]))
+        # the check title wraps; numbers stay on one line
+        spec = ">{\\raggedright\\arraybackslash}p{0.58\\linewidth}" + "".join(align[1:])
+    elif kind == "parts":
+        spec = (">{\\raggedright\\arraybackslash}p{0.26\\linewidth}"
+                ">{\\raggedright\\arraybackslash}p{0.47\\linewidth}" + "".join(align[2:]))
     else:
         spec = _wrapping_spec(p["rows"], align, cols)
     head = " & ".join(f"\\textbf{{{cell_tex(c)}}}" for c in cols) + " \\\\"
-    lines = [f"\\begin{{calctable}}{{{spec}}}"]
+    size = "[\\footnotesize]" if kind in ("summary", "parts") else ""
+    lines = [f"\\begin{{calctable}}{size}{{{spec}}}"]
     if p.get("title"):
         lines.append(f"\\multicolumn{{{len(cols)}}}{{@{{}}l}}{{\\calctabletitle{{{escape_tex(p['title'])}}}}} \\\\")
     lines += ["\\toprule", head, "\\midrule", "\\endhead",
@@ -183,7 +204,7 @@ def table_latex(p: dict[str, Any]) -> str:
               "\\endfoot", "\\bottomrule", "\\endlastfoot"]
     for row in p["rows"]:
         cells = [cell_tex(c) for c in row]
-        if kind == "summary" and row and row[-1].strip().upper() != "OK":
+        if kind in ("summary", "parts") and row and row[-1].strip().upper() != "OK":
             cells[-1] = f"\\textbf{{{cells[-1]}}}"
         lines.append(" & ".join(cells) + " \\\\")
     lines.append("\\end{calctable}")

@@ -14,6 +14,7 @@ results); nothing is recomputed for display.
 from __future__ import annotations
 
 import math
+import re
 import os
 import sys
 from typing import Any, Iterable, Sequence
@@ -129,6 +130,73 @@ def show_checks(records: Iterable[CheckRecord]) -> None:
     """Display each record once (rendered steps and verdict; publishes CHECK_MIME)."""
     for r in records:
         show_check(r)
+
+
+#: clauses of detailing rules (spacing, edge and end distances, fits, access limits): shown as table rows
+RULE_CLAUSES = ("EN 1993-1-8:2005, 3.5, Table 3.3", "EN 1993-1-8:2005, 3.5(1)", "EN 1993-1-8:2005, 5.2.2.2",
+                "Job file")
+#: a rule's rendered working longer than this (characters of LaTeX) is a check of its own, shown in full
+RULE_MAX_LATEX = 300
+#: record-title prefixes of a part (``Splice S1: ``, ``End A: ``), left out of a rule table's rows
+PART_PREFIXES = ("Splice S", "End ")
+RULES_NOTE = ("For a minimum (end or edge distance, spacing, depth) $E_d$ is the value required and $R_d$ the "
+              "value provided; for a maximum $E_d$ is the value provided and $R_d$ the limit.")
+
+
+def is_detailing_rule(rec: CheckRecord) -> bool:
+    """A made check of a detailing rule (spacing, distances, fit, access) with at most a one-line working."""
+    return (rec.checked and (rec.has("detailing") or rec.clause.startswith(RULE_CLAUSES)) and len(rec.latex) <= 1
+            and sum(len(x) for x in rec.latex) <= RULE_MAX_LATEX)
+
+
+def show_rules(records: Sequence[CheckRecord], title: str, note: str = RULES_NOTE) -> None:
+    """A table of checks, one row each (rule, E_d, R_d, utilisation, verdict, clause); each record is
+    published once (CHECK_MIME) as a row. A NOT CHECKED record is shown in full."""
+    recs = list(records)
+    if not recs:
+        return
+    head = f"\\calcrulehead{{{_tex_text(title)}}}{{{note}}}"
+    md = f"**{title}**\n\n{note}\n\n| Rule | E_d | R_d | u | Verdict | Clause |\n|:--|--:|--:|--:|:-:|:--|"
+    publish(_Bundle({"text/latex": head, "text/markdown": md, "text/plain": title}))
+    for r in recs:
+        label = r.title.split(": ", 1)[1] if r.title.startswith(PART_PREFIXES) and ": " in r.title else ""
+        show_check(r, layout="row" if r.checked else "full", label=label[:1].upper() + label[1:])
+    publish(_Bundle({"text/latex": "\\calcruleend", "text/markdown": "", "text/plain": ""}))
+
+
+_SEGMENT = re.compile(r"_(\d+)$")
+
+
+def repeated_checks(records: Sequence[CheckRecord]) -> dict[str, CheckRecord]:
+    """The same check made again for another segment (ids ``ltb_1``, ``ltb_2``...: same check, same
+    clause): ``id -> the record of the family shown in full`` (the highest utilisation), for every
+    other member of the family."""
+    fam: dict[tuple[str, str], list[CheckRecord]] = {}
+    for r in records:
+        if r.checked and _SEGMENT.search(r.id):
+            fam.setdefault((_SEGMENT.sub("", r.id), r.clause), []).append(r)
+    out: dict[str, CheckRecord] = {}
+    for rs in fam.values():
+        if len(rs) > 1:
+            g = max(rs, key=lambda r: r.utilisation)
+            out.update({r.id: g for r in rs if r is not g})
+    return out
+
+
+def show_part_checks(records: Sequence[CheckRecord], rules_title: str) -> None:
+    """Strength checks in full (rendered working); the same check at further segments as one table
+    referring to the governing segment's working; then the detailing rules of the part as one table."""
+    recs = list(records)
+    strength = [r for r in recs if not is_detailing_rule(r)]
+    again = repeated_checks(strength)
+    show_checks([r for r in strength if r.id not in again])
+    governing = {g.id: g for g in again.values()}
+    for g in governing.values():
+        same = [r for r in strength if r.id in again and again[r.id].id == g.id]
+        show_rules(same, f"{g.title.split(',')[0]}: further segments (working as for {g.title})",
+                   note="Each row is the check above made for that segment with its own moments, length and "
+                        "critical moment; the working is the same.")
+    show_rules([r for r in recs if is_detailing_rule(r)], rules_title)
 
 
 # ======================================================================== inputs
@@ -380,7 +448,7 @@ def show_member(result: CalcResult) -> None:
                    notes="Each section with its worst check. A section stopped by the first checks (bending, "
                          "shear, deflection, floor frequency) shows the worst of those; one that reached the "
                          "lateral-torsional buckling stage was checked in full.")
-    show_checks(result.member_records)
+    show_part_checks(result.member_records, "Member: detailing rules")
 
 
 # ======================================================================== splices
@@ -428,7 +496,7 @@ def show_splice_positions(result: CalcResult) -> None:
                  "yes" if pos.equal_feasible else "no (inside a clearance zone)"]]
         show_table(["Cutting", "Positions (m)", "Worst demand", "Clear of supports, loads, restraints"], rows,
                    align="llrl", title="Comparison with equal cutting")
-    show_checks(result.position_records)
+    show_part_checks(result.position_records, "Access limits and clearances")
     slip = getattr(result, "slip_checks", ())
     if slip:
         show_text("**Slip of the category A splices.** Bolts in clearance holes slip before they bear: each "
@@ -462,14 +530,8 @@ def splice_layout_rows(part: Any, plate_grade: str = "") -> list[list[str]]:
     return rows
 
 
-def show_splice(result: CalcResult, part: Any) -> None:
-    """One splice: heading, forces (rendered), layout, drawing, alternatives, checks."""
-    d = part.design
-    if math.isfinite(part.x_mm):
-        show_heading(f"Splice {part.label} at x = {part.x_mm / 1000:.3f} m")
-    else:
-        show_heading("Splice design" + (f": {part.combination}" if part.combination else ""))
-    fo = d.forces
+def _splice_forces_table(part: Any) -> None:
+    fo = part.design.forces
     rows = [["Design moment (governing combination)", "$M_{Ed}$", f"{fo.M_Ed / 1e6:.1f}", _u("kNm")],
             ["Shear force", "$V_{Ed}$", f"{abs(fo.V_Ed) / 1e3:.1f}", _u("kN")],
             ["Axial force (tension +)", "$N_{Ed}$", f"{fo.N_Ed / 1e3:.1f}", _u("kN")],
@@ -487,6 +549,21 @@ def show_splice(result: CalcResult, part: Any) -> None:
                      _u("kNm")])
     show_table(["Force", "Symbol", "Value", "Unit"], rows, align="llrl",
                title=f"Forces at splice {part.label} ({part.combination})")
+
+
+def _splice_heading(part: Any) -> None:
+    if math.isfinite(part.x_mm):
+        show_heading(f"Splice {part.label} at x = {part.x_mm / 1000:.3f} m")
+    else:
+        show_heading("Splice design" + (f": {part.combination}" if part.combination else ""))
+
+
+def show_splice(result: CalcResult, part: Any) -> None:
+    """One splice: heading, forces (rendered), layout, drawing, alternatives, strength checks in full,
+    detailing rules as one table."""
+    d = part.design
+    _splice_heading(part)
+    _splice_forces_table(part)
     show_steps(d.force_latex, intro="Share of the forces between flanges and web, and the web bolt group:")
     rows = splice_layout_rows(part, getattr(part.spec, "plate_grade", ""))
     show_table(["Item", "Layout"], rows, align="ll", title=f"Layout of splice {part.label}")
@@ -498,42 +575,98 @@ def show_splice(result: CalcResult, part: Any) -> None:
                  f"{a.cost:.1f}", f"{a.max_utilisation:.2f}"] for a in d.alternatives]
         show_table(["Bolts", "No. of bolts", "Plates (kg)", "Cost", "Max util."], rows, align="lrrrr",
                    title="Alternatives considered (also passing)")
-    show_checks(part.records)
+    show_part_checks(part.records, f"Splice {part.label}: detailing rules")
+
+
+def show_splice_as(result: CalcResult, part: Any, first: Any) -> None:
+    """A splice arranged like ``first`` (same bolts, rows, pitches and plate sizes; plate thickness may
+    differ): its own forces and layout, every check as one table row, the working referred to ``first``."""
+    _splice_heading(part)
+    _splice_forces_table(part)
+    grade = getattr(part.spec, "plate_grade", "")
+    mine, theirs = splice_layout_rows(part, grade), splice_layout_rows(first, grade)
+    diff = [f"{a[0].lower()}: {a[1]} ({first.label}: {b[1]})" for a, b in zip(mine[:-2], theirs[:-2]) if a != b]
+    show_text(f"**Arranged as splice {first.label}**: the same bolts, rows, pitches and plate sizes"
+              + (", except " + "; ".join(diff) if diff else "") + f". Every check below is made for the forces "
+              f"and plates of {part.label} with the formulas shown in full for {first.label}.")
+    if diff:
+        show_table(["Item", "Layout"], mine, align="ll", title=f"Layout of splice {part.label}")
+    if part.design.notes:
+        show_list(part.design.notes, "Notes")
+    show_rules(part.records, f"Splice {part.label}: every check (working as for {first.label})")
+
+
+_THICKNESS = re.compile(r"^(\d+(?:\.\d+)?) x \d+(?:\.\d+)? x ")
+
+
+def same_splice_layout(a: Any, b: Any) -> bool:
+    """True when two splices have the same bolts, rows, pitches and plate sizes (thickness aside)."""
+    pa = getattr(a.spec, "plate_grade", "")
+    ra, rb = splice_layout_rows(a, pa)[:-2], splice_layout_rows(b, pa)[:-2]
+    return [[k, _THICKNESS.sub(r"\1 x t x ", v)] for k, v in ra] == [[k, _THICKNESS.sub(r"\1 x t x ", v)] for k, v in rb]
 
 
 def show_splices(result: CalcResult) -> None:
-    """Every splice of the beam, one section each."""
+    """Every splice of the beam, one section each; a splice laid out like an earlier one refers to it."""
     if not result.splices:
         show_text("No splice: the beam is delivered in one piece.")
         return
+    shown: list[Any] = []
     for part in result.splices:
-        show_splice(result, part)
+        first = next((f for f in shown if same_splice_layout(f, part)), None)
+        if first is None:
+            show_splice(result, part)
+            shown.append(part)
+        else:
+            show_splice_as(result, part, first)
 
 
 # ======================================================================== connections, existing
-def show_connection(result: CalcResult, part: Any) -> None:
-    """One end connection: heading, reaction, chosen detail, checks, warnings."""
+def _connection_head(part: Any) -> None:
     d = part.design
     spec = part.spec
-    show_heading(f"End connection at support {part.end} ({spec.connection})")
+    show_heading(f"End connection at support {part.end} ({spec.connection.replace('_', ' ')})")
     rows = [["Design reaction (largest ULS)", f"{part.V_Ed / 1e3:.1f} kN", part.combination],
             ["Tying force (accidental, structural integrity)", f"{d.tie / 1e3:.1f} kN", d.tie_basis],
             ["Existing member", getattr(spec.existing_member, "designation", ""), spec.existing_face]]
     show_table(["Item", "Value", "Source"], rows, align="lll", title=f"Support {part.end} actions")
     desc = d.detail.describe()
     show_text(f"**Detail.** {desc[:1].upper() + desc[1:]}.\n\n{d.choice}")
-    show_checks(part.records)
+
+
+def show_connection(result: CalcResult, part: Any, like: Any = None) -> None:
+    """One end connection: heading, reaction, chosen detail, checks, warnings.
+
+    ``like``: an end connection already shown with the same detail; this one's checks are then
+    one table of rows with the working referred to it.
+    """
+    d = part.design
+    _connection_head(part)
+    if like is None:
+        if hasattr(d, "drawing_data"):
+            show_drawing(d.drawing_data(), f"End {part.end}: elevation and section of the connection, to scale, "
+                                           "dimensions in mm.")
+        show_part_checks(part.records, f"End {part.end}: detailing rules")
+    else:
+        show_text(f"**Same detail as end {like.end}**: every check below is made for the reaction at "
+                  f"{part.end} with the formulas shown in full for end {like.end}.")
+        show_rules(part.records, f"End {part.end}: every check (working as for end {like.end})")
     if d.warnings:
         show_list(d.warnings, "Warnings")
 
 
 def show_connections(result: CalcResult) -> None:
-    """Every end connection."""
+    """Every end connection (one with the same detail as an earlier one refers to it)."""
     if not result.connections:
         show_text("No `[[support]]` table in the job: the end connections are not designed in this package.")
         return
+    shown: list[Any] = []
     for part in result.connections:
-        show_connection(result, part)
+        like = next((c for c in shown if c.spec.connection == part.spec.connection
+                     and c.design.detail.describe() == part.design.detail.describe()), None)
+        show_connection(result, part, like)
+        if like is None:
+            shown.append(part)
 
 
 def show_existing(result: CalcResult) -> None:
@@ -564,7 +697,8 @@ def show_existing(result: CalcResult) -> None:
         show_text(ex.text[0].upper() + ex.text[1:] + ("." if not ex.text.endswith(".") else ""))
         member = ex.member
         member_ids = {f"{part.end}.{r.id}" for r in member.records} if member is not None else set()
-        show_checks(r for r in part.existing_records if r.id not in member_ids)
+        show_part_checks([r for r in part.existing_records if r.id not in member_ids],
+                         f"Existing member at {part.end}: detailing rules")
         if member is None:
             continue
         what = {"column": "column", "beam": "supporting beam"}.get(member.kind, "member")
@@ -575,17 +709,31 @@ def show_existing(result: CalcResult) -> None:
             show_table(["Load", "Action", "Characteristic value", "Where"], [list(r) for r in member.load_rows],
                        align="llrl", title=f"Loads on the existing {what} (characteristic)",
                        notes=(f"Governing combination: {member.combination}." if member.combination else ""))
-        show_checks(r for r in part.existing_records if r.id in member_ids)
+        show_part_checks([r for r in part.existing_records if r.id in member_ids],
+                         f"Existing {what} at {part.end}: detailing rules")
 
 
 # ======================================================================== summary, references, cautions
 def show_summary(result: CalcResult) -> None:
-    """Every record of the package, highest utilisation first (each listed once)."""
+    """The governing check of each part (member, positions, each splice, each end connection, each
+    existing member), then every record of the package, highest utilisation first (each listed once)."""
+    from .parts import job_parts
+
     recs = result.summary_records
+    n_bad = sum(not r.ok for r in recs)
     gov = result.governing
-    show_text(f"**{verdict_sentence(recs)}** "
+    show_text(("**All checks pass.** " if n_bad == 0 else f"**{n_bad} check(s) NOT OK.** ")
               + (f"Governing: {gov.title} (utilisation {fmt_utilisation(gov.utilisation)}). " if gov else "")
               + result.headline + ".")
+    rows = []
+    for part in job_parts(result):
+        g = part.governing
+        if g is None:
+            continue
+        rows.append([part.title, f"{part.short_title(g)} ({g.clause})", str(len(part.records)),
+                     fmt_utilisation(g.utilisation), "OK" if part.ok else "NOT OK"])
+    publish(TableOutput(["Part", "Governing check (clause)", "Checks", "Util.", "Verdict"], rows, align="llrrl",
+                        title="Summary by part: the governing check of each", kind="parts"))
     publish(summary_output(recs, title=f"Summary of the {len(recs)} checks (highest utilisation first)"))
 
 
