@@ -105,8 +105,9 @@ class PackageRecords:
                 if t not in out:
                     out.append(t)
         if any(getattr(s.spec, "category", "") == "A" for s in self.splices):
+            from ..design.splice_plan import category_b_needed
             slip = getattr(self, "slip_checks", ())
-            if any(r.has("slip") and not r.ok for r in slip):
+            if category_b_needed(slip):
                 out.append("The category A (bearing) splices slip in their clearance holes and the kinks take the "
                            "deflection past its limit: specify preloaded bolts, category B (slip-resistant at SLS, "
                            "EN 1993-1-8 3.4.1), or fitted bolts.")
