@@ -6,7 +6,7 @@ re-derived here.
 
 from __future__ import annotations
 
-from ..core.errors import require_positive
+from ..core.errors import InputError, require_positive
 from ..joints import bolts, welds
 from ..materials import UK_NA, NationalAnnex, steel
 
@@ -50,6 +50,8 @@ def bolt_summary(size: str, bolt_class: str = "8.8", friction_class: str = "A",
 def weld_summary(leg_mm: float, grade: str = "S275", na: NationalAnnex = UK_NA) -> dict:
     """Fillet weld resistance per mm, EN 1993-1-8:2005, 4.5.3.3 (simplified method)."""
     s = require_positive("leg", leg_mm, "mm")
+    if not 3.0 <= s <= 50.0:      # EN 1993-1-8 4.5.2(2): throat >= 3 mm; 50 mm is beyond any fillet weld
+        raise InputError("leg", leg_mm, "a fillet weld leg from 3 mm to 50 mm", "Write e.g. 8")
     mat = steel(grade, 16.0)
     beta_w = welds.beta_w_for(mat.grade)
     a = welds.a_throat(s)

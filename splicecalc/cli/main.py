@@ -13,7 +13,7 @@ from __future__ import annotations
 import argparse
 import json
 import sys
-from typing import Callable
+from typing import Any, Callable
 
 from ..core.errors import InputError
 
@@ -53,6 +53,9 @@ def _cmd_section(args: argparse.Namespace) -> int:
 def _cmd_sections(args: argparse.Namespace) -> int:
     from ..sections import list_sections
 
+    for opt, v in (("--max-depth", args.max_depth), ("--min-wpl", args.min_wpl)):
+        if v is not None and not (v > 0.0 and v < 1e6):
+            raise InputError(opt, v, "a number > 0 (mm for --max-depth, cm3 for --min-wpl)")
     fam = args.family.upper() if args.family else None
     if fam and fam not in ("UKB", "UKC", "IPE", "HEA", "HEB"):
         raise InputError("family", args.family, "one of UKB, UKC, IPE, HEA, HEB")
@@ -137,8 +140,15 @@ def _optional(module: str, attr: str):
         return None
 
 
+class _Parser(argparse.ArgumentParser):
+    """argparse with one-line errors (``splicecalc: error: ...``, exit 2) like every other error."""
+
+    def error(self, message: str) -> Any:  # type: ignore[override]
+        self.exit(2, f"splicecalc: error: {' '.join(message.split())} (see: {self.prog} --help)\n")
+
+
 def build_parser() -> argparse.ArgumentParser:
-    p = argparse.ArgumentParser(prog="splicecalc", description=__doc__.split("\n\n")[0])
+    p = _Parser(prog="splicecalc", description=__doc__.split("\n\n")[0])
     sub = p.add_subparsers(dest="command", required=True)
 
     s = sub.add_parser("section", help="properties of one catalogue section")
@@ -213,6 +223,13 @@ def _error(msg: str, code: int) -> int:
     return code
 
 
+def _is_unreadable_file(e: BaseException) -> bool:
+    """A malformed input file seen by a reader library (nbformat, json, jsonschema, pypdf ...)."""
+    mod = type(e).__module__.split(".")[0]
+    return isinstance(e, (UnicodeDecodeError, json.JSONDecodeError)) or mod in (
+        "nbformat", "jsonschema", "fastjsonschema", "pypdf", "pyhanko", "asn1crypto")
+
+
 def main(argv: list[str] | None = None) -> int:
     """Run one command. Every failure is one line on stderr, never a traceback:
     2 bad input (InputError, a calculation that cannot be made from the inputs, a file that
@@ -247,6 +264,9 @@ def main(argv: list[str] | None = None) -> int:
 
         if isinstance(e, CalcError):
             return _error(str(e), 2)
+        if _is_unreadable_file(e):
+            return _error(f"a file given cannot be read as a notebook, JSON or PDF: {type(e).__name__}: "
+                          f"{str(e)[:300]} (check the path is the file meant, unchanged since it was written)", 2)
         where = type(e).__module__.split(".")[0]
         return _error(f"unexpected {type(e).__name__}: {e} (in {where}; please report it with the "
                       f"job file; run with {DEBUG_ENV}=1 to see the details)", 1)

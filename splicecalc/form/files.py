@@ -33,7 +33,7 @@ from pathlib import Path
 from typing import Any
 
 from ..core.errors import InputError
-from ..job.loader import dumps_toml, job_from_dict, write_text_atomic
+from ..job.loader import dumps_toml, job_from_dict, loads_job, write_text_atomic
 from ..job.model import Job
 from ..signoff.digest import canonical_json, compute_digest, job_inputs
 from .state import FormState
@@ -255,9 +255,7 @@ class FormFile:
         if text is None:
             return None, ""
         try:
-            return job_from_dict(tomllib.loads(text)), ""
-        except tomllib.TOMLDecodeError as err:
-            return None, f"the job file {self.path.name} is not valid TOML ({err})"
+            return loads_job(text, source=self.path.name), ""      # the one validation path (size, nesting)
         except InputError as err:
             return None, f"the job file {self.path.name} is not valid: {err}"
 

@@ -34,7 +34,7 @@ from math import pi, sqrt
 
 from ..core.clause import clause
 from ..members.en1993_1_1 import M_c_Rd, N_net_Rd, N_pl_Rd, N_u_Rd  # one formula, one home: EN 1993-1-1 6.2
-from ..core.errors import InputError, require_choice, require_non_negative, require_positive
+from ..core.errors import InputError, require_choice, require_in_range, require_non_negative, require_positive
 from ..core.record import Calc, CheckRecord
 from ..materials.partial_factors import UK_NA, NationalAnnex
 from ..materials.steel import E_MPa, steel
@@ -331,6 +331,12 @@ def check_plate_shear(V_Ed: float, h: float, t: float, grade: str, *, n_holes: i
                        unit="N", location_mm=location_mm, note=f"{h:g} x {t:g} {mat.grade}")
 
 
+#: sizes and actions far outside any plate of a joint, refused so that the arithmetic never
+#: overflows or divides by an underflowed zero (a plate 1 um to 100 m, forces to 1e12 N)
+MIN_PLATE_MM, MAX_PLATE_MM = 1e-3, 1e5
+MAX_FORCE_N, MAX_MOMENT_NMM = 1e12, 1e16
+
+
 def check_plate_bending(M_Ed: float, h: float, t: float, grade: str, *, plastic: bool = False,
                         na: NationalAnnex = UK_NA, calc: Calc | None = None, id: str = "plate_bending",
                         title: str = "Plate in bending", location_mm: float | None = None) -> CheckRecord:
@@ -341,9 +347,9 @@ def check_plate_bending(M_Ed: float, h: float, t: float, grade: str, *, plastic:
     net section where it matters). Lateral-torsional buckling of long plates is not covered.
     """
     na = _na(na)
-    M_Ed = require_non_negative("M_Ed", M_Ed, "Nmm")
-    h = require_positive("h", h, "mm")
-    t = require_positive("t", t, "mm")
+    M_Ed = require_in_range("M_Ed", require_non_negative("M_Ed", M_Ed, "Nmm"), 0.0, MAX_MOMENT_NMM, "Nmm")
+    h = require_in_range("h", require_positive("h", h, "mm"), MIN_PLATE_MM, MAX_PLATE_MM, "mm")
+    t = require_in_range("t", require_positive("t", t, "mm"), MIN_PLATE_MM, MAX_PLATE_MM, "mm")
     mat = steel(grade, t, field="t")
     calc = calc if calc is not None else Calc()
     W = calc(W_pl_plate if plastic else W_el_plate, t=t, h=h)
@@ -367,10 +373,10 @@ def check_plate_compression(N_Ed: float, b: float, t: float, p_1: float, grade: 
     when given: oversize and slotted holes must be allowed for in compression too.
     """
     na = _na(na)
-    N_Ed = require_non_negative("N_Ed", N_Ed, "N")
-    b = require_positive("b", b, "mm")
-    t = require_positive("t", t, "mm")
-    p_1 = require_positive("p_1", p_1, "mm")
+    N_Ed = require_in_range("N_Ed", require_non_negative("N_Ed", N_Ed, "N"), 0.0, MAX_FORCE_N, "N")
+    b = require_in_range("b", require_positive("b", b, "mm"), MIN_PLATE_MM, MAX_PLATE_MM, "mm")
+    t = require_in_range("t", require_positive("t", t, "mm"), MIN_PLATE_MM, MAX_PLATE_MM, "mm")
+    p_1 = require_in_range("p_1", require_positive("p_1", p_1, "mm"), MIN_PLATE_MM, MAX_PLATE_MM, "mm")
     require_choice("curve", curve, tuple(ALPHA_IMP))
     if A_net is not None:
         A_net = require_positive("A_net", A_net, "mm2")
