@@ -116,7 +116,14 @@ def test_load_through_a_web_connection_is_not_checked_here():
 
 def test_web_bearing_only_where_the_beam_bears():
     loads = (UDL("floor", "permanent", 20.0),)
-    hanging = design_beam(Job(beam=BeamSpec(span=6000.0, section="457x191x67 UKB"), loads=loads))
+    # neither a bearing nor an end connection given: a gap, stated
+    unknown = design_beam(Job(beam=BeamSpec(span=6000.0, section="457x191x67 UKB"), loads=loads))
+    gap = unknown.record("web_bearing")
+    assert gap.status == "not checked" and "end connection" in gap.note and unknown.ok
+    # on end connections at both ends (an example job): no web bearing, the connections check the web
+    from pathlib import Path
+    from splicecalc.job import load_job
+    hanging = design_beam(load_job(Path(__file__).resolve().parents[1] / "examples" / "plant_room_trimmer.toml"))
     info = hanging.record("web_bearing")
     assert info.status == "info" and not any(r.id.startswith("web_bearing_") for r in hanging.records)
     bearing = design_beam(Job(beam=BeamSpec(span=6000.0, section="457x191x67 UKB", bearing_length=100.0),

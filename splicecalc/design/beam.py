@@ -611,6 +611,18 @@ def _deflections(ctx: _Context, case: _MassCase, section: Section, run: _Run, re
 def _support_bearing(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
     """EN 1993-1-5 section 6 at the supports, only where the beam bears on its flange (``bearing_length``)."""
     bl = ctx.beam.bearing_length
+    ends = {getattr(sp, "at", None) for sp in ctx.job.supports}
+    missing = [e for e, at in (("A", "start"), ("B", "end")) if at not in ends]
+    if bl is None and missing:
+        run.add(not_checked(
+            id="web_bearing", title=f"Web at support{'s' if len(missing) > 1 else ''} {' and '.join(missing)}, "
+                                    f"{section.designation}",
+            clause="EN 1993-1-5:2006, 6.1",
+            reason="how the beam is carried at this end is not given: no stiff bearing length (the beam does not "
+                   "bear on its flange) and no end connection; give the stiff bearing length where it sits on a "
+                   "bearing (web bearing, EN 1993-1-5 section 6) or a [[support]] end connection (its design "
+                   "checks the beam web)"))
+        return
     if bl is None:
         calc = _calc(render)
         calc.note("The beam hangs on end connections (no stiff bearing length given): it does not bear on its "
