@@ -243,3 +243,37 @@ def test_injection_corpus_prints_as_typed_in_the_package(tmp_path):
         # the host name may appear only where the corpus itself wrote it (it does not)
         assert hostname not in text
     assert flat.count("D" * 12) >= 25        # the long run wraps in the revision table (columns interleave)
+
+
+def test_ten_kilobyte_texts_are_refused_before_any_work():
+    """A 10 kB string in a title-block field, a load name or group or a designation is refused when
+    the job is read (one line naming the field and the limit), never half-printed."""
+    from splicecalc.core.errors import InputError
+    from splicecalc.job.loader import job_from_dict
+
+    base = tomllib.loads((ROOT / "examples" / "demo_workshop_gallery.toml").read_text(encoding="utf-8"))
+    long = "\\input{/etc/hostname}" * 500
+    paths = [("project", k) for k in ("number", "title", "prepared_by", "checked_by", "client", "location",
+                                      "date", "revision")]
+    paths += [("load", 0, "name"), ("load", 1, "group"), ("support", 0, "existing_member", "designation")]
+    import copy
+
+    for path in paths:
+        doc = copy.deepcopy(base)
+        cur = doc
+        for p in path[:-1]:
+            cur = cur[p]
+        cur[path[-1]] = long
+        with pytest.raises(InputError) as exc:
+            job_from_dict(doc)
+        assert "characters" in str(exc.value) and "\n" not in str(exc.value)
+
+
+def test_metadata_texts_are_bounded():
+    from splicecalc.core.errors import InputError
+    from splicecalc.report.metadata import calc_metadata
+
+    with pytest.raises(InputError, match="metadata.splicecalc.title"):
+        calc_metadata({"splicecalc": {"title": "T" * 10_000}})
+    with pytest.raises(InputError, match="revisions"):
+        calc_metadata({"splicecalc": {"revisions": [{"rev": "P1", "description": "D" * 10_000}]}})

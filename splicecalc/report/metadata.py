@@ -35,6 +35,9 @@ from ..core.errors import InputError, require_choice
 
 STATUSES = ("DRAFT", "PRELIMINARY", "FOR CHECK", "PREPARED", "CHECKED", "APPROVED", "ISSUED", "SUPERSEDED")
 ROLES = ("prepared", "checked", "approved")
+#: longest title-block text (same as a job file's [project] fields) and revision description
+TITLE_BLOCK_MAX = 200
+DESCRIPTION_MAX = 2000
 _TEXT_KEYS = ("project", "job_number", "title", "revision", "status", "prepared_by", "checked_by",
               "approved_by", "date", "basis")
 
@@ -51,6 +54,17 @@ def calc_metadata(nb_metadata: dict[str, Any], default_title: str = "Calculation
     for key in _TEXT_KEYS:
         if key in raw and not isinstance(raw[key], str):
             raise InputError(f"metadata.splicecalc.{key}", raw[key], "a text string")
+        if key in raw and len(raw[key]) > TITLE_BLOCK_MAX:
+            raise InputError(f"metadata.splicecalc.{key}", raw[key][:40] + "...",
+                             f"at most {TITLE_BLOCK_MAX} characters ({len(raw[key])} given): the title block and "
+                             "the running header have room for that much", "Shorten it")
+    for i, r in enumerate(raw.get("revisions") or []):
+        if isinstance(r, dict):
+            for k, v in r.items():
+                limit = DESCRIPTION_MAX if k == "description" else TITLE_BLOCK_MAX
+                if isinstance(v, str) and len(v) > limit:
+                    raise InputError(f"metadata.splicecalc.revisions[{i + 1}].{k}", v[:40] + "...",
+                                     f"at most {limit} characters ({len(v)} given)", "Shorten it")
     status = str(raw.get("status", "DRAFT")).strip().upper()
     require_choice("metadata.splicecalc.status", status, STATUSES)
     if signoff is not None:

@@ -119,9 +119,14 @@ def new_package(template: str, folder: str | os.PathLike, *, project: str = "", 
     """
     src = template_path(template)
     name = src.stem
+    from ..report.metadata import TITLE_BLOCK_MAX
+
     for field, v in (("--project", project), ("--number", number), ("--title", title)):
         if not isinstance(v, str):
             raise InputError(field, v, "a text")
+        if len(v) > TITLE_BLOCK_MAX:
+            raise InputError(field, v[:40] + "...", f"at most {TITLE_BLOCK_MAX} characters ({len(v)} given): the "
+                             "title block has room for that much", "Shorten it")
     dest = Path(folder)
     nb_path = dest / f"{name}.ipynb"
     if nb_path.exists():
