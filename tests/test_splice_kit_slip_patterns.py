@@ -320,3 +320,16 @@ def test_governing_line_load_shown_with_the_analysis_psi(tmp_path):
         part.show_actions(r)
     shown = "\n".join(str(o.data.get("text/markdown", "")) + str(o.data.get("text/latex", "")) for o in cap.outputs)
     assert f"{used:.2f}" in shown or f"{used:.3f}" in shown, (used, shown[-800:])
+
+
+def test_form_carries_mass_margin_and_slip():
+    # the job form shows and writes the two new [splices] options; a bad value names its field
+    from splicecalc.form.state import FormState
+    st_ = FormState.from_toml((EXAMPLES / "demo_workshop_gallery.toml").read_text())
+    assert st_.get("splices.mass_margin") == "3 %" and st_.get("splices.slip") == "computed"
+    st_.set("splices.slip", "1.5 mm")
+    job = st_.to_job()
+    assert job.splices.slip == "given" and job.splices.slip_mm == pytest.approx(1.5)
+    st_.set("splices.mass_margin", "30 %")
+    _, err = st_.check()
+    assert err is not None and "splices.mass_margin" in str(err)

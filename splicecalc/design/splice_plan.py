@@ -231,7 +231,9 @@ def slip_records(plan: SplicePlan, spec: Any, section: Any, span_mm: float, case
         calc.keep("delta_el", w_el, "mm")
         calc.keep("delta_slip", w_sl, "mm")
         calc.keep("delta_lim", lim, "mm")
-        note = (f"elastic {w_el:.2f} mm ({combo}) + slip {w_sl:.2f} mm at x = {xg / 1000:.3f} m; s = "
+        note = (f"elastic {w_el:.2f} mm ({combo}) + slip {w_sl:.2f} mm at x = {xg / 1000:.3f} m (the whole slip "
+                f"counted in every deflection check: snug-tight bolts may hold by friction under the permanent "
+                f"load and slip later; conservative); s = "
                 + ", ".join(f"{s:g}" for s in slips) + " mm (" + ("hole clearance d0 - d" if spec.slip == "computed"
                                                                  else "given in the job") + ")")
         if tot > lim * (1 + 1e-9):

@@ -53,6 +53,8 @@ SPLICE_OPTIONS: dict[str, str] = {
     "friction_class": "A",
     "flange_plates": "outer",
     "plate_grade": "S355",
+    "mass_margin": "",
+    "slip": "computed",
 }
 SUPPORT_ENDS: tuple[str, ...] = ("start", "end")
 CONNECTION_TYPES: tuple[str, ...] = ("fin plate", "end plate")

@@ -229,6 +229,9 @@ class JobForm:
             self._dropdown("splices.flange_plates", "Flange cover plates",
                            [("outer plate only", "outer"), ("outer and inner plates", "outer+inner")]),
             self._dropdown("splices.plate_grade", "Plate grade", GRADES),
+            self._text("splices.mass_margin", "Mass margin", "e.g. 3 % (added to every piece mass)"),
+            self._combo("splices.slip", "Slip (category A)", ("computed", "ignored"),
+                        "computed, ignored, or a slip such as 1.5 mm"),
         ])
         self.controls["splices.category"].observe(lambda c: self._show_friction(), names="value")
         self.splice_extras = W.HTML()
