@@ -418,3 +418,19 @@ def test_column_mcr_uniform_moment_matches_closed_form():
     assert r.values["M_cr"][0] == pytest.approx(Mcr / 1e6, rel=0.005)
     lam = math.sqrt(s.Wpl_y * 275.0 / Mcr)                           # 6.3.2.2(1)
     assert lam > 0.4 and r.resistance < s.Wpl_y * 275.0 / 1e6        # LTB reduces the resistance here
+
+
+def test_job_table_errors_name_the_support_field():
+    base = {"at": "start", "connection": "end plate", "existing_member": "254x254x73 UKC",
+            "existing_face": "column flange"}
+    with pytest.raises(InputError) as e:
+        parse_support({**base, "existing_steel": {"tested_fy": ["262 MPa", "270 MPa"],
+                                                  "tested_fu": ["410 MPa", "420 MPa"]}}, 1)
+    assert e.value.field == "support[1].existing_steel.samples"      # EN 1990 Table D1: V unknown needs n >= 3
+    with pytest.raises(InputError) as e:
+        parse_support({**base, "existing_steel": "S275",
+                       "existing_loads": {"kind": "column", "axial": {"permanent": "300 kN"}}}, 1)
+    assert e.value.field == "support[1].existing_loads.height"
+    with pytest.raises(InputError) as e:
+        parse_support({**base, "existing_steel": "S275", "consequence_class": "4"}, 1)
+    assert e.value.field == "support[1].consequence_class"
