@@ -23,7 +23,7 @@ from typing import Any, Callable
 import innerscope
 from handcalcs.handcalcs import LatexRenderer
 
-from .units import is_quantity, to_float, to_quantity
+from .units import TEX_DISPLAY_UNITS, is_quantity, to_float, to_quantity
 
 
 #: capital Greek letters that look like Latin ones have no LaTeX macro; handcalcs still writes
@@ -31,9 +31,75 @@ from .units import is_quantity, to_float, to_quantity
 _UNDEFINED_GREEK = re.compile(r"\\(Alpha|Beta|Epsilon|Zeta|Eta|Iota|Kappa|Mu|Nu|Omicron|Rho|Tau|Chi)(?![A-Za-z])")
 
 
+#: a subtraction or addition of a negative number as handcalcs substitutes it: ``1 - -1.000``
+_DOUBLE_SIGN = re.compile(r"(?<=[\s(])([-+]) -(?=\d)")
+#: the same at the start of a group (``\\sqrt { - -1.000 }``): the minus signs cancel
+_UNARY_DOUBLE = re.compile(r"([{(]\s*)- -(?=\d)")
+_ABS_OPEN = "\\operatorname{abs} \\left("
+
+
+def _abs_bars(latex: str) -> str:
+    """``\\operatorname{abs} \\left( x \\right)`` -> ``\\left| x \\right|`` (the usual notation)."""
+    out, i = [], 0
+    while True:
+        j = latex.find(_ABS_OPEN, i)
+        if j < 0:
+            out.append(latex[i:])
+            return "".join(out)
+        k, depth = j + len(_ABS_OPEN), 1
+        while depth and k < len(latex):
+            if latex.startswith("\\left", k):
+                depth += 1
+                k += 5
+            elif latex.startswith("\\right", k):
+                depth -= 1
+                if depth == 0:
+                    break
+                k += 6
+            else:
+                k += 1
+        if depth or not latex.startswith("\\right)", k):
+            out.append(latex[i:j + len(_ABS_OPEN)])          # unbalanced: left as written
+            i = j + len(_ABS_OPEN)
+            continue
+        out.append(latex[i:j] + "\\left|" + latex[j + len(_ABS_OPEN):k] + "\\right|")
+        i = k + len("\\right)")
+
+
+_NUM = r"(-?\d+(?:\.\d+)?)\\ "
+#: number + unit as forallpeople writes it, longest unit first (``MN \cdot m`` before ``MN``);
+#: the unit may not continue (``\mathrm{N}`` must not match the start of ``\mathrm{N} \cdot \mathrm{m}``
+#: when that has its own entry)
+_UNIT_RE = re.compile(_NUM + "(" + "|".join(re.escape(u) for u in sorted(TEX_DISPLAY_UNITS, key=len, reverse=True))
+                      + ")" + r"(?!\s*(?:\\cdot\s*\\mathrm|/|\^))")
+
+
+def _shift(number: str, power: int) -> str:
+    """``number`` times 10**power, written with as many decimals as it still carries (none invented)."""
+    from decimal import Decimal
+
+    d = Decimal(number).scaleb(power)
+    places = len(number.split(".")[1]) if "." in number else 0
+    places = max(0, places - power) if power > 0 else places
+    return f"{d:.{places}f}"
+
+
+def display_units(latex: str) -> str:
+    """Numbers with units in the rendered text put in the units of :data:`TEX_DISPLAY_UNITS`."""
+    def repl(m: re.Match) -> str:
+        unit, power = TEX_DISPLAY_UNITS[m.group(2)]
+        return f"{_shift(m.group(1), power)}\\ {unit}"
+    return _UNIT_RE.sub(repl, latex)
+
+
 def tex_clean(latex: str) -> str:
-    """Replace macros handcalcs writes that LaTeX does not define (see :data:`_UNDEFINED_GREEK`)."""
-    return _UNDEFINED_GREEK.sub(lambda m: m.group(1), latex)
+    """Tidy what handcalcs writes: macros LaTeX does not define (:data:`_UNDEFINED_GREEK`),
+    ``abs(x)`` as ``|x|``, numbers in the units of :data:`TEX_DISPLAY_UNITS`, and a double sign from substituting a negative number
+    (``1 - -1.000`` -> ``1 + 1.000``, ``1 + -1.000`` -> ``1 - 1.000``)."""
+    latex = _UNDEFINED_GREEK.sub(lambda m: m.group(1), latex)
+    latex = display_units(_abs_bars(latex))
+    latex = _UNARY_DOUBLE.sub(r"\1", latex)
+    return _DOUBLE_SIGN.sub(lambda m: "+ " if m.group(1) == "-" else "- ", latex)
 
 
 @lru_cache(maxsize=None)

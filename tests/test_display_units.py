@@ -1,0 +1,63 @@
+"""Numbers a checker reads: the one display-unit table (core.units.TEX_DISPLAY_UNITS / DISPLAY_UNITS)
+and the tidying of rendered steps (core.render.tex_clean), checked against hand conversions.
+
+Conversions by definition of the SI prefixes (1 cm = 10 mm, so 1 cm3 = 1e3 mm3, 1 cm4 = 1e4 mm4,
+1 cm6 = 1e6 mm6; 1 kN = 1e3 N; 1 MN = 1e3 kN; 1 GPa = 1e3 MPa)."""
+
+from __future__ import annotations
+
+import pytest
+
+from splicecalc.core.record import Calc
+from splicecalc.core.render import display_units, tex_clean
+from splicecalc.core.units import displayed
+
+
+@pytest.mark.parametrize("value, unit, shown, want", [
+    (1199467.396, "mm3", "cm3", 1199.467396),        # 1 cm3 = 1000 mm3
+    (120300000.0, "mm4", "cm4", 12030.0),            # 1 cm4 = 10 000 mm4
+    (465949633201.973, "mm6", "cm6", 465949.633201973),  # 1 cm6 = 1e6 mm6
+    (94080.0, "N", "kN", 94.08),                      # 1 kN = 1000 N
+    (2.6e8, "Nmm", "kNm", 260.0),                     # 1 kN m = 1e6 N mm
+    (355.0, "MPa", "MPa", 355.0),                     # N/mm2 = MPa
+])
+def test_displayed_units_by_hand(value, unit, shown, want):
+    v, u = displayed(value, unit)
+    assert u == shown and v == pytest.approx(want, rel=1e-12)
+
+
+@pytest.mark.parametrize("tex, want", [
+    (r"1199467.396\ \mathrm{mm}^{3}", r"1199.467\ \mathrm{cm}^{3}"),          # / 1e3, decimals kept
+    (r"12030641.514\ \mathrm{mm}^{4}", r"1203.064\ \mathrm{cm}^{4}"),         # / 1e4
+    (r"465949633201.973\ \mathrm{mm}^{6}", r"465949.633\ \mathrm{cm}^{6}"),   # / 1e6
+    (r"1.022\ \mathrm{MN} \cdot \mathrm{m}", r"1022\ \mathrm{kN} \cdot \mathrm{m}"),  # x 1e3, no digits invented
+    (r"210.000\ \mathrm{GPa}", r"210000\ \mathrm{MPa}"),                      # x 1e3
+    (r"500.000\ \mathrm{N}", r"0.500\ \mathrm{kN}"),                          # / 1e3
+])
+def test_rendered_numbers_in_engineers_units(tex, want):
+    assert display_units(tex) == want
+
+
+def test_compound_units_are_left_alone():
+    for tex in (r"5.000\ \mathrm{N} / \mathrm{mm}", r"5.000\ \mathrm{N} \cdot \mathrm{mm}",
+                r"3.000\ \mathrm{mm}^{2}", r"12.000\ \mathrm{mm}"):
+        assert display_units(tex) == tex
+
+
+def test_no_abs_and_no_double_signs():
+    out = tex_clean(r"M &= \operatorname{abs} \left( M_{Ed} \right) + \operatorname{abs} \left( \left( a \right) "
+                    r"\cdot b \right) = 1 - -1.000 + -2.500 = \sqrt { - -1.000 }")
+    assert "abs" not in out and r"\left| M_{Ed} \right|" in out and r"\left| \left( a \right) \cdot b \right|" in out
+    assert "- -" not in out and "+ -" not in out
+    assert "1 + 1.000 - 2.500" in out and r"\sqrt { 1.000 }" in out
+
+
+def test_rendered_check_shows_cm3_and_kNm():
+    from splicecalc.members import en1993_1_1 as f11
+
+    calc = Calc(render=True)
+    M = calc(f11.M_c_Rd, W_y=1471e3, f_y=355.0, gamma_M0=1.0)
+    assert M == pytest.approx(1471e3 * 355.0)                 # EN 1993-1-1 Eq. 6.13 by hand, N mm
+    tex = calc.latex[0]
+    assert r"1471.000\ \mathrm{cm}^{3}" in tex and r"522.205\ \mathrm{kN} \cdot \mathrm{m}" in tex
+    assert r"\mathrm{mm}^{3}" not in tex
