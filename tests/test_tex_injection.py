@@ -277,3 +277,29 @@ def test_metadata_texts_are_bounded():
         calc_metadata({"splicecalc": {"title": "T" * 10_000}})
     with pytest.raises(InputError, match="revisions"):
         calc_metadata({"splicecalc": {"revisions": [{"rev": "P1", "description": "D" * 10_000}]}})
+
+
+def test_markdown_outputs_carry_no_html_from_job_text():
+    """Jupyter shows the kernel's markdown as HTML: job text there is entity-escaped (pandoc reads the
+    entities back, so the PDF prints the characters)."""
+    from splicecalc.report.display import TableOutput
+
+    evil = '<img src=x onerror="alert(1)"> & <script>x</script>'
+    md = TableOutput(["Load", "Value"], [[evil, "$\\mathrm{kN}$"]], title=evil, notes=evil)._repr_mimebundle_()
+    assert "<img" not in md["text/markdown"] and "<script" not in md["text/markdown"]
+    assert "$\\mathrm{kN}$" in md["text/markdown"]
+    from splicecalc.core.text import markdown_safe
+
+    assert markdown_safe(evil).count("&lt;") == 3
+
+
+@pytest.mark.skipif(shutil.which("pandoc") is None, reason="pandoc not installed")
+def test_entities_print_as_the_characters_in_the_pdf_text():
+    import nbconvert.filters.pandoc as fp
+
+    from splicecalc.core.text import markdown_safe
+    from splicecalc.report.latexout import OUTPUT_MD_FORMAT
+
+    out = fp.pandoc(markdown_safe("a <b> & c"), OUTPUT_MD_FORMAT, "latex")
+    assert "\\textless{}" in out or "\\textless" in out
+    assert "\\&" in out

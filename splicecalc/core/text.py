@@ -167,6 +167,17 @@ def text_with_math(text: Any) -> str:
 
 
 # ---------------------------------------------------------------- matplotlib
+# ---------------------------------------------------------------- markdown outputs (Jupyter HTML)
+def markdown_safe(text: Any) -> str:
+    """Markdown of ours (with job text inside) made safe for Jupyter's HTML: ``& < >`` as entities.
+
+    Jupyter shows a kernel's markdown as HTML; a load name such as ``<img onerror=...>`` must
+    not become markup there. pandoc reads the entities back as the characters, so the PDF
+    prints them as typed (and reads markdown outputs without raw HTML anyway)."""
+    s = "" if text is None else str(text)
+    return s.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;")
+
+
 F = TypeVar("F", bound=Callable[..., Any])
 
 
@@ -185,5 +196,5 @@ def plain_text_figures(func: F) -> F:
     return wrapper  # type: ignore[return-value]
 
 
-__all__ = ["escape_tex", "safe_math", "text_with_math", "plain_text_figures",
+__all__ = ["escape_tex", "markdown_safe", "safe_math", "text_with_math", "plain_text_figures",
            "SAFE_MATH_WORDS", "LONG_RUN"]

@@ -17,6 +17,7 @@ import math
 from typing import Any, Iterable, Sequence
 
 from ..core.record import CheckRecord, summary_order, verdict_sentence
+from ..core.text import markdown_safe, safe_math
 
 CHECK_MIME = "application/vnd.splicecalc.check+json"
 TABLE_MIME = "application/vnd.splicecalc.table+json"
@@ -116,21 +117,29 @@ class CheckOutput:
                   f"{_unit_md(r.unit)} | {u} | {r.verdict} | {r.clause} |")
             return {CHECK_MIME: p, "text/markdown": md, "text/plain": r.summary_line()}
         u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf")
-        md = [f"**{r.title}** — *{r.clause}*", ""]
+        md = [f"**{markdown_safe(r.title)}** — *{markdown_safe(r.clause)}*", ""]
         if r.guidance:
-            md += [f"Method from: {r.guidance}", ""]
+            md += [f"Method from: {markdown_safe(r.guidance)}", ""]
         md += [s.strip() + "\n" for s in r.latex]
         if not r.checked:
-            md.append(f"**NOT CHECKED**: {r.note}")
+            md.append(f"**NOT CHECKED**: {markdown_safe(r.note)}")
             return {CHECK_MIME: p, "text/markdown": "\n".join(md), "text/plain": r.summary_line()}
         if r.note:
-            md.append(f"*{r.note}*\n")
+            md.append(f"*{markdown_safe(r.note)}*\n")
         if not r.is_check:
             md.append(f"**{r.verdict}** (information, no utilisation)")
             return {CHECK_MIME: p, "text/markdown": "\n".join(md), "text/plain": r.summary_line()}
         md.append(f"$E_d$ = {fmt_number(r.demand)}{_unit_md(r.unit)}, $R_d$ = {fmt_number(r.resistance)}"
                   f"{_unit_md(r.unit)}: utilisation **{u}** — **{r.verdict}**")
         return {CHECK_MIME: p, "text/markdown": "\n".join(md), "text/plain": r.summary_line()}
+
+
+def _md_cell(cell: str) -> str:
+    """A table cell for Jupyter's markdown: math in the small syntax kept, other text HTML-safe, one line."""
+    c = " ".join(str(cell).split())
+    if not (len(c) >= 2 and c.startswith("$") and c.endswith("$") and safe_math(c[1:-1])):
+        c = markdown_safe(c)
+    return c.replace("|", "\\|")
 
 
 class TableOutput:
@@ -153,12 +162,12 @@ class TableOutput:
 
     def _repr_mimebundle_(self, include: Any = None, exclude: Any = None) -> dict[str, Any]:
         p = self.payload
-        md = [f"**{p['title']}**", ""] if p["title"] else []
-        md.append("| " + " | ".join(p["columns"]) + " |")
+        md = [f"**{markdown_safe(p['title'])}**", ""] if p["title"] else []
+        md.append("| " + " | ".join(_md_cell(c) for c in p["columns"]) + " |")
         md.append("|" + "|".join({"l": ":--", "r": "--:", "c": ":-:"}[a] for a in p["align"]) + "|")
-        md += ["| " + " | ".join(c.replace("|", "\\|") for c in row) + " |" for row in p["rows"]]
+        md += ["| " + " | ".join(_md_cell(c) for c in row) + " |" for row in p["rows"]]
         if p["notes"]:
-            md += ["", f"*{p['notes']}*"]
+            md += ["", f"*{markdown_safe(p['notes'])}*"]
         text = "\n".join(["\t".join(p["columns"])] + ["\t".join(r) for r in p["rows"]])
         return {TABLE_MIME: p, "text/markdown": "\n".join(md), "text/plain": text}
 

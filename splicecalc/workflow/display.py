@@ -21,6 +21,7 @@ from typing import Any, Iterable, Sequence
 
 from ..actions import PointLoad, UDL
 from ..core.record import CheckRecord, verdict_sentence
+from ..core.text import markdown_safe
 from ..report.headless import HEADLESS_ENV
 from ..report.display import (TABLE_MIME, UNIT_TEX, TableOutput, fmt_utilisation, publish, show_check,
                               show_section, show_table, summary_output)
@@ -51,7 +52,8 @@ class _Bundle:
 # ======================================================================== generic outputs
 def show_heading(text: str, level: int = 1) -> None:
     """A heading in the output (level 1 = a numbered section of the package)."""
-    publish(_Bundle({"text/markdown": "#" * level + " " + text, "text/plain": text}))
+    line = " ".join(str(text).split())          # one line: job text cannot start a heading of its own
+    publish(_Bundle({"text/markdown": "#" * level + " " + markdown_safe(line), "text/plain": text}))
 
 
 def contents_depth(depth: int = 1) -> None:
@@ -68,13 +70,13 @@ def contents_depth(depth: int = 1) -> None:
 
 def show_text(text: str) -> None:
     """A paragraph of Markdown text."""
-    publish(_Bundle({"text/markdown": text, "text/plain": text}))
+    publish(_Bundle({"text/markdown": markdown_safe(text), "text/plain": text}))
 
 
 def show_list(items: Iterable[str], title: str = "") -> None:
     """A bulleted list (Markdown)."""
-    md = ([f"**{title}**", ""] if title else []) + [f"- {t}" for t in items]
-    publish(_Bundle({"text/markdown": "\n".join(md), "text/plain": "\n".join(md)}))
+    md = ([f"**{title}**", ""] if title else []) + [f"- {' '.join(str(t).split())}" for t in items]
+    publish(_Bundle({"text/markdown": markdown_safe("\n".join(md)), "text/plain": "\n".join(md)}))
 
 
 def show_steps(latex: Sequence[str], intro: str = "") -> None:
