@@ -106,6 +106,13 @@ def job_parts(result: Any) -> tuple[Part, ...]:
     return tuple(out)
 
 
+def _kits(result: Any) -> list:
+    """The splice kits of the plan (None for each splice when the result has no plan)."""
+    plan = getattr(result, "splice_plan", None)
+    kits = list(plan.kits) if plan is not None else []
+    return kits if len(kits) == len(result.splices) else [None] * len(result.splices)
+
+
 def whole_job_dict(result: Any, source: str = "") -> dict[str, Any]:
     """JSON-ready whole job: project, beam design, splice positions, every part and its records."""
     job = result.job
@@ -133,11 +140,16 @@ def whole_job_dict(result: Any, source: str = "") -> dict[str, Any]:
             "pieces_m": [round(x / 1000.0, 4) for x in pos.pieces_mm],
             "piece_mass_kg": [round(m, 2) for m in pos.piece_mass_kg],
             "splice_kit_mass_kg": round(result.splice_kit_mass_kg, 2),
+            "piece_mass_build_up": [p.to_dict() for p in pos.piece_masses],
+            "mass_margin": pos.mass_margin,
         }
     out["splices"] = [{"splice": s.label, "x_m": round(s.x_mm / 1000.0, 4), "combination": s.combination,
                        "M_Ed_kNm": round(s.M_Ed / 1e6, 4), "V_Ed_kN": round(s.V_Ed / 1e3, 4),
                        "N_Ed_kN": round(s.N_Ed / 1e3, 4), "bolts": s.design.n_bolts,
-                       "plate_mass_kg": round(s.design.plate_mass, 2)} for s in result.splices]
+                       "plate_mass_kg": round(s.design.plate_mass, 2),
+                       **({"bolt_sets_kg": round(kit.bolts_kg, 2), "kit_mass_kg": round(kit.mass_kg, 2)}
+                          if kit is not None else {})}
+                      for s, kit in zip(result.splices, _kits(result))]
     out["connections"] = [{"end": c.end, "connection": c.spec.connection, "V_Ed_kN": round(c.V_Ed / 1e3, 4),
                            "combination": c.combination, "detail": c.design.detail.describe()}
                           for c in result.connections]
