@@ -91,14 +91,3 @@ def test_write_atomic_leaves_no_temp_and_uses_umask(tmp_path):
     mask = os.umask(0)
     os.umask(mask)
     assert stat.S_IMODE(p.stat().st_mode) == 0o666 & ~mask  # POSIX open() default mode
-
-
-def test_memoised_handcalcs_parse_equals_fresh_parse_and_is_not_shared():
-    # reference: handcalcs' own (uncached) parser
-    from splicecalc.core import render
-
-    line = "F_v_Rd = alpha_v * f_ub * A_s / gamma_M2"
-    a = render._expr_parser_memo(line)
-    assert a == render._expr_parser_uncached(line)
-    a.clear()  # handcalcs mutates what it gets: the cache must not see it
-    assert render._expr_parser_memo(line) == render._expr_parser_uncached(line)
