@@ -98,9 +98,18 @@ class ConnectionDesign:
                 "existing": {"material": self.existing.material.label, "f_y_MPa": self.existing.material.f_y,
                              "f_u_MPa": self.existing.material.f_u, "historic": self.existing.material.historic,
                              "M_add_kNm": self.existing.M_add_Nmm / 1e6, "e_mm": self.existing.e_mm,
-                             "axis": self.existing.axis, "text": self.existing.text},
+                             "axis": self.existing.axis, "text": self.existing.text,
+                             "member": _member_dict(self.existing.member)},
                 "checks": [r.to_dict() for r in self.records], "warnings": list(self.warnings),
                 "caution": self.caution}
+
+
+def _member_dict(m: Any) -> dict[str, Any] | None:
+    """JSON of the existing member's member check: kind ('' when NOT CHECKED), basis, loads, combination."""
+    if m is None:
+        return None
+    return {"kind": m.kind or "not checked", "combination": m.combination, "basis": list(m.basis),
+            "loads": [dict(zip(("load", "action", "value", "where"), r)) for r in m.load_rows]}
 
 
 # ------------------------------------------------------------------ candidates
