@@ -234,7 +234,8 @@ def main(argv: list[str] | None = None) -> int:
     """Run one command. Every failure is one line on stderr, never a traceback:
     2 bad input (InputError, a calculation that cannot be made from the inputs, a file that
     cannot be read or written: the message names the path and what to do), 130 interrupted,
-    1 an unexpected error (one line; ``SPLICECALC_DEBUG=1`` shows the traceback)."""
+    1 an unexpected error (one line; ``SPLICECALC_DEBUG=1`` shows the traceback), 141 quietly
+    when the reader of the output stops reading (a pipe into ``head``)."""
     import os
 
     from ..core.errors import file_error_message
@@ -253,6 +254,12 @@ def main(argv: list[str] | None = None) -> int:
     except MemoryError:
         return _error("out of memory reading or running the input; check the job file is the one meant "
                       "(job files are a few kB)", 2)
+    except BrokenPipeError:
+        # the reader stopped reading (``splicecalc sections | head``): not an error, say nothing;
+        # stdout goes to devnull so the interpreter's final flush does not complain either
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+        return 141                                   # 128 + SIGPIPE, as a shell reports it
     except OSError as e:
         if os.environ.get(DEBUG_ENV):
             raise

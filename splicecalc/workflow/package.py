@@ -163,21 +163,67 @@ def new_package(template: str, folder: str | os.PathLike, *, project: str = "", 
     return NewPackage(nb_path, job_path)
 
 
+STARTER_JOB = """\
+# splicecalc job file: a starter. Every value marked REPLACE is a placeholder, not a design value:
+# put in the job's own before relying on anything built from it. Quantities carry their units
+# ("7.2 m", "10 kN/m", "35 kN"). Check the whole job with `splicecalc run job.toml`; build the
+# calc package with `splicecalc build beam_splice.ipynb`.
+
+{project}
+[beam]
+span = "6 m"                     # REPLACE: span between bearing centres
+grade = "S355"                   # S235 | S275 | S355
+section = "auto"                 # "auto" (lightest passing) or a designation, e.g. "457x191x67 UKB"
+families = ["UKB"]               # searched when section = "auto"
+load_level = "top flange"        # where the loads act: "top flange" | "shear centre" | "bottom flange"
+deflection_limit = 360           # variable-action deflection limit, span / N
+# max_depth = "460 mm"           # headroom limit on the depth
+# restraints = ["2 m", "4 m"]    # intermediate lateral-torsional restraints (the ends are fork supports)
+# bearing_length = "100 mm"      # stiff bearing, where the beam sits on a support
+
+# One [[load]] table per characteristic load; the beam's self-weight is added by the design.
+[[load]]
+name = "permanent load"          # REPLACE with the job's loads
+action = "permanent"
+udl = "1 kN/m"                   # REPLACE
+
+[[load]]
+name = "imposed load"            # REPLACE
+action = "imposed"
+category = "B"                   # EN 1990 Table A1.1 category (psi factors)
+udl = "1 kN/m"                   # REPLACE
+# A point load:  point = "35 kN"  and  at = "3.0 m";  a partial UDL:  from = "0.5 m"  and  to = "2.5 m"
+
+# Delivered in pieces? Uncomment and give the access limits (or positions = ["3 m"]):
+# [splices]
+# max_piece_length = "3.6 m"
+# max_piece_mass = "250 kg"
+# bolts = "auto"
+
+# End connections to existing steel, one table per end ("start" and "end"):
+# [[support]]
+# at = "start"
+# connection = "end plate"       # "end plate" | "fin plate"
+# bolts = "auto"
+# existing_member = {{ designation = "existing column (measured)", h = "254 mm", b = "203 mm", tw = "8.9 mm", tf = "12.7 mm", r = "10.2 mm" }}
+# existing_face = "column flange"   # "column flange" | "column web" | "beam web"
+# existing_steel = "unknown"     # era band ("1950-1958" ...), "unknown" (lowest band) or a grade
+"""
+
+
 def starter_job(project: str = "", number: str = "", title: str = "") -> str:
-    """A starter job file: the first demo job with the project fields replaced."""
-    import tomllib
+    """A minimal, commented starter job file: no demo data, every design value a marked placeholder
+    (valid as it stands, so `run` and `build` work before it is filled in)."""
+    import tomli_w
 
-    from ..job import dumps_toml, job_from_dict
+    from ..job import loads_job
 
-    src = demo_job_path()
-    data = tomllib.loads(src.read_text(encoding="utf-8"))
     proj = {"number": number, "title": title, "location": project}
-    data["project"] = {k: v for k, v in proj.items() if v}
-    job_from_dict(data)                         # still valid
-    head = ("# splicecalc job file: edit the values (quantities carry their units), then\n"
-            "# `splicecalc build beam_splice.ipynb` (or run the notebook in Jupyter).\n"
-            f"# Started from {src.name}: replace every value with the job's own.\n")
-    return head + dumps_toml(data)
+    proj = {k: v for k, v in proj.items() if v}
+    table = tomli_w.dumps({"project": proj}) if proj else "# [project]\n# number = \"\"\n# title = \"\"\n"
+    text = STARTER_JOB.format(project=table)
+    loads_job(text)                               # the starter is itself a valid job
+    return text
 
 
 # ======================================================================== build
