@@ -14,7 +14,8 @@ class InputError(ValueError):
         self.value = value
         self.allowed = allowed
         self.hint = hint
-        msg = f"{field} = {value!r} is not allowed: expected {allowed}"
+        msg = (f"{field} is not given: write {allowed}" if value is None
+               else f"{field} = {value!r} is not allowed: expected {allowed}")
         if hint:
             msg += f". {hint}"
         super().__init__(msg)

@@ -97,7 +97,7 @@ def get_section(designation: str) -> Section:
             return found
     near = difflib.get_close_matches(key, list(index), n=5, cutoff=0.6)
     hint = ("Nearest matches: " + ", ".join(index[k].designation for k in near)) if near else \
-        "Run `list_sections()` for the catalogue"
+        "List the catalogue with `splicecalc sections UKB` (or UKC, IPE, HEA, HEB)"
     raise InputError("section", designation, "a designation in the catalogue (UKB, UKC, IPE, HEA, HEB)", hint)
 
 
