@@ -63,3 +63,13 @@ def test_outputs_show_not_checked():
     assert t.payload["notes"].startswith("1 check(s) NOT CHECKED")
     assert t.payload["rows"][0][-1] == "NOT CHECKED"
     assert "NOT CHECKED" in table_latex(t.payload)
+
+
+def test_part_verdict_of_the_summary_by_part():
+    from splicecalc.workflow.display import _part_verdict
+
+    bad = Calc().record(id="b", title="A failing check", clause="EN 1993-1-1:2005, 6.2.6(2), Eq. 6.18",
+                        demand=150e3, resistance=100e3, unit="N")
+    assert _part_verdict([_ok()]) == "OK"
+    assert _part_verdict([_ok(), _gap()]) == "NOT CHECKED"           # a gap is not a failure, nor a pass
+    assert _part_verdict([bad, _gap()]) == "NOT OK"

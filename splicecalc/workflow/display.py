@@ -20,7 +20,7 @@ import sys
 from typing import Any, Iterable, Sequence
 
 from ..actions import PointLoad, UDL
-from ..core.record import CheckRecord, verdict_sentence
+from ..core.record import CheckRecord, count_verdicts, verdict_sentence
 from ..core.text import markdown_safe
 from ..report.headless import HEADLESS_ENV
 from ..report.display import (TABLE_MIME, UNIT_TEX, TableOutput, fmt_utilisation, publish, show_check,
@@ -716,15 +716,21 @@ def show_existing(result: CalcResult) -> None:
 
 
 # ======================================================================== summary, references, cautions
+def _part_verdict(records: Any) -> str:
+    """NOT OK when a check made fails; else NOT CHECKED when something is not checked; else OK."""
+    bad, gap = count_verdicts(records)
+    return "NOT OK" if bad else ("NOT CHECKED" if gap else "OK")
+
+
 def show_summary(result: CalcResult) -> None:
     """The governing check of each part (member, positions, each splice, each end connection, each
     existing member), then every record of the package, highest utilisation first (each listed once)."""
     from .parts import job_parts
 
     recs = result.summary_records
-    n_bad = sum(not r.ok for r in recs)
     gov = result.governing
-    show_text(("**All checks pass.** " if n_bad == 0 else f"**{n_bad} check(s) NOT OK.** ")
+    # never "all checks pass" over a NOT CHECKED record; gaps are counted apart from failures
+    show_text(f"**{verdict_sentence(recs)}** "
               + (f"Governing: {gov.title} (utilisation {fmt_utilisation(gov.utilisation)}). " if gov else "")
               + result.headline + ".")
     rows = []
@@ -733,7 +739,7 @@ def show_summary(result: CalcResult) -> None:
         if g is None:
             continue
         rows.append([part.title, f"{part.short_title(g)} ({g.clause})", str(len(part.records)),
-                     fmt_utilisation(g.utilisation), "OK" if part.ok else "NOT OK"])
+                     fmt_utilisation(g.utilisation), _part_verdict(part.records)])
     publish(TableOutput(["Part", "Governing check (clause)", "Checks", "Util.", "Verdict"], rows, align="llrrl",
                         title="Summary by part: the governing check of each", kind="parts"))
     publish(summary_output(recs, title=f"Summary of the {len(recs)} checks (highest utilisation first)"))
