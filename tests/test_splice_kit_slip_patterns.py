@@ -333,3 +333,19 @@ def test_form_carries_mass_margin_and_slip():
     st_.set("splices.mass_margin", "30 %")
     _, err = st_.check()
     assert err is not None and "splices.mass_margin" in str(err)
+
+
+def test_guidance_rules_name_their_source_apart_from_the_clause():
+    # issue 11 item 7: a rule from published guidance is named in `guidance`, the clause field keeps the code
+    from splicecalc.core.clause import CITATION_RE
+    from splicecalc.workflow.calc import run_calc
+    r = run_calc(load_job(EXAMPLES / "demo_workshop_gallery.toml"), render=False)
+    by_id = {x.id: x for x in r.records}
+    for rid in ("A.ep_hp_min", "A.ep_gauge_min", "A.ep_web_shear", "A.ep_bolt_group", "S1.fit_flange_root"):
+        rec = by_id[rid]
+        assert rec.guidance, rid
+        assert "guidance" not in rec.note and "practice" not in rec.clause, rid
+        assert rec.to_dict()["guidance"] == rec.guidance
+    web = [x for x in r.records if x.id.endswith("web_bearing_beam")]
+    assert web and all("linear" in x.note and x.guidance for x in web)
+    assert all(CITATION_RE.match(x.clause.split(" (")[0]) for x in web)

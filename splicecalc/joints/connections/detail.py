@@ -180,9 +180,13 @@ def weld_grade_existing(ctx: Context) -> str:
 
 
 def _rec(calc: Calc, id: str, title: str, clause: str, demand: float, resistance: float, note: str = "",
-         unit: str = "mm") -> CheckRecord:
+         unit: str = "mm", guidance: str = "") -> CheckRecord:
+    """A detailing record; a rule from published guidance names it in ``guidance`` (the clause is the code's
+    requirement the rule serves, e.g. the rotation capacity of a nominally pinned joint, 5.2.2.2)."""
+    if note == GUIDANCE:                     # the rule itself is the guidance's: say so in its own field
+        note, guidance = "", guidance or GUIDANCE
     return calc.record(id=id, title=title, clause=clause, demand=demand, resistance=resistance, unit=unit,
-                       note=note)
+                       note=note, guidance=guidance)
 
 
 def detailing_checks(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]:

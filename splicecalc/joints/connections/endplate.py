@@ -31,7 +31,7 @@ from .detail import GUIDANCE, Context, Detail
 from .formulas import (A_v_hp, F_T_1_Rd, F_T_2_Rd, F_t_wb_Rd_u, F_v_Rd_ep, M_pl_Rd_u, m_ep, n_tstub)
 
 NOTE_08 = ("group rule of EN 1993-1-8 3.7(1) with 0.8 F_v,Rd in place of F_v,Rd: the 0.8 allows for tension "
-           "coexisting in the bolts (published simple-joint guidance, from memory); bearing per bolt is the weaker "
+           "coexisting in the bolts; bearing per bolt is the weaker "
            "of the end plate and the existing member")
 NOTE_TIE = ("tying: f_u in place of f_y and gamma_Mu in place of gamma_M0/gamma_M2, sum l_eff = h_p "
             "(simplified T-stub as in published simple-joint guidance, from memory)")
@@ -63,7 +63,7 @@ def end_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     calc.keep("A_v", A_v, "mm2")
     out.append(calc.record(id="ep_web_shear", title="Beam web shear over the end plate depth",
                            clause="EN 1993-1-1:2005, 6.2.6(2), Eq. 6.18", demand=V_Ed, resistance=V_w, unit="N",
-                           note=f"A_v = 0.9 h_p t_w ({GUIDANCE})"))
+                           note="A_v = 0.9 h_p t_w", guidance=GUIDANCE))
 
     # bolt group
     a_v = shear_factor_alpha_v(b.bolt_class)
@@ -86,7 +86,8 @@ def end_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     out.append(calc.record(id="ep_bolt_group", title="Bolt group in shear and bearing (plate and existing member)",
                            clause="EN 1993-1-8:2005, 3.7(1)", demand=V_Ed, resistance=V_b, unit="N",
                            note=NOTE_08 + f"; existing member bearing with f_u = {ctx.existing_mat.f_u:g} MPa "
-                                          f"({ctx.existing_mat.label})"))
+                                          f"({ctx.existing_mat.label})",
+                           guidance=GUIDANCE + ": 0.8 F_v,Rd for tension coexisting in the bolts"))
 
     # end plate shear gross + net (two planes, one each side of the web), block tearing
     out.append(check_plate_shear(V_Ed / 2.0, det.h_p, det.t_p, det.plate_grade, n_holes=det.n_1, d_0=b.d_0,
@@ -130,11 +131,12 @@ def end_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
                      "increase the gauge p_3")
     out.append(calc.record(id="ep_tie_plate", title="Tying: end plate in bending (T-stub modes 1, 2, 3)",
                            clause="EN 1993-1-8:2005, 6.2.4.1, Table 6.2", demand=ctx.tie,
-                           resistance=R_tie, unit="N", note=tie_note))
+                           resistance=R_tie, unit="N", note=tie_note, guidance=GUIDANCE + ": tying resistances"))
     Fw = calc(F_t_wb_Rd_u, h_p=det.h_p, t_w=beam.tw, f_u=fu_b, gamma_Mu=gMu)
     out.append(calc.record(id="ep_tie_web", title="Tying: beam web in tension over h_p",
                            clause="EN 1993-1-8:2005, 6.2.6.8, Eq. 6.22", demand=ctx.tie, resistance=Fw, unit="N",
-                           note=NOTE_TIE + "; the welds are full strength for the web"))
+                           note=NOTE_TIE + "; the welds are full strength for the web",
+                           guidance=GUIDANCE + ": tying resistances"))
     return out
 
 

@@ -137,7 +137,8 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     calc.keep("V_Rd_M", V_M, "N")
     out.append(calc.record(id="fp_plate_bending", title="Fin plate bending (and LTB of a long plate)",
                            clause="EN 1993-1-1:2005, 6.2.5(2), Eq. 6.14", demand=V_Ed, resistance=V_bend, unit="N",
-                           note=note))
+                           note=note, guidance=GUIDANCE + ": moment V z at the bolt line, the 2.73 z rule and the "
+                                               "long-plate LTB check (BS 5950-1 plate strength)"))
 
     # beam web shear at the bolt line (unnotched; the notched case is covered by the notch checks)
     if not ctx.notched:
@@ -179,17 +180,17 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     T1 = ctx.tie / n
     Fv_u = calc(F_v_Rd, alpha_v=a_v, f_ub=b.f_ub, A_s=b.A_s, gamma_M2=gMu)
     out.append(calc.record(id="fp_tie_bolts", title="Tying: bolt shear", clause="EN 1993-1-8:2005, 3.6.1, Table 3.4",
-                           demand=T1, resistance=Fv_u, unit="N", note=NOTE_TIE))
+                           demand=T1, resistance=Fv_u, unit="N", note=NOTE_TIE, guidance=GUIDANCE + ": tying"))
     Fbp_u = bearing_resistance(b, det.t_p, plate.f_u, det.e_2, det.e_1, None, det.p_1, gamma_M2=gMu, calc=calc)
     Fbp_u = _lap_capped(calc, Fbp_u, plate.f_u, b.d, det.t_p, gMu)
     out.append(calc.record(id="fp_tie_bearing_plate", title="Tying: bolt bearing on the fin plate",
                            clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=T1, resistance=Fbp_u, unit="N",
-                           note=NOTE_TIE + "; " + NOTE_LAP))
+                           note=NOTE_TIE + "; " + NOTE_LAP, guidance=GUIDANCE + ": tying"))
     Fbw_u = bearing_resistance(b, beam.tw, fu_b, det.e_2b, e1b, None, det.p_1, gamma_M2=gMu, calc=calc)
     Fbw_u = _lap_capped(calc, Fbw_u, fu_b, b.d, beam.tw, gMu)
     out.append(calc.record(id="fp_tie_bearing_web", title="Tying: bolt bearing on the beam web",
                            clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=T1, resistance=Fbw_u, unit="N",
-                           note=NOTE_TIE + "; " + NOTE_LAP))
+                           note=NOTE_TIE + "; " + NOTE_LAP, guidance=GUIDANCE + ": tying"))
     out.append(check_plate_tension(ctx.tie, det.h_p, det.t_p, det.plate_grade, n_holes=n, d_0=d0, gamma_M2=gMu,
                                    na=na, calc=calc, id="fp_tie_plate_tension",
                                    title="Tying: fin plate in tension, gross and net"))
