@@ -434,3 +434,33 @@ def test_job_table_errors_name_the_support_field():
     with pytest.raises(InputError) as e:
         parse_support({**base, "existing_steel": "S275", "consequence_class": "4"}, 1)
     assert e.value.field == "support[1].consequence_class"
+
+
+# ------------------------------------------------------------------ what the calc sheet shows
+def test_calc_sheet_shows_existing_loads_basis_cautions_and_gaps():
+    from IPython.core.interactiveshell import InteractiveShell
+    from IPython.utils.capture import capture_output
+
+    from splicecalc.job import load_job
+    from splicecalc.report.display import TABLE_MIME
+    from splicecalc.workflow import display as part
+    from splicecalc.workflow.calc import run_calc
+    from pathlib import Path
+
+    InteractiveShell.instance()
+    demo = Path(__file__).resolve().parents[1] / "examples" / "demo_workshop_gallery.toml"
+    r = run_calc(load_job(demo), render=False)
+    with capture_output() as cap:
+        part.show_existing(r)
+        part.show_summary(r)
+    datas = [o.data for o in cap.outputs]
+    titles = [d[TABLE_MIME]["title"] for d in datas if TABLE_MIME in d]
+    assert "Loads on the existing column (characteristic)" in titles
+    assert "Loads on the existing supporting beam (characteristic)" in titles
+    md = "\n".join(d.get("text/markdown", "") for d in datas)
+    assert "CAUTION - EXISTING STRUCTURE" in md                          # old-steel cautions (historic band)
+    assert "nominal eccentricity of simple construction" in md           # the basis, guidance named
+    assert "NOT CHECKED" in md and "All checks pass" not in md and "NOT OK" not in md.split("Summary")[0]
+    parts = next(d[TABLE_MIME] for d in datas if TABLE_MIME in d and d[TABLE_MIME].get("kind") == "parts")
+    verdicts = {row[0]: row[-1] for row in parts["rows"]}
+    assert any(v == "NOT CHECKED" for v in verdicts.values())            # gaps, not failures
