@@ -20,7 +20,7 @@ JOB = ROOT / "examples" / "mezzanine_infill.toml"
 
 def _one_line(capsys) -> str:
     err = capsys.readouterr().err
-    lines = [ln for ln in err.splitlines() if ln.strip() and "Warning" not in ln and "_validate(" not in ln]
+    lines = [ln for ln in err.splitlines() if ln.strip() and "MissingIDFieldWarning" not in ln and "_validate(" not in ln]
     assert len(lines) == 1, err
     assert lines[0].startswith(("splicecalc: error:", "splicecalc: build failed:")), err
     assert "Traceback" not in err and "unexpected" not in err, err
@@ -149,3 +149,28 @@ def test_missing_tex_names_the_install_command(tmp_path, monkeypatch, capsys):
     line = _one_line(capsys)
     assert "apt-get install" in line or "install" in line
     assert not (tmp_path / "job.pdf").exists() and not (tmp_path / "job.ipynb").exists()
+
+
+@pytest.mark.pdf
+@pytest.mark.parametrize("size", ["300k", "700k"])
+def test_build_on_a_really_full_disk(tmp_path, capsys, size):
+    """A small tmpfs (needs the right to mount; skipped elsewhere): one line naming the folder and
+    the disk, no PDF, no partial file, at the size where the notebook fits but LaTeX does not too."""
+    import subprocess
+
+    if shutil.which("xelatex") is None:
+        pytest.skip("XeLaTeX not installed")
+    mnt = tmp_path / "tiny"
+    mnt.mkdir()
+    if subprocess.run(["mount", "-t", "tmpfs", "-o", f"size={size}", "tmpfs", str(mnt)],
+                      capture_output=True).returncode != 0:
+        pytest.skip("cannot mount a small file system here")
+    try:
+        code = main(["build", str(JOB), "-o", str(mnt / "m.pdf"), "--quiet"])
+        assert code in (1, 2)
+        line = _one_line(capsys)
+        assert str(mnt) in line and ("disk" in line or "space" in line), line
+        assert not (mnt / "m.pdf").exists()
+        _no_partial(mnt)
+    finally:
+        subprocess.run(["umount", str(mnt)], capture_output=True)

@@ -25,7 +25,7 @@ from ..core.errors import InputError
 
 
 def _fail(msg: str, code: int) -> int:
-    print(f"splicecalc: {'error' if code == 2 else 'build failed'}: {msg}", file=sys.stderr)
+    print(f"splicecalc: {'error' if code == 2 else 'build failed'}: {' '.join(str(msg).split())}", file=sys.stderr)
     return code
 
 

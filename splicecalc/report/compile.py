@@ -43,6 +43,15 @@ SEED_STATE = "seed.json"
 XDV_DRIVER = ("xdvipdfmx", "-q", "-E")
 
 
+def _no_space(folder: Path) -> bool:
+    """True when the file system of ``folder`` has (almost) no free space left."""
+    try:
+        st = os.statvfs(folder)
+    except (OSError, AttributeError):
+        return False
+    return st.f_bavail * st.f_frsize < 1_000_000
+
+
 def require_tool(name: str) -> str:
     """Path of an external program, or :class:`ToolMissingError` with the install command."""
     path = shutil.which(name)
@@ -196,6 +205,11 @@ def run_xelatex(tex_path: Path, progress: bool = True, timeout_s: float = 300.0,
                 continue
             if failed:
                 err = first_error(log_text) or proc.stdout.decode(errors="replace")[-400:].strip()
+                out_txt = log_text + proc.stdout.decode(errors="replace")
+                if "I can't write on file" in out_txt or ("Emergency stop" in out_txt and not first_error(log_text)) \
+                        or _no_space(workdir):
+                    err += (f"; XeLaTeX could not write in {workdir}: the disk may be full or the folder not "
+                            "writable (free some space, or build to another folder with -o)")
                 raise CalcBuildError(f"xelatex failed on pass {len(times)}: {err} (log: {log_path})")
             if (before and _hashes(tex_path) == before) or n >= MAX_PASSES:
                 break

@@ -161,11 +161,14 @@ class CalcPackageExporter(PDFExporter):
 
     def _compile(self, latex: str, resources: dict, workdir: Path) -> tuple[bytes, dict]:
         stem = "calc"
-        (workdir / f"{stem}.tex").write_text(latex, encoding="utf-8")
-        for fname, data in (resources.get("outputs") or {}).items():
-            target = workdir / fname
-            target.parent.mkdir(parents=True, exist_ok=True)
-            target.write_bytes(data if isinstance(data, bytes) else str(data).encode())
+        try:
+            (workdir / f"{stem}.tex").write_text(latex, encoding="utf-8")
+            for fname, data in (resources.get("outputs") or {}).items():
+                target = workdir / fname
+                target.parent.mkdir(parents=True, exist_ok=True)
+                target.write_bytes(data if isinstance(data, bytes) else str(data).encode())
+        except OSError as err:      # a full disk or a read-only folder: name the build folder
+            raise OSError(err.errno, err.strerror, str(workdir)) from None
         seed = Path(self.seed_directory) if self.seed_directory else None
         run = run_xelatex(workdir / f"{stem}.tex", progress=self.progress, seed_dir=seed)
         if seed is not None:
