@@ -464,3 +464,39 @@ def test_calc_sheet_shows_existing_loads_basis_cautions_and_gaps():
     parts = next(d[TABLE_MIME] for d in datas if TABLE_MIME in d and d[TABLE_MIME].get("kind") == "parts")
     verdicts = {row[0]: row[-1] for row in parts["rows"]}
     assert any(v == "NOT CHECKED" for v in verdicts.values())            # gaps, not failures
+
+
+# ------------------------------------------------------------------ robustness (no traceback, any valid input)
+def test_member_checks_never_raise_on_valid_extremes():
+    from hypothesis import given, settings, strategies as st
+
+    det = design_end_connection(BEAM, "S355", 150e3, _support()).detail
+    det_b = design_end_connection(BEAM, "S355", 150e3, _support(existing_member="457x152x52 UKB",
+                                                                 existing_face="beam web",
+                                                                 notch_top="50 mm x 130 mm")).detail
+    ex = get_section("457x152x52 UKB")
+
+    @settings(max_examples=40, deadline=None)
+    @given(st.floats(0.0, 5e4), st.floats(0.0, 5e3), st.floats(0.3, 50.0), st.floats(-1.0, 1.0),
+           st.floats(1e3, 5e6), st.sampled_from(["column flange", "column web"]))
+    def column(Nk, Mk, L, psi, R, face):
+        loads = parse_existing_loads({"kind": "column", "height": f"{L} m", "moment_ratio": psi,
+                                      "axial": {"permanent": f"{Nk} kN"}, "moment_z": {"imposed": f"{Mk} kNm"}},
+                                     face, "x")
+        res = existing_member_checks(COL, loads, lambda t: existing_material_of("1950-1958", t), face, det,
+                                     (ReactionPart("G", "permanent", None, R),), R, UK_NA)
+        assert all(not math.isnan(r.utilisation) for r in res.records)
+
+    @settings(max_examples=30, deadline=None)
+    @given(st.floats(1.0, 30.0), st.floats(0.05, 0.95), st.floats(0.0, 100.0), st.floats(1e3, 2e6),
+           st.sampled_from(["top flange", "shear centre", "bottom flange"]))
+    def beam(span, frac, w, R, level):
+        loads = parse_existing_loads({"kind": "beam", "span": f"{span} m", "at": f"{span * frac} m",
+                                      "udl": {"permanent": f"{w} kN/m", "imposed": f"{w / 2} kN/m"},
+                                      "load_level": level}, "beam web", "x")
+        res = existing_member_checks(ex, loads, lambda t: existing_material_of("S275", t), "beam web", det_b,
+                                     (ReactionPart("G", "permanent", None, R),), R, UK_NA)
+        assert all(not math.isnan(r.utilisation) for r in res.records)
+
+    column()
+    beam()
