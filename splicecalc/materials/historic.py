@@ -98,6 +98,8 @@ def _normalise_era(text: str) -> str | None:
         return "before 1909"
     # a single year or a range wholly inside one band
     parts = s.split("-")
+    if not s.isascii():            # years in the digits 0-9 only (int() would read other scripts' digits)
+        return None
     try:
         years = [int(p) for p in parts if p]
     except ValueError:

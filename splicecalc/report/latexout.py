@@ -184,7 +184,7 @@ def _wrapping_spec(rows: list[list[str]], align: str, head: list[str] | None = N
 def table_latex(p: dict[str, Any]) -> str:
     """A data or summary table as a page-breakable longtable."""
     cols = p["columns"]
-    align = p.get("align") or "l" * len(cols)
+    align = "".join(a for a in str(p.get("align") or "") if a in "lrc") or "l" * len(cols)   # never raw TeX
     kind = p.get("kind", "data")
     if kind == "summary":
         # the check title wraps; numbers stay on one line
@@ -224,7 +224,9 @@ def review_latex(p: dict[str, Any]) -> str:
     for c in p.get("comments", []):
         if c.get("anchor") and c.get("state") != "closed":
             marks.setdefault(c["anchor"], []).append(c["id"])
-    out = [f"\\calcrevdef{{{a}}}{{{escape_tex(', '.join(ids))}}}" for a, ids in marks.items()]
+    # an anchor names an aux entry: only the characters anchor_name makes (the register is a file users can edit)
+    out = [f"\\calcrevdef{{{re.sub(r'[^A-Za-z0-9_.:-]', '-', str(a))}}}{{{escape_tex(', '.join(ids))}}}"
+           for a, ids in marks.items()]
     n = p.get("counts", {})
     out.append(f"\\calcsteptext{{Register {escape_tex(p.get('register', ''))}: {n.get('open', 0)} open, "
                f"{n.get('answered', 0)} answered, {n.get('closed', 0)} closed. Digest "
