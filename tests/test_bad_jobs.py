@@ -258,3 +258,32 @@ def test_bad_job_gives_a_clear_result(case, tmp_path, capsys):
     else:
         assert code == 1, f"exit {code}: {err or out[-300:]}"
         assert "NOT OK" in out or "OVER" in out or "exceed" in out.lower() or code == 1
+
+
+# ---------------------------------------------------------------- property: the reader never crashes
+from hypothesis import HealthCheck, given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+_VALUES = st.recursive(
+    st.one_of(st.none(), st.booleans(), st.integers(min_value=-(2 ** 63), max_value=2 ** 63 - 1),
+              st.floats(allow_nan=True, allow_infinity=True), st.text(max_size=40),
+              st.sampled_from(["7.2 m", "-0 mm", "1e308 kN", "nan m", "5 kN/m", "M20 8.8", "auto", "S275",
+                               "1950-1958", "40 mm x 120 mm", "start", "end", "fin plate", "\u0665 m", ""])),
+    lambda inner: st.one_of(st.lists(inner, max_size=3), st.dictionaries(st.text(max_size=8), inner, max_size=3)),
+    max_leaves=6)
+_ALL_DOCS = _docs()
+_PATHS = [(stem, path) for stem, doc in _ALL_DOCS.items() for path, _ in _leaves(doc)] + \
+         [(stem, path) for stem, doc in _ALL_DOCS.items() for path, _ in _tables(doc) if path]
+
+
+@settings(max_examples=300, deadline=None, suppress_health_check=list(HealthCheck))
+@given(st.sampled_from(_PATHS), _VALUES)
+def test_reading_any_value_anywhere_raises_only_input_error(where, value):
+    from splicecalc.job.loader import job_from_dict
+
+    stem, path = where
+    doc = _set(_ALL_DOCS[stem], path, value)
+    try:
+        job_from_dict(doc)
+    except InputError as err:
+        assert "\n" not in str(err)
