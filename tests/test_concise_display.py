@@ -78,3 +78,26 @@ def test_summary_by_part_lists_each_part_once(result):
     tables = [d[TABLE_MIME] for d in datas if TABLE_MIME in d]
     parts = [t for t in tables if t.get("kind") == "parts"][0]
     assert [r[0] for r in parts["rows"]] == [p.title for p in job_parts(result) if p.governing is not None]
+
+
+def test_connection_drawing_to_a_stated_scale(result):
+    from splicecalc.joints.connections.sheet_drawing import (PRINT_WIDTH_MM, SCALES, connection_drawing_data,
+                                                             draw_connection_data)
+
+    for c in result.connections:
+        data = connection_drawing_data(c.design)
+        det = c.design.detail
+        assert data["plate"]["h_mm"] == det.h_p and data["bolts"]["rows"] == det.n_1        # from the design
+        assert data["weld_leg_mm"] == det.weld_leg
+        fig = draw_connection_data(data)
+        ax = fig.axes[0]
+        assert not ax.axison                                                            # no plot axes
+        w_in, h_in = fig.get_size_inches()
+        assert w_in * 25.4 == pytest.approx(PRINT_WIDTH_MM)
+        x0, x1 = ax.get_xlim()
+        y0, y1 = ax.get_ylim()
+        scale = (x1 - x0) / PRINT_WIDTH_MM
+        assert any(scale == pytest.approx(s) for s in SCALES)                           # a standard ratio
+        assert (y1 - y0) / (h_in * 25.4) == pytest.approx(scale)                        # same scale both ways
+        texts = " ".join(t.get_text() for t in ax.texts)
+        assert f"Scale 1:{scale:g}" in texts and f"{det.h_p:g}" in texts and f"{det.weld_leg:g} mm fillet" in texts

@@ -29,6 +29,7 @@ PNG_MIME = "image/png"
 DRAWERS: dict[str, tuple[str, str]] = {
     "beam_diagrams": ("splicecalc.analysis.diagrams", "draw_beam_diagrams"),
     "splice": ("splicecalc.joints.splice.drawing", "draw_splice_data"),
+    "connection": ("splicecalc.joints.connections.sheet_drawing", "draw_connection_data"),
 }
 
 

@@ -645,9 +645,11 @@ def show_connection(result: CalcResult, part: Any, like: Any = None) -> None:
     d = part.design
     _connection_head(part)
     if like is None:
-        if hasattr(d, "drawing_data"):
-            show_drawing(d.drawing_data(), f"End {part.end}: elevation and section of the connection, to scale, "
-                                           "dimensions in mm.")
+        from ..joints.connections.sheet_drawing import connection_drawing_data
+
+        view = "view on the end plate" if d.detail.kind == "end plate" else "plan section through the bolts"
+        show_drawing(connection_drawing_data(d), f"End {part.end}: elevation and {view}, to the scale stated, "
+                                                  "dimensions in mm.")
         show_part_checks(part.records, f"End {part.end}: detailing rules")
     else:
         show_text(f"**Same detail as end {like.end}**: every check below is made for the reaction at "
