@@ -287,3 +287,17 @@ def test_reading_any_value_anywhere_raises_only_input_error(where, value):
         job_from_dict(doc)
     except InputError as err:
         assert "\n" not in str(err)
+
+
+def test_a_job_built_in_python_meets_the_same_bounds():
+    """The Python API (Job, BeamSpec) goes through the same bounds as a job file."""
+    from splicecalc.actions.loads import UDL
+    from splicecalc.job.model import BeamSpec, Job
+
+    with pytest.raises(InputError, match="beam.span"):
+        Job(beam=BeamSpec(span=1e15))                           # 1e12 m in mm
+    with pytest.raises(InputError, match=r"load\[1\].udl"):
+        Job(beam=BeamSpec(span=7200.0), loads=(UDL(name="w", action="permanent", w=1e30),))
+    with pytest.raises(InputError, match="gamma_G"):
+        Job(beam=BeamSpec(span=7200.0, na_overrides=(("gamma_G", 0.01),)))
+    Job(beam=BeamSpec(span=7200.0), loads=(UDL(name="w", action="permanent", w=8.5),))

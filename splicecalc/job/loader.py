@@ -32,7 +32,7 @@ from ..actions.loads import ACTIONS, CATEGORIES, PointLoad, UDL
 from ..core.errors import InputError, require_choice
 from ..core.files import write_atomic
 from ..core.units import parse_quantity
-from .bounds import check_bounds, check_relations, check_text_lengths
+from .bounds import check_bounds, check_text_lengths
 from .model import BeamSpec, Job, NA_OVERRIDABLE, PROJECT_KEYS, Project
 
 TOP_KEYS: tuple[str, ...] = ("project", "beam", "load", "splices", "support")
@@ -275,10 +275,9 @@ def job_from_dict(data: Any) -> Job:
             supports.append(tt if parse is None else parse(tt, i + 1))
         if parse is None:
             notes.append("[[support]] kept as raw tables: splicecalc.joints.connections.spec is not available")
-    job = Job(beam=beam, loads=loads, project=project, splices=splices, supports=tuple(supports),
-              splices_table=splices_table, support_tables=tuple(support_tables), notes=tuple(notes))
-    check_relations(job, d)     # fields against each other and against the sections the design may use
-    return job
+    # Job() checks the fields against each other and the sections the design may use (bounds.check_relations)
+    return Job(beam=beam, loads=loads, project=project, splices=splices, supports=tuple(supports),
+               splices_table=splices_table, support_tables=tuple(support_tables), notes=tuple(notes))
 
 
 #: largest job file read (bytes): a job file is a few kB; anything near this is not one

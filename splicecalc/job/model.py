@@ -265,6 +265,13 @@ class Job:
         canonical = check_section_choice(self.beam)
         if canonical is not None and canonical != self.beam.section:
             object.__setattr__(self, "beam", replace(self.beam, section=canonical))
+        # the same plausibility bounds and cross-field checks as a job file, for a Job built in Python
+        from .bounds import check_bounds, check_relations, check_text_lengths
+
+        doc = self.to_canonical_dict()
+        check_text_lengths(doc)
+        check_bounds(doc)
+        check_relations(self, doc)
 
     # ------------------------------------------------------------ derived
     @property
