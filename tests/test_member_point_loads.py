@@ -368,3 +368,13 @@ def test_short_line_load_is_a_patch_load():
     assert rec.demand == pytest.approx(1.35 * 400.0 * 0.3, rel=1e-9)
     F_Rd = F_Rd_by_hand(453.4, 189.9, 8.5, 12.7, 355.0, s_s=300.0)
     assert rec.resistance == pytest.approx(F_Rd / 1e3, rel=2e-3)
+
+
+def test_hanger_on_the_bottom_flange_has_no_72_interaction():
+    """A load hung from the tension (bottom) flange: EN 1993-1-5 section 6 only, 7.2(2) (no 7.2(1) interaction)."""
+    job = Job(beam=BeamSpec(span=6000.0, grade="S355", section="457x191x67 UKB", load_level="top flange"),
+              loads=(PointLoad("pipe hanger", "permanent", 60e3, 2000.0, applied_to="bottom flange"),))
+    d = design_beam(job)
+    assert d.record("transverse_force_P1").is_check
+    info = d.record("transverse_bending_P1")
+    assert info.status == "info" and info.clause == "EN 1993-1-5:2006, 7.2(2)"

@@ -138,8 +138,9 @@ class UDL:
 
 
 #: how a point load enters the beam: on a flange (the web is checked under it, EN 1993-1-5
-#: section 6) or through a connection to the web (a secondary beam's end plate or fin plate)
-APPLIED_TO: tuple[str, ...] = ("flange", "web")
+#: section 6): "flange" = the flange of the job's load level, or "top flange" / "bottom flange";
+#: or through a connection to the web (a secondary beam's end plate or fin plate)
+APPLIED_TO: tuple[str, ...] = ("flange", "top flange", "bottom flange", "web")
 
 
 @dataclass(frozen=True)
@@ -148,8 +149,10 @@ class PointLoad:
 
     bearing_length: stiff bearing length s_s (mm, >= 0) over which the load is spread on the
         flange (EN 1993-1-5 6.3); 0 (default) for a load with no stiff bearing.
-    applied_to: ``"flange"`` (default: on the flange, the web is checked under it) or ``"web"``
-        (through a connection to the web, e.g. a secondary beam's end plate or fin plate).
+    applied_to: ``"flange"`` (default: on the flange of the job's load level, the web is checked
+        under it), ``"top flange"`` / ``"bottom flange"`` (that flange, e.g. a hanger on the bottom
+        flange), or ``"web"`` (through a connection to the web, e.g. a secondary beam's end plate
+        or fin plate).
     """
 
     name: str

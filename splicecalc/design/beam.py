@@ -646,7 +646,7 @@ def _support_bearing(ctx: _Context, case: _MassCase, section: Section, run: _Run
 def _point_groups(ctx: _Context) -> list[tuple[float, str, tuple[str, ...], float]]:
     """Point loads inside the span grouped by position and how they enter the beam:
     (x mm, "flange" | "web", load names, stiff bearing length s_s mm = the smallest of the group)."""
-    groups: dict[tuple[float, str], list[PointLoad]] = {}
+    groups: dict[tuple[float, str], list[PointLoad]] = {}   # by position and how it is applied
     for ld in ctx.job.loads:
         if isinstance(ld, PointLoad) and 0.0 < ld.x < ctx.L:
             groups.setdefault((ld.x, ld.applied_to), []).append(ld)
@@ -669,7 +669,7 @@ def _point_loads(ctx: _Context, case: _MassCase, section: Section, run: _Run, re
     if not items:
         return
     M_c, _, _, _ = _M_c_Rd_fast(section, ctx)
-    on_top = ctx.beam.load_level != "bottom flange"
+    top_default = ctx.beam.load_level != "bottom flange"
     bl = ctx.beam.bearing_length
     end_a = -(0.5 * bl + ctx.beam.end_distance) if bl is not None else 0.0     # beam end positions
     end_b = ctx.L - end_a
@@ -678,6 +678,7 @@ def _point_loads(ctx: _Context, case: _MassCase, section: Section, run: _Run, re
         where = f"x = {x / 1e3:.3g} m"
         what = "point load" if kind == "P" else "short line load"
         tag = f"{kind}{k}"
+        on_top = top_default if how == "flange" else how == "top flange"   # the compression flange
         if how == "web":
             run.add(not_checked(
                 id=f"web_connection_{tag}", title=f"Web at the connection of {label} ({where}), {section.designation}",

@@ -10,7 +10,7 @@ Layout (every quantity a string with its unit; positions from support A)::
                 min_frequency (Hz, a plain number, floor beams; default 4)
     [[load]]    name, action (permanent | imposed | snow | wind), category (imposed: A-H),
                 group, and either udl (+ optional from, to) or point + at (+ optional
-                bearing_length, applied_to = "flange" | "web")
+                bearing_length, applied_to = "flange" | "top flange" | "bottom flange" | "web")
     [splices]   handed to splicecalc.joints.splice.spec.parse_splices
     [[support]] each handed to splicecalc.joints.connections.spec.parse_support
 
@@ -28,7 +28,7 @@ import tomllib
 from pathlib import Path
 from typing import Any
 
-from ..actions.loads import ACTIONS, CATEGORIES, PointLoad, UDL
+from ..actions.loads import ACTIONS, APPLIED_TO, CATEGORIES, PointLoad, UDL
 from ..core.errors import InputError, require_choice
 from ..core.files import write_atomic
 from ..core.units import parse_quantity
@@ -216,7 +216,7 @@ def parse_load(table: Any, index: int, span: float) -> UDL | PointLoad:
                              f"the stiff bearing length of load '{name}': 0 up to the span {span_txt} "
                              "(0 when the load has no stiff bearing)")
     applied = t.get("applied_to", "flange")
-    require_choice(f"{key}.applied_to", applied, ("flange", "web"))
+    require_choice(f"{key}.applied_to", applied, APPLIED_TO)
     return PointLoad(name=name, action=action, P=P, x=x, category=cat, group=group, bearing_length=s_s,
                      applied_to=applied)
 

@@ -233,8 +233,9 @@ def job_tables(job: Any) -> list[TableOutput]:
                 f"{ld.x_start / 1000:g} to {(ld.x_end if ld.x_end is not None else job.beam.span) / 1000:g} m"
             lrows.append([ld.name, ld.action, cat, "line load", f"{ld.w:g}", _u("kN/m"), extent])
         else:
+            on = "the flange" if ld.applied_to == "flange" else f"the {ld.applied_to}"
             how = (", through a web connection" if ld.applied_to == "web"
-                   else (f", on the flange, s_s = {ld.bearing_length:g} mm" if ld.bearing_length else ", on the flange"))
+                   else (f", on {on}, s_s = {ld.bearing_length:g} mm" if ld.bearing_length else f", on {on}"))
             lrows.append([ld.name, ld.action, cat, "point load", f"{ld.P / 1000:g}", _u("kN"),
                           f"at {ld.x / 1000:g} m{how}"])
     loads = TableOutput(["Load", "Action", "Cat.", "Type", "Value", "Unit", "Where"], lrows,
