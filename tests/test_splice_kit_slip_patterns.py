@@ -187,6 +187,11 @@ def test_kink_formulas_by_hand_virtual_work():
     # geometry of the kinked beam: left part rotates by phi_A = theta (L - a)/L, right part by theta a / L
     phi_A = th * (L - a) / L
     assert delta_kink(theta_s=th, a=a, x=1500.0, L=L) == pytest.approx(phi_A * 1500.0)
+    # a vertical step s at a (no kink): both rigid parts keep one slope s / L, hinged at the supports, so the
+    # deflection is s x / L left of the step and s (L - x) / L right of it (geometry of the stepped beam)
+    from splicecalc.joints.splice.slip import delta_step
+    assert delta_step(s=2.0, a=a, x=1500.0, L=L) == pytest.approx(2.0 * 1500.0 / L)            # 0.333 mm
+    assert delta_step(s=2.0, a=a, x=4500.0, L=L) == pytest.approx(2.0 * (L - 4500.0) / L)      # 1.0 mm
 
 
 def test_slip_record_superposes_the_kinks_on_the_elastic_deflection():
@@ -204,7 +209,8 @@ def test_slip_record_superposes_the_kinks_on_the_elastic_deflection():
         s = {"M16": 2.0, "M20": 2.0, "M24": 2.0, "M27": 3.0, "M30": 3.0}[b]     # EN 1090-2 normal clearances
         th = 2 * s / z
         a = sp.x_mm
-        hand_slip += th * (a * (L - x) / L if a <= x else x * (L - a) / L)
+        hand_slip += th * (a * (L - x) / L if a <= x else x * (L - a) / L)   # kink, virtual work
+        hand_slip += s * ((L - x) / L if a <= x else x / L)                    # web step, virtual work
     w_el = max(abs(float(b.w(x))) for _, b in r.design.analysis.sls_variable)
     assert rec.values["delta_slip"][0] == pytest.approx(hand_slip, rel=1e-9)
     assert rec.demand == pytest.approx(w_el + hand_slip, rel=1e-6)
@@ -226,7 +232,8 @@ def test_slip_ignored_is_not_checked_and_category_b_has_no_slip():
     assert slip_records(plan, parse_splices({"category": "B", "bolts": "M20 8.8"}), sec, 8000.0, case) == []
     given = slip_records(plan, parse_splices({"slip": "1 mm"}), sec, 8000.0, case)
     th = 2 * 1.0 / (sec.h - sec.tf)
-    assert given[0].demand == pytest.approx(th * 3000 * 5000 / 8000, rel=1e-3)   # kink at its own position (hand)
+    # kink and web step at the splice's own position (hand, virtual work)
+    assert given[0].demand == pytest.approx(th * 3000 * 5000 / 8000 + 1.0 * 5000 / 8000, rel=1e-3)
 
 
 # ------------------------------------------------------------------ 4. imposed load patterned

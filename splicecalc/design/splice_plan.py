@@ -186,7 +186,7 @@ def slip_records(plan: SplicePlan, spec: Any, section: Any, span_mm: float, case
     ``slip = "ignored"``: a NOT CHECKED record. Categories B and C do not slip at SLS: none.
     """
     from ..core.record import Calc, not_checked
-    from ..joints.splice.slip import SLIP_GUIDANCE, delta_kink, theta_slip
+    from ..joints.splice.slip import SLIP_GUIDANCE, delta_kink, delta_step, theta_slip
     from ..members.en1993_1_1 import delta_lim
     import numpy as np
 
@@ -206,7 +206,8 @@ def slip_records(plan: SplicePlan, spec: Any, section: Any, span_mm: float, case
     z = section.h - section.tf
     thetas = [theta_slip(s=s, z=z) for s in slips]
     grid = sorted(set(np.linspace(0.0, L, 241).tolist()) | set(xs_sp))
-    slip_at = {x: sum(delta_kink(theta_s=t, a=a, x=x, L=L) for t, a in zip(thetas, xs_sp)) for x in grid}
+    slip_at = {x: sum(delta_kink(theta_s=t, a=a, x=x, L=L) + delta_step(s=s, a=a, x=x, L=L)
+                      for t, a, s in zip(thetas, xs_sp, slips)) for x in grid}
     out = []
     for c in cases:
         best = (0.0, L / 2, 0.0, 0.0, "no variable actions")      # (total, x, elastic, slip, combination)
@@ -224,9 +225,11 @@ def slip_records(plan: SplicePlan, spec: Any, section: Any, span_mm: float, case
         tot, xg, w_el, w_sl, combo = best
         calc = Calc(render=render)
         for k, (s, a) in enumerate(zip(slips, xs_sp), start=1):
-            calc.note(f"Splice S{k} at {a / 1000:.3f} m: slip s = {s:g} mm per flange joint, lever arm z = h - t_f")
+            calc.note(f"Splice S{k} at {a / 1000:.3f} m: slip s = {s:g} mm in each flange joint (a kink over the "
+                      f"lever arm z = h - t_f) and in the web joint (a step)")
             th = calc(theta_slip, s=s, z=z)
             calc(delta_kink, theta_s=th, a=a, x=xg, L=L)
+            calc(delta_step, s=s, a=a, x=xg, L=L)
         lim = calc(delta_lim, L=L, n_lim=c.n_lim)
         calc.keep("delta_el", w_el, "mm")
         calc.keep("delta_slip", w_sl, "mm")

@@ -8,7 +8,10 @@ the force split). On a simply supported span the kinks are rigid-body rotations 
 positions; by virtual work (unit load at x) each adds ``theta m(a; x)`` to the deflection at
 x, with ``m(a; x) = a (L - x) / L`` for ``a <= x`` and ``x (L - a) / L`` otherwise (the moment at
 the splice a from a unit load at x). The slip deflection is superposed on the elastic
-deflection of the SLS check. Category B (slip-resistant at SLS) or C splices do not slip at SLS.
+deflection of the SLS check. The web bolts slip too: the beam ends move vertically against each
+other by ``s``, a step whose deflection at x is ``s v(a; x)`` with ``v(a; x) = (L - x)/L`` for
+``a <= x`` and ``x / L`` otherwise (the shear at a from a unit load at x), added to the kink's.
+Category B (slip-resistant at SLS) or C splices do not slip at SLS.
 
 ``s`` by default is the hole clearance ``d_0 - d`` (a bolt may start anywhere in its hole, so
 the full clearance is possible; stated as conservative), or the value the job gives.
@@ -21,8 +24,9 @@ from ...core.clause import clause
 CIT_SLIP = "EN 1993-1-8:2005, 3.4.1(1)"
 CIT_SLS = "EN 1990:2002, A1.4.3"
 #: the method's source (not a code formula)
-SLIP_GUIDANCE = ("kink from slip in the flange joints, theta = 2 s / z, superposed by virtual work on the "
-                 "simply supported span (structural mechanics; the code states only that category A joints slip)")
+SLIP_GUIDANCE = ("kink from slip in the flange joints, theta = 2 s / z, and step s from slip in the web joint, "
+                 "superposed by virtual work on the simply supported span (structural mechanics; the code states "
+                 "only that category A joints slip)")
 
 
 @clause(CIT_SLIP, units={"s": "mm", "z": "mm"}, returns="", example=dict(s=2.0, z=440.7))
@@ -44,4 +48,15 @@ def delta_kink(theta_s: float, a: float, x: float, L: float) -> float:
     return delta_k
 
 
-__all__ = ["theta_slip", "delta_kink", "CIT_SLIP", "CIT_SLS", "SLIP_GUIDANCE"]
+@clause(CIT_SLS, units={"s": "mm", "a": "mm", "x": "mm", "L": "mm"}, returns="mm",
+        example=dict(s=2.0, a=3000.0, x=4500.0, L=9000.0))
+def delta_step(s: float, a: float, x: float, L: float) -> float:
+    """Deflection at x (mm) of a simply supported span L from a vertical step s at a (the web bolts slipping
+    in their holes): virtual work with the shear at a from a unit load at x."""
+    if a <= x: v_a = (L - x) / L
+    else: v_a = x / L
+    delta_s = s * v_a
+    return delta_s
+
+
+__all__ = ["theta_slip", "delta_kink", "delta_step", "CIT_SLIP", "CIT_SLS", "SLIP_GUIDANCE"]
