@@ -46,7 +46,7 @@ from ..job.model import SELF_WEIGHT_NAME, Job
 from ..materials import E_MPa, NationalAnnex, steel
 from ..members import en1993_1_1 as f11
 from ..members import (C1_C2_PINNED, VIBRATION_IMPOSED_SHARE, C_1_linear, M_cr_C1C2, check_bending,
-                       check_bending_shear, check_floor_frequency, restraint_force,
+                       bending_resistance, check_bending_shear, check_floor_frequency, restraint_force,
                        check_deflection, check_ltb, check_shear, check_transverse_bending, check_transverse_force,
                        check_web_bearing, classify, shear_resistance, transverse_resistance)
 from ..sections import Section, get_section, list_sections
@@ -668,7 +668,7 @@ def _point_loads(ctx: _Context, case: _MassCase, section: Section, run: _Run, re
     items += [("U", k, *g) for k, g in enumerate(patches, start=1)]
     if not items:
         return
-    M_c, _, _, _ = _M_c_Rd_fast(section, ctx)
+    M_c = bending_resistance(section, ctx.grade, ctx.na)
     top_default = ctx.beam.load_level != "bottom flange"
     bl = ctx.beam.bearing_length
     end_a = -(0.5 * bl + ctx.beam.end_distance) if bl is not None else 0.0     # beam end positions
@@ -734,11 +734,6 @@ def _point_loads(ctx: _Context, case: _MassCase, section: Section, run: _Run, re
                               note="load on the tension flange: no 7.2(1) interaction"))
 
 
-def _M_c_Rd_fast(section: Section, ctx: _Context) -> tuple[float, int, float, str]:
-    from ..members.checks import _M_c_Rd
-    return _M_c_Rd(section, ctx.grade, ctx.na, Calc())
-
-
 def _vibration(ctx: _Context, case: _MassCase, section: Section, run: _Run, render: bool) -> None:
     """Natural frequency of a floor beam (imposed floor loads present), common practice."""
     v = case.vibration()
@@ -774,7 +769,7 @@ def _bending_shear(ctx: _Context, case: _MassCase, section: Section, run: _Run, 
     # with V_Ed <= 0.5 V_Rd there is no reduction (6.2.8(2); EN 1993-1-5 7.1(1) with V_bw,Rd >= V_Rd):
     # u = M_Ed / M_c,Rd there without calling the check
     V_Rd, _ = shear_resistance(section, ctx.grade, ctx.na)
-    M_c = _M_c_Rd_fast(section, ctx)[0]
+    M_c = bending_resistance(section, ctx.grade, ctx.na)
     for i, b in enumerate(case.beams):
         for x in sorted(pts):
             M = abs(float(b.M(x)))

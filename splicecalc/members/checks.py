@@ -347,6 +347,13 @@ def _M_c_Rd(section: Any, grade: str, na: NationalAnnex, calc: Calc, A_f_net: fl
     return M, cls, W, note
 
 
+def bending_resistance(section: Any, grade: str, na: NationalAnnex = UK_NA) -> float:
+    """M_c,Rd (N mm) on floats, EN 1993-1-1 6.2.5 (W_pl, W_el or W_eff by class), for searches."""
+    _check_section(section)
+    _check_na(na)
+    return _M_c_Rd(section, grade, na, Calc())[0]
+
+
 def check_bending(section: Any, grade: str, M_Ed: float, na: NationalAnnex = UK_NA, calc: Calc | None = None, *,
                   A_f_net: float | None = None, W_net: float | None = None,
                   location_mm: float | None = None) -> CheckRecord:
@@ -900,5 +907,5 @@ def restraint_force(N_f_Ed: float, span_mm: float, tributary_mm: float, m: float
 __all__ = ["SlenderSectionError", "ShearBucklingError", "ALPHA_LT", "DEFLECTION_LIMITS", "section_class",
            "classify", "W_y_with_holes", "check_bending", "check_shear", "check_bending_shear",
            "ltb_curve_rolled", "check_ltb", "check_web_bearing", "check_deflection", "effective_section",
-           "check_floor_frequency", "restraint_force", "FLOOR_FREQUENCY_MIN_HZ", "VIBRATION_IMPOSED_SHARE",
+           "check_floor_frequency", "restraint_force", "bending_resistance", "FLOOR_FREQUENCY_MIN_HZ", "VIBRATION_IMPOSED_SHARE",
            "shear_resistance", "transverse_resistance", "check_transverse_force", "check_transverse_bending"]
