@@ -101,3 +101,19 @@ def test_connection_drawing_to_a_stated_scale(result):
         assert (y1 - y0) / (h_in * 25.4) == pytest.approx(scale)                        # same scale both ways
         texts = " ".join(t.get_text() for t in ax.texts)
         assert f"Scale 1:{scale:g}" in texts and f"{det.h_p:g}" in texts and f"{det.weld_leg:g} mm fillet" in texts
+
+
+def test_splice_drawing_to_a_stated_scale(result):
+    from splicecalc.joints.sheet_scale import PRINT_WIDTH_MM, SCALES
+
+    fig = result.splices[0].design.drawing()
+    assert fig.get_size_inches()[0] * 25.4 == pytest.approx(PRINT_WIDTH_MM)
+    assert getattr(fig, "splicecalc_tight", True) is False                        # saved uncropped
+    texts = " ".join(t.get_text() for t in fig.texts)
+    scale = float(texts.split("Scale 1:")[1].split()[0])
+    assert scale in SCALES
+    for ax in fig.axes:
+        assert not ax.axison                                                        # no plot axes
+        x0, x1 = ax.get_xlim()
+        w_mm = ax.get_position().width * PRINT_WIDTH_MM
+        assert (x1 - x0) / w_mm == pytest.approx(scale, rel=1e-6)                   # 1 mm on paper = scale mm

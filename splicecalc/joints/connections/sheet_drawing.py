@@ -24,10 +24,7 @@ from typing import Any
 
 from ...core.text import plain_text_figures
 
-#: printed width of a figure in the calc package (0.85 of the 174 mm text width, latex template)
-PRINT_WIDTH_MM = 147.9
-#: drawing scales offered, smallest reduction first
-SCALES = (2.0, 2.5, 5.0, 10.0, 20.0, 25.0, 50.0)
+from ..sheet_scale import PRINT_WIDTH_MM, SCALES, fit_scale
 
 
 def connection_drawing_data(design: Any, title: str = "") -> dict[str, Any]:
@@ -49,14 +46,6 @@ def connection_drawing_data(design: Any, title: str = "") -> dict[str, Any]:
         "weld_leg_mm": det.weld_leg,
         "notch": {"depth_mm": spec.notch_depth or 0.0, "length_mm": spec.notch_length or 0.0},
     }
-
-
-def _scale(extent_w: float, extent_h: float, max_h_mm: float = 150.0) -> float:
-    """The smallest standard reduction at which the drawing fits the printed width and height."""
-    for s in SCALES:
-        if extent_w / s <= PRINT_WIDTH_MM and extent_h / s <= max_h_mm:
-            return s
-    return SCALES[-1]
 
 
 @plain_text_figures
@@ -212,7 +201,7 @@ def draw_connection_data(data: dict[str, Any]) -> Any:
     # ------------------------------------------------------------------ scale
     width = x_end - x_left + 20.0
     height = y_top - y_bot
-    sc = _scale(width, height + 24.0 * 5)
+    sc = fit_scale(width, height + 24.0 * 5, room_h=150.0)
     pad = 7.0 * sc                                         # 7 mm of paper above and below
     W = PRINT_WIDTH_MM * sc
     ax.set_xlim(x_left - 10.0, x_left - 10.0 + W)
@@ -221,6 +210,7 @@ def draw_connection_data(data: dict[str, Any]) -> Any:
             "calc sheet). Dimensions in mm.", ha="left", va="bottom", fontsize=6.5, style="italic",
             family="sans-serif")
     fig.set_size_inches(PRINT_WIDTH_MM / 25.4, (height + 2 * pad) / sc / 25.4)
+    fig.splicecalc_tight = False                           # saved uncropped: the scale holds on paper
     return fig
 
 

@@ -168,13 +168,30 @@ def draw_splice_data(data: dict[str, Any]) -> Any:
     ax.set_title(f"Plan on top flange: outer plate {g.b_po:g} x {g.t_po:g} x {Lf:g}{inner};\n"
                  f"{lay.bolt_size} {lay.bolt_class} bolts in {d_hole:g} mm holes", fontsize=8)
     ax.axvline(0.0, color="0.5", lw=0.5, ls="-.")
-    ax.tick_params(labelsize=6)
-    fig.suptitle(title or "Bolted cover-plate splice (dimensions in mm, drawn to scale)", fontsize=9)
-    # fixed margins (inches) instead of tight_layout: same look, no extra text-layout pass
-    W, H = fig.get_size_inches()
-    fig.subplots_adjust(left=0.55 / W, right=1.0 - 0.1 / W, bottom=0.4 / H, top=1.0 - 0.75 / H, wspace=0.18)
-    # saved with a tight box: the equal-aspect axes leave a margin that depends on the splice's
-    # proportions, and the crop gives the drawing the full width of the sheet
+    # ------------------------------------------------------------------- one scale, no plot axes
+    # both views at one standard scale (joints.sheet_scale), placed side by side on a figure the
+    # width the calc sheet prints it at, saved uncropped so that the stated ratio holds on paper
+    from ..sheet_scale import PRINT_WIDTH_MM, fit_scale
+
+    e_w = 2 * ext
+    e1_h = h + 2 * g.t_po + 120.0
+    e2_h = b + 70.0
+    gap_mm, foot_mm, head_mm = 10.0, 7.0, 16.0
+    sc = fit_scale(2 * e_w + gap_mm * 10, max(e1_h, e2_h), room_h=150.0)
+    H = max(e1_h, e2_h) / sc + foot_mm + head_mm
+    fig.set_size_inches(PRINT_WIDTH_MM / 25.4, H / 25.4)
+    w = e_w / sc / PRINT_WIDTH_MM
+    ax1.set_position((0.0, foot_mm / H, w, e1_h / sc / H))
+    ax2.set_position((w + gap_mm / PRINT_WIDTH_MM, (foot_mm + (e1_h - e2_h) / 2 / sc) / H, w, e2_h / sc / H))
+    for a in (ax1, ax2):
+        a.set_axis_off()
+        t = a.get_title()
+        a.set_title("")
+        a.set_title(t, loc="left", fontsize=7)
+    fig.suptitle(title or "Bolted cover-plate splice", fontsize=8, x=0.0, ha="left", y=1.0 - 2.0 / H)
+    fig.text(0.0, 1.0 / H, f"Scale 1:{sc:g} when printed {PRINT_WIDTH_MM:g} mm wide (as on the calc sheet). "
+             "Dimensions in mm.", fontsize=6.5, style="italic", ha="left", va="bottom")
+    fig.splicecalc_tight = False
     return fig
 
 
