@@ -43,8 +43,7 @@ from ..analysis import Envelope, SimpleBeam, beam_diagrams, envelope
 from ..core.errors import InputError
 from ..core.record import Calc, CheckRecord, not_checked
 from ..job.model import SELF_WEIGHT_NAME, Job
-from ..materials import E_MPa, NationalAnnex, steel
-from ..members import en1993_1_1 as f11
+from ..materials import E_MPa, NationalAnnex
 from ..members import (C1_C2_PINNED, VIBRATION_IMPOSED_SHARE, C_1_linear, M_cr_C1C2, check_bending,
                        bending_resistance, check_bending_shear, check_floor_frequency, restraint_force,
                        check_deflection, check_ltb, check_shear, check_transverse_bending, check_transverse_force,
@@ -522,7 +521,7 @@ def _check_section_all(ctx: _Context, section: Section, render: bool = False,
     With ``render`` the governing case of each check is re-run with handcalcs rendering.
     """
     case = ctx.case(section.mass_nominal)
-    na, grade, L = ctx.na, ctx.grade, ctx.L
+    na, grade = ctx.na, ctx.grade
     run = _Run()
     uls = case.uls
 

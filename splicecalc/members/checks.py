@@ -495,7 +495,6 @@ def _bending_shear_slender(section: Any, grade: str, M: float, V: float, na: Nat
                            M_c: float, loc: float | None) -> CheckRecord:
     """EN 1993-1-5 7.1 Eq. 7.1 for a web that needs the shear-buckling check; also M_Ed <= M_c,Rd."""
     f_y, _ = _fy(section, grade)
-    f_yw = _fy_web(section, grade)
     calc.note("Web with $h_w/t_w > 72\\varepsilon/\\eta$: interaction of bending and shear by EN 1993-1-5 7.1 "
               "with the shear-buckling resistance of the web, $\\bar\\eta_3 = V_{Ed}/V_{bw,Rd}$.")
     V_bw = _V_b_Rd(section, grade, na, calc)
