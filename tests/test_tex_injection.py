@@ -303,3 +303,25 @@ def test_entities_print_as_the_characters_in_the_pdf_text():
     out = fp.pandoc(markdown_safe("a <b> & c"), OUTPUT_MD_FORMAT, "latex")
     assert "\\textless{}" in out or "\\textless" in out
     assert "\\&" in out
+
+
+@pytest.mark.parametrize("body", [r"\left( x", r"x_a_b", r"x^a^b", r"x^", r"\mathrm", r"x_", r"\frac{a}", r"x^2'",
+                                  r"\sqrt", "{", "}", r"a}{b"])
+def test_math_that_would_stop_xelatex_is_printed_as_text(body):
+    # a load called "$x_a_b$" must not stop the build with "Double subscript": it is text
+    assert not safe_math(body)
+    assert cell_tex(f"${body}$").startswith(r"\$")
+
+
+def test_every_math_cell_and_unit_of_the_library_is_in_the_small_syntax():
+    import glob
+
+    from splicecalc.report.display import UNIT_TEX
+
+    assert all(safe_math(t) for t in UNIT_TEX.values() if t)
+    for f in glob.glob(str(ROOT / "splicecalc" / "**" / "*.py"), recursive=True):
+        src = Path(f).read_text(encoding="utf-8")
+        for m in re.finditer(r'(r?)"(\$[^"$]{1,100}\$)"', src):
+            body = m.group(2)[1:-1]
+            body = body if m.group(1) else body.encode().decode("unicode_escape")
+            assert safe_math(body), (f, body)

@@ -112,13 +112,15 @@ SAFE_MATH_WORDS = frozenset({
     "alpha", "beta", "gamma", "delta", "epsilon", "varepsilon", "zeta", "eta", "theta", "kappa",
     "lambda", "mu", "nu", "xi", "pi", "rho", "sigma", "tau", "phi", "varphi", "chi", "psi", "omega",
     "Gamma", "Delta", "Theta", "Lambda", "Sigma", "Phi", "Psi", "Omega",
-    "mathrm", "mathit", "mathbf", "max", "min", "sum", "sqrt", "frac", "infty", "leq", "geq", "le", "ge",
-    "neq", "approx", "times", "cdot", "pm", "surd", "ell", "circ", "prime", "quad", "left", "right",
+    "mathrm", "mathit", "mathbf", "max", "min", "sum", "infty", "leq", "geq", "le", "ge",
+    "neq", "approx", "times", "cdot", "pm", "surd", "ell", "circ", "quad",
     "bar", "hat", "tilde", "overline", "text",
 })
 #: control symbols allowed: thin / medium / negative spaces and an escaped percent sign
 SAFE_MATH_SYMBOLS = frozenset({",", ";", "!", " ", ":", "%"})
-_MATH_CHARS = re.compile(r"[A-Za-z0-9 _^{}()\[\],.+\-=/|':;<>!*\\]*")
+_MATH_CHARS = re.compile(r"[A-Za-z0-9 _^{}()\[\],.+\-=/|:;<>!*\\]*")
+#: control words that take one argument (a character or a group)
+_ONE_ARG = frozenset({"mathrm", "mathit", "mathbf", "text", "bar", "hat", "tilde", "overline"})
 _CS_RE = re.compile(r"\\([A-Za-z]+|.)", re.S)
 #: longest math accepted (math cannot break across lines)
 SAFE_MATH_MAX = 120
@@ -134,19 +136,67 @@ def safe_math(body: str) -> bool:
         name = m.group(1)
         if name not in SAFE_MATH_WORDS and name not in SAFE_MATH_SYMBOLS:
             return False
-    depth = 0
-    for i, ch in enumerate(body):
-        if ch in "{}" and i > 0 and body[i - 1] == "\\":
-            return False                    # \{ \} would unbalance the groups we count
-        if ch == "{":
-            depth += 1
-            if depth > 4:
+    return _well_formed(_tokens(body))
+
+
+def _tokens(body: str) -> list[str]:
+    out, i = [], 0
+    while i < len(body):
+        if body[i] == "\\":
+            m = _CS_RE.match(body, i)
+            out.append(m.group(0))
+            i = m.end()
+        elif body[i] == " ":
+            i += 1
+        else:
+            out.append(body[i])
+            i += 1
+    return out
+
+
+def _well_formed(toks: list[str]) -> bool:
+    """Groups balanced (depth <= 4), every script and one-argument word followed by its argument, at
+    most one subscript and one superscript per base: what XeLaTeX sets without an error."""
+    pos = 0
+
+    def arg(depth: int) -> bool:      # one atom: a character, a control word or a group
+        nonlocal pos
+        if pos >= len(toks) or toks[pos] in ("}", "_", "^"):
+            return False
+        t = toks[pos]
+        pos += 1
+        if t == "{":
+            return seq(depth + 1, closing=True)
+        if t.startswith("\\") and t[1:] in _ONE_ARG:
+            return arg(depth)
+        return True
+
+    def seq(depth: int, closing: bool) -> bool:
+        nonlocal pos
+        if depth > 4:
+            return False
+        sub = sup = False
+        while pos < len(toks):
+            t = toks[pos]
+            if t == "}":
+                if not closing:
+                    return False
+                pos += 1
+                return True
+            if t in ("_", "^"):
+                if (sub if t == "_" else sup):
+                    return False            # double subscript / superscript
+                pos += 1
+                if not arg(depth):
+                    return False
+                sub, sup = (True, sup) if t == "_" else (sub, True)
+                continue
+            if not arg(depth):
                 return False
-        elif ch == "}":
-            depth -= 1
-            if depth < 0:
-                return False
-    return depth == 0
+            sub = sup = False
+        return not closing
+
+    return seq(0, closing=False)
 
 
 _INLINE_MATH_RE = re.compile(r"\$([^$]*)\$")
