@@ -178,7 +178,8 @@ def _load_panel(ax: Any, loads: list[dict], L_m: float) -> None:
         if ld["type"] == "udl":
             a, b = ld["from_m"], ld["to_m"]
             ax.add_patch(Rectangle((a, level), b - a, 0.22, fc="tab:orange", alpha=0.25, ec="tab:orange", lw=0.8))
-            ax.annotate(f"{ld['name']}: {ld['w_kN_per_m']:.3g} kN/m", ((a + b) / 2, level + 0.11), ha="center",
+            where = "" if a <= 1e-9 and b >= L_m - 1e-9 else f", x = {a:.3g} to {b:.3g} m"
+            ax.annotate(f"{ld['name']}: {ld['w_kN_per_m']:.3g} kN/m{where}", ((a + b) / 2, level + 0.11), ha="center",
                         va="center", fontsize=6.5)
             level += 0.3
     top = level + 0.1
@@ -186,7 +187,8 @@ def _load_panel(ax: Any, loads: list[dict], L_m: float) -> None:
         if ld["type"] == "point":
             ax.annotate("", (ld["at_m"], 0.02), xytext=(ld["at_m"], top + 0.35),
                         arrowprops=dict(arrowstyle="-|>", color="tab:brown", lw=1.2))
-            ax.annotate(f"{ld['name']}: {ld['P_kN']:.3g} kN", (ld["at_m"], top + 0.37), ha="center",
+            ax.annotate(f"{ld['name']}: {ld['P_kN']:.3g} kN at x = {ld['at_m']:.3g} m", (ld["at_m"], top + 0.37),
+                        ha="center",
                         va="bottom", fontsize=6.5, color="tab:brown")
     ax.set_ylim(-0.3, top + 0.75)
     ax.set_yticks([])

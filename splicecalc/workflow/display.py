@@ -420,7 +420,7 @@ def show_analysis(result: CalcResult) -> None:
                "splices S and supports A, B marked.")
     if sls:
         caption += (f" Bottom panel: deflection under {sls[0].name} (characteristic variable actions) with "
-                     f"$I_y$ of {d.section.designation}.")
+                     f"the second moment of area I_y of {d.section.designation}.")
     show_drawing(data, caption)
     rows = []
     for (cc, bb) in an.uls:
