@@ -378,3 +378,15 @@ def test_hanger_on_the_bottom_flange_has_no_72_interaction():
     assert d.record("transverse_force_P1").is_check
     info = d.record("transverse_bending_P1")
     assert info.status == "info" and info.clause == "EN 1993-1-5:2006, 7.2(2)"
+
+
+def test_flange_induced_buckling_by_hand():
+    """EN 1993-1-5 8(1) Eq. 8.1 for 406x140x39 UKB S355 (h 398.0, b 141.8, t_w 6.4, t_f 8.6 mm, BS 4-1,
+    from memory), Class 1 -> k = 0.4: limit 0.4 (210000/355) sqrt(h_w t_w / (b t_f))."""
+    from splicecalc.members import check_flange_induced_buckling
+    sec = get_section("406x140x39 UKB")
+    hw = 398.0 - 2 * 8.6
+    lim = 0.4 * 210000 / 355 * sqrt(hw * 6.4 / (141.8 * 8.6))
+    rec = check_flange_induced_buckling(sec, "S355")
+    assert rec.resistance == pytest.approx(lim, rel=2e-3) and rec.demand == pytest.approx(hw / 6.4, rel=2e-3)
+    assert rec.ok

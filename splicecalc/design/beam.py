@@ -45,7 +45,8 @@ from ..core.record import Calc, CheckRecord, not_checked
 from ..job.model import SELF_WEIGHT_NAME, Job
 from ..materials import E_MPa, NationalAnnex
 from ..members import (C1_C2_PINNED, VIBRATION_IMPOSED_SHARE, C_1_linear, M_cr_C1C2, check_bending,
-                       bending_resistance, check_bending_shear, check_floor_frequency, restraint_force,
+                       bending_resistance, check_bending_shear, check_flange_induced_buckling,
+                       check_floor_frequency, restraint_force,
                        check_deflection, check_ltb, check_shear, check_transverse_bending, check_transverse_force,
                        check_web_bearing, classify, shear_resistance, transverse_resistance)
 from ..sections import Section, get_section, list_sections
@@ -543,6 +544,8 @@ def _check_section_all(ctx: _Context, section: Section, render: bool = False,
     _support_bearing(ctx, case, section, run, render)
     _point_loads(ctx, case, section, run, render)
     _bending_shear(ctx, case, section, run, render)
+    if shear_resistance(section, grade, na)[1]:   # a slender web: flange-induced buckling, EN 1993-1-5 8
+        run.add(check_flange_induced_buckling(section, grade, na, _calc(render)))
     if fail_fast and run.failed():
         return run
 

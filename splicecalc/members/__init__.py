@@ -30,7 +30,7 @@ from .checks import (ALPHA_LT, DEFLECTION_LIMITS, ShearBucklingError, SlenderSec
                      check_transverse_bending, check_transverse_force, check_web_bearing, classify,
                      effective_section, ltb_curve_rolled, section_class, shear_resistance, transverse_resistance,
                      FLOOR_FREQUENCY_MIN_HZ, VIBRATION_IMPOSED_SHARE, bending_resistance, check_floor_frequency,
-                     restraint_force)
+                     restraint_force, check_flange_induced_buckling)
 from .mcr import (C1_C2_PINNED, DEFAULT_N_ELEMENTS, C_1_linear, C_1_numerical, M_cr_C1C2, M_cr_closed_form,
                   M_cr_numerical, M_cr_uniform, McrResult, mcr_numerical)
 
@@ -41,7 +41,7 @@ __all__ = [
     "classify", "ltb_curve_rolled", "section_class", "check_transverse_bending", "check_transverse_force",
     "effective_section", "shear_resistance", "transverse_resistance",
     "FLOOR_FREQUENCY_MIN_HZ", "VIBRATION_IMPOSED_SHARE", "check_floor_frequency", "restraint_force",
-    "bending_resistance",
+    "bending_resistance", "check_flange_induced_buckling",
     "C1_C2_PINNED", "DEFAULT_N_ELEMENTS", "C_1_linear", "C_1_numerical", "M_cr_C1C2", "M_cr_closed_form",
     "M_cr_numerical", "M_cr_uniform", "McrResult", "mcr_numerical",
 ]

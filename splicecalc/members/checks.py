@@ -446,6 +446,30 @@ def check_shear(section: Any, grade: str, V_Ed: float, na: NationalAnnex = UK_NA
 
 
 # ------------------------------------------------------------------ bending and shear
+def check_flange_induced_buckling(section: Any, grade: str, na: NationalAnnex = UK_NA,
+                                  calc: Calc | None = None) -> CheckRecord:
+    """Flange-induced buckling of the web, EN 1993-1-5 section 8, Eq. 8.1 (a geometric limit, no load).
+
+    k = 0.4 where the plastic moment resistance is used (Class 1 and 2), 0.55 where the elastic
+    one is (Class 3 and 4), 8(1); A_w = h_w t_w, A_fc = b t_f. Record: demand = h_w/t_w,
+    resistance = the limit.
+    """
+    _check_section(section)
+    _check_na(na)
+    calc = _check_calc(calc)
+    f_yf, _ = _fy(section, grade)
+    cls = _section_class_fast(section, grade)["section_class"]
+    k = 0.4 if cls <= 2 else 0.55
+    h_w = _h_w(section)
+    lim = calc(f15.hw_tw_max_flange_induced, k=k, f_yf=f_yf, A_w=h_w * section.tw, A_fc=section.b * section.tf,
+               E=E_MPa)
+    calc.keep("hw_tw", h_w / section.tw)
+    calc.keep("hw_tw_max", lim)
+    return calc.record(id="flange_induced_buckling", title=f"Flange-induced buckling of the web, {_name(section)}",
+                       clause="EN 1993-1-5:2006, 8(1), Eq. 8.1", demand=h_w / section.tw, resistance=lim, unit="",
+                       note=f"k = {k:g} ({_ORD[cls]}: {'plastic' if cls <= 2 else 'elastic'} moment resistance used)")
+
+
 def check_bending_shear(section: Any, grade: str, M_Ed: float, V_Ed: float, na: NationalAnnex = UK_NA,
                         calc: Calc | None = None, *, A_f_net: float | None = None,
                         location_mm: float | None = None) -> CheckRecord:
@@ -906,5 +930,6 @@ def restraint_force(N_f_Ed: float, span_mm: float, tributary_mm: float, m: float
 __all__ = ["SlenderSectionError", "ShearBucklingError", "ALPHA_LT", "DEFLECTION_LIMITS", "section_class",
            "classify", "W_y_with_holes", "check_bending", "check_shear", "check_bending_shear",
            "ltb_curve_rolled", "check_ltb", "check_web_bearing", "check_deflection", "effective_section",
-           "check_floor_frequency", "restraint_force", "bending_resistance", "FLOOR_FREQUENCY_MIN_HZ", "VIBRATION_IMPOSED_SHARE",
+           "check_floor_frequency", "restraint_force", "bending_resistance",
+           "check_flange_induced_buckling", "FLOOR_FREQUENCY_MIN_HZ", "VIBRATION_IMPOSED_SHARE",
            "shear_resistance", "transverse_resistance", "check_transverse_force", "check_transverse_bending"]

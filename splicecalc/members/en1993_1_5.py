@@ -187,6 +187,14 @@ def eta_7_1(M_Ed: float, M_pl_Rd: float, M_f_Rd: float, V_Ed: float, V_bw_Rd: fl
     return eta_7_1
 
 
+@clause("EN 1993-1-5:2006, 8(1), Eq. 8.1", units={"E": "MPa", "f_yf": "MPa", "A_w": "mm2", "A_fc": "mm2"},
+        returns="", example=dict(k=0.4, f_yf=355.0, A_w=2437.0, A_fc=1219.0))
+def hw_tw_max_flange_induced(k: float, f_yf: float, A_w: float, A_fc: float, E: float = 210000.0) -> float:
+    """Largest web slenderness against flange-induced buckling h_w/t_w <= k (E / f_yf) sqrt(A_w / A_fc), Eq. 8.1."""
+    hw_tw_max = k * E / f_yf * sqrt(A_w / A_fc)
+    return hw_tw_max
+
+
 # ------------------------------------------------------------------ section 4: effective widths
 @clause("EN 1993-1-5:2006, 4.4(2), Table 4.1", units={}, returns="", example=dict(psi=-1.0))
 def k_sigma_internal(psi: float) -> float:
@@ -221,5 +229,5 @@ def rho_outstand(lamb_p: float) -> float:
     return rho
 
 
-__all__ = ["k_F_a", "l_y_a", "eta_2", "eta_7_2", "lambda_w", "chi_w", "V_b_Rd", "M_f_Rd", "eta_7_1",
+__all__ = ["hw_tw_max_flange_induced", "k_F_a", "l_y_a", "eta_2", "eta_7_2", "lambda_w", "chi_w", "V_b_Rd", "M_f_Rd", "eta_7_1",
            "k_sigma_internal", "lambda_p", "rho_internal", "rho_outstand", "s_s_eff", "k_F_c", "F_cr", "m_1", "m_2", "l_e", "l_y_c", "lambda_F", "chi_F", "F_Rd"]
