@@ -390,3 +390,19 @@ def test_flange_induced_buckling_by_hand():
     rec = check_flange_induced_buckling(sec, "S355")
     assert rec.resistance == pytest.approx(lim, rel=2e-3) and rec.demand == pytest.approx(hw / 6.4, rel=2e-3)
     assert rec.ok
+
+
+def test_new_member_checks_reach_the_calc_and_its_summary():
+    from splicecalc.workflow import run_calc
+    job = Job(beam=BeamSpec(span=7200.0, grade="S355", section="457x191x67 UKB", restraints=(2400.0, 4800.0)),
+              loads=(UDL("floor", "permanent", 12.0), UDL("office", "imposed", 10.0, category="B"),
+                     PointLoad("plant", "permanent", 30e3, 3000.0, bearing_length=100.0),
+                     PointLoad("secondary", "permanent", 20e3, 5000.0, applied_to="web")))
+    res = run_calc(job, render=False)
+    ids = {r.id for r in res.summary_records}
+    for rid in ("classification", "floor_frequency", "transverse_force_P1", "transverse_bending_P1",
+                "web_connection_P2", "web_bearing", "restraint_force_R1", "restraint_force_R2"):
+        assert rid in ids, rid
+    by_id = {r.id: r for r in res.summary_records}
+    assert by_id["web_connection_P2"].verdict == "NOT CHECKED"
+    assert by_id["classification"].verdict == "INFO"
