@@ -7,9 +7,12 @@ Example (TOML)::
     connection = "fin plate"            # or "end plate" (partial depth)
     bolts = "M20 8.8"
     plate = "10 mm S275"                # thickness optional: "S275" -> automatic thickness
-    existing_member = "254x254x73 UKC"  # or a table {h = "254 mm", b = ..., tw, tf, r}
+    existing_member = "254x254x73 UKC"  # or measured {h = "254 mm", b = ..., tw, tf, r, taper = "8 deg",
+                                        # designation = "10 in x 5 in joist"} (taper and label optional)
     existing_face = "column flange"     # "column web" | "beam web"
-    existing_steel = "1950-1958"        # era band, or a grade "S275"
+    existing_steel = "1950-1958"        # era band, a grade "S275", "unknown" (lowest band, caution) or
+                                        # coupon tests { tested_fy = "262 MPa", tested_fu = "410 MPa",
+                                        # samples = 3 } (characteristic value by EN 1990 Annex D)
     notch_top = "40 mm x 120 mm"        # depth x length, optional
     tying_force = "75 kN"               # optional; default: from the new beam's loads by the UK NA rule
     consequence_class = "2b"            # optional: "1", "2a", "2b" (default) or "3", for the tying force
