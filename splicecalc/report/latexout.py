@@ -190,8 +190,9 @@ def table_latex(p: dict[str, Any]) -> str:
         # the check title wraps; numbers stay on one line
         spec = ">{\\raggedright\\arraybackslash}p{0.58\\linewidth}" + "".join(align[1:])
     elif kind == "parts":
-        spec = (">{\\raggedright\\arraybackslash}p{0.26\\linewidth}"
-                ">{\\raggedright\\arraybackslash}p{0.47\\linewidth}" + "".join(align[2:]))
+        # room for the widest verdict, NOT CHECKED (a part whose made checks pass but has a gap)
+        spec = (">{\\raggedright\\arraybackslash}p{0.25\\linewidth}"
+                ">{\\raggedright\\arraybackslash}p{0.43\\linewidth}" + "".join(align[2:]))
     else:
         spec = _wrapping_spec(p["rows"], align, cols)
     head = " & ".join(f"\\textbf{{{cell_tex(c)}}}" for c in cols) + " \\\\"
