@@ -40,7 +40,7 @@ BEAM_KEYS: tuple[str, ...] = ("span", "grade", "section", "families", "max_depth
                               "end_distance", "restraints", "load_level", "deflection_limit",
                               "total_deflection_limit", "combination", "national_annex", "psi_table",
                               "imposed", "min_frequency")
-LOAD_KEYS: tuple[str, ...] = ("name", "action", "category", "group", "udl", "from", "to", "point", "at",
+LOAD_KEYS: tuple[str, ...] = ("name", "action", "category", "group", "udl", "width", "from", "to", "point", "at",
                               "bearing_length", "applied_to")
 
 
@@ -150,6 +150,49 @@ def parse_beam(table: Any) -> BeamSpec:
     return BeamSpec(**kw)
 
 
+def _unit_of(text: Any) -> str:
+    """The unit part of a quantity text (after the number), '' when there is none."""
+    if not isinstance(text, str):
+        return ""
+    return text.strip().lstrip("+-0123456789.eE ").strip()
+
+
+def _force(text: Any, field: str) -> float:
+    """A force (N) from ``"35 kN"`` or a mass ``"2 t"`` / ``"150 kg"`` (weight with g_n = 9.81 m/s2)."""
+    from ..actions.loads import g_n
+
+    if _unit_of(text) in ("t", "kg"):
+        return parse_quantity(text, "kg", field) * g_n
+    return parse_quantity(text, "N", field)
+
+
+def _line_load(t: dict, key: str) -> float:
+    """A line load (N/mm) from ``udl``: ``"10 kN/m"``, a mass per length ``"0.5 t/m"`` (weight, g_n),
+    or an area load ``"5 kN/m2"`` with the tributary ``width`` (``"2.5 m"``) it is collected over."""
+    from ..actions.loads import g_n
+
+    text, field = t["udl"], f"{key}.udl"
+    unit = _unit_of(text)
+    if unit in ("kN/m2", "kPa", "N/m2", "kN/m²"):
+        if "width" not in t:
+            raise InputError(f"{key}.width", None, f"the tributary width the area load {text!r} is collected "
+                             "over, e.g. width = '2.5 m' (or give udl as a line load in kN/m)")
+        p = parse_quantity(text.replace("N/m2", "kN/m2") if unit == "N/m2" else text, "MPa", field)
+        if unit == "N/m2":
+            p /= 1000.0
+        b = parse_quantity(t["width"], "mm", f"{key}.width")
+        if not b > 0.0:
+            raise InputError(f"{key}.width", t["width"], "a tributary width > 0, e.g. '2.5 m'")
+        return p * b
+    if "width" in t:
+        raise InputError(f"{key}.width", t["width"], f"no width with a line load ({text!r}); a width goes with "
+                         "an area load in kN/m2")
+    if unit in ("t/m", "kg/m"):
+        m = parse_quantity(text.replace("t/m", "kg/m") if unit == "t/m" else text, "kg/m", field)
+        return m * (1000.0 if unit == "t/m" else 1.0) * g_n / 1000.0
+    return parse_quantity(text, "N/mm", field)
+
+
 def parse_load(table: Any, index: int, span: float) -> UDL | PointLoad:
     """One ``[[load]]`` table (``index`` from 1) -> UDL or PointLoad; checks it lies on the span."""
     key = f"load[{index}]"
@@ -183,7 +226,7 @@ def parse_load(table: Any, index: int, span: float) -> UDL | PointLoad:
         for k in ("at", "bearing_length", "applied_to"):
             if k in t:
                 raise InputError(f"{key}.{k}", t[k], f"no '{k}' for a UDL (it belongs to a point load)")
-        w = parse_quantity(t["udl"], "N/mm", f"{key}.udl")
+        w = _line_load(t, key)
         if not w > 0.0:
             raise InputError(f"{key}.udl", t["udl"], "a line load > 0 (loads act downwards)")
         x0 = parse_quantity(t["from"], "mm", f"{key}.from") if "from" in t else 0.0
@@ -200,7 +243,10 @@ def parse_load(table: Any, index: int, span: float) -> UDL | PointLoad:
     for k in ("from", "to"):
         if k in t:
             raise InputError(f"{key}.{k}", t[k], f"no '{k}' for a point load (use 'at')")
-    P = parse_quantity(t["point"], "N", f"{key}.point")
+    if "width" in t:
+        raise InputError(f"{key}.width", t["width"], "no width for a point load (width turns an area load "
+                         "in kN/m2 into a line load)")
+    P = _force(t["point"], f"{key}.point")
     if not P > 0.0:
         raise InputError(f"{key}.point", t["point"], "a force > 0 (loads act downwards)")
     if "at" not in t:
