@@ -692,8 +692,9 @@ def transverse_resistance(section: Any, grade: str, s_s: float = 0.0, c: float |
 
     ``s_s`` (mm): stiff bearing length (6.3, at most h_w, 6.3(1)); ``c`` (mm): None for a
     force in the span (type (a), k_F = 6 for a web without transverse stiffeners); a number
-    for a force near an unstiffened beam end at that distance from the end of its stiff
-    bearing: both type (a) and type (c) are computed and the smaller governs. Returns
+    for the distance from the end of its stiff bearing to an unstiffened beam end: while that end
+    is close (type (c)'s k_F = 2 + 6 (s_s + c)/h_w below 6) both type (a) and type (c) are
+    computed and the smaller governs, else type (a). Returns
     ``F_Rd`` and the governing ``type``, ``k_F``, ``l_y``, ``lambda_F``, ``chi_F``.
     """
     _check_section(section)
