@@ -522,8 +522,18 @@ def _bending_shear_slender(section: Any, grade: str, M: float, V: float, na: Nat
     calc.note("Web with $h_w/t_w > 72\\varepsilon/\\eta$: interaction of bending and shear by EN 1993-1-5 7.1 "
               "with the shear-buckling resistance of the web, $\\bar\\eta_3 = V_{Ed}/V_{bw,Rd}$.")
     V_bw = _V_b_Rd(section, grade, na, calc)
-    M_pl = calc(f11.M_c_Rd, W_y=section.Wpl_y, f_y=f_y, gamma_M0=na.gamma_M0)
-    M_f = calc(f15.M_f_Rd, b_f=section.b, t_f=section.tf, h=section.h, f_yf=f_y, gamma_M0=na.gamma_M0)
+    W_pl, b_f = section.Wpl_y, section.b
+    if _section_class_fast(section, grade)["class_flange"] == 4:
+        # 7.1(1): M_pl,Rd and M_f,Rd with the effective flanges. The compression flange's loss is taken
+        # from both flanges at the full lever arm h - t_f (on the safe side) and b_f reduced alike.
+        rho_f = effective_section(section, grade)["rho_f"]
+        dA = 2.0 * (1.0 - rho_f) * _c_flange(section) * section.tf
+        W_pl = section.Wpl_y - dA * (section.h - section.tf)
+        b_f = section.b - dA / section.tf
+        calc.note(f"Class 4 flanges: $M_{{pl,Rd}}$ and $M_{{f,Rd}}$ with the effective flanges ($\\rho$ = "
+                  f"{rho_f:.3f}), the lost area taken at the flange lever arm.")
+    M_pl = calc(f11.M_c_Rd, W_y=W_pl, f_y=f_y, gamma_M0=na.gamma_M0)
+    M_f = calc(f15.M_f_Rd, b_f=b_f, t_f=section.tf, h=section.h, f_yf=f_y, gamma_M0=na.gamma_M0)
     lhs = calc(f15.eta_7_1, M_Ed=M, M_pl_Rd=M_pl, M_f_Rd=M_f, V_Ed=V, V_bw_Rd=V_bw)
     calc.keep("M_pl_Rd", M_pl, "Nmm")
     calc.keep("M_f_Rd", M_f, "Nmm")
