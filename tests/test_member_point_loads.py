@@ -406,3 +406,11 @@ def test_new_member_checks_reach_the_calc_and_its_summary():
     by_id = {r.id: r for r in res.summary_records}
     assert by_id["web_connection_P2"].verdict == "NOT CHECKED"
     assert by_id["classification"].verdict == "INFO"
+
+
+def test_roof_imposed_load_stays_its_own_action():
+    """EN 1991-1-1 3.3.2: imposed roof load (category H) is not part of the floor imposed action."""
+    loads = (UDL("office", "imposed", 3.0, category="B"), UDL("store", "imposed", 2.0, category="E"),
+             UDL("roof access", "imposed", 0.6, category="H"))
+    names = {c.name for c in uls_combinations(loads)}
+    assert "ULS 6.10b, leading: imposed B+E" in names and "ULS 6.10b, leading: imposed H" in names

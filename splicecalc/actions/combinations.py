@@ -12,7 +12,8 @@ default ONE variable action (``imposed="single"``, EN 1991-1-1:2002, 3.3.1(2)P; 
 on one member): when it leads every part takes gamma_Q, when it accompanies each part takes
 its own category's psi (psi_0, psi_1 or psi_2). ``imposed="separate"`` makes each category
 (each action name) its own action, leading in turn. Imposed loads given an explicit ``group``
-stay separate actions in both modes. All loads on a simply
+stay separate actions in both modes, and so does the imposed roof load of category H
+(EN 1991-1-1 3.3.2). All loads on a simply
 supported span act downward, so permanent actions are unfavourable
 (gamma_G,sup) and no variable action is favourable (gamma_Q = 0 would simply
 omit it; the leading-in-turn set includes the case without it only when it is
@@ -162,7 +163,9 @@ def variable_actions(loads: Sequence[Load], psi: PsiTable = PSI_UK_NA,
     vas = _variable_actions(loads, psi)
     if imposed == "separate":
         return vas
-    merge = [va for va in vas if va.action == "imposed" and va.name == f"imposed {va.category}"]
+    # floor categories only: imposed roof load (H) is its own action (EN 1991-1-1 3.3.2)
+    merge = [va for va in vas if va.action == "imposed" and va.name == f"imposed {va.category}"
+             and va.category != "H"]
     if len(merge) < 2:
         return vas
     name = IMPOSED_TOTAL + " " + "+".join(va.category or "" for va in merge)
