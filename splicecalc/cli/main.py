@@ -94,6 +94,13 @@ def _cmd_weld(args: argparse.Namespace) -> int:
     return 0
 
 
+def _cmd_schema(args: argparse.Namespace) -> int:
+    from ..job.schema import reference_markdown, schema_json_text
+
+    print(schema_json_text() if args.json else reference_markdown(), end="" if args.json else "\n")
+    return 0
+
+
 # ----------------------------------------------------------------- package
 def _cmd_verify(args: argparse.Namespace) -> int:
     from ..signoff import verify_path
@@ -179,6 +186,12 @@ def build_parser() -> argparse.ArgumentParser:
     run_parser = _optional("splicecalc.cli.run", "add_parser")
     if run_parser:
         run_parser(sub)
+
+    s = sub.add_parser("schema", help="the job-file reference (Markdown) or, with --json, its JSON Schema",
+                       description="Every table and key a job file may hold. --json prints the JSON Schema an "
+                                   "editor can use to validate and complete job files (also in docs/).")
+    s.add_argument("--json", action="store_true", help="print the JSON Schema")
+    s.set_defaults(func=_cmd_schema)
 
     review = _optional("splicecalc.cli.review", "add_parser")
     if review:
