@@ -217,6 +217,14 @@ def table_latex(p: dict[str, Any]) -> str:
 _STATE_TEX = {"open": r"\textbf{open}", "answered": "answered", "closed": "closed"}
 
 
+def _count(v: Any) -> int:
+    """A count for the sheet: a whole number, whatever the payload holds."""
+    try:
+        return max(0, int(v))
+    except (TypeError, ValueError, OverflowError):
+        return 0
+
+
 def review_latex(p: dict[str, Any]) -> str:
     """The review comments: a margin mark at each commented check (through the .aux, so a mark
     can sit beside a check printed before this list) and every thread, flagged where its check
@@ -229,8 +237,8 @@ def review_latex(p: dict[str, Any]) -> str:
     out = [f"\\calcrevdef{{{re.sub(r'[^A-Za-z0-9_.:-]', '-', str(a))}}}{{{escape_tex(', '.join(ids))}}}"
            for a, ids in marks.items()]
     n = p.get("counts", {})
-    out.append(f"\\calcsteptext{{Register {escape_tex(p.get('register', ''))}: {n.get('open', 0)} open, "
-               f"{n.get('answered', 0)} answered, {n.get('closed', 0)} closed. Digest "
+    out.append(f"\\calcsteptext{{Register {escape_tex(p.get('register', ''))}: {_count(n.get('open'))} open, "
+               f"{_count(n.get('answered'))} answered, {_count(n.get('closed'))} closed. Digest "
                f"\\texttt{{{escape_tex(str(p.get('digest', ''))[:16])}}}.}}")
     for c in p.get("comments", []):
         flag = {"moved": " \\textcolor{failred}{(check changed since the comment)}",
