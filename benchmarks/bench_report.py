@@ -8,9 +8,14 @@ Routes, each a fresh process timed from outside (interpreter start, imports, eve
   (what the CLI runs: ``workflow.package.build_package``, in a child Python that prints its timings);
 * **ours, rebuild** - the same build again, unchanged job: the XeLaTeX passes are seeded with the
   previous build's .aux/.toc/.out (report.compile), as after signing or a revision that keeps the pages;
-* **stock**         - ``jupyter nbconvert --to pdf --execute`` of the same notebook (the one our build
-  writes from the job, its job file beside it, the kernel headless like ours): nbconvert's own LaTeX
-  template and its three XeLaTeX runs. It needs ``ulem.sty`` (Debian: texlive-plain-generic).
+* **stock**         - ``jupyter nbconvert --to splicecalc_pdf --execute`` of the same notebook (the one our
+  build writes from the job, its job file beside it, the kernel headless like ours): nbconvert's own
+  command line and ExecutePreprocessor with our exporter (entry point ``splicecalc_pdf``), so the same
+  LaTeX, with XeLaTeX passes from nothing (no seed: the CLI keeps no build folder) and none of our
+  build's own arrangements (kernel launched first, nothing else). ``--to pdf`` (nbconvert's own
+  template) cannot typeset this notebook any more: its check tables are ``text/latex`` using macros
+  of our template. ``--stock-exporter pdf`` tries it all the same (needs ``ulem.sty``, Debian:
+  texlive-plain-generic).
 
 Each round runs ours-fresh, stock, ours-rebuild in turn, so the machine's load is shared; the ratios
 are taken within a round (ours / stock) and the medians printed, for the wall time and for the CPU
@@ -67,17 +72,16 @@ def ours(job: Path, pdf: Path, fresh: bool) -> dict:
     return r
 
 
-def stock(notebook: Path) -> dict:
+def stock(notebook: Path, exporter: str = "splicecalc_pdf") -> dict:
     jupyter = Path(sys.executable).with_name("jupyter")
     out = notebook.with_name(notebook.stem + "_stock")
     env = {**os.environ, "SPLICECALC_HEADLESS": "1"}
     c0, t0 = _cpu(), time.perf_counter()
-    proc = subprocess.run([str(jupyter), "nbconvert", "--to", "pdf", "--execute", str(notebook),
+    proc = subprocess.run([str(jupyter), "nbconvert", "--to", exporter, "--execute", str(notebook),
                            "--output", out.name], capture_output=True, text=True, env=env, cwd=notebook.parent)
     wall, cpu = time.perf_counter() - t0, _cpu() - c0
     if proc.returncode != 0:
-        raise SystemExit(f"the stock route failed (is ulem.sty installed? Debian: texlive-plain-generic):\n"
-                         f"{proc.stderr[-2000:]}")
+        raise SystemExit(f"the stock route (nbconvert --to {exporter}) failed:\n{proc.stderr[-2000:]}")
     pages = subprocess.run(["pdfinfo", str(out.with_suffix(".pdf"))], capture_output=True, text=True).stdout
     n = next((int(line.split()[-1]) for line in pages.splitlines() if line.startswith("Pages:")), 0)
     return {"wall_s": wall, "cpu_s": cpu, "pages": n}
@@ -98,6 +102,8 @@ def main() -> int:
     ap.add_argument("--rounds", type=int, default=3)
     ap.add_argument("--out", type=Path, default=None)
     ap.add_argument("--no-stock", action="store_true", help="time our builds only")
+    ap.add_argument("--stock-exporter", default="splicecalc_pdf",
+                    help="nbconvert exporter of the stock route (default splicecalc_pdf; 'pdf' = nbconvert's template)")
     args = ap.parse_args()
     sys.path.insert(0, str(ROOT))
     from splicecalc.workflow.package import demo_job_path, notebook_for_job
@@ -114,13 +120,13 @@ def main() -> int:
     rows: list[tuple[dict, dict | None, dict]] = []
     for i in range(1, args.rounds + 1):
         fresh = ours(pdf.parent / job.name, pdf, fresh=True)
-        base = None if args.no_stock else stock(notebook)
+        base = None if args.no_stock else stock(notebook, args.stock_exporter)
         again = ours(pdf.parent / job.name, pdf, fresh=False)
         rows.append((fresh, base, again))
         print(f"round {i}: ours fresh   {_fmt(fresh)}")
         if base is not None:
             print(f"         stock         {base['wall_s']:5.1f} s, CPU {base['cpu_s']:5.1f} s  "
-                  f"({base['pages']} pages, nbconvert's template)")
+                  f"({base['pages']} pages, nbconvert --to {args.stock_exporter} --execute)")
         print(f"         ours rebuild {_fmt(again)}")
         if base is not None:
             print(f"         ratio fresh {fresh['wall_s'] / base['wall_s']:.2f} (CPU "
