@@ -214,39 +214,35 @@ def small(tmp_path_factory):
     return d
 
 
-def test_edit_after_signing_is_detected_and_issued_pdf_kept(small):
+def test_edit_after_signing_is_detected_and_signed_pdf_kept(small, tmp_path):
     d = small
-    assert cli("sign", "calc.ipynb", "--role", "prepared", "--name", "A. Preparer", cwd=d).returncode == 0
-    assert cli("verify", "calc.ipynb", cwd=d).returncode == 0
+    env = dict(os.environ, SPLICECALC_PASSPHRASE="package test passphrase", SPLICECALC_TRUST_DIR=str(tmp_path / "trust"))
+    for who, name in (("a", "A. Preparer"), ("b", "B. Checker")):
+        r = cli("keys", "new", "--name", name, "--out", str(tmp_path / f"{who}.p12"), cwd=d, env=env)
+        assert r.returncode == 0, r.stderr
+    r = cli("sign", "calc.pdf", "--role", "prepared", "--key", str(tmp_path / "a.p12"), cwd=d, env=env)
+    assert r.returncode == 0, r.stderr
+    assert cli("verify", "calc.pdf", cwd=d, env=env).returncode == 0
+    assert cli("verify", "calc.ipynb", cwd=d, env=env).returncode == 0
     job = d / "job.toml"
     text = job.read_text(encoding="utf-8")
     edited = text.replace('udl = "4.0 kN/m"', 'udl = "4.5 kN/m"', 1)
     assert edited != text
     job.write_text(edited, encoding="utf-8")                             # one input changed after signing
-    r = cli("build", "job.toml", "-o", "calc.pdf", "--quiet", cwd=d)
+    v = cli("verify", "calc.pdf", cwd=d, env=env)
+    assert v.returncode == 1 and "CHANGED" in v.stdout and "job file" in v.stdout
+    # a signed package is never rebuilt over (whatever the case of the name)
+    before = (d / "calc.pdf").read_bytes(), (d / "calc.ipynb").read_bytes()
+    for out in ("calc.pdf", "CALC.PDF"):
+        r = cli("build", "job.toml", "-o", out, "--quiet", cwd=d, env=env)
+        assert r.returncode == 2 and "will not be overwritten" in r.stderr
+    assert ((d / "calc.pdf").read_bytes(), (d / "calc.ipynb").read_bytes()) == before
+    job.write_text(text, encoding="utf-8")
+    r = cli("sign", "calc.pdf", "--role", "checked", "--key", str(tmp_path / "b.p12"), cwd=d, env=env)
     assert r.returncode == 0, r.stderr
-    v = cli("verify", "calc.ipynb", cwd=d)
-    assert v.returncode == 1 and "CHANGED" in v.stdout
-    assert cli("verify", "calc.pdf", cwd=d).returncode == 1
-    # an issued PDF is never overwritten
-    assert cli("issue", "calc.pdf", cwd=d).returncode == 0
-    before = (d / "calc.pdf").read_bytes()
-    r = cli("build", "job.toml", "-o", "calc.pdf", "--quiet", cwd=d)
-    assert r.returncode == 2 and "will not be overwritten" in r.stderr
-    assert (d / "calc.pdf").read_bytes() == before
-
-
-def test_signed_pdf_not_overwritten(small):
-    d = small
-    r = cli("sign", "calc.ipynb", "--role", "prepared", "--name", "A. Preparer", cwd=d)
+    r = cli("issue", "calc.pdf", "--purpose", "for construction", "--key", str(tmp_path / "b.p12"), cwd=d, env=env)
     assert r.returncode == 0, r.stderr
-    r = cli("build", "calc.ipynb", "-o", "signed.pdf", "--quiet", cwd=d)
-    assert r.returncode == 0, r.stderr
-    assert cli("verify", "signed.pdf", cwd=d).returncode == 0
-    before = (d / "signed.pdf").read_bytes()
-    r = cli("build", "calc.ipynb", "-o", "signed.pdf", "--quiet", cwd=d)
-    assert r.returncode == 2 and "signed calc package" in r.stderr
-    assert (d / "signed.pdf").read_bytes() == before
+    assert cli("verify", "calc.pdf", cwd=d, env=env).returncode == 0
 
 
 def test_failing_cell_is_named(tmp_path):

@@ -2,10 +2,11 @@
 
 Look-ups:   section, sections, bolt, weld
 Design:     run
-Package:    new, build, sign, revise, issue, verify, demo
+Package:    new, build, demo
+Sign-off:   keys, sign, verify, revise, issue
 
-User errors (bad input) print one line to stderr and exit 2; verify exits
-0 valid, 1 changed since signed, 3 unsigned.
+User errors (bad input) print one line to stderr and exit 2; build exits 1 when
+a check fails; verify exits 0 valid, 1 changed or invalid, 3 unsigned.
 """
 
 from __future__ import annotations
@@ -101,42 +102,6 @@ def _cmd_schema(args: argparse.Namespace) -> int:
     return 0
 
 
-# ----------------------------------------------------------------- package
-def _cmd_verify(args: argparse.Namespace) -> int:
-    from ..signoff import verify_path
-
-    st = verify_path(args.path)
-    out = {"state": st.state, "status": st.label, "digest": st.current_digest,
-           "signed_digest": st.signed_digest, "detail": st.detail,
-           "signatures": [s.__dict__ for s in st.signatures]}
-    _emit(out, args.json, lambda: f"{st.state.upper()}: {st.label} ({st.detail})")
-    return st.exit_code
-
-
-def _cmd_sign(args: argparse.Namespace) -> int:
-    from ..signoff import sign_notebook
-
-    st = sign_notebook(args.notebook, args.role, args.name, date=args.date)
-    print(f"signed as {args.role} by {args.name}: status {st.label}, digest {st.current_digest[:16]}...")
-    return 0
-
-
-def _cmd_revise(args: argparse.Namespace) -> int:
-    from ..signoff import add_revision
-
-    revs = add_revision(args.notebook, args.revision, args.description, date=args.date)
-    print("revisions: " + ", ".join(f"{r.letter} ({r.date}) {r.description}" for r in revs))
-    return 0
-
-
-def _cmd_issue(args: argparse.Namespace) -> int:
-    from ..signoff import issue_pdf
-
-    issue_pdf(args.pdf)
-    print(f"{args.pdf} is issued: it will not be overwritten by later builds")
-    return 0
-
-
 def _optional(module: str, attr: str):
     """Import an optional sub-command implementation (None while it does not exist)."""
     import importlib
@@ -201,29 +166,9 @@ def build_parser() -> argparse.ArgumentParser:
     if pkg:
         pkg(sub)
 
-    s = sub.add_parser("sign", help="sign an executed calc notebook as prepared / checked / approved")
-    s.add_argument("notebook")
-    s.add_argument("--role", required=True, choices=["prepared", "checked", "approved"])
-    s.add_argument("--name", required=True)
-    s.add_argument("--date", help="ISO date (default today)")
-    s.set_defaults(func=_cmd_sign)
-
-    s = sub.add_parser("revise", help="append a revision (letter, description) to a calc notebook")
-    s.add_argument("notebook")
-    s.add_argument("--revision", required=True, help="e.g. A, B, P1")
-    s.add_argument("--description", required=True)
-    s.add_argument("--date")
-    s.set_defaults(func=_cmd_revise)
-
-    s = sub.add_parser("issue", help="mark a built PDF as an issued revision (never overwritten)")
-    s.add_argument("pdf")
-    s.set_defaults(func=_cmd_issue)
-
-    s = sub.add_parser("verify", help="verify a notebook or PDF against its signatures "
-                                      "(exit 0 valid, 1 changed, 3 unsigned)")
-    s.add_argument("path")
-    s.add_argument("--json", action="store_true")
-    s.set_defaults(func=_cmd_verify)
+    signoff = _optional("splicecalc.cli.package", "add_signoff_parsers")
+    if signoff:
+        signoff(sub)
     return p
 
 

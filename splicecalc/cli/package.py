@@ -3,6 +3,11 @@
     splicecalc new TEMPLATE FOLDER --project P --number N --title T [--job JOB.toml]
     splicecalc build NOTEBOOK_OR_JOB [-o PDF] [--quiet]
     splicecalc demo [--out DIR]
+    splicecalc sign PACKAGE.pdf --role prepared|checked|approved --key FILE.p12 [--reason ...]
+    splicecalc verify PACKAGE.pdf|NOTEBOOK.ipynb [--json]
+    splicecalc revise PACKAGE --revision P2 --description "..."
+    splicecalc issue PACKAGE.pdf --purpose "..." --key FILE.p12 [--override "reason"]
+    splicecalc keys new|import|trust|cert ...
 
 ``build`` executes the notebook headless (a job file is built with the default
 template), shows progress for the cells and the LaTeX passes, writes the
@@ -10,9 +15,11 @@ executed notebook next to the PDF (that notebook is what ``splicecalc sign``
 signs and ``splicecalc verify`` checks), the PDF and its ``.pdf.json`` record.
 An issued or signed PDF is never overwritten.
 
-Exit codes: 0 built; 2 user error (bad input, a protected PDF, an existing
-package); 1 build failure (a failing cell, a LaTeX error, a missing tool: the
-message gives the install command).
+Exit codes of build: 0 built and every check OK; 1 built with failing checks
+(they are listed), or a build failure (a failing cell, a LaTeX error, a missing
+tool: the message gives the install command; another build holding the folder);
+2 user error (bad input, a protected PDF, an existing package).
+verify: 0 valid, 1 changed or invalid, 3 unsigned (2: no such file).
 """
 
 from __future__ import annotations
@@ -33,10 +40,13 @@ def _run(fn: Any) -> int:
     """Call ``fn`` mapping errors to exit codes: InputError / protected PDF 2, other build errors 1."""
     from ..report.errors import CalcBuildError, ProtectedPDFError
     from ..workflow.errors import CalcError
+    from ..signoff.locks import FolderBusyError
     from ..workflow.package import SignedPDFError
 
     try:
         return fn()
+    except FolderBusyError as err:
+        return _fail(str(err), 1)
     except InputError as err:
         return _fail(str(err), 2)
     except (SignedPDFError, ProtectedPDFError) as err:
@@ -48,8 +58,8 @@ def _run(fn: Any) -> int:
 def _print_build(b: Any, quiet: bool) -> None:
     r = b.report
     print(f"PDF: {b.pdf} ({r.pages} sheets)")
-    print(f"executed notebook: {b.notebook}  (sign it with: splicecalc sign {b.notebook} --role prepared "
-          "--name NAME)")
+    print(f"executed notebook: {b.notebook}  (sign the package with: splicecalc sign {b.pdf} --role prepared "
+          "--key YOUR.p12)")
     print(f"status: {b.status}; build record: {b.sidecar}")
     if not quiet:
         print(f"time: execution {r.execution_s:.1f} s (kernel start {r.kernel_start_s:.1f} s, cells {r.cells_s:.1f} s), "
@@ -57,6 +67,20 @@ def _print_build(b: Any, quiet: bool) -> None:
               f"{r.overhead_s:.1f} s, total {r.total_s:.1f} s")
         if r.wide_boxes:
             print(f"warning: {len(r.wide_boxes)} line(s) too wide for the sheet, see {r.log_path}", file=sys.stderr)
+
+
+def _failing_checks(notebook: Any) -> int:
+    """Print the failing checks of the executed notebook; 1 when there are any, else 0."""
+    from ..signoff.notebook import failing_checks, read_notebook
+
+    failing = failing_checks(read_notebook(notebook))
+    if not failing:
+        return 0
+    print(f"splicecalc: {len(failing)} check(s) FAIL - the package is built but must not be relied on:",
+          file=sys.stderr)
+    for f in failing:
+        print(f"  NOT OK  {f}", file=sys.stderr)
+    return 1
 
 
 # ----------------------------------------------------------------- commands
@@ -80,7 +104,7 @@ def cmd_build(args: argparse.Namespace) -> int:
     def go() -> int:
         b = build_package(args.source, args.output, progress=not args.quiet, timeout=args.timeout)
         _print_build(b, args.quiet)
-        return 0
+        return _failing_checks(b.notebook)
     return _run(go)
 
 
@@ -90,7 +114,7 @@ def cmd_demo(args: argparse.Namespace) -> int:
     def go() -> int:
         b = build_demo(args.out, progress=not args.quiet)
         _print_build(b, args.quiet)
-        return 0
+        return _failing_checks(b.notebook)
     return _run(go)
 
 
@@ -127,4 +151,184 @@ def add_parsers(sub: Any) -> None:
     p.set_defaults(func=cmd_demo)
 
 
-__all__ = ["add_parsers", "cmd_build", "cmd_demo", "cmd_new"]
+# ----------------------------------------------------------------- sign-off
+def _signoff(fn: Any) -> int:
+    """Run a sign-off command: bad input exit 2, malformed files exit 1, always one line, never a traceback."""
+    import warnings
+
+    # pyHanko imports cryptography's DSA module, deprecated there; not something a user can act on
+    warnings.filterwarnings("ignore", message="DSA is deprecated")
+    from ..signoff.locks import FolderBusyError
+    from ..signoff.notebook import MalformedNotebook
+    from ..signoff.pdfsign import MalformedPDF
+
+    try:
+        return fn()
+    except InputError as err:
+        return _fail(str(err), 2)
+    except (MalformedPDF, MalformedNotebook) as err:
+        print(f"splicecalc: invalid: {err}", file=sys.stderr)
+        return 1
+    except FolderBusyError as err:
+        return _fail(str(err), 1)
+    except KeyboardInterrupt:
+        return 130
+    except OSError as err:
+        return _fail(f"{getattr(err, 'filename', '') or ''} {err.strerror or err}".strip(), 2)
+    except Exception as err:  # noqa: BLE001 - the promise is one line, never a traceback
+        print(f"splicecalc: error: unexpected {err.__class__.__name__}: {str(err)[:200]}", file=sys.stderr)
+        return 1
+
+
+def _key(path: str) -> Any:
+    from ..signoff.keys import load_key, passphrase
+
+    return load_key(path, passphrase())
+
+
+def cmd_sign(args: argparse.Namespace) -> int:
+    from ..signoff.package import sign_package
+
+    def go() -> int:
+        r = sign_package(args.package, args.role, _key(args.key), reason=args.reason,
+                         same_person_ok=args.same_person_ok, accept_failing=args.accept_failing)
+        print(f"signed {r.pdf.name} and {r.notebook.name} as {r.role} by {r.signer}")
+        if r.failing:
+            print(f"{len(r.failing)} failing check(s)"
+                  + (f" accepted: {args.accept_failing}" if args.accept_failing and r.role != "prepared" else "")
+                  + ": " + ", ".join(r.failing))
+        print("\n".join(r.status.lines))
+        return 0
+    return _signoff(go)
+
+
+def cmd_verify(args: argparse.Namespace) -> int:
+    from ..signoff.package import verify_package
+
+    def go() -> int:
+        st = verify_package(args.path)
+        if args.json:
+            import json
+
+            print(json.dumps(st.to_dict(), indent=2))
+        else:
+            print("\n".join(st.lines))
+        return st.exit_code
+    return _signoff(go)
+
+
+def cmd_revise(args: argparse.Namespace) -> int:
+    from ..signoff.revise import revise
+
+    def go() -> int:
+        r = revise(args.package, args.revision, args.description, date=args.date, by=args.by)
+        print(f"revision {r.revision} started: {r.notebook}" + (f" (job file {r.job})" if r.job else ""))
+        print("history: " + "; ".join(f"{h.get('rev')} {h.get('date')} {h.get('description')}"
+                                      f" (prepared {h.get('by') or '-'}, checked {h.get('checked') or '-'})"
+                                      for h in r.history))
+        print(f"build it with: splicecalc build {r.notebook}")
+        return 0
+    return _signoff(go)
+
+
+def cmd_issue(args: argparse.Namespace) -> int:
+    from ..signoff.package import issue_package
+
+    def go() -> int:
+        row = issue_package(args.package, args.purpose, _key(args.key), override=args.override)
+        print(f"issued {row['file']} revision {row['revision']} on {row['date']} by {row['issuer']} "
+              f"for {row['purpose']!r}" + (f"; override: {row['override']}" if row.get("override") else ""))
+        print("recorded in the PDF (issue signature) and in issue_register.json")
+        return 0
+    return _signoff(go)
+
+
+def cmd_keys(args: argparse.Namespace) -> int:
+    from ..signoff import keys
+
+    def go() -> int:
+        if args.keys_command == "new":
+            kp = keys.new_key(args.name, args.out, keys.passphrase(confirm=True), email=args.email,
+                              organisation=args.organisation)
+            print(f"key and self-signed certificate for {kp.name} written to {kp.path} "
+                  f"(SHA-256 fingerprint {kp.fingerprint[:16]}...)")
+            if args.cert_out:
+                print(f"certificate for colleagues' trust lists: {keys.export_cert(kp, args.cert_out)}")
+        elif args.keys_command == "import":
+            pw = keys.passphrase(confirm=False, prompt="passphrase for the new .p12: ")
+            kp = keys.import_key(args.out, pw, p12=args.p12, key_pem=args.key_pem, cert_pem_path=args.cert,
+                                 chain=tuple(args.chain or ()))
+            print(f"key of {kp.name} (issued by {kp.cert.issuer.rfc4514_string()}) written to {kp.path}")
+        elif args.keys_command == "trust":
+            dest, cert = keys.trust_cert(args.cert)
+            print(f"trusted: {keys.cert_name(cert)} ({keys.cert_fingerprint(cert)[:16]}...) -> {dest}")
+        elif args.keys_command == "cert":
+            kp = _key(args.key)
+            print(f"certificate of {kp.name}: {keys.export_cert(kp, args.out)}")
+        return 0
+    return _signoff(go)
+
+
+def add_signoff_parsers(sub: Any) -> None:
+    """Register ``sign``, ``verify``, ``revise``, ``issue`` and ``keys``."""
+    p = sub.add_parser("sign", help="sign a built package (PDF + notebook) as prepared / checked / approved",
+                       description="Add a PAdES signature to PACKAGE.pdf (an incremental update, in the role's field "
+                                   "of the cover's sign-off block) and a detached signature to the executed notebook "
+                                   "beside it, with one key. Passphrase: $SPLICECALC_PASSPHRASE or a prompt.")
+    p.add_argument("package", metavar="PACKAGE.pdf")
+    p.add_argument("--role", required=True, choices=["prepared", "checked", "approved"])
+    p.add_argument("--key", required=True, metavar="FILE.p12", help="your key (splicecalc keys new)")
+    p.add_argument("--reason", help="a remark shown with the signature")
+    p.add_argument("--same-person-ok", metavar="REASON", help="you signed an earlier role too: say why that is "
+                   "acceptable (printed in the signature on the cover)")
+    p.add_argument("--accept-failing", metavar="REASON", help="check or approve a package with failing checks, "
+                   "saying why (printed on the cover)")
+    p.set_defaults(func=cmd_sign)
+
+    p = sub.add_parser("verify", help="verify a package's signatures (exit 0 valid, 1 changed, 3 unsigned)",
+                       description="Validate every PDF signature with pyHanko (integrity of each signed revision, "
+                                   "coverage, signer against the trust list) and the notebook's signatures; the "
+                                   ".pdf.json build record is never trusted.")
+    p.add_argument("path", metavar="PACKAGE.pdf|NOTEBOOK.ipynb")
+    p.add_argument("--json", action="store_true")
+    p.set_defaults(func=cmd_verify)
+
+    p = sub.add_parser("revise", help="start the next revision as new files (a signed notebook is never edited)")
+    p.add_argument("package", metavar="PACKAGE", help="the package's .ipynb or .pdf")
+    p.add_argument("--revision", required=True, help="the new revision code, e.g. P2, C1, B")
+    p.add_argument("--description", required=True, help="what changes in this revision")
+    p.add_argument("--date", help="ISO date (default today)")
+    p.add_argument("--by", help="who prepares the new revision (default: as before)")
+    p.set_defaults(func=cmd_revise)
+
+    p = sub.add_parser("issue", help="issue a checked package: an issue signature on the cover + issue register")
+    p.add_argument("package", metavar="PACKAGE.pdf")
+    p.add_argument("--purpose", required=True, help='e.g. "for construction"')
+    p.add_argument("--key", required=True, metavar="FILE.p12", help="the issuer's key")
+    p.add_argument("--override", metavar="REASON", help="issue despite failing checks, saying why (printed)")
+    p.set_defaults(func=cmd_issue)
+
+    p = sub.add_parser("keys", help="signing keys and the local trust list")
+    ks = p.add_subparsers(dest="keys_command", required=True)
+    k = ks.add_parser("new", help="a key and self-signed certificate in a passphrase-protected .p12")
+    k.add_argument("--name", required=True, help='your name as it is to appear, e.g. "A. Engineer"')
+    k.add_argument("--email")
+    k.add_argument("--organisation")
+    k.add_argument("--out", required=True, metavar="FILE.p12")
+    k.add_argument("--cert-out", metavar="CERT.pem", help="also write the certificate (for colleagues to trust)")
+    k = ks.add_parser("import", help="a key with a certificate issued by the firm's certificate authority")
+    k.add_argument("--out", required=True, metavar="FILE.p12")
+    k.add_argument("--p12", metavar="FROM.p12", help="a PKCS#12 file from the CA (same passphrase)")
+    k.add_argument("--key-pem", metavar="KEY.pem")
+    k.add_argument("--cert", metavar="CERT.pem")
+    k.add_argument("--chain", action="append", metavar="CA.pem", help="CA certificate (repeat for each)")
+    k = ks.add_parser("trust", help="add a firm or colleague certificate to the local trust list")
+    k.add_argument("cert", metavar="CERT.pem")
+    k = ks.add_parser("cert", help="write the certificate of a .p12 key as PEM")
+    k.add_argument("key", metavar="FILE.p12")
+    k.add_argument("--out", required=True, metavar="CERT.pem")
+    p.set_defaults(func=cmd_keys)
+
+
+__all__ = ["add_parsers", "add_signoff_parsers", "cmd_build", "cmd_demo", "cmd_issue", "cmd_keys", "cmd_new",
+           "cmd_revise", "cmd_sign", "cmd_verify"]

@@ -1,4 +1,11 @@
-"""Signatures, revisions and verification, kept in the notebook's metadata.
+"""The build record and protection of signed files, plus the old notebook ledger.
+
+The trusted sign-off is in :mod:`.package` (PDF signatures with pyHanko, the notebook's
+detached signatures). What stays here: :func:`protection_reason` / :func:`is_protected`
+(a build never writes over a signed or issued package, names compared ignoring case),
+the build record ``<name>.pdf.json`` (:func:`write_sidecar`, a hint for people, never
+trusted), and the ledger of plain signature marks that the cover can print
+(:func:`sign_notebook`, :func:`status_of`; no cryptography: use ``splicecalc sign``).
 
 ``nb.metadata["splicecalc"]`` holds::
 
@@ -172,33 +179,98 @@ def sidecar_path(pdf: str | Path) -> Path:
     return p.with_name(p.name + ".json")
 
 
-def is_protected(pdf: str | Path) -> bool:
-    """True when the PDF is an issued revision (sidecar ``{"issued": true}``): never overwrite it.
-
-    A sidecar that exists but cannot be read, or is not a JSON object, also
-    protects the PDF: when in doubt, an issued document is not overwritten.
-    """
-    sc = sidecar_path(pdf)
-    if not sc.is_file():
-        return False
+def _same_name_files(target: Path) -> list[Path]:
+    """Files in ``target``'s folder whose name equals ``target``'s ignoring case (the file systems
+    our users share packages on often ignore it), plus ``target`` itself."""
+    out = [target]
+    want = target.name.casefold()
     try:
-        data = json.loads(sc.read_text(encoding="utf-8"))
-    except (OSError, ValueError):
-        return True
-    return not isinstance(data, dict) or data.get("issued") is True
+        for f in target.parent.iterdir():
+            if f.name.casefold() == want and f != target:
+                out.append(f)
+    except OSError:
+        pass
+    return out
+
+
+def _pdf_is_signed(p: Path) -> bool:
+    try:
+        with open(p, "rb") as fh:
+            data = fh.read()
+    except OSError:
+        return False
+    return b"/ByteRange" in data and b"/Sig" in data
+
+
+def _notebook_is_signed(p: Path) -> bool:
+    try:
+        meta = (json.loads(p.read_text(encoding="utf-8")).get("metadata") or {}).get("splicecalc") or {}
+    except (OSError, ValueError, AttributeError):
+        return True        # unreadable: when in doubt, keep it
+    return bool(meta.get("sign_off")) or bool(meta.get("signatures"))
+
+
+def protection_reason(pdf: str | Path) -> str | None:
+    """Why a build must not write ``pdf`` (or the executed notebook beside it), or None.
+
+    Protected: a PDF that carries a signature, a notebook that carries one, a PDF listed in
+    the folder's issue register or marked issued by its build record. Names are compared
+    ignoring case, so ``NAME.PDF`` is the same package as ``name.pdf``.
+    """
+    p = Path(pdf)
+    if p.parent.exists():
+        p = p.parent.resolve() / p.name
+    for cand in _same_name_files(p):
+        if cand.is_file() and _pdf_is_signed(cand):
+            return f"a signed calc package ({cand.name})"
+        sc = sidecar_path(cand)
+        if sc.is_file():
+            try:
+                data = json.loads(sc.read_text(encoding="utf-8"))
+            except (OSError, ValueError):
+                return "recorded in an unreadable build record"
+            if not isinstance(data, dict) or data.get("issued") is True:
+                return "an issued revision"
+    for cand in _same_name_files(p.with_suffix(".ipynb")):
+        if cand.is_file() and _notebook_is_signed(cand):
+            return f"the PDF of a signed notebook ({cand.name} is signed; its package is a record)"
+    reg = p.parent / "issue_register.json"
+    if reg.is_file():
+        try:
+            rows = json.loads(reg.read_text(encoding="utf-8"))
+        except (OSError, ValueError):
+            return "in a folder whose issue register cannot be read"
+        if isinstance(rows, list) and any(isinstance(r, dict) and str(r.get("file", "")).casefold() == p.name.casefold()
+                                          for r in rows):
+            return "an issued revision"
+    return None
+
+
+def is_protected(pdf: str | Path) -> bool:
+    """True when a build must not write ``pdf``: see :func:`protection_reason`."""
+    return protection_reason(pdf) is not None
 
 
 def write_sidecar(pdf: str | Path, nb: Any, notebook_path: str | Path | None, issued: bool = False) -> dict:
-    """Record the PDF's hash and the sign-off state it was built with."""
+    """Record what was built: the PDF's and the notebook's SHA-256 (hints for people and for
+    `splicecalc sign`, which refuses a PDF and notebook from different builds; never trusted by verify)."""
     import hashlib
 
     from .digest import canonical_json, job_inputs
+    from .notebook import notebook_digest, read_notebook
 
     st = status_of(nb)
     meta = ledger_of(nb)
     job = job_inputs(nb)
+    nb_sha = None
+    if notebook_path and Path(notebook_path).is_file():
+        try:
+            nb_sha = notebook_digest(read_notebook(notebook_path))
+        except ValueError:
+            nb_sha = None
     data = {
         "pdf_sha256": file_sha256(pdf),
+        "notebook_sha256": nb_sha,
         "digest": st.current_digest,
         "job_sha256": hashlib.sha256(canonical_json(job).encode("utf-8")).hexdigest() if job else None,
         "status": st.label,
@@ -206,115 +278,7 @@ def write_sidecar(pdf: str | Path, nb: Any, notebook_path: str | Path | None, is
         "revisions": meta["revisions"],
         "notebook": str(notebook_path) if notebook_path else None,
         "issued": issued,
+        "note": "a hint for people only: `splicecalc verify` reads the signatures, never this file",
     }
     write_atomic(sidecar_path(pdf), json.dumps(data, indent=2))
     return data
-
-
-def issue_pdf(pdf: str | Path) -> dict:
-    """Mark a built PDF as an issued revision: from now on it is never overwritten."""
-    sc = sidecar_path(pdf)
-    if not sc.is_file():
-        raise InputError("pdf", str(pdf), "a PDF built by splicecalc (its .pdf.json record is missing)")
-    data = json.loads(sc.read_text(encoding="utf-8"))
-    if data.get("pdf_sha256") != file_sha256(pdf):
-        raise InputError("pdf", str(pdf), "the PDF as built (its bytes changed since the build)")
-    data["issued"] = True
-    write_atomic(sc, json.dumps(data, indent=2))
-    return data
-
-
-def job_file_drift(nb: Any, notebook_path: str | Path) -> str | None:
-    """Why the job file on disk no longer matches the inputs the notebook printed, or None.
-
-    The job file is the one the notebook's parameter cell names (``job_file = "..."``,
-    relative to the notebook's folder); its canonical inputs are compared with those
-    the executed notebook published. No job file named, or none published: None.
-    """
-    import ast
-
-    from .digest import canonical_json, job_inputs
-
-    printed = job_inputs(nb)
-    if not printed:
-        return None
-    name = None
-    for cell in nb.get("cells", []):
-        if cell.get("cell_type") != "code":
-            continue
-        try:
-            tree = ast.parse(cell.get("source", "") if isinstance(cell.get("source"), str) else "".join(cell["source"]))
-        except SyntaxError:
-            continue
-        for node in tree.body:
-            if (isinstance(node, ast.Assign) and any(isinstance(t, ast.Name) and t.id == "job_file" for t in node.targets)
-                    and isinstance(node.value, ast.Constant) and isinstance(node.value.value, str)):
-                name = node.value.value
-        if name:
-            break
-    if not name:
-        return None
-    job_path = Path(notebook_path).parent / name
-    if not job_path.is_file():
-        return f"the job file {name} named by the notebook is missing"
-    from ..job import load_job
-
-    try:
-        now = load_job(job_path).to_canonical_dict()
-    except InputError as exc:
-        return f"the job file {name} no longer loads ({exc})"
-    if canonical_json(now) != canonical_json(printed):
-        return f"the job file {name} changed since the notebook was executed: rebuild, then sign again"
-    return None
-
-
-def _with_job_drift(st: SignStatus, nb: Any, notebook_path: str | Path) -> SignStatus:
-    if st.state != "valid":
-        return st
-    why = job_file_drift(nb, notebook_path)
-    if why is None:
-        return st
-    return SignStatus("changed", "DRAFT - CHANGED SINCE SIGNED", st.current_digest, st.signed_digest,
-                      st.signatures, why)
-
-
-def verify_path(path: str | Path) -> SignStatus:
-    """Verify a notebook or a PDF against its recorded digest (no re-execution).
-
-    Besides the digest, the job file the notebook names is compared with the inputs
-    it printed, so an edited job file shows as changed before anyone rebuilds.
-    """
-    p = Path(path)
-    if p.suffix == ".ipynb":
-        nb = _read_nb(p)
-        return _with_job_drift(status_of(nb), nb, p)
-    if p.suffix != ".pdf":
-        raise InputError("path", str(path), "a .ipynb notebook or a .pdf calc package")
-    if not p.is_file():
-        raise InputError("path", str(path), "an existing PDF")
-    sc = sidecar_path(p)
-    if not sc.is_file():
-        return SignStatus("unsigned", "DRAFT", "", None, (), "no .pdf.json record next to the PDF")
-    data = json.loads(sc.read_text(encoding="utf-8"))
-    sigs = tuple(Signature(**s) for s in data.get("signatures", []))
-    digest = data.get("digest", "")
-    if data.get("pdf_sha256") != file_sha256(p):
-        return SignStatus("changed", "CHANGED SINCE BUILT", digest, sigs[-1].digest if sigs else None, sigs,
-                          "the PDF's bytes differ from those recorded at build time")
-    nb_path = data.get("notebook")
-    if nb_path and not Path(nb_path).is_absolute():
-        nb_path = str(p.parent / nb_path)  # recorded relative to the PDF's folder
-    nb = _read_nb(nb_path) if nb_path and Path(nb_path).is_file() else None
-    if nb is not None:
-        now = compute_digest(nb)
-        if now != digest:
-            return SignStatus("changed", "DRAFT - CHANGED SINCE SIGNED", now, digest, sigs,
-                              "the notebook changed since this PDF was built")
-    if not sigs:
-        return SignStatus("unsigned", "DRAFT", digest, None, sigs, "built unsigned")
-    if sigs[-1].digest != digest:
-        return SignStatus("changed", "DRAFT - CHANGED SINCE SIGNED", digest, sigs[-1].digest, sigs,
-                          "built from inputs that differ from the signed ones")
-    top = max((s.role for s in sigs if s.digest == digest), key=ROLES.index)
-    st = SignStatus("valid", _STATUS_BY_ROLE[top], digest, digest, sigs, "PDF matches its signed record")
-    return _with_job_drift(st, nb, nb_path) if nb is not None else st

@@ -240,11 +240,12 @@ def protection(pdf: str | os.PathLike) -> str | None:
     A PDF is signed when its build record shows a valid sign-off status; one built
     after its inputs changed (status "DRAFT - CHANGED SINCE SIGNED") is a draft.
     """
-    from ..report.build import is_protected
+    from ..signoff.ledger import protection_reason
 
     p = Path(pdf)
-    if is_protected(p):
-        return "an issued revision"
+    why = protection_reason(p)      # signed PDF or notebook, issued (names compared ignoring case)
+    if why:
+        return why
     sc = _sidecar(p)
     if sc.is_file():
         try:
@@ -337,6 +338,13 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
     # the kernel boots (imports, on the other core) while the job is read and the notebook written;
     # a build that stops before the notebook runs shuts it down (the job is validated before the
     # notebook is written)
+    from ..signoff.locks import folder_lock
+
+    lock = folder_lock(out.parent, progress=progress)     # one build at a time per output folder
+    why = protection(out)                                   # signed while we waited?
+    if why:
+        lock.release()
+        raise SignedPDFError(str(out), why)
     kernel = KernelLaunch(run_dir)
     staged: Path | None = None
     try:
@@ -362,14 +370,15 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
         with _headless():
             report = build_pdf(nb_source, out, execute=True, progress=progress, timeout=timeout,
                                executed_path=executed, kernel=kernel)
+        from ..signoff.ledger import write_sidecar
+
+        nb_exec = _read(executed)
+        data = write_sidecar(out, nb_exec, executed.resolve())
     finally:
         kernel.discard()
         if staged is not None and staged.exists():
             staged.unlink()
-    from ..signoff.ledger import write_sidecar
-
-    nb_exec = _read(executed)
-    data = write_sidecar(out, nb_exec, executed.resolve())
+        lock.release()
     return PackageBuild(pdf=out, notebook=executed, sidecar=_sidecar(out), report=report, status=data["status"])
 
 
