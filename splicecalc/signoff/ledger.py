@@ -207,7 +207,7 @@ def _notebook_is_signed(p: Path) -> bool:
         meta = (json.loads(p.read_text(encoding="utf-8")).get("metadata") or {}).get("splicecalc") or {}
     except (OSError, ValueError, AttributeError):
         return True        # unreadable: when in doubt, keep it
-    return bool(meta.get("sign_off")) or bool(meta.get("signatures"))
+    return bool(meta.get("sign_off"))     # the old plain marks ("signatures") are not signatures
 
 
 def protection_reason(pdf: str | Path) -> str | None:

@@ -102,7 +102,10 @@ def _signers(nb: dict, nb_path: Path) -> dict[str, str]:
     sigs = nbs.verify_entries(nb, nb_path, set())
     if any(s.problems for s in sigs):
         return {}
-    return {s.role: s.signer for s in sigs}
+    out = {s.role: s.signer for s in sigs}
+    if sigs:
+        out["date"] = min(s.signed_at for s in sigs)[:10]
+    return out
 
 
 def revise(source: str | Path, revision: str, description: str, *, date: str | None = None,
@@ -145,6 +148,8 @@ def revise(source: str | Path, revision: str, description: str, *, date: str | N
     if cur is None:
         cur = {"rev": old, "date": str(meta.get("date", "") or ""), "description": "First issue"}
         history.append(cur)
+    if not cur.get("date"):
+        cur["date"] = signed.get("date", "")          # undated: the day it was first signed
     cur["by"] = signed.get("prepared") or cur.get("by") or str(meta.get("prepared_by", "") or "")
     cur["checked"] = signed.get("checked") or cur.get("checked") or str(meta.get("checked_by", "") or "")
     if signed.get("approved"):

@@ -358,6 +358,7 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
             # execute in the source's folder (relative job paths), keep the ledger of the executed copy
             nb = _read(src)
             meta = nb.metadata.setdefault("splicecalc", {})
+            meta.pop("sign_off", None)          # signatures belong to the package they signed, not a rebuild
             meta.setdefault("title", src.stem)
             if executed.is_file():
                 old = _read(executed).metadata.get("splicecalc", {})
