@@ -71,9 +71,15 @@ def _print_build(b: Any, quiet: bool) -> None:
 
 def _failing_checks(notebook: Any) -> int:
     """Print the failing checks of the executed notebook; 1 when there are any, else 0."""
-    from ..signoff.notebook import failing_checks, read_notebook
+    from ..signoff.notebook import failing_checks, not_checked, read_notebook
 
-    failing = failing_checks(read_notebook(notebook))
+    nb = read_notebook(notebook)
+    gaps = not_checked(nb)
+    if gaps:
+        print(f"splicecalc: {len(gaps)} NOT CHECKED (the package says what is needed):", file=sys.stderr)
+        for g in gaps:
+            print(f"  NOT CHECKED  {g}", file=sys.stderr)
+    failing = failing_checks(nb)
     if not failing:
         return 0
     print(f"splicecalc: {len(failing)} check(s) FAIL - the package is built but must not be relied on:",

@@ -163,9 +163,12 @@ def versions() -> dict:
     return {"splicecalc": splicecalc.__version__, "latex_template_sha256": h.hexdigest()}
 
 
-def failing_checks(nb: dict) -> list[str]:
-    """Ids (with titles) of the check records in the notebook's outputs that are not OK."""
-    out = []
+#: a check record's status for a check the package does not make (core.record.NOT_CHECKED): never a
+#: pass, but not a failure either; listed apart
+NOT_CHECKED = "not checked"
+
+
+def _records(nb: dict):
     for cell in nb.get("cells", []):
         if not isinstance(cell, dict):
             continue
@@ -179,12 +182,30 @@ def failing_checks(nb: dict) -> list[str]:
                     rec = json.loads(_join(rec))
                 except ValueError:
                     continue
-            if isinstance(rec, dict) and rec.get("ok") is False:
-                label = str(rec.get("id", "?"))
-                if rec.get("title"):
-                    label += f" ({rec['title']})"
-                if label not in out:
-                    out.append(label)
+            if isinstance(rec, dict):
+                yield rec
+
+
+def _label(rec: dict) -> str:
+    label = str(rec.get("id", "?"))
+    return label + (f" ({rec['title']})" if rec.get("title") else "")
+
+
+def failing_checks(nb: dict) -> list[str]:
+    """Ids (with titles) of the checks made in the notebook's outputs that are not OK."""
+    out: list[str] = []
+    for rec in _records(nb):
+        if rec.get("ok") is False and rec.get("status") != NOT_CHECKED and _label(rec) not in out:
+            out.append(_label(rec))
+    return out
+
+
+def not_checked(nb: dict) -> list[str]:
+    """Ids (with titles) of the NOT CHECKED records: checks the package does not make."""
+    out: list[str] = []
+    for rec in _records(nb):
+        if rec.get("status") == NOT_CHECKED and _label(rec) not in out:
+            out.append(_label(rec))
     return out
 
 

@@ -268,6 +268,9 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
     if st.state == "changed":
         raise InputError("PACKAGE.pdf", str(pdf), "a package whose signatures are intact",
                          "; ".join(st.lines[:1]))
+    if any(s.role == "issued" for s in st.pdf):
+        raise InputError("PACKAGE.pdf", str(pdf), "a package not yet issued (an issued file is never changed)",
+                         "start the next revision with splicecalc revise")
     try:
         nb = nbs.read_notebook(nb_path)
     except nbs.MalformedNotebook as exc:
