@@ -274,8 +274,9 @@ def test_cli_errors_are_one_line(tmp_path, monkeypatch):
     (tmp_path / "junk.pdf").write_bytes(b"this is not a pdf")
     (tmp_path / "junk.ipynb").write_text("{not json")
     (tmp_path / "nocells.ipynb").write_text("[1, 2]")
-    cases = [(["verify", "missing.pdf"], 2), (["verify", "junk.pdf"], 1), (["verify", "junk.ipynb"], 1),
-             (["verify", "nocells.ipynb"], 1), (["verify", "job.toml"], 2),
+    (tmp_path / "broken.pdf").write_bytes(b"%PDF-1.7\n1 0 obj << /Type /Catalog >> endobj\ntrailer junk\n")
+    cases = [(["verify", "missing.pdf"], 2), (["verify", "junk.pdf"], 2), (["verify", "broken.pdf"], 1),
+             (["verify", "junk.ipynb"], 2), (["verify", "nocells.ipynb"], 2), (["verify", "job.toml"], 2),
              (["sign", "junk.pdf", "--role", "prepared", "--key", "none.p12"], 2),
              (["keys", "trust", "junk.pdf"], 2), (["issue", "junk.pdf", "--purpose", "x", "--key", "none.p12"], 2),
              (["revise", "junk.ipynb", "--revision", "P2", "--description", "x"], 2)]

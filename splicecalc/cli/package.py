@@ -180,7 +180,9 @@ def _signoff(fn: Any) -> int:
     except KeyboardInterrupt:
         return 130
     except OSError as err:
-        return _fail(f"{getattr(err, 'filename', '') or ''} {err.strerror or err}".strip(), 2)
+        from ..core.errors import file_error_message
+
+        return _fail(file_error_message(err, "read or write"), 2)
     except Exception as err:  # noqa: BLE001 - the promise is one line, never a traceback
         print(f"splicecalc: error: unexpected {err.__class__.__name__}: {str(err)[:200]}", file=sys.stderr)
         return 1

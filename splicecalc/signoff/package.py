@@ -136,8 +136,9 @@ def verify_package(path: str | Path) -> PackageStatus:
     if p.suffix.lower() == ".ipynb":
         try:
             nb, sigs, problems, _ = _verify_nb(p, fps)
-        except nbs.MalformedNotebook as exc:
-            return PackageStatus(p, "changed", [f"INVALID: {exc}"])
+        except nbs.MalformedNotebook as exc:        # not a notebook at all: bad input, not a changed one
+            raise InputError("PATH", str(path), "an executed calc notebook (.ipynb JSON with cells)",
+                             str(exc)) from None
         if not sigs:
             return PackageStatus(p, "unsigned", [f"UNSIGNED: {p.name} has no signatures"])
         lines = [f"{s.role}: {s.signer}, {s.signed_at} - "
@@ -149,6 +150,8 @@ def verify_package(path: str | Path) -> PackageStatus:
     if p.suffix.lower() != ".pdf":
         raise InputError("PATH", str(path), "a .pdf calc package or an .ipynb executed notebook")
     data = p.read_bytes()
+    if not data.lstrip()[:5] == b"%PDF-":
+        raise InputError("PATH", str(path), "a PDF file (it does not start with %PDF-)")
     try:
         psigs = pdfsign.validate_pdf_bytes(data, certs)
     except pdfsign.MalformedPDF as exc:
