@@ -714,6 +714,14 @@ def show_existing(result: CalcResult) -> None:
             show_table(["Load", "Action", "Characteristic value", "Where"], [list(r) for r in member.load_rows],
                        align="llrl", title=f"Loads on the existing {what} (characteristic)",
                        notes=(f"Governing combination: {member.combination}." if member.combination else ""))
+        if getattr(member, "diagram", None):
+            from ..analysis import SimpleBeam, beam_diagram_data
+
+            span, loads, restraints = member.diagram
+            show_drawing(beam_diagram_data(SimpleBeam(span, loads), restraints_mm=restraints or None,
+                                           title=f"Existing beam: {member.combination}"),
+                         f"Existing beam at support {part.end}: loads, shear force and bending moment of "
+                         f"{member.combination} (design values, its own loads and the new reaction).")
         show_part_checks([r for r in part.existing_records if r.id in member_ids],
                          f"Existing {what} at {part.end}: detailing rules")
 

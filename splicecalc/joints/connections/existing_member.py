@@ -86,6 +86,9 @@ class ExistingMemberResult:
     basis: tuple[str, ...] = ()
     combination: str = ""
     material: Any = None
+    #: supporting beam: (span mm, factored loads of the governing combination, restraints mm) for the
+    #: calc sheet's diagram of that combination
+    diagram: Any = None
 
 
 def reactions_by_action(loads: Sequence[Any], span_mm: float, end: str) -> tuple[ReactionPart, ...]:
@@ -107,9 +110,18 @@ def design_valued_reaction(V_Ed: float, na: NationalAnnex) -> tuple[ReactionPart
     return (ReactionPart("G", "permanent", None, V_Ed / f),)
 
 
+def _group(name: str, action: str, category: str | None) -> str:
+    """The load group for an action name: none for permanent loads and for imposed loads of a category
+    under their default name (so that the imposed loads of all categories make one action, EN 1991-1-1
+    3.3.1(2), as for the new beam), else the name itself."""
+    if action == "permanent" or name == f"imposed {category}":
+        return ""
+    return name
+
+
 def _combos(actions: dict[str, tuple[str, str | None]], na: NationalAnnex, psi: Any) -> list[Any]:
     """ULS combinations over named actions (dummy unit loads carry each action's identity)."""
-    loads = [PointLoad(name=k, action=a, P=1.0, x=0.0, category=c, group=("" if a == "permanent" else k))
+    loads = [PointLoad(name=k, action=a, P=1.0, x=0.0, category=c, group=_group(k, a, c))
              for k, (a, c) in actions.items()]
     if not loads:
         loads = [PointLoad(name="G", action="permanent", P=1.0, x=0.0)]
@@ -351,22 +363,29 @@ def column_member_checks(sec: Any, cl: ExistingColumnLoads, mat_at: Callable[[fl
 # ======================================================================== supporting beam
 def _beam_loads(sec: Any, bl: ExistingBeamLoads, parts: Sequence[ReactionPart]) -> list[Any]:
     cat = bl.category
-    imp = f"imposed {cat}"
     loads: list[Any] = [UDL("existing beam self-weight", "permanent", sec.mass * G_ACC)]
     if bl.udl.permanent > 0:
         loads.append(UDL("existing floor, permanent", "permanent", bl.udl.permanent))
     if bl.udl.imposed > 0:
-        loads.append(UDL("existing floor, imposed", "imposed", bl.udl.imposed, category=cat, group=imp))
+        loads.append(UDL("existing floor, imposed", "imposed", bl.udl.imposed, category=cat))
     for i, p in enumerate(bl.points, start=1):
         if p.load.permanent > 0:
             loads.append(PointLoad(f"existing point {i}, permanent", "permanent", p.load.permanent, p.x))
         if p.load.imposed > 0:
-            loads.append(PointLoad(f"existing point {i}, imposed", "imposed", p.load.imposed, p.x, category=cat,
-                                   group=imp))
+            loads.append(PointLoad(f"existing point {i}, imposed", "imposed", p.load.imposed, p.x, category=cat))
     for p in parts:
         loads.append(PointLoad(f"new beam reaction ({p.action_name})", p.action, p.R, bl.at, category=p.category,
-                               group="" if p.action == "permanent" else p.action_name))
+                               group=_group(p.action_name, p.action, p.category)))
     return loads
+
+
+def _merged_reaction(loads: Sequence[Any], a: float) -> tuple[Any, ...]:
+    """The factored loads with the new beam's reaction parts drawn as one point load."""
+    new = [ld for ld in loads if isinstance(ld, PointLoad) and ld.name.startswith("new beam")]
+    rest = tuple(ld for ld in loads if ld not in new)
+    if not new:
+        return rest
+    return rest + (PointLoad("new beam reaction", "permanent", sum(ld.P for ld in new), a),)
 
 
 def beam_member_checks(sec: Any, bl: ExistingBeamLoads, mat_at: Callable[[float], Any], det: Any,
@@ -531,7 +550,8 @@ def beam_member_checks(sec: Any, bl: ExistingBeamLoads, mat_at: Callable[[float]
              + ("checked (St Venant shear and warping, each taking the whole torque)." if bl.torsion == "free" else
                 "taken as restrained by the floor (stated in the job; NOT CHECKED)."),
              f"Material: {mf.label}, f_y = {mf.f_y:g} MPa at t_f = {sec.tf:g} mm. {mf.note}")
-    return ExistingMemberResult("beam", tuple(out), tuple(rows), basis, cM.name, mf)
+    return ExistingMemberResult("beam", tuple(out), tuple(rows), basis, cM.name, mf,
+                                diagram=(L, _merged_reaction(cM.loads, a), tuple(bl.restraints)))
 
 
 def existing_member_checks(sec: Any, loads: Any, mat_at: Callable[[float], Any], face: str, det: Any,
