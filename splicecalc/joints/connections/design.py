@@ -303,7 +303,14 @@ def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec:
         warnings.append(f"Tying force {tie / 1e3:g} kN is below the {TYING_MIN_N / 1e3:g} kN minimum of UK "
                         "practice (from memory of the UK NA to EN 1991-1-7): confirm that the building's "
                         "consequence class allows it.")
-    if mat.historic:
+    if mat.label.startswith("unknown"):
+        warnings.append(f"EXISTING STEEL OF UNKNOWN DATE AND GRADE: {mat.label}, f_y = {mat.f_y:g} MPa, f_u = "
+                        f"{mat.f_u:g} MPa (lowest era band of published appraisal guidance, from memory). Identify "
+                        "the material (it may be wrought or cast iron) and test it before relying on these checks.")
+    elif mat.label.startswith("tested"):
+        warnings.append(f"Existing steel strength from coupon tests: {mat.label}, f_u,k = {mat.f_u:g} MPa by EN 1990 "
+                        "Annex D (Table D1 from memory): confirm the coupons represent this member.")
+    elif mat.historic:
         warnings.append(f"Existing steel strength from the era band {mat.label} (f_y = {mat.f_y:g} MPa, "
                         f"f_u = {mat.f_u:g} MPa): values from memory of published appraisal guidance; verify.")
     if spec.existing_loads is None:
