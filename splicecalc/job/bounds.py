@@ -98,6 +98,9 @@ BOUNDS: tuple[Bound, ...] = (
           "check the unit (kN/m along the beam, not kN/m2)", "'8.5 kN/m'"),
     Bound("load[].point", "N", 1.0, 5.0e6, "kN", "a point load",
           "beyond 5000 kN no rolled section carries it in shear: check the unit (kN, not N or kg)", "'35 kN'"),
+    Bound("load[].width", "mm", 100.0, 20000.0, "m", "a tributary width",
+          "the width of floor or roof an area load is collected over: joist or slab spans of buildings",
+          "'2.5 m'"),
     Bound("load[].bearing_length", "mm", 0.0, 1000.0, "mm", "a stiff bearing length under the load",
           "a cap or base plate; more than 1 m is a line load", "'100 mm'"),
     # ---------------------------------------------------------------- splices
