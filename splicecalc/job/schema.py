@@ -181,11 +181,27 @@ def reference_markdown() -> str:
             what = f"{kind} ({units})" if units else kind
             lines.append(f"| `{k}` | {what} | {text.replace('|', '/')} |")
         lines.append("")
+    lines += bounds_markdown()
     return "\n".join(lines)
+
+
+def bounds_markdown() -> list[str]:
+    """The plausibility bounds of :mod:`splicecalc.job.bounds`, one row each with its reason."""
+    from .bounds import BOUNDS, _range_text
+
+    lines = ["## Plausibility bounds", "",
+             "Every quantity is checked against the range a beam in an existing building can have, when the job "
+             "is read (`run`, the form and `build` alike). Generated from `splicecalc.job.bounds.BOUNDS`; "
+             "`[]` stands for every entry of an array of tables.", "",
+             "| field | allowed | reason |", "|---|---|---|"]
+    for b in BOUNDS:
+        lines.append(f"| `{b.path}` | {b.what} {_range_text(b)} | {b.reason.replace('|', '/')} |")
+    lines.append("")
+    return lines
 
 
 def schema_json_text() -> str:
     return json.dumps(json_schema(), indent=2, sort_keys=False) + "\n"
 
 
-__all__ = ["KINDS", "REFERENCE", "documented_keys", "json_schema", "reference_markdown", "schema_json_text"]
+__all__ = ["KINDS", "REFERENCE", "bounds_markdown", "documented_keys", "json_schema", "reference_markdown", "schema_json_text"]
