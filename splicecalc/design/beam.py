@@ -334,7 +334,7 @@ def _summary(design: "BeamDesign", source: str = "", show_candidates: int = 12) 
     p = job.project
     head = " - ".join(t for t in (p.number, p.title) if t) or "splicecalc job"
     lines.append(head + (f"   ({source})" if source else ""))
-    restr = ", ".join(f"{x / 1000.0:g}" for x in b.restraints)
+    restr = "continuous (top flange)" if b.continuous_restraint else ", ".join(f"{x / 1000.0:g}" for x in b.restraints)
     comb = "Eq. 6.10" if b.combination == "6.10" else "worse of Eq. 6.10a and 6.10b"
     lines.append(f"Beam: span {b.span / 1000.0:g} m, {b.grade}, "
                  + (f"lateral restraints at {restr} m" if restr else "no intermediate lateral restraint")
@@ -550,6 +550,18 @@ def _check_section_all(ctx: _Context, section: Section, render: bool = False,
         return run
 
     # --- stage 3: lateral-torsional buckling per segment (numerical M_cr)
+    if ctx.beam.continuous_restraint:
+        # the top flange is held along the whole span; under downward loads on a simply supported
+        # span it is the compression flange throughout, so the member cannot buckle laterally
+        run.add(_calc(render).info(
+            id="ltb", title=f"Lateral-torsional buckling, {section.designation}: compression flange restrained "
+                            "continuously", clause="EN 1993-1-1:2005, 6.3.2.1", demand=0.0, resistance=0.0,
+            unit="", note="top flange held laterally along the whole span (job: restraints = 'continuous'); "
+                             "the top flange is in compression throughout (simply supported, downward loads), so "
+                             "lateral-torsional buckling does not occur; the restraint (floor, decking and its "
+                             "fixings) must be able to hold the flange (EN 1993-1-1 5.3.3 and 6.3.2.1, a force of "
+                             "the order of 1 % of the flange force), to be confirmed by the engineer"))
+        return run
     segs = ctx.beam.segments
     order = list(range(len(segs)))
     if fail_fast:  # most highly stressed segment first

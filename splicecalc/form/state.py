@@ -297,7 +297,9 @@ class FormState:
             elif k == "families":
                 b[k] = [str(x) for x in v]
             elif k == "restraints":
-                if split_list(v):
+                if str(v).strip().lower() == "continuous":
+                    b[k] = "continuous"
+                elif split_list(v):
                     b[k] = split_list(v)
             elif str(v).strip():
                 v = str(v).strip()

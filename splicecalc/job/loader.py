@@ -119,8 +119,12 @@ def parse_beam(table: Any) -> BeamSpec:
             kw[k] = _length(t, k, f"beam.{k}")
     if "restraints" in t:
         rs = t["restraints"]
-        if not isinstance(rs, list):
-            raise InputError("beam.restraints", rs, "a list of positions, e.g. ['2.4 m', '4.8 m']")
+        if isinstance(rs, str) and rs.strip().lower() == "continuous":
+            kw["continuous_restraint"] = True
+            rs = []
+        elif not isinstance(rs, list):
+            raise InputError("beam.restraints", rs, "a list of positions, e.g. ['2.4 m', '4.8 m'], or 'continuous' "
+                             "(the top flange held along the whole span)")
         xs = []
         for i, r in enumerate(rs):
             x = parse_quantity(r, "mm", f"beam.restraints[{i + 1}]")

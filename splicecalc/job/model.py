@@ -92,6 +92,8 @@ class BeamSpec:
         (EN 1993-1-5, Figure 6.1 type (c)); 0 when the beam ends at the bearing.
     restraints: positions of intermediate lateral-torsional restraints, mm from
         support A, strictly increasing, strictly inside the span.
+    continuous_restraint: the top (compression) flange is held laterally along the whole span
+        (job file ``restraints = "continuous"``, e.g. a floor fixed to it): no lateral-torsional buckling.
     load_level: where the loads act: ``"top flange"``, ``"shear centre"`` or ``"bottom flange"``.
     deflection_limit: N of the variable-action limit span / N (UK NA suggestion 360
         for beams carrying brittle finishes, 200 otherwise).
@@ -122,9 +124,15 @@ class BeamSpec:
     psi_table: str = "UK NA"
     imposed: str = "single"
     min_frequency: float = 4.0
+    continuous_restraint: bool = False
 
     def __post_init__(self) -> None:
         s = object.__setattr__
+        if not isinstance(self.continuous_restraint, bool):
+            raise InputError("beam.restraints", self.continuous_restraint, "'continuous' or a list of positions")
+        if self.continuous_restraint and self.restraints:
+            raise InputError("beam.restraints", self.restraints, "either 'continuous' (the top flange held along "
+                             "the whole span) or a list of positions, not both")
         span = require_positive("beam.span", self.span, "mm")
         s(self, "span", span)
         try:
@@ -311,7 +319,7 @@ class Job:
         if b.bearing_length is not None:
             beam["bearing_length"] = _q(b.bearing_length, "mm", "mm")
         beam["end_distance"] = _q(b.end_distance, "mm", "mm")
-        beam["restraints"] = [_q(x, "mm", "m") for x in b.restraints]
+        beam["restraints"] = "continuous" if b.continuous_restraint else [_q(x, "mm", "m") for x in b.restraints]
         beam["load_level"] = b.load_level
         beam["deflection_limit"] = _num(b.deflection_limit)
         if b.total_deflection_limit is not None:

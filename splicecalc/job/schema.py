@@ -30,6 +30,7 @@ KINDS: dict[str, tuple[str, str]] = {
     "lengths": ("array", "length"),
     "texts": ("array", "text"),
     "table": ("object", ""),
+    "restraints": ("restraints", ""),
     "any": ("any", ""),
 }
 
@@ -54,7 +55,8 @@ REFERENCE: dict[str, dict[str, tuple[str, str]]] = {
         "max_depth": ("length", "headroom limit on the section depth"),
         "bearing_length": ("length", "stiff bearing length where the beam sits on a support (web bearing)"),
         "end_distance": ("length", "distance from the beam end to the bearing centre"),
-        "restraints": ("lengths", "positions of intermediate lateral-torsional restraints (ends are forks)"),
+        "restraints": ("restraints", "positions of intermediate lateral-torsional restraints (ends are forks), "
+                                     "or 'continuous' (top flange held along the whole span)"),
         "load_level": ("text", "where the loads act: 'top flange' | 'shear centre' | 'bottom flange'"),
         "deflection_limit": ("number", "variable-action deflection limit, span / N (default 360)"),
         "total_deflection_limit": ("number", "total deflection limit, span / N (optional)"),
@@ -137,6 +139,8 @@ def _value_schema(kind: str, text: str) -> dict[str, Any]:
         out = {"type": "array", "items": _value_schema(extra, "")}
     elif base == "any":
         out = {}
+    elif base == "restraints":
+        out = {"anyOf": [{"const": "continuous"}, _value_schema("lengths", "")]}
     else:
         out = {"type": {"text": "string", "table": "object"}.get(base, base)}
     if text:

@@ -205,7 +205,8 @@ def show_part_checks(records: Sequence[CheckRecord], rules_title: str) -> None:
 def job_tables(job: Any) -> list[TableOutput]:
     """Tables of the job's inputs: beam, loads, splices, supports (values as the job holds them)."""
     b = job.beam
-    restr = ", ".join(f"{x / 1000:g}" for x in b.restraints) or "none (fork supports at the ends only)"
+    restr = ("continuous: top flange held along the whole span" if b.continuous_restraint else
+             ", ".join(f"{x / 1000:g}" for x in b.restraints) or "none (fork supports at the ends only)")
     rows = [
         ["Span (bearing centres)", f"{b.span / 1000:g}", "m"],
         ["Steel grade", b.grade, ""],
