@@ -455,8 +455,13 @@ def _ltb_one(ctx: _Context, section: Section, case: _MassCase, i: int, k: int, x
     L_seg = x1 - x0
     M_Ed, x_M = _segment_M_max(ctx, case, i, x0, x1)
     z_g = ctx.z_g(section)
-    pls = [(ld.x - x0, ld.P) for ld in combo.loads
+    # each point load at its own height: a load hung from the bottom flange (applied_to) is below the
+    # shear centre (stabilising), one through a web connection at it; the others at the job's level
+    own = {"top flange": section.h / 2.0, "bottom flange": -section.h / 2.0, "web": 0.0}
+    pls = [(ld.x - x0, ld.P, own.get(ld.applied_to, z_g)) for ld in combo.loads
            if isinstance(ld, PointLoad) and x0 < ld.x < x1]
+    levels = sorted({f"{ld.name} at the {ld.applied_to}" for ld in combo.loads
+                     if isinstance(ld, PointLoad) and x0 < ld.x < x1 and ld.applied_to in own})
     if with_cross_check:
         _closed_form_cross_check(ctx, section, beam, combo, x0, x1, M_Ed, z_g, calc)
     rec = check_ltb(section, ctx.grade, M_Ed, None, ctx.na, calc, L_mm=L_seg, M=_M_fn(beam, x0, ctx.L),
@@ -465,7 +470,8 @@ def _ltb_one(ctx: _Context, section: Section, case: _MassCase, i: int, k: int, x
     where = f"segment {k}, x = {x0 / 1e3:.3g} to {x1 / 1e3:.3g} m"
     return replace(rec, title=f"Lateral-torsional buckling, {where}, {section.designation}",
                    note=f"{rec.note}; numerical M_cr, loads at the {ctx.beam.load_level} "
-                        f"(z_g = {z_g:.1f} mm), fork restraints at the segment ends")
+                        f"(z_g = {z_g:.1f} mm)" + (f" except {', '.join(levels)}" if levels else "")
+                        + ", fork restraints at the segment ends")
 
 
 def _closed_form_cross_check(ctx: _Context, section: Section, beam: SimpleBeam, combo: Combination, x0: float,

@@ -78,7 +78,8 @@ REFERENCE: dict[str, dict[str, tuple[str, str]]] = {
         "point": ("force", "point load: kN, or a mass in t / kg (weight with g = 9.81 m/s2)"),
         "at": ("length", "position of a point load from support A (required with point)"),
         "bearing_length": ("length", "stiff bearing length of a point load (web under the load)"),
-        "applied_to": ("text", "how a point load enters the beam: 'flange' | 'top flange' | 'bottom flange' | 'web'"),
+        "applied_to": ("text", "where a point load enters the beam and acts for lateral-torsional buckling: "
+                               "'flange' (the job's load level) | 'top flange' | 'bottom flange' (e.g. a hoist) | 'web'"),
     },
     "splices": {
         "pieces": ("integer", "number of pieces the beam is delivered in"),
