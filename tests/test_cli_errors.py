@@ -57,8 +57,17 @@ BAD_COMMANDS = [
 ]
 
 
-@pytest.mark.parametrize("argv", BAD_COMMANDS, ids=[" ".join(a) for a in BAD_COMMANDS])
-def test_bad_input_is_one_line_exit_2(argv, files, capsys):
+BAD_COMMANDS += [
+    ["keys", "new", "--name", "A", "--out", "/sys/splicecalc-k.p12"], ["keys", "trust", "{d}/missing.pem"],
+    ["keys", "trust", "{d}/bad.pdf"], ["keys", "frob"], ["sign", "{d}/bad.pdf", "--role", "prepared", "--key",
+                                                           "{d}/missing.p12"],
+    ["schema", "--frob"],
+]
+
+
+@pytest.mark.parametrize("argv", BAD_COMMANDS, ids=[" ".join(a)[:60] for a in BAD_COMMANDS])
+def test_bad_input_is_one_line_exit_2(argv, files, capsys, monkeypatch):
+    monkeypatch.setenv("SPLICECALC_PASSPHRASE", "a long test passphrase")
     args = [a.format(d=files) for a in argv]
     try:
         code = main(args)

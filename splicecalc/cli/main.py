@@ -222,6 +222,12 @@ def main(argv: list[str] | None = None) -> int:
         if os.environ.get(DEBUG_ENV):
             raise
         return _error(file_error_message(e, "read or write"), 2)
+    except ModuleNotFoundError as e:
+        if os.environ.get(DEBUG_ENV):
+            raise
+        return _error(f"the Python package '{e.name}' that this command needs is not installed: reinstall "
+                      "splicecalc with its dependencies (pip install --upgrade splicecalc, or in a checkout: "
+                      "bash scripts/bootstrap.sh)", 1)
     except Exception as e:  # noqa: BLE001 - the last line of defence: one line, never a traceback
         if os.environ.get(DEBUG_ENV):
             raise
