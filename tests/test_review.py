@@ -212,9 +212,21 @@ def _words(pdf: Path, page: int) -> list[tuple[str, float, float, float, float]]
     return out
 
 
+def _first_section_sheet(pdf: Path) -> int:
+    """Sheet of the first numbered section (from the PDF's bookmarks, read with pypdf): the body
+    starts there, after the cover and the contents (which list every check's title too)."""
+    from pypdf import PdfReader
+
+    r = PdfReader(str(pdf))
+    first = r.outline[0]
+    while isinstance(first, list):
+        first = first[0]
+    return r.get_destination_page_number(first) + 1
+
+
 def _find(pdf: Path, npages: int, phrase: list[str]) -> tuple[int, tuple[float, float, float, float]]:
-    """First sheet and box where the words of ``phrase`` follow one another."""
-    for p in range(1, npages + 1):
+    """First sheet of the body and box where the words of ``phrase`` follow one another."""
+    for p in range(_first_section_sheet(pdf), npages + 1):
         ws = _words(pdf, p)
         for i in range(len(ws) - len(phrase) + 1):
             if [w[0] for w in ws[i:i + len(phrase)]] == phrase:
@@ -255,7 +267,8 @@ def test_markups_import_to_the_check_they_sit_on(built, tmp_path):
     # two checks whose titles are printed as headings (short, unique): find them on the page with poppler
     titles = [r["title"] for r in records]
     unique = [r for r in records if titles.count(r["title"]) == 1 and len(r["title"]) < 40
-              and not any(t != r["title"] and r["title"] in t for t in titles)]
+              and not any(t != r["title"] and r["title"] in t for t in titles)
+              and r.get("layout") != "row" and r.get("status") not in ("info", "not checked")]
     target_a, target_b = unique[2], unique[-3]
     sa, box_a = _find(built.pdf, npages, target_a["title"].split())
     sb, box_b = _find(built.pdf, npages, target_b["title"].split())
@@ -320,3 +333,60 @@ def test_locate_resolves_notebook_to_job(tmp_path):
     assert pkg.job_file == job.resolve() and pkg.revision() == "P2" and pkg.records() == []
     c = add_comment(tmp_path / "calc.ipynb", on="package", by="B. Checker", text="Survey ref?")
     assert c.revision == "P2" and (tmp_path / "job.review.jsonl").exists()
+
+
+# ------------------------------------------------------------------ sign-off respects the review
+def _package_copy(built, dest: Path) -> Path:
+    import shutil
+
+    dest.mkdir()
+    for f in built.pdf.parent.iterdir():
+        if f.is_file() and not f.name.startswith(".") and not f.name.endswith(".lock"):
+            shutil.copy2(f, dest / f.name)
+    return dest / built.pdf.name
+
+
+@pytest.fixture()
+def signers(tmp_path, monkeypatch):
+    from splicecalc.signoff import keys
+
+    monkeypatch.setenv(keys.TRUST_DIR_ENV, str(tmp_path / "trust"))
+    return {k: keys.new_key(n, tmp_path / f"{k}.p12", b"review test") for k, n in
+            (("a", "A. Preparer"), ("b", "B. Checker"))}
+
+
+@pdf_mark
+def test_checked_signature_waits_for_closed_comments(built, tmp_path, signers):
+    from splicecalc.signoff.package import sign_package, verify_package
+
+    pdf = _package_copy(built, tmp_path / "pkg")
+    reg = locate(pdf).register
+    assert reg.unresolved(), "the fixture's register holds open queries"
+    sign_package(pdf, "prepared", signers["a"])                      # preparing is not held up
+    with pytest.raises(InputError, match=r"not closed: R1"):
+        sign_package(pdf, "checked", signers["b"])
+    for c in reg.unresolved():
+        reg.close(c.id, by=c.by, note="answered in rev. P1")
+    sign_package(pdf, "checked", signers["b"])
+    st = verify_package(pdf)
+    assert st.state == "valid", st.lines
+    # comments added after the signature are fine (the register is append-only) ...
+    reg.add(by="C. Approver", text="For the next revision: add the survey ref.", target={"kind": "package"})
+    assert verify_package(pdf).state == "valid"
+    # ... a change to what the signature saw is not
+    raw = reg.path.read_bytes()
+    reg.path.write_bytes(raw.replace(b"answered in rev. P1", b"answered in rev. P9"))
+    st = verify_package(pdf)
+    assert st.state == "changed" and "review register" in " ".join(st.lines)
+
+
+@pdf_mark
+def test_open_comments_ok_is_recorded_in_the_signature(built, tmp_path, signers):
+    from splicecalc.signoff.package import sign_package, verify_package
+
+    pdf = _package_copy(built, tmp_path / "pkg")
+    sign_package(pdf, "prepared", signers["a"])
+    sign_package(pdf, "checked", signers["b"], open_comments_ok="queries R1-R4 are for the next stage")
+    st = verify_package(pdf)
+    assert st.state == "valid"
+    assert any("open review comments accepted: queries R1-R4 are for the next stage" in line for line in st.lines)

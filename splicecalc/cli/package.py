@@ -199,7 +199,8 @@ def cmd_sign(args: argparse.Namespace) -> int:
 
     def go() -> int:
         r = sign_package(args.package, args.role, _key(args.key), reason=args.reason,
-                         same_person_ok=args.same_person_ok, accept_failing=args.accept_failing)
+                         same_person_ok=args.same_person_ok, accept_failing=args.accept_failing,
+                         open_comments_ok=args.open_comments_ok)
         print(f"signed {r.pdf.name} and {r.notebook.name} as {r.role} by {r.signer}")
         if r.failing:
             print(f"{len(r.failing)} failing check(s)"
@@ -291,6 +292,8 @@ def add_signoff_parsers(sub: Any) -> None:
                    "acceptable (printed in the signature on the cover)")
     p.add_argument("--accept-failing", metavar="REASON", help="check or approve a package with failing checks, "
                    "saying why (printed on the cover)")
+    p.add_argument("--open-comments-ok", metavar="REASON", help="check or approve while review comments are not "
+                   "closed (splicecalc review), saying why (printed on the cover)")
     p.set_defaults(func=cmd_sign)
 
     p = sub.add_parser("verify", help="verify a package's signatures (exit 0 valid, 1 changed, 3 unsigned)",

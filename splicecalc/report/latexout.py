@@ -110,7 +110,7 @@ def rule_row_latex(p: dict[str, Any]) -> str:
     u = p.get("utilisation")
     u_txt = r"$\infty$" if u is None else f"{u:.2f}"
     verdict = "\\calcok" if p.get("ok") else "\\calcfail"
-    start = f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}"
+    start = f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}\\calcrevmark{{{anchor_name(str(p.get('id', '')))}}}"
     return (f"\\calcrule{{{start}{escape_tex(p.get('label') or p.get('title', ''))}}}{{{fmt_number(p.get('demand'))}{ut}}}"
             f"{{{fmt_number(p.get('resistance'))}{ut}}}{{{u_txt}}}{{{verdict}}}{{{escape_tex(p.get('clause', ''))}}}"
             f"\\calcmark{{{anchor_name(str(p.get('id', '')), end=True)}}}\n")

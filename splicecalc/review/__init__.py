@@ -62,6 +62,54 @@ def import_markups(package: str | os.PathLike, annotated_pdf: str | os.PathLike,
     return ImportResult(tuple(added), tuple(skipped))
 
 
+@dataclass(frozen=True)
+class RegisterState:
+    """The review register as a signature records it: its first ``size`` bytes and their digest,
+    and the comments not yet closed at that moment."""
+
+    path: Path
+    size: int
+    sha256: str
+    unresolved: tuple[str, ...]
+
+    def tag(self) -> dict:
+        return {"review_register": self.path.name, "review_bytes": self.size, "review_sha256": self.sha256,
+                "review_unresolved": len(self.unresolved)}
+
+
+def register_state(package: str | os.PathLike) -> RegisterState | None:
+    """The register of the package at ``package`` now, or None when the package names no job file
+    or has no register (a package without review comments)."""
+    try:
+        pkg = locate(package)
+    except InputError:
+        return None
+    reg = pkg.register
+    if not reg.path.exists():
+        return None
+    raw = reg.path.read_bytes()
+    unresolved = tuple(c.id for c in reg.unresolved())     # also checks the chain
+    return RegisterState(reg.path, len(raw), hashlib.sha256(raw).hexdigest(), unresolved)
+
+
+def register_changed_since(package: str | os.PathLike, tag: dict) -> str | None:
+    """Why the register no longer starts with what a signature recorded (``RegisterState.tag``), or None.
+
+    The register is append-only: comments added after a signature are fine; any change to the bytes
+    the signature saw is not."""
+    size, sha = tag.get("review_bytes"), tag.get("review_sha256")
+    if size is None or sha is None:
+        return None
+    try:
+        pkg = locate(package)
+        raw = pkg.register.path.read_bytes()
+    except (InputError, OSError):
+        return f"the review register {tag.get('review_register', '')} recorded at signing cannot be read"
+    if len(raw) < int(size) or hashlib.sha256(raw[:int(size)]).hexdigest() != sha:
+        return f"the review register {pkg.register.path.name} was changed after signing (not only appended to)"
+    return None
+
+
 def _part(target: dict) -> str:
     if target.get("kind") == "check":
         head = str(target.get("id", "")).split(".", 1)[0]
@@ -89,6 +137,6 @@ def review_payload(job_file: str | os.PathLike, records: list[dict], approver: s
     return {"register": reg.path.name, "digest": reg.digest(), "counts": reg.counts(), "comments": out}
 
 
-__all__ = ["Comment", "ImportResult", "Markup", "Register", "RegisterError", "ReviewPackage", "add_comment",
+__all__ = ["RegisterState", "register_changed_since", "register_state", "Comment", "ImportResult", "Markup", "Register", "RegisterError", "ReviewPackage", "add_comment",
            "anchor_name", "comment_flags", "import_markups", "locate", "parse_target", "read_markups",
            "review_payload", "target_label"]

@@ -22,6 +22,7 @@ from typing import Any
 
 from ..core.errors import InputError
 from ..core.files import write_atomic
+from ..review import register_changed_since, register_state
 from . import notebook as nbs
 from . import pdfsign
 
@@ -189,12 +190,17 @@ def verify_package(path: str | Path) -> PackageStatus:
     for s in psigs:
         extra = ""
         for key, label in (("same_person_ok", "same person"), ("accept_failing", "failing checks accepted"),
+                           ("open_comments_ok", "open review comments accepted"),
                            ("override", "override"), ("purpose", "purpose")):
             if s.tag.get(key):
                 extra += f"; {label}: {s.tag[key]}"
         lines.append(f"{s.role}: {s.signer}, {s.signed_at} - "
                      + (("signature valid, " + _trust_word(s.trusted)) if s.intact and s.valid else "signature INVALID")
                      + extra)
+    for s_ in psigs:
+        why = register_changed_since(p, s_.tag)
+        if why:
+            problems.append(f"PDF {s_.role}: {why}")
     if problems:
         return PackageStatus(p, "changed", ["CHANGED: " + "; ".join(problems)] + lines, psigs, nsigs, notes)
     roles = ", ".join(s.role for s in psigs)
@@ -257,12 +263,13 @@ class SignResult:
 
 def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = None,
                  same_person_ok: str | None = None, accept_failing: str | None = None,
-                 when: _dt.datetime | None = None) -> SignResult:
+                 open_comments_ok: str | None = None, when: _dt.datetime | None = None) -> SignResult:
     """Sign the package ``pdf`` (and its notebook) in ``role`` with the key pair ``kp``."""
     if role not in ROLES:
         raise InputError("--role", role, "one of " + ", ".join(ROLES))
     reason, same_person_ok, accept_failing = (_text("--reason", reason), _text("--same-person-ok", same_person_ok),
                                               _text("--accept-failing", accept_failing))
+    open_comments_ok = _text("--open-comments-ok", open_comments_ok)
     p = Path(pdf)
     if not p.is_file() or p.suffix.lower() != ".pdf":
         raise InputError("PACKAGE.pdf", str(pdf), "an existing calc-package PDF")
@@ -295,6 +302,15 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
                          f"{len(failing)} failing: " + ", ".join(failing[:8]) + ("..." if len(failing) > 8 else ""))
     if not failing:
         accept_failing = None
+    # the review register (splicecalc review): no checked / approved signature over open queries
+    review = register_state(p)
+    unresolved = review.unresolved if review else ()
+    if unresolved and role in ("checked", "approved") and not open_comments_ok:
+        raise InputError("--role", role, "a package whose review comments are all closed, or "
+                         "--open-comments-ok \"reason\"", f"{len(unresolved)} not closed: " + ", ".join(unresolved[:10])
+                         + " (splicecalc review list PACKAGE --open)")
+    if not unresolved or role == "prepared":
+        open_comments_ok = None
     prior = [(s.role, s.fingerprint, s.signer, s.tag) for s in st.pdf]
     digest = nbs.notebook_digest(nb)
     tag = {"role": role, "notebook_sha256": digest,
@@ -303,12 +319,17 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
         tag["same_person_ok"] = same_person_ok
     if accept_failing:
         tag["accept_failing"] = accept_failing
+    if review:
+        tag.update(review.tag())
+    if open_comments_ok:
+        tag["open_comments_ok"] = open_comments_ok
     probs = role_order_problems(prior + [(role, kp.fingerprint, kp.name, tag)])
     if probs:
         raise InputError("--role", role, "the next role in order: prepared, then checked by another person, "
                          "then approved", probs[-1])
     when = when or _dt.datetime.now(_dt.timezone.utc)
-    extra = {k: tag[k] for k in ("same_person_ok", "accept_failing") if k in tag}
+    extra = {k: tag[k] for k in ("same_person_ok", "accept_failing", "open_comments_ok", "review_register",
+                                 "review_bytes", "review_sha256") if k in tag}
     entry = nbs.make_entry(nb, nb_path, kp, role, pdf_sha256=pdfsign.base_revision_sha256(data), extra=extra,
                            when=when, digest=digest)
     lines = [f"{role.capitalize()}: {kp.name}", f"signed {when.strftime('%Y-%m-%d %H:%M')} UTC (digital signature)"]
@@ -316,6 +337,8 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
         lines.append(f"Same person as earlier role: {same_person_ok}"[:64])
     if accept_failing:
         lines.append(f"{len(failing)} failing check(s) accepted: {accept_failing}"[:64])
+    if open_comments_ok:
+        lines.append(f"{len(unresolved)} review comment(s) open: {open_comments_ok}"[:64])
     if reason:
         lines.append(reason[:64])
     human = f"{role.capitalize()} by {kp.name}" + (f": {reason}" if reason else "")
@@ -323,6 +346,8 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
         human += f". Same person in two roles: {same_person_ok}"
     if accept_failing:
         human += f". {len(failing)} failing check(s) accepted: {accept_failing}"
+    if open_comments_ok:
+        human += f". {len(unresolved)} review comment(s) open ({', '.join(unresolved[:10])}): {open_comments_ok}"
     signed = pdfsign.sign_pdf_bytes(data, kp, role, human_reason=human, tag=tag, appearance_lines=lines[:5],
                                     when=when)
     nbs.add_entry(nb, entry)
