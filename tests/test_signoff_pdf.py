@@ -625,6 +625,7 @@ def test_cli_sign_verify_issue(env, tmp_path):
     v = run("verify", f"{NAME}.pdf")
     assert v.returncode == 0 and "VALID" in v.stdout and "valid but untrusted signer" in v.stdout
     assert run("verify", f"{NAME}.pdf", "--json").returncode == 0
+    assert run("verify", f"{NAME}.pdf", "--thorough").returncode == 0
     r = run("issue", f"{NAME}.pdf", "--purpose", "for construction", "--key", str(kd / "c.p12"))
     assert r.returncode == 0, r.stderr
     r = run("issue", f"{NAME}.pdf", "--purpose", "for construction", "--key", str(kd / "c.p12"))

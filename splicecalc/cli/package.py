@@ -215,7 +215,7 @@ def cmd_verify(args: argparse.Namespace) -> int:
     from ..signoff.package import verify_package
 
     def go() -> int:
-        st = verify_package(args.path)
+        st = verify_package(args.path, thorough=args.thorough)
         if args.json:
             import json
 
@@ -302,6 +302,8 @@ def add_signoff_parsers(sub: Any) -> None:
                                    ".pdf.json build record is never trusted.")
     p.add_argument("path", metavar="PACKAGE.pdf|NOTEBOOK.ipynb")
     p.add_argument("--json", action="store_true")
+    p.add_argument("--thorough", action="store_true", help="also run pyHanko's full analysis of what each update "
+                   "after the first signature changed (a few seconds)")
     p.set_defaults(func=cmd_verify)
 
     p = sub.add_parser("revise", help="start the next revision as new files (a signed notebook is never edited)")

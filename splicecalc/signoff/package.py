@@ -127,8 +127,11 @@ def _verify_nb(nb_path: Path, trusted_fps: set[str]) -> tuple[dict, list[Any], l
     return nb, sigs, problems, digest
 
 
-def verify_package(path: str | Path) -> PackageStatus:
-    """Verify a calc-package PDF (and the executed notebook beside it), or a notebook on its own."""
+def verify_package(path: str | Path, thorough: bool = False) -> PackageStatus:
+    """Verify a calc-package PDF (and the executed notebook beside it), or a notebook on its own.
+
+    ``thorough``: also run pyHanko's full difference analysis over the PDF's later updates
+    (seconds on a package; the quick rule of :func:`pdfsign.update_problems` always runs)."""
     p = Path(path)
     if not p.is_file():
         raise InputError("PATH", str(path), "an existing calc-package .pdf or executed .ipynb")
@@ -154,7 +157,7 @@ def verify_package(path: str | Path) -> PackageStatus:
     if not data.lstrip()[:5] == b"%PDF-":
         raise InputError("PATH", str(path), "a PDF file (it does not start with %PDF-)")
     try:
-        psigs = pdfsign.validate_pdf_bytes(data, certs)
+        psigs = pdfsign.validate_pdf_bytes(data, certs, thorough=thorough)
     except pdfsign.MalformedPDF as exc:
         return PackageStatus(p, "changed", [f"INVALID: {p.name} is {exc}"])
     if not psigs:
