@@ -500,3 +500,14 @@ def test_member_checks_never_raise_on_valid_extremes():
 
     column()
     beam()
+
+
+def test_moment_shared_with_the_length_above_leaves_a_gap():
+    res, det = _column_case(moment_share=0.5)
+    gap = _rec(res.records, "ex_col_above")
+    s = COL
+    # 0.5 of 1.35 x 100 kN x (h/2 + 100 mm) (Eq. 6.10, permanent only; nominal eccentricity, guidance)
+    assert not gap.checked and f"{0.5 * 1.35 * 100e3 * (s.h / 2 + 100.0) / 1e6:.2f} kNm" in gap.note
+    full, _ = _column_case()
+    assert not any(r.id == "ex_col_above" for r in full.records)
+    assert _rec(res.records, "ex_col_interaction_y").demand < _rec(full.records, "ex_col_interaction_y").demand

@@ -342,6 +342,13 @@ def column_member_checks(sec: Any, cl: ExistingColumnLoads, mat_at: Callable[[fl
               f"$N_{{Ed}}$ = {N / 1e3:.1f} kN, $M_{{y,Ed}}$ = {My / 1e6:.2f} kNm, $M_{{z,Ed}}$ = {Mz / 1e6:.2f} kNm.")
     recs = _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, calc, face, det, tie, c.name,
                           mcr_shape)
+    if cl.moment_share < 1.0:
+        recs.append(not_checked(
+            id="ex_col_above", title="Existing column: the length above takes the rest of the connection moment",
+            clause="EN 1993-1-1:2005, 6.3.3",
+            reason=f"{1.0 - cl.moment_share:g} of R e = {(1.0 - cl.moment_share) * R * e / 1e6:.2f} kNm (design) is "
+                   "taken by the column length above the connection (job: moment_share), whose own forces are "
+                   "not given: check that length with it"))
     rows = [("existing axial force", "permanent", f"{cl.axial.permanent / 1e3:g} kN", "at the connection level"),
             ("existing axial force", f"imposed {cl.category}", f"{cl.axial.imposed / 1e3:g} kN", "")]
     for nm, pair in (("existing moment M_y", cl.moment_y), ("existing moment M_z", cl.moment_z)):
