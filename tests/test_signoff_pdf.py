@@ -523,6 +523,16 @@ def test_reserialised_json_is_not_flagged(dump, signed, tmp_path):
     assert verify_package(p).state == "valid"
 
 
+def test_nbformat_round_trip_is_not_flagged(signed, tmp_path):
+    """Reading and writing the notebook with nbformat (what saving it in Jupyter does) changes no content."""
+    import nbformat
+
+    d = _fresh(signed["s1"], tmp_path)
+    p = d / f"{NAME}.ipynb"
+    nbformat.write(nbformat.read(str(p), as_version=4), str(p))
+    assert verify_package(d / f"{NAME}.pdf").state == "valid"
+
+
 def test_thorough_check_agrees_with_the_quick_one(signed, tmp_path):
     """pyHanko's full difference analysis finds the page-content update the quick rule finds."""
     d = _fresh(signed["s1"], tmp_path)
