@@ -106,8 +106,16 @@ def test_import_key_issued_by_a_firm_ca(tmp_path):
                          chain=(tmp_path / "ca.pem",))
     back = keys.load_key(kp.path, PW)
     assert back.name == "E. Staff" and len(back.chain) == 1 and back.chain[0].subject == ca_name
+    # trusting the firm's CA trusts the certificates it issued (and nothing else)
+    assert keys.is_trusted(back.cert, [ca]) and not keys.is_trusted(back.cert, [])
+    other = keys.new_key("F. Outsider", tmp_path / "f.p12", PW)
+    assert not keys.is_trusted(other.cert, [ca])
+    nbp = _nb(tmp_path)
+    nb = _sign_nb(nbp, back, "prepared")
+    assert [s.trusted for s in nbs.verify_entries(nb, nbp, [ca])] == [True]
+    assert [s.trusted for s in nbs.verify_entries(nb, nbp, [other.cert])] == [False]
     with pytest.raises(InputError, match="certificate of this private key"):
-        keys.import_key(tmp_path / "f.p12", PW, key_pem=tmp_path / "k.pem", cert_pem_path=tmp_path / "ca.pem")
+        keys.import_key(tmp_path / "g.p12", PW, key_pem=tmp_path / "k.pem", cert_pem_path=tmp_path / "ca.pem")
 
 
 def test_trust_list_lives_where_the_environment_says(tmp_path, monkeypatch, keyset):
@@ -152,7 +160,7 @@ def _sign_nb(p: Path, kp, role: str, **extra) -> dict:
 def test_detached_signature_detects_every_edit(tmp_path, keyset):
     p = _nb(tmp_path)
     _sign_nb(p, keyset["a"], "prepared")
-    sigs = nbs.verify_entries(nbs.read_notebook(p), p, set())
+    sigs = nbs.verify_entries(nbs.read_notebook(p), p, [])
     assert [(s.role, s.signer, s.valid, s.problems) for s in sigs] == [("prepared", "A. Preparer", True, [])]
     base = p.read_text(encoding="utf-8")
 
@@ -160,7 +168,7 @@ def test_detached_signature_detects_every_edit(tmp_path, keyset):
         nb = json.loads(base)
         fn(nb)
         p.write_text(json.dumps(nb), encoding="utf-8")
-        return nbs.verify_entries(nbs.read_notebook(p), p, set())[0].problems
+        return nbs.verify_entries(nbs.read_notebook(p), p, [])[0].problems
 
     assert edit(lambda nb: nb["metadata"]["splicecalc"].__setitem__("title", "Other"))
     assert edit(lambda nb: nb["metadata"]["splicecalc"]["sign_off"][0]["message"].__setitem__("role", "approved"))
@@ -168,7 +176,7 @@ def test_detached_signature_detects_every_edit(tmp_path, keyset):
     assert edit(lambda nb: nb["cells"][2]["outputs"][0]["data"][CHECK].__setitem__("ok", False))
     p.write_text(base, encoding="utf-8")
     (tmp_path / "job.toml").write_text((tmp_path / "job.toml").read_text() + "\n", encoding="utf-8")
-    assert "job file job.toml changed" in " ".join(nbs.verify_entries(nbs.read_notebook(p), p, set())[0].problems)
+    assert "job file job.toml changed" in " ".join(nbs.verify_entries(nbs.read_notebook(p), p, [])[0].problems)
 
 
 def test_role_order_rules():

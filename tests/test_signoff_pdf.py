@@ -716,3 +716,48 @@ def test_revision_is_built_as_new_files_carrying_the_new_revision(signed, env, t
     p1 = " ".join(rows[0])
     assert "A. Preparer" in p1 and "B. Checker" in p1            # who prepared and checked P1
     assert verify_package(b.pdf).state == "unsigned"
+
+
+def test_key_from_the_firms_ca_is_trusted_through_the_ca(env, tmp_path):
+    """A key issued by a firm CA (made here with cryptography) signs; trusting the CA trusts the signer."""
+    import datetime as dt
+
+    from cryptography import x509
+    from cryptography.hazmat.primitives import hashes, serialization
+    from cryptography.hazmat.primitives.asymmetric import ec
+    from cryptography.x509.oid import NameOID
+
+    now = dt.datetime.now(dt.timezone.utc) - dt.timedelta(minutes=5)
+    ku = dict(content_commitment=True, key_encipherment=False, data_encipherment=False, key_agreement=False,
+              crl_sign=False, encipher_only=False, decipher_only=False)
+    ca_key = ec.generate_private_key(ec.SECP256R1())
+    ca_name = x509.Name([x509.NameAttribute(NameOID.COMMON_NAME, "Test Works CA")])
+    ca = (x509.CertificateBuilder().subject_name(ca_name).issuer_name(ca_name).public_key(ca_key.public_key())
+          .serial_number(11).not_valid_before(now).not_valid_after(now + dt.timedelta(days=30))
+          .add_extension(x509.BasicConstraints(ca=True, path_length=0), critical=True)
+          .add_extension(x509.KeyUsage(digital_signature=True, key_cert_sign=True, **{**ku, "crl_sign": True}),
+                         critical=True)
+          .sign(ca_key, hashes.SHA256()))
+    k = ec.generate_private_key(ec.SECP256R1())
+    cert = (x509.CertificateBuilder().subject_name(x509.Name([x509.NameAttribute(NameOID.COMMON_NAME, "D. Staff")]))
+            .issuer_name(ca_name).public_key(k.public_key()).serial_number(12).not_valid_before(now)
+            .not_valid_after(now + dt.timedelta(days=30))
+            .add_extension(x509.KeyUsage(digital_signature=True, key_cert_sign=False, **ku), critical=True)
+            .sign(ca_key, hashes.SHA256()))
+    (tmp_path / "k.pem").write_bytes(k.private_bytes(serialization.Encoding.PEM, serialization.PrivateFormat.PKCS8,
+                                                     serialization.NoEncryption()))
+    (tmp_path / "c.pem").write_bytes(cert.public_bytes(serialization.Encoding.PEM))
+    (tmp_path / "ca.pem").write_bytes(ca.public_bytes(serialization.Encoding.PEM))
+    kp = keys.import_key(tmp_path / "d.p12", PW, key_pem=tmp_path / "k.pem", cert_pem_path=tmp_path / "c.pem",
+                         chain=(tmp_path / "ca.pem",))
+    d = _fresh(env["built"], tmp_path)
+    sign_package(d / f"{NAME}.pdf", "prepared", kp)
+    st = verify_package(d / f"{NAME}.pdf")
+    assert st.state == "valid" and "valid but untrusted signer" in st.lines[1]
+    keys.trust_cert(tmp_path / "ca.pem")
+    try:
+        st = verify_package(d / f"{NAME}.pdf")
+        assert st.state == "valid" and st.lines[1].endswith("signature valid, trusted"), st.lines
+        assert st.pdf[0].trusted and st.notebook[0].trusted
+    finally:
+        (Path(os.environ[keys.TRUST_DIR_ENV]) / f"{keys.cert_fingerprint(ca)}.pem").unlink()

@@ -280,6 +280,32 @@ def trusted_certs() -> list[Any]:
     return out
 
 
+def is_trusted(cert: Any, trusted: list[Any], when: _dt.datetime | None = None) -> bool:
+    """True when ``cert`` is in the trust list, or was issued (signed) by a CA certificate in it and is
+    within its validity period. (The PDF's signatures are judged by pyHanko's path validation.)"""
+    fp = cert_fingerprint(cert)
+    if any(cert_fingerprint(t) == fp for t in trusted):
+        return True
+    now = when or _dt.datetime.now(_dt.timezone.utc)
+    try:
+        if not (cert.not_valid_before_utc <= now <= cert.not_valid_after_utc):
+            return False
+    except AttributeError:  # pragma: no cover - cryptography < 42
+        return False
+    for ca in trusted:
+        try:
+            from cryptography import x509
+
+            bc = ca.extensions.get_extension_for_class(x509.BasicConstraints).value
+            if not bc.ca:
+                continue
+            cert.verify_directly_issued_by(ca)
+            return True
+        except Exception:  # noqa: BLE001 - not issued by this one (or not a CA)
+            continue
+    return False
+
+
 def export_cert(kp: KeyPair, out: str | os.PathLike) -> Path:
     """Write the key's certificate as PEM (to hand to colleagues for their trust list)."""
     p = Path(out)
@@ -290,4 +316,4 @@ def export_cert(kp: KeyPair, out: str | os.PathLike) -> Path:
 
 
 __all__ = ["KeyPair", "PASSPHRASE_ENV", "TRUST_DIR_ENV", "cert_fingerprint", "cert_name", "cert_pem", "export_cert",
-           "import_key", "load_cert", "load_key", "new_key", "passphrase", "trust_cert", "trust_dir", "trusted_certs"]
+           "import_key", "is_trusted", "load_cert", "load_key", "new_key", "passphrase", "trust_cert", "trust_dir", "trusted_certs"]

@@ -292,9 +292,10 @@ class NbSig:
                 "signed_at": self.signed_at, "valid": self.valid, "trusted": self.trusted, "problems": self.problems}
 
 
-def verify_entries(nb: dict, nb_path: Path, trusted_fps: set[str], digest: str | None = None) -> list[NbSig]:
-    """Check every sign-off entry against the notebook as it is now (and the job file beside it)."""
-    from .keys import cert_fingerprint, cert_name, load_cert
+def verify_entries(nb: dict, nb_path: Path, trusted: list[Any], digest: str | None = None) -> list[NbSig]:
+    """Check every sign-off entry against the notebook as it is now (and the job file beside it);
+    ``trusted``: the trust list's certificates."""
+    from .keys import cert_fingerprint, cert_name, is_trusted, load_cert
 
     digest = digest or notebook_digest(nb)
     job_now = job_record(nb, nb_path)
@@ -335,7 +336,7 @@ def verify_entries(nb: dict, nb_path: Path, trusted_fps: set[str], digest: str |
             problems.append("the signatures before this one were changed, removed or re-ordered")
         earlier.append(entry_hash(e))
         out.append(NbSig(str(msg.get("role", "?")), str(msg.get("signer", "?")), fp, str(msg.get("signed_at", "")),
-                         valid, fp in trusted_fps, msg, problems))
+                         valid, is_trusted(cert, trusted), msg, problems))
     return out
 
 

@@ -96,11 +96,10 @@ class PackageStatus:
                 "notebook_signatures": [s.to_dict() for s in self.notebook]}
 
 
-def _trust() -> tuple[list[Any], set[str]]:
-    from .keys import cert_fingerprint, trusted_certs
+def _trust() -> list[Any]:
+    from .keys import trusted_certs
 
-    certs = trusted_certs()
-    return certs, {cert_fingerprint(c) for c in certs}
+    return trusted_certs()
 
 
 def _trust_word(trusted: bool) -> str:
@@ -114,10 +113,10 @@ def _quiet_pyhanko():
         logging.getLogger(name).setLevel(logging.CRITICAL)
 
 
-def _verify_nb(nb_path: Path, trusted_fps: set[str]) -> tuple[dict, list[Any], list[str], str]:
+def _verify_nb(nb_path: Path, trusted: list[Any]) -> tuple[dict, list[Any], list[str], str]:
     nb = nbs.read_notebook(nb_path)
     digest = nbs.notebook_digest(nb)
-    sigs = nbs.verify_entries(nb, nb_path, trusted_fps, digest)
+    sigs = nbs.verify_entries(nb, nb_path, trusted, digest)
     problems = [f"notebook {s.role} ({s.signer}): {p}" for s in sigs for p in s.problems]
     problems += [f"notebook: {p}" for p in role_order_problems([(s.role, s.fingerprint, s.signer,
                                                                  s.message) for s in sigs])]
@@ -136,10 +135,10 @@ def verify_package(path: str | Path, thorough: bool = False) -> PackageStatus:
     if not p.is_file():
         raise InputError("PATH", str(path), "an existing calc-package .pdf or executed .ipynb")
     _quiet_pyhanko()
-    certs, fps = _trust()
+    certs = _trust()
     if p.suffix.lower() == ".ipynb":
         try:
-            nb, sigs, problems, _ = _verify_nb(p, fps)
+            nb, sigs, problems, _ = _verify_nb(p, certs)
         except nbs.MalformedNotebook as exc:        # not a notebook at all: bad input, not a changed one
             raise InputError("PATH", str(path), "an executed calc notebook (.ipynb JSON with cells)",
                              str(exc)) from None
@@ -173,7 +172,7 @@ def verify_package(path: str | Path, thorough: bool = False) -> PackageStatus:
         notes.append(f"no executed notebook {p.stem}.ipynb beside the PDF: the PDF alone was verified")
     else:
         try:
-            nb, nsigs, nprob, digest = _verify_nb(nb_path, fps)
+            nb, nsigs, nprob, digest = _verify_nb(nb_path, certs)
             problems += nprob
             base = pdfsign.base_revision_sha256(data)
             for s in psigs:

@@ -99,7 +99,7 @@ def _set_job_file(nb: dict, rel: str) -> None:
 
 def _signers(nb: dict, nb_path: Path) -> dict[str, str]:
     """role -> name of the valid signatures of the notebook (empty when unsigned or changed)."""
-    sigs = nbs.verify_entries(nb, nb_path, set())
+    sigs = nbs.verify_entries(nb, nb_path, [])
     if any(s.problems for s in sigs):
         return {}
     out = {s.role: s.signer for s in sigs}
