@@ -117,3 +117,27 @@ def test_splice_drawing_to_a_stated_scale(result):
         x0, x1 = ax.get_xlim()
         w_mm = ax.get_position().width * PRINT_WIDTH_MM
         assert (x1 - x0) / w_mm == pytest.approx(scale, rel=1e-6)                   # 1 mm on paper = scale mm
+
+
+@pytest.mark.parametrize("kind", ["splice", "connection"])
+def test_one_joint_packages_show_every_part(kind):
+    # the splice_only and end_connection templates call the same display functions on a JointResult
+    from splicecalc.workflow.single import run_end_connection, run_splice_only
+
+    if kind == "splice":
+        r = run_splice_only("406x178x60 UKB", "S355", 240.0, 30.0, 0.0, {"bolts": "M20 8.8"}, render=True)
+        fns = (part.show_joint_inputs, part.show_splices, part.show_summary, part.show_references, part.show_cautions)
+    else:
+        spec = {"at": "start", "connection": "end plate", "bolts": "M20 8.8",
+                "existing_member": {"designation": "existing column", "h": "254 mm", "b": "254 mm", "tw": "8.6 mm",
+                                    "tf": "14.2 mm", "r": "12.7 mm"},
+                "existing_face": "column flange", "existing_steel": "unknown"}
+        r = run_end_connection("406x178x60 UKB", "S355", 120.0, spec, render=True)
+        fns = (part.show_joint_inputs, part.show_connections, part.show_existing, part.show_summary,
+               part.show_references, part.show_cautions)
+    datas = []
+    for fn in fns:
+        datas += _published(fn, r)
+    shown = [d[CHECK_MIME]["id"] for d in datas if CHECK_MIME in d]
+    assert sorted(shown) == sorted(x.id for x in r.records)                 # every check once
+    assert any(d.get(TABLE_MIME, {}).get("kind") == "parts" for d in datas)

@@ -81,16 +81,19 @@ def job_parts(result: Any) -> tuple[Part, ...]:
 
     Every record of ``result.records`` is in exactly one part (asserted).
     """
-    d = result.design
-    job = result.job
-    out = [Part("member", "member", f"Beam {d.section.designation} {job.beam.grade}, span "
-                f"{job.beam.span / 1000:g} m", tuple(result.member_records))]
-    if result.position_records:
+    d = getattr(result, "design", None)      # a one-joint package (workflow.single) has no beam design
+    out: list[Part] = []
+    if d is not None:
+        job = result.job
+        out.append(Part("member", "member", f"Beam {d.section.designation} {job.beam.grade}, span "
+                        f"{job.beam.span / 1000:g} m", tuple(result.member_records)))
+    if getattr(result, "position_records", ()):
         out.append(Part("positions", "positions", "Splice positions and pieces", tuple(result.position_records)))
     if getattr(result, "slip_checks", ()):
         out.append(Part("slip", "positions", "Deflection with splice slip (category A)", tuple(result.slip_checks)))
     for s in result.splices:
-        out.append(Part(s.label, "splice", f"Splice {s.label} at x = {s.x_mm / 1000:.3f} m", tuple(s.records),
+        where = f" at x = {s.x_mm / 1000:.3f} m" if math.isfinite(s.x_mm) else ""
+        out.append(Part(s.label, "splice", f"Splice {s.label}{where}", tuple(s.records),
                         prefix=f"Splice {s.label}"))
     for c in result.connections:
         out.append(Part(c.end, "connection", f"End connection {c.end} ({c.spec.connection.replace('_', ' ')})",
