@@ -405,7 +405,13 @@ def render_line_load(combo: Combination, loads: Sequence[Load], span_mm: float,
     q_k2 = full(second[0]) if second else 0.0
     p1 = first[1] if first else PsiFactors(0.0, 0.0, 0.0)
     p2 = second[1] if second else PsiFactors(0.0, 0.0, 0.0)
-    if k == "6.10":
+    if second is None and k == "6.10":           # no accompanying full-span action: no zero term shown
+        w = calc(fm.w_Ed_610_1, g_k=g_k, q_k1=q_k1, gamma_G=na.gamma_G, gamma_Q=na.gamma_Q)
+    elif second is None and k == "6.10a":
+        w = calc(fm.w_Ed_610a_1, g_k=g_k, q_k1=q_k1, gamma_G=na.gamma_G, gamma_Q=na.gamma_Q, psi_01=p1.psi_0)
+    elif second is None and k == "6.10b":
+        w = calc(fm.w_Ed_610b_1, g_k=g_k, q_k1=q_k1, xi=na.xi, gamma_G=na.gamma_G, gamma_Q=na.gamma_Q)
+    elif k == "6.10":
         w = calc(fm.w_Ed_610, g_k=g_k, q_k1=q_k1, q_k2=q_k2, gamma_G=na.gamma_G, gamma_Q=na.gamma_Q,
                  psi_02=p2.psi_0)
     elif k == "6.10a":

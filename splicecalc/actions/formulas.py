@@ -7,7 +7,8 @@ actions are added with :func:`w_acc`. Loads act unfavourably (all downward on a
 simply supported span), so gamma_G,sup applies.
 
 Public API: :func:`w_Ed_610`, :func:`w_Ed_610a`, :func:`w_Ed_610b`, :func:`w_k_char`,
-:func:`w_k_freq`, :func:`w_k_qp`, :func:`w_acc`.
+:func:`w_k_freq`, :func:`w_k_qp`, :func:`w_acc`; ``..._1`` variants for one variable action on the
+full span (the rendered line then carries no zero accompanying term).
 """
 
 from __future__ import annotations
@@ -42,6 +43,34 @@ def w_Ed_610b(g_k: float, q_k1: float, q_k2: float, xi: float, gamma_G: float, g
               psi_02: float) -> float:
     """ULS design line load, EN 1990 Eq. (6.10b): xi gamma_G G + gamma_Q Q1 + gamma_Q psi_0 Q2."""
     w_Ed = xi * gamma_G * g_k + gamma_Q * q_k1 + gamma_Q * psi_02 * q_k2
+    return w_Ed
+
+
+_W1 = {"g_k": "N/mm", "q_k1": "N/mm"}
+_EX1 = dict(g_k=5.0, q_k1=10.0)
+
+
+@clause("EN 1990:2002, 6.4.3.2, Table A1.2(B), Eq. (6.10)", units=_W1, returns="N/mm",
+        example=dict(_EX1, gamma_G=1.35, gamma_Q=1.5))
+def w_Ed_610_1(g_k: float, q_k1: float, gamma_G: float, gamma_Q: float) -> float:
+    """Eq. (6.10) with one variable action on the full span (no accompanying term to show)."""
+    w_Ed = gamma_G * g_k + gamma_Q * q_k1
+    return w_Ed
+
+
+@clause("EN 1990:2002, 6.4.3.2, Table A1.2(B), Eq. (6.10a)", units=_W1, returns="N/mm",
+        example=dict(_EX1, gamma_G=1.35, gamma_Q=1.5, psi_01=0.7))
+def w_Ed_610a_1(g_k: float, q_k1: float, gamma_G: float, gamma_Q: float, psi_01: float) -> float:
+    """Eq. (6.10a) with one variable action on the full span."""
+    w_Ed = gamma_G * g_k + gamma_Q * psi_01 * q_k1
+    return w_Ed
+
+
+@clause("EN 1990:2002, 6.4.3.2, Table A1.2(B), Eq. (6.10b)", units=_W1, returns="N/mm",
+        example=dict(_EX1, xi=0.925, gamma_G=1.35, gamma_Q=1.5))
+def w_Ed_610b_1(g_k: float, q_k1: float, xi: float, gamma_G: float, gamma_Q: float) -> float:
+    """Eq. (6.10b) with one variable action on the full span."""
+    w_Ed = xi * gamma_G * g_k + gamma_Q * q_k1
     return w_Ed
 
 
