@@ -146,8 +146,12 @@ def draw_connection_data(data: dict[str, Any]) -> Any:
                 arrowprops=dict(arrowstyle="-", linewidth=0.4), **txt)
     ax.text(x_left, y_top + 4, "ELEVATION", ha="left", va="bottom", fontsize=7, fontweight="bold",
             family="sans-serif")
-    ax.text(x_left, y_bot + 6, f"existing: {ex['designation'] or 'member'}\n({face})", ha="left", va="bottom",
-            **txt)
+    if face == "beam web":
+        ax.text(x_left, y_bot + 6, f"existing: {ex['designation'] or 'member'}\n({face})", ha="left", va="bottom",
+                **txt)
+    else:                                   # along the column, left of its face, clear of the bolts
+        ax.text(x_left + 2, y_bot + 10, f"existing: {ex['designation'] or 'member'} ({face})", rotation=90,
+                ha="left", va="bottom", **txt)
     x_right = max(x0 + L + 12, xd + 150)
 
     # ------------------------------------------------------------------ second view
