@@ -545,7 +545,12 @@ def test_thorough_check_agrees_with_the_quick_one(signed, tmp_path):
 
 
 # ----------------------------------------------------------------- order, failing checks, issue
-def test_sign_refuses_out_of_order_and_same_person_needs_a_reason(env, tmp_path):
+def test_sign_refuses_out_of_order_and_same_person_needs_a_reason(env, tmp_path, monkeypatch):
+    # both of A's keys trusted here (a sole practitioner's second key); the session's list trusts only "a"
+    monkeypatch.setenv(keys.TRUST_DIR_ENV, str(tmp_path / "trust"))
+    for k in ("a", "a2"):
+        keys.export_cert(_k(env, k), tmp_path / f"{k}.pem")
+        keys.trust_cert(tmp_path / f"{k}.pem")
     d = _fresh(env["built"], tmp_path)
     pdf = d / f"{NAME}.pdf"
     with pytest.raises(InputError, match="checked without a prepared"):
@@ -761,3 +766,20 @@ def test_key_from_the_firms_ca_is_trusted_through_the_ca(env, tmp_path):
         assert st.pdf[0].trusted and st.notebook[0].trusted
     finally:
         (Path(os.environ[keys.TRUST_DIR_ENV]) / f"{keys.cert_fingerprint(ca)}.pem").unlink()
+
+
+def test_untrusted_key_in_a_trusted_name_is_not_valid(env, tmp_path):
+    """Anyone can make a key in any name: a second, untrusted key in the name of a trusted
+    certificate (A. Preparer, trusted as key "a") is an impostor's mark, never VALID."""
+    d = _fresh(env["built"], tmp_path)
+    pdf = d / f"{NAME}.pdf"
+    sign_package(pdf, "prepared", _k(env, "a2"))          # a2: "A. Preparer", not in the trust list
+    for target in (pdf, d / f"{NAME}.ipynb"):
+        st = verify_package(target)
+        assert st.state == "changed" and st.exit_code == 1, st.lines
+        assert "not in the trust list, although a trusted certificate carries that name" in st.lines[0]
+    # an untrusted key in a name nobody trusts stays "valid but untrusted signer"
+    d2 = _fresh(env["built"], tmp_path, "pkg2")
+    sign_package(d2 / f"{NAME}.pdf", "prepared", _k(env, "b"))
+    st = verify_package(d2 / f"{NAME}.pdf")
+    assert st.state == "valid" and "valid but untrusted signer" in st.lines[1], st.lines

@@ -102,6 +102,20 @@ def _trust() -> list[Any]:
     return trusted_certs()
 
 
+def impostor_problems(kind: str, sigs: list[Any], certs: list[Any]) -> list[str]:
+    """Valid signatures by an untrusted key whose name is that of a trusted certificate.
+
+    Anyone can make a key in any name (``keys new``); a second key in a trusted colleague's name is
+    what an impostor shows, so it is a problem, not "valid but untrusted"."""
+    from .keys import cert_name
+
+    names = {cert_name(c).strip().casefold() for c in certs}
+    return [f"{kind} {s.role} ({s.signer}): signed with a key that is not in the trust list, although a trusted "
+            f"certificate carries that name (an impostor, or a new key of theirs: confirm it with them, then "
+            f"splicecalc keys trust THEIR.pem)"
+            for s in sigs if s.valid and not s.trusted and s.signer.strip().casefold() in names]
+
+
 def _trust_word(trusted: bool) -> str:
     return "trusted" if trusted else "valid but untrusted signer"
 
@@ -118,6 +132,7 @@ def _verify_nb(nb_path: Path, trusted: list[Any]) -> tuple[dict, list[Any], list
     digest = nbs.notebook_digest(nb)
     sigs = nbs.verify_entries(nb, nb_path, trusted, digest)
     problems = [f"notebook {s.role} ({s.signer}): {p}" for s in sigs for p in s.problems]
+    problems += impostor_problems("notebook", sigs, trusted)
     problems += [f"notebook: {p}" for p in role_order_problems([(s.role, s.fingerprint, s.signer,
                                                                  s.message) for s in sigs])]
     for s in sigs:
@@ -162,6 +177,7 @@ def verify_package(path: str | Path, thorough: bool = False) -> PackageStatus:
     if not psigs:
         return PackageStatus(p, "unsigned", [f"UNSIGNED: {p.name} has no signatures"])
     problems = [f"PDF {s.role} ({s.signer}): {x}" for s in psigs for x in s.problems]
+    problems += impostor_problems("PDF", [s for s in psigs if s.intact], certs)
     problems += [f"PDF: {x}" for x in role_order_problems([(s.role, s.fingerprint, s.signer, s.tag) for s in psigs])]
     if psigs and not psigs[0].certified:
         problems.append("PDF: the first signature does not certify the document")
