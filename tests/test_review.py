@@ -390,3 +390,29 @@ def test_open_comments_ok_is_recorded_in_the_signature(built, tmp_path, signers)
     st = verify_package(pdf)
     assert st.state == "valid"
     assert any("open review comments accepted: queries R1-R4 are for the next stage" in line for line in st.lines)
+
+
+@pdf_mark
+def test_sheet_beyond_the_package_and_a_mark_up_of_another_job_are_refused(built, tmp_path):
+    from pypdf import PdfReader, PdfWriter
+    from pypdf.annotations import Text
+
+    npages = built.report.pages
+    with pytest.raises(InputError, match=f"1 to {npages}"):
+        add_comment(built.pdf, on=f"sheet {npages + 1}", by="B. Checker", text="no such sheet")
+    # another job's package, marked up, handed to this package's register: refused, nothing imported
+    before = len(Register.for_job(built.pdf.parent / "job.toml").comments())
+    w = PdfWriter(clone_from=PdfReader(str(built.pdf)))
+    w.add_metadata({"/Subject": "Another client, another site, job OTHER-1"})
+    w.add_annotation(page_number=0, annotation=Text(rect=(100, 100, 118, 118), text="meant for another job"))
+    other = tmp_path / "other_marked.pdf"
+    with open(other, "wb") as fh:
+        w.write(fh)
+    with pytest.raises(InputError, match="another job"):
+        import_markups(built.pdf, other, by="B. Checker")
+    assert len(Register.for_job(built.pdf.parent / "job.toml").comments()) == before
+    # a file that is no PDF: one line on stderr, none of its bytes echoed by the PDF reader
+    notpdf = tmp_path / "passwd.pdf"
+    notpdf.write_text("root:x:0:0:root:/root:/bin/bash\n", encoding="utf-8")
+    r = cli("review", "import", str(built.pdf), str(notpdf), "--by", "B. Checker")
+    assert r.returncode == 2 and r.stderr.count("\n") == 1 and "Traceback" not in r.stderr, r.stderr

@@ -19,12 +19,40 @@ from .register import (Comment, Register, RegisterError, check_basis, comment_fl
                        target_label)
 
 
+def _package_pdf(pkg: ReviewPackage) -> Path | None:
+    """The package's built PDF: the one named, or the PDF beside its notebook or job file."""
+    for cand in (pkg.pdf, pkg.notebook and pkg.notebook.with_suffix(".pdf"), pkg.job_file.with_suffix(".pdf")):
+        if cand is not None and cand.is_file():
+            return cand
+    return None
+
+
+def _pdf_facts(path: Path | None) -> tuple[int, str] | None:
+    """(number of sheets, /Subject: title-block client, location and job number) of a PDF, or None."""
+    if path is None:
+        return None
+    import logging
+
+    from pypdf import PdfReader
+
+    logging.getLogger("pypdf").setLevel(logging.ERROR)
+    try:
+        r = PdfReader(str(path))
+        return len(r.pages), str((r.metadata or {}).get("/Subject") or "")
+    except Exception:   # noqa: BLE001 - an unreadable PDF is reported by whoever reads it in full
+        return None
+
+
 def add_comment(package: str | os.PathLike, *, on: str, by: str, text: str) -> Comment:
     """Add a comment on a check id, a sheet or the whole package."""
     pkg = locate(package)
     records = pkg.records()
     ids = None if records is None else [r.get("id") for r in records]
     target = parse_target(on, ids)
+    if target["kind"] == "sheet":
+        facts = _pdf_facts(_package_pdf(pkg))
+        if facts is not None and target["sheet"] > facts[0]:
+            raise InputError("--on", on, f"a sheet of this package: 1 to {facts[0]}")
     basis = None
     if target["kind"] == "check" and records is not None:
         basis = next((check_basis(r) for r in records if r.get("id") == target["id"]), None)
@@ -40,6 +68,10 @@ class ImportResult:
 def import_markups(package: str | os.PathLike, annotated_pdf: str | os.PathLike, *, by: str) -> ImportResult:
     """Read the mark-ups of ``annotated_pdf`` into the package's register (each mark-up once)."""
     pkg = locate(package)
+    mine, theirs = _pdf_facts(_package_pdf(pkg)), _pdf_facts(Path(annotated_pdf))
+    if mine and theirs and mine[1] and theirs[1] and mine[1] != theirs[1]:
+        raise InputError("ANNOTATED_PDF", str(annotated_pdf), f"a mark-up of this package ({mine[1][:80]})",
+                         f"it is a mark-up of another job ({theirs[1][:80]})")
     records = pkg.records() or []
     back = {anchor_name(str(r.get("id")))[len("chk-"):]: str(r.get("id")) for r in records}
     marks = read_markups(annotated_pdf, back)

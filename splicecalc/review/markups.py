@@ -136,6 +136,9 @@ def read_markups(pdf: str | os.PathLike, check_ids: dict[str, str] | None = None
     from pypdf import PdfReader
     from pypdf.errors import PdfReadError
 
+    import logging
+
+    logging.getLogger("pypdf").setLevel(logging.ERROR)   # its warnings are not the one-line error below
     path = Path(pdf)
     try:
         reader = PdfReader(str(path))
