@@ -162,6 +162,10 @@ def build_parser() -> argparse.ArgumentParser:
     if review:
         review(sub)
 
+    compare = _optional("splicecalc.cli.compare", "add_parser")
+    if compare:
+        compare(sub)
+
     pkg = _optional("splicecalc.cli.package", "add_parsers")
     if pkg:
         pkg(sub)

@@ -734,26 +734,35 @@ def _part_verdict(records: Any) -> str:
     return "NOT OK" if bad else ("NOT CHECKED" if gap else "OK")
 
 
+def parts_table(result: CalcResult) -> TableOutput:
+    """The summary by part (governing check of each); its data also carries the grouping itself
+    (``workflow.parts.parts_index``: part keys and record ids) for ``splicecalc compare``."""
+    from .parts import job_parts, parts_index
+
+    parts = job_parts(result)
+    rows = []
+    for part in parts:
+        g = part.governing
+        if g is None:
+            continue
+        rows.append([part.title, f"{part.short_title(g)} ({g.clause})", str(len(part.records)),
+                     fmt_utilisation(g.utilisation), _part_verdict(part.records)])
+    table = TableOutput(["Part", "Governing check (clause)", "Checks", "Util.", "Verdict"], rows, align="llrrl",
+                        title="Summary by part: the governing check of each", kind="parts")
+    table.payload["parts"] = parts_index(parts)
+    return table
+
+
 def show_summary(result: CalcResult) -> None:
     """The governing check of each part (member, positions, each splice, each end connection, each
     existing member), then every record of the package, highest utilisation first (each listed once)."""
-    from .parts import job_parts
-
     recs = result.summary_records
     gov = result.governing
     # never "all checks pass" over a NOT CHECKED record; gaps are counted apart from failures
     show_text(f"**{verdict_sentence(recs)}** "
               + (f"Governing: {gov.title} (utilisation {fmt_utilisation(gov.utilisation)}). " if gov else "")
               + result.headline + ".")
-    rows = []
-    for part in job_parts(result):
-        g = part.governing
-        if g is None:
-            continue
-        rows.append([part.title, f"{part.short_title(g)} ({g.clause})", str(len(part.records)),
-                     fmt_utilisation(g.utilisation), _part_verdict(part.records)])
-    publish(TableOutput(["Part", "Governing check (clause)", "Checks", "Util.", "Verdict"], rows, align="llrrl",
-                        title="Summary by part: the governing check of each", kind="parts"))
+    publish(parts_table(result))
     publish(summary_output(recs, title=f"Summary of the {len(recs)} checks (highest utilisation first)"))
 
 

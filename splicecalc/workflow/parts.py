@@ -109,6 +109,21 @@ def job_parts(result: Any) -> tuple[Part, ...]:
     return tuple(out)
 
 
+def parts_index(parts: tuple[Part, ...]) -> list[dict[str, Any]]:
+    """The grouping as data (part key, kind, title, record-title prefix, record ids in order): published
+    with the package's summary by part, so that a notebook alone is read by part (``splicecalc compare``)."""
+    return [{"part": p.key, "kind": p.kind, "title": p.title, "prefix": p.prefix, "ids": [r.id for r in p.records]}
+            for p in parts]
+
+
+def parts_from_index(index: list[dict[str, Any]], records: dict[str, CheckRecord]) -> tuple[Part, ...]:
+    """The :class:`Part` s of a published :func:`parts_index`, with the records (by id) read back with them;
+    an id without a record is left out (the index and the records come from the same notebook)."""
+    return tuple(Part(str(p["part"]), str(p["kind"]), str(p["title"]),
+                      tuple(records[i] for i in p["ids"] if i in records), prefix=str(p.get("prefix", "")))
+                 for p in index)
+
+
 def _kits(result: Any) -> list:
     """The splice kits of the plan (None for each splice when the result has no plan)."""
     plan = getattr(result, "splice_plan", None)
@@ -164,4 +179,4 @@ def whole_job_dict(result: Any, source: str = "") -> dict[str, Any]:
     return out
 
 
-__all__ = ["KINDS", "Part", "job_parts", "whole_job_dict"]
+__all__ = ["KINDS", "Part", "job_parts", "parts_from_index", "parts_index", "whole_job_dict"]

@@ -1,0 +1,289 @@
+"""Two revisions of a calc package side by side, for the checker (``splicecalc compare OLD NEW``).
+
+Pure functions on executed notebook dicts (no file access here; the command reads the files):
+
+* changed inputs: the job inputs each notebook published under
+  :data:`splicecalc.signoff.digest.JOB_MIME`, compared key by key (``beam.span``,
+  ``load[2].udl``; list items numbered from 1 as in the job file), values as written
+  there, units included (``"7.5 kN/m"``);
+* moved checks: checks made in both whose utilisation moved by more than
+  :data:`MOVE_THRESHOLD`, or whose verdict changed (OK / NOT OK / NOT CHECKED / INFO);
+* checks added and removed, by check id (records read with
+  :func:`splicecalc.signoff.digest.collect_records`);
+* the governing check of each part before and after: the parts are the package's own
+  grouping (:mod:`splicecalc.workflow.parts`), published with its summary by part
+  (``parts_index``) and read back with ``parts_from_index``; nothing is regrouped here.
+
+Nothing is recomputed: every number is one a notebook printed.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Any
+
+from ..core.errors import InputError
+from ..core.record import CHECKED, INFO, KEY_TAG, CheckRecord
+from ..report.display import TABLE_MIME
+from ..signoff.digest import JOB_MIME, collect_records, job_inputs
+from ..workflow.parts import Part, parts_from_index
+
+#: utilisation change a checker is shown (absolute, dimensionless)
+MOVE_THRESHOLD = 0.005
+
+
+@dataclass(frozen=True)
+class Revision:
+    """What one executed calc notebook published: job inputs, records by id, parts (or None)."""
+
+    name: str
+    revision: str
+    job: dict[str, Any]
+    records: dict[str, dict[str, Any]]
+    parts: tuple[Part, ...] | None
+
+
+def _tables(nb: dict[str, Any]):
+    for cell in nb.get("cells", []):
+        if not isinstance(cell, dict) or cell.get("cell_type") != "code":
+            continue
+        for out in cell.get("outputs", []) or []:
+            data = out.get("data") if isinstance(out, dict) else None
+            if isinstance(data, dict) and isinstance(data.get(TABLE_MIME), dict):
+                yield data[TABLE_MIME]
+
+
+def _has_job(nb: dict[str, Any]) -> bool:
+    return any(isinstance(out, dict) and isinstance(out.get("data"), dict) and JOB_MIME in out["data"]
+               for cell in nb.get("cells", []) if isinstance(cell, dict)
+               for out in (cell.get("outputs") or []))
+
+
+def _record_from_dict(d: dict[str, Any]) -> CheckRecord:
+    """A published record as a :class:`CheckRecord` (the numbers the grouping's ``governing`` needs)."""
+    status = d.get("status", CHECKED)
+    u = d.get("utilisation")
+    util = float(u) if isinstance(u, (int, float)) and not isinstance(u, bool) else 0.0
+    return CheckRecord(id=str(d.get("id", "")), title=str(d.get("title", "")), clause=str(d.get("clause", "")),
+                       demand=math.nan, resistance=math.nan, unit=str(d.get("unit", "")), utilisation=util,
+                       ok=bool(d.get("ok", False)), status=str(status))
+
+
+def read_revision(nb: Any, name: str = "notebook", which: str = "notebook") -> Revision:
+    """Read what a calc notebook published; :class:`InputError` (field ``which``, value ``name``) when
+    ``nb`` is not an executed calc notebook."""
+    if not isinstance(nb, dict) or not isinstance(nb.get("cells"), list):
+        raise InputError(which, name, "a Jupyter notebook (.ipynb) with a list of cells")
+    recs = collect_records(nb)
+    if not _has_job(nb):
+        raise InputError(which, name, "an executed splicecalc calc notebook",
+                         "This is not a calc notebook: it publishes no job inputs"
+                         + ("" if recs else " and no check records")
+                         + " (give the notebook `splicecalc build` wrote beside the PDF, or build the package)")
+    records: dict[str, dict[str, Any]] = {}
+    for r in recs:
+        if not isinstance(r, dict) or not isinstance(r.get("id"), str):
+            raise InputError(which, name, "a calc notebook whose check records have ids",
+                             "A check record without an id: was the notebook edited by hand?")
+        records.setdefault(r["id"], r)
+    parts = None
+    index = next((t["parts"] for t in _tables(nb) if t.get("kind") == "parts" and isinstance(t.get("parts"), list)),
+                 None)
+    if index is not None:
+        objs = {i: _record_from_dict(r) for i, r in records.items()}
+        try:
+            parts = parts_from_index(index, objs)
+        except (KeyError, TypeError):
+            raise InputError(which, name, "a calc notebook with the summary by part as the package writes it",
+                             "Was the notebook edited by hand?") from None
+    job = job_inputs(nb)
+    meta = nb.get("metadata", {}).get("splicecalc", {}) if isinstance(nb.get("metadata"), dict) else {}
+    rev = (meta.get("revision") if isinstance(meta, dict) else None) or (job.get("project") or {}).get("revision", "")
+    return Revision(name=name, revision=str(rev or ""), job=job, records=records, parts=parts)
+
+
+# ----------------------------------------------------------------- inputs
+def flatten_inputs(job: Any, prefix: str = "") -> dict[str, Any]:
+    """Job inputs as ``path -> value`` (``beam.span``, ``load[2].udl``, ``beam.restraints[1]``)."""
+    out: dict[str, Any] = {}
+    if isinstance(job, dict):
+        for k, v in job.items():
+            out.update(flatten_inputs(v, f"{prefix}.{k}" if prefix else str(k)))
+    elif isinstance(job, list) and job and all(isinstance(x, dict) for x in job):
+        for i, v in enumerate(job, 1):
+            out.update(flatten_inputs(v, f"{prefix}[{i}]"))
+    elif isinstance(job, list):
+        out[prefix] = list(job)
+    else:
+        out[prefix] = job
+    return out
+
+
+def changed_inputs(old: dict[str, Any], new: dict[str, Any]) -> list[dict[str, Any]]:
+    """Every input path whose value differs (None where a side does not have it), in job-file order."""
+    a, b = flatten_inputs(old), flatten_inputs(new)
+    keys = list(a) + [k for k in b if k not in a]
+    return [{"input": k, "old": a.get(k), "new": b.get(k)} for k in keys if a.get(k) != b.get(k)]
+
+
+# ----------------------------------------------------------------- checks
+def _verdict(r: dict[str, Any]) -> str:
+    status = r.get("status", CHECKED)
+    if status != CHECKED:
+        return "INFO" if status == INFO else "NOT CHECKED"
+    return "OK" if r.get("ok") else "NOT OK"
+
+
+def _util(r: dict[str, Any]) -> float | None:
+    u = r.get("utilisation")
+    if r.get("status", CHECKED) != CHECKED or not isinstance(u, (int, float)) or isinstance(u, bool):
+        return None
+    return float(u)
+
+
+def _tag(unit: str) -> str:
+    t = KEY_TAG.get(unit, unit.replace("/", "_per_"))
+    return f"_{t}" if t else ""
+
+
+def _brief(r: dict[str, Any]) -> dict[str, Any]:
+    """A record as the comparison lists it: id, title, clause, unit-tagged demand and resistance."""
+    sfx = _tag(str(r.get("unit", "")))
+    return {"id": r["id"], "title": r.get("title", ""), "clause": r.get("clause", ""), "unit": r.get("unit", ""),
+            f"demand{sfx}": r.get(f"demand{sfx}"), f"resistance{sfx}": r.get(f"resistance{sfx}"),
+            "utilisation": _util(r), "verdict": _verdict(r)}
+
+
+def moved_checks(old: dict[str, dict], new: dict[str, dict], threshold: float = MOVE_THRESHOLD) -> list[dict]:
+    """Checks in both revisions whose utilisation moved by more than ``threshold`` or whose verdict
+    changed; largest move first. Demand and resistance keys carry each side's unit."""
+    out = []
+    for i, a in old.items():
+        b = new.get(i)
+        if b is None:
+            continue
+        ua, ub = _util(a), _util(b)
+        moved = ua is not None and ub is not None and abs(ub - ua) > threshold * (1 + 1e-9)
+        if not (moved or _verdict(a) != _verdict(b)):
+            continue
+        sa, sb = _tag(str(a.get("unit", ""))), _tag(str(b.get("unit", "")))
+        out.append({"id": i, "title": b.get("title", ""), "clause": b.get("clause", ""),
+                    f"old_demand{sa}": a.get(f"demand{sa}"), f"new_demand{sb}": b.get(f"demand{sb}"),
+                    f"old_resistance{sa}": a.get(f"resistance{sa}"), f"new_resistance{sb}": b.get(f"resistance{sb}"),
+                    "old_utilisation": ua, "new_utilisation": ub,
+                    "change_utilisation": None if ua is None or ub is None else round(ub - ua, 6),
+                    "old_verdict": _verdict(a), "new_verdict": _verdict(b)})
+    out.sort(key=lambda d: -abs(d["change_utilisation"] or 0.0))
+    return out
+
+
+def _gov(p: Part | None) -> dict[str, Any] | None:
+    g = p.governing if p is not None else None
+    return None if g is None else {"id": g.id, "title": p.short_title(g), "clause": g.clause,
+                                   "utilisation": round(g.utilisation, 6)}
+
+
+def governing_by_part(old: Revision, new: Revision, threshold: float = MOVE_THRESHOLD) -> list[dict[str, Any]] | None:
+    """Each part (by key, old order then new parts) with its governing check before and after
+    (``changed``: another check governs, or its utilisation moved by more than ``threshold``);
+    None when either notebook does not carry the grouping (built before it was published)."""
+    if old.parts is None or new.parts is None:
+        return None
+    a = {p.key: p for p in old.parts}
+    b = {p.key: p for p in new.parts}
+    keys = list(a) + [k for k in b if k not in a]
+    out = []
+    for k in keys:
+        ga, gb = _gov(a.get(k)), _gov(b.get(k))
+        other = (ga or {}).get("id") != (gb or {}).get("id")
+        moved = ga is not None and gb is not None and abs(gb["utilisation"] - ga["utilisation"]) > threshold * (1 + 1e-9)
+        out.append({"part": k, "title": (b.get(k) or a[k]).title, "old": ga, "new": gb,
+                    "governing_changed": other, "changed": other or moved})
+    return out
+
+
+def compare_revisions(old_nb: Any, new_nb: Any, *, old_name: str = "OLD", new_name: str = "NEW",
+                      threshold: float = MOVE_THRESHOLD) -> dict[str, Any]:
+    """The whole comparison as JSON-ready data (see the module docstring); ``changed`` says whether
+    anything differs (inputs, moved / added / removed checks, a part's governing check)."""
+    if not (isinstance(threshold, (int, float)) and 0.0 <= threshold < 1.0):
+        raise InputError("threshold", threshold, "a utilisation change from 0 to below 1, e.g. 0.005")
+    a, b = read_revision(old_nb, old_name, "OLD"), read_revision(new_nb, new_name, "NEW")
+    added = [_brief(r) for i, r in b.records.items() if i not in a.records]
+    removed = [_brief(r) for i, r in a.records.items() if i not in b.records]
+    inputs = changed_inputs(a.job, b.job)
+    moved = moved_checks(a.records, b.records, threshold)
+    parts = governing_by_part(a, b, threshold)
+    changed = bool(inputs or moved or added or removed or any(p["changed"] for p in parts or ()))
+    return {
+        "old": {"name": a.name, "revision": a.revision, "checks_count": len(a.records)},
+        "new": {"name": b.name, "revision": b.revision, "checks_count": len(b.records)},
+        "threshold_utilisation": threshold,
+        "changed": changed,
+        "changed_inputs": inputs,
+        "moved_checks": moved,
+        "added_checks": added,
+        "removed_checks": removed,
+        "governing_by_part": parts,
+    }
+
+
+# ----------------------------------------------------------------- text
+def _cell(v: Any) -> str:
+    if v is None:
+        return "-"
+    if isinstance(v, float):
+        return f"{v:.3f}"
+    if isinstance(v, list):
+        return "[" + ", ".join(str(x) for x in v) + "]"
+    return str(v)
+
+
+def _table(title: str, head: list[str], rows: list[list[str]]) -> list[str]:
+    if not rows:
+        return [f"{title}: none"]
+    w = [max(len(h), *(len(r[i]) for r in rows)) for i, h in enumerate(head)]
+    fmt = "  " + "  ".join(f"{{:<{n}}}" for n in w)
+    return [f"{title} ({len(rows)})", fmt.format(*head).rstrip(), *(fmt.format(*r).rstrip() for r in rows)]
+
+
+def _u(x: float | None) -> str:
+    return "-" if x is None else f"{x:.3f}"
+
+
+def comparison_text(c: dict[str, Any]) -> str:
+    """One short table per section of :func:`compare_revisions`."""
+    o, n = c["old"], c["new"]
+    lines = [f"Compare {o['name']} (revision {o['revision'] or '-'}, {o['checks_count']} checks) -> "
+             f"{n['name']} (revision {n['revision'] or '-'}, {n['checks_count']} checks)", ""]
+    lines += _table("Changed inputs", ["Input", "Old", "New"],
+                    [[d["input"], _cell(d["old"]), _cell(d["new"])] for d in c["changed_inputs"]])
+    lines.append("")
+    lines += _table(f"Checks moved by more than {c['threshold_utilisation']:g} in utilisation, or with a new verdict",
+                    ["Check", "Old", "New", "Change", "Verdict"],
+                    [[d["id"], _u(d["old_utilisation"]), _u(d["new_utilisation"]),
+                      "-" if d["change_utilisation"] is None else f"{d['change_utilisation']:+.3f}",
+                      d["new_verdict"] if d["old_verdict"] == d["new_verdict"]
+                      else f"{d['old_verdict']} -> {d['new_verdict']}"] for d in c["moved_checks"]])
+    for key, title in (("added_checks", "Checks added"), ("removed_checks", "Checks removed")):
+        lines.append("")
+        lines += _table(title, ["Check", "Title", "Util.", "Verdict"],
+                        [[d["id"], d["title"], _u(d["utilisation"]), d["verdict"]] for d in c[key]])
+    lines.append("")
+    parts = c["governing_by_part"]
+    if parts is None:
+        lines.append("Governing check by part: not available (a notebook was built before the summary by part "
+                     "carried its grouping; rebuild it)")
+    else:
+        def g(x: dict | None) -> str:
+            return "-" if x is None else f"{x['id']} {x['utilisation']:.3f}"
+        lines += _table("Governing check by part", ["Part", "Before", "After", ""],
+                        [[p["part"], g(p["old"]), g(p["new"]), "another check" if p["governing_changed"]
+                          else ("moved" if p["changed"] else "")] for p in parts])
+    lines += ["", "Changes found." if c["changed"] else "No change."]
+    return "\n".join(lines)
+
+
+__all__ = ["MOVE_THRESHOLD", "Revision", "changed_inputs", "compare_revisions", "comparison_text", "flatten_inputs",
+           "governing_by_part", "moved_checks", "read_revision"]
