@@ -198,3 +198,18 @@ def test_canonical_toml_round_trip_property(span, w, frac, P, n_restr, cat):
         assert a.total(span) == pytest.approx(b.total(span), rel=1e-10)
     assert again.beam.restraints == pytest.approx(job.beam.restraints, rel=1e-11)
     assert again.to_toml() == job.to_toml()
+
+
+def test_a_byte_order_mark_is_not_an_error(tmp_path):
+    # Windows editors save UTF-8 with a byte-order mark (U+FEFF, Unicode Standard 3.10); the job is the same
+    src = Path(__file__).resolve().parents[1] / "examples" / "demo_workshop_gallery.toml"
+    plain = load_job(src)
+    bom = tmp_path / "bom.toml"
+    bom.write_bytes(b"\xef\xbb\xbf" + src.read_bytes())
+    job = load_job(bom)
+    assert job.project == plain.project and job.beam == plain.beam
+    # a BOM-free file that is not UTF-8 is still refused, naming the byte
+    bad = tmp_path / "latin1.toml"
+    bad.write_bytes(src.read_bytes().replace(b"Gallery", b"Gall\xe9ry", 1))
+    with pytest.raises(InputError, match="not UTF-8"):
+        load_job(bad)

@@ -383,7 +383,7 @@ def load_job(path: str | os.PathLike) -> Job:
     except OSError as err:
         raise InputError("job file", str(p), f"a readable file ({err.strerror or err})") from None
     try:
-        text = raw.decode("utf-8")
+        text = raw.decode("utf-8-sig")     # a byte-order mark (Windows editors write one) is not TOML
     except UnicodeDecodeError as err:
         raise InputError("job file", str(p), f"UTF-8 text (byte {err.start + 1} is not UTF-8)",
                          "Save the file as UTF-8") from None
