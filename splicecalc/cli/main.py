@@ -166,6 +166,10 @@ def build_parser() -> argparse.ArgumentParser:
     if compare:
         compare(sub)
 
+    batch = _optional("splicecalc.cli.batch", "add_parser")
+    if batch:
+        batch(sub)
+
     pkg = _optional("splicecalc.cli.package", "add_parsers")
     if pkg:
         pkg(sub)
