@@ -464,6 +464,9 @@ def test_calc_sheet_shows_existing_loads_basis_cautions_and_gaps():
     parts = next(d[TABLE_MIME] for d in datas if TABLE_MIME in d and d[TABLE_MIME].get("kind") == "parts")
     verdicts = {row[0]: row[-1] for row in parts["rows"]}
     assert any(v == "NOT CHECKED" for v in verdicts.values())            # gaps, not failures
+    # a NOT CHECKED part names what is not checked beside its highest utilisation (not only a passing check)
+    for row in parts["rows"]:
+        assert row[-1] == "NOT OK" or ("NOT CHECKED: " in row[1]) == (row[-1] == "NOT CHECKED"), row
 
 
 # ------------------------------------------------------------------ robustness (no traceback, any valid input)

@@ -745,7 +745,10 @@ def parts_table(result: CalcResult) -> TableOutput:
         g = part.governing
         if g is None:
             continue
-        rows.append([part.title, f"{part.short_title(g)} ({g.clause})", str(len(part.records)),
+        # a part's verdict NOT CHECKED names what is not checked, not only its highest utilisation
+        gaps = [part.short_title(r) for r in part.records if not r.checked]
+        gov_text = f"{part.short_title(g)} ({g.clause})" + (f"; NOT CHECKED: {'; '.join(gaps)}" if gaps else "")
+        rows.append([part.title, gov_text, str(len(part.records)),
                      fmt_utilisation(g.utilisation), _part_verdict(part.records)])
     table = TableOutput(["Part", "Governing check (clause)", "Checks", "Util.", "Verdict"], rows, align="llrrl",
                         title="Summary by part: the governing check of each", kind="parts")
