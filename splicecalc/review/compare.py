@@ -142,6 +142,10 @@ def _util(r: dict[str, Any]) -> float | None:
     return float(u)
 
 
+def _r6(x: float | None) -> float | None:
+    return None if x is None else round(x, 6)
+
+
 def _tag(unit: str) -> str:
     t = KEY_TAG.get(unit, unit.replace("/", "_per_"))
     return f"_{t}" if t else ""
@@ -152,7 +156,7 @@ def _brief(r: dict[str, Any]) -> dict[str, Any]:
     sfx = _tag(str(r.get("unit", "")))
     return {"id": r["id"], "title": r.get("title", ""), "clause": r.get("clause", ""), "unit": r.get("unit", ""),
             f"demand{sfx}": r.get(f"demand{sfx}"), f"resistance{sfx}": r.get(f"resistance{sfx}"),
-            "utilisation": _util(r), "verdict": _verdict(r)}
+            "utilisation": _r6(_util(r)), "verdict": _verdict(r)}
 
 
 def moved_checks(old: dict[str, dict], new: dict[str, dict], threshold: float = MOVE_THRESHOLD) -> list[dict]:
@@ -171,7 +175,7 @@ def moved_checks(old: dict[str, dict], new: dict[str, dict], threshold: float = 
         out.append({"id": i, "title": b.get("title", ""), "clause": b.get("clause", ""),
                     f"old_demand{sa}": a.get(f"demand{sa}"), f"new_demand{sb}": b.get(f"demand{sb}"),
                     f"old_resistance{sa}": a.get(f"resistance{sa}"), f"new_resistance{sb}": b.get(f"resistance{sb}"),
-                    "old_utilisation": ua, "new_utilisation": ub,
+                    "old_utilisation": _r6(ua), "new_utilisation": _r6(ub),
                     "change_utilisation": None if ua is None or ub is None else round(ub - ua, 6),
                     "old_verdict": _verdict(a), "new_verdict": _verdict(b)})
     out.sort(key=lambda d: -abs(d["change_utilisation"] or 0.0))
