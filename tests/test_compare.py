@@ -189,3 +189,36 @@ def test_cli_bad_input_is_one_line_exit_2(runs, tmp_path, capsys, case):
     assert err.count("\n") == 1 and err.startswith("splicecalc: error: NEW") and "Traceback" not in err
     if case == "template":
         assert "not a calc notebook" in err
+
+
+def _damaged(good: dict) -> dict:
+    """Notebooks damaged in ways a hand edit or a broken copy leaves them (each must be exit 2)."""
+    def cell_outputs(outputs):
+        nb = json.loads(json.dumps(good))
+        nb["cells"][0]["outputs"] = outputs
+        return nb
+    first = good["cells"][0]["outputs"]
+    parts_out = first[-1]
+    bad_index = json.loads(json.dumps(parts_out))
+    bad_index["data"]["application/vnd.splicecalc.table+json"]["parts"] = [{"part": "member"}]
+    return {
+        "list": [good],
+        "cell_is_text": {"cells": ["print(1)"]},
+        "outputs_not_list": cell_outputs("x"),
+        "output_is_text": cell_outputs(["x", *first]),
+        "data_is_list": cell_outputs([{"output_type": "display_data", "data": [1]}, *first]),
+        "job_not_json": cell_outputs([{"output_type": "display_data", "data": {JOB_MIME: "{"}}, *first[1:]]),
+        "record_without_id": cell_outputs([*first[:-1], {"output_type": "display_data", "data": {CHECK_MIME: {}}}]),
+        "parts_index_damaged": cell_outputs([*first[:-1], bad_index]),
+    }
+
+
+def test_cli_damaged_notebooks_are_exit_2(runs, tmp_path, capsys):
+    good = _write(tmp_path / "good.ipynb", runs["nb"]["base"])
+    for name, nb in _damaged(runs["nb"]["base"]).items():
+        bad = _write(tmp_path / f"{name}.ipynb", nb)
+        assert main(["compare", str(bad), str(good)]) == 2, name
+        err = capsys.readouterr().err
+        assert err.startswith("splicecalc: error: OLD") and err.count("\n") == 1, (name, err)
+    assert main(["compare", str(good), str(good), "--threshold", "-1"]) == 2
+    assert "--threshold" in capsys.readouterr().err

@@ -75,6 +75,12 @@ def read_revision(nb: Any, name: str = "notebook", which: str = "notebook") -> R
     ``nb`` is not an executed calc notebook."""
     if not isinstance(nb, dict) or not isinstance(nb.get("cells"), list):
         raise InputError(which, name, "a Jupyter notebook (.ipynb) with a list of cells")
+    for cell in nb["cells"]:
+        outs = cell.get("outputs", []) if isinstance(cell, dict) else None
+        if not isinstance(outs, list) or not all(isinstance(o, dict) and isinstance(o.get("data", {}), dict)
+                                                 for o in outs):
+            raise InputError(which, name, "a Jupyter notebook: each cell a table, its outputs a list of tables",
+                             "The file is not a notebook as Jupyter writes it (edited by hand, or damaged?)")
     recs = collect_records(nb)
     if not _has_job(nb):
         raise InputError(which, name, "an executed splicecalc calc notebook",
@@ -97,7 +103,11 @@ def read_revision(nb: Any, name: str = "notebook", which: str = "notebook") -> R
         except (KeyError, TypeError):
             raise InputError(which, name, "a calc notebook with the summary by part as the package writes it",
                              "Was the notebook edited by hand?") from None
-    job = job_inputs(nb)
+    try:
+        job = job_inputs(nb)
+    except (ValueError, TypeError):
+        raise InputError(which, name, "a calc notebook whose job inputs are a JSON table",
+                         "Was the notebook edited by hand?") from None
     meta = nb.get("metadata", {}).get("splicecalc", {}) if isinstance(nb.get("metadata"), dict) else {}
     rev = (meta.get("revision") if isinstance(meta, dict) else None) or (job.get("project") or {}).get("revision", "")
     return Revision(name=name, revision=str(rev or ""), job=job, records=records, parts=parts)
