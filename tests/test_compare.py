@@ -222,3 +222,21 @@ def test_cli_damaged_notebooks_are_exit_2(runs, tmp_path, capsys):
         assert err.startswith("splicecalc: error: OLD") and err.count("\n") == 1, (name, err)
     assert main(["compare", str(good), str(good), "--threshold", "-1"]) == 2
     assert "--threshold" in capsys.readouterr().err
+
+
+@pytest.mark.pdf
+def test_a_built_package_is_read_by_part(runs, tmp_path, capsys):
+    """A real build (kernel, IPython display, notebook on disk) carries the summary's grouping: the
+    package PDF compared with the plain-float run's notebook gives the same governing check per part."""
+    from splicecalc.workflow.package import build_package
+
+    job = tmp_path / "gallery.toml"
+    job.write_text(DEMO.read_text(encoding="utf-8"), encoding="utf-8")
+    b = build_package(job, tmp_path / "gallery.pdf", progress=False)
+    assert b.notebook == b.pdf.with_suffix(".ipynb")
+    built = json.loads(b.notebook.read_text(encoding="utf-8"))
+    c = compare_revisions(runs["nb"]["base"], built)
+    assert c["governing_by_part"] is not None
+    assert not c["changed"], comparison_text(c)             # same job: the rendered path printed the same records
+    assert main(["compare", str(b.pdf), str(b.pdf)]) == 0
+    assert "Governing check by part (8)" in capsys.readouterr().out
