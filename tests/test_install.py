@@ -109,7 +109,7 @@ def test_new_build_verify_in_a_fresh_environment(installed):
     assert pdf.is_file() and (work / "pkg" / "beam_splice.pdf.json").is_file()
     info = subprocess.run(["pdfinfo", str(pdf)], capture_output=True, text=True, check=True).stdout
     pages = int(next(ln.split()[-1] for ln in info.splitlines() if ln.startswith("Pages:")))
-    assert pages > 10
+    assert pages >= 8       # the starter job of `new` (no splices, no existing loads): a short package
     r = _run([cli, "verify", "pkg/beam_splice.pdf", "--json"], work, env)
     assert r.returncode == 3, r.stderr              # built, not signed yet: exit 3 (main.py)
     assert json.loads(r.stdout)["state"] == "unsigned"
