@@ -240,3 +240,11 @@ def test_a_built_package_is_read_by_part(runs, tmp_path, capsys):
     assert not c["changed"], comparison_text(c)             # same job: the rendered path printed the same records
     assert main(["compare", str(b.pdf), str(b.pdf)]) == 0
     assert "Governing check by part (8)" in capsys.readouterr().out
+
+
+def test_text_from_a_notebook_cannot_drive_the_terminal(runs):
+    nb = json.loads(json.dumps(runs["nb"]["base"]))
+    nb["cells"][0]["outputs"][0]["data"][JOB_MIME]["project"]["title"] = "Gallery\x1b[2J\x1b]0;owned\x07 beam\nx"
+    text = comparison_text(compare_revisions(runs["nb"]["base"], nb))
+    assert "\x1b" not in text and "\x07" not in text and "Gallery?[2J" in text
+    assert "project.title" in text

@@ -44,24 +44,25 @@ def read_notebook(path: Path, which: str) -> Any:
 
 
 def _cmd_compare(args: argparse.Namespace) -> int:
-    from ..review.compare import compare_revisions, comparison_text
+    from ..review.compare import MOVE_THRESHOLD, compare_revisions, comparison_text
 
-    if not (0.0 <= args.threshold < 1.0):
-        raise InputError("--threshold", args.threshold, "a utilisation change from 0 to below 1, e.g. 0.005")
+    threshold = MOVE_THRESHOLD if args.threshold is None else args.threshold
+    if not (0.0 <= threshold < 1.0):
+        raise InputError("--threshold", threshold, f"a utilisation change from 0 to below 1, e.g. {MOVE_THRESHOLD:g}")
     paths = [notebook_path(args.old, "OLD"), notebook_path(args.new, "NEW")]
     old_nb, new_nb = (read_notebook(p, w) for p, w in zip(paths, ("OLD", "NEW")))
     c = compare_revisions(old_nb, new_nb, old_name=str(paths[0]), new_name=str(paths[1]),
-                          threshold=args.threshold)
+                          threshold=threshold)
     print(json.dumps(c, indent=2) if args.json else comparison_text(c))
     return 1 if c["changed"] else 0
 
 
 def add_parser(sub: Any) -> None:
     s = sub.add_parser("compare", help="what changed between two revisions (notebooks or package PDFs)",
-                       description=__doc__.split("\n\n")[1].replace("\n", " "))
+                       description=__doc__.split("\n\n")[1].replace("\n", " ").replace("``", ""))
     s.add_argument("old", metavar="OLD", help="the earlier revision: NAME.ipynb, or NAME.pdf with NAME.ipynb beside it")
     s.add_argument("new", metavar="NEW", help="the later revision (the same forms)")
-    s.add_argument("--threshold", type=float, default=0.005,
-                   help="utilisation change worth showing (default 0.005)")
+    s.add_argument("--threshold", type=float, default=None,
+                   help="utilisation change worth showing (default 0.005, review.compare.MOVE_THRESHOLD)")
     s.add_argument("--json", action="store_true", help="print the comparison as JSON (unit-tagged keys)")
     s.set_defaults(func=_cmd_compare)

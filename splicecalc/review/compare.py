@@ -254,7 +254,13 @@ def _cell(v: Any) -> str:
     return str(v)
 
 
+def _printable(text: str) -> str:
+    """Text from a notebook as a terminal shows it: control characters (escape sequences) as '?'."""
+    return "".join(ch if ch.isprintable() else "?" for ch in text)
+
+
 def _table(title: str, head: list[str], rows: list[list[str]]) -> list[str]:
+    rows = [[_printable(c) for c in r] for r in rows]
     if not rows:
         return [f"{title}: none"]
     w = [max(len(h), *(len(r[i]) for r in rows)) for i, h in enumerate(head)]
@@ -269,8 +275,8 @@ def _u(x: float | None) -> str:
 def comparison_text(c: dict[str, Any]) -> str:
     """One short table per section of :func:`compare_revisions`."""
     o, n = c["old"], c["new"]
-    lines = [f"Compare {o['name']} (revision {o['revision'] or '-'}, {o['checks_count']} checks) -> "
-             f"{n['name']} (revision {n['revision'] or '-'}, {n['checks_count']} checks)", ""]
+    lines = [_printable(f"Compare {o['name']} (revision {o['revision'] or '-'}, {o['checks_count']} checks) -> "
+                        f"{n['name']} (revision {n['revision'] or '-'}, {n['checks_count']} checks)"), ""]
     lines += _table("Changed inputs", ["Input", "Old", "New"],
                     [[d["input"], _cell(d["old"]), _cell(d["new"])] for d in c["changed_inputs"]])
     lines.append("")
