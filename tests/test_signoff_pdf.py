@@ -783,3 +783,21 @@ def test_untrusted_key_in_a_trusted_name_is_not_valid(env, tmp_path):
     sign_package(d2 / f"{NAME}.pdf", "prepared", _k(env, "b"))
     st = verify_package(d2 / f"{NAME}.pdf")
     assert st.state == "valid" and "valid but untrusted signer" in st.lines[1], st.lines
+
+
+def test_a_build_record_that_names_other_signers_gets_a_note(signed, tmp_path):
+    """The .pdf.json build record is a hint for people: verify never trusts it, but says when it lies."""
+    d = _fresh(signed["s1"], tmp_path)
+    st = verify_package(d / f"{NAME}.pdf")
+    assert not any("build record" in n for n in st.notes), st.notes          # as signed: no note
+    sc = d / f"{NAME}.pdf.json"
+    rec = json.loads(sc.read_text())
+    rec["signed"] = [{"role": "prepared", "signer": "A. Preparer"}, {"role": "checked", "signer": "Z. Nobody"},
+                     {"role": "approved", "signer": "Z. Nobody"}]
+    sc.write_text(json.dumps(rec))
+    st = verify_package(d / f"{NAME}.pdf")
+    assert st.state == "valid"                                                # the signatures decide
+    assert any("lists other signatures" in n and "Z. Nobody" in n for n in st.notes), st.notes
+    assert any("lists other signatures" in line for line in st.lines)
+    sc.write_text("[1]")
+    assert any("cannot be read" in n for n in verify_package(d / f"{NAME}.pdf").notes)

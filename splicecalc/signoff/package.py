@@ -219,6 +219,9 @@ def verify_package(path: str | Path, thorough: bool = False) -> PackageStatus:
         why = register_changed_since(p, s_.tag)
         if why:
             problems.append(f"PDF {s_.role}: {why}")
+    rec_note = _build_record_note(p, psigs)
+    if rec_note:
+        notes.append(rec_note)
     if problems:
         return PackageStatus(p, "changed", ["CHANGED: " + "; ".join(problems)] + lines, psigs, nsigs, notes)
     roles = ", ".join(s.role for s in psigs)
@@ -263,6 +266,26 @@ def _build_record_mismatch(pdf: Path, nb: dict, data: bytes) -> str | None:
     if rec.get("pdf_sha256") and rec["pdf_sha256"] != hashlib.sha256(data).hexdigest():
         return "the PDF is not the one built with this notebook (or it was edited since)"
     return None
+
+
+def _build_record_note(pdf: Path, psigs: list[Any]) -> str | None:
+    """A note when the build record's list of signatures (a hint for people) is not what the PDF carries."""
+    from .ledger import sidecar_path
+
+    sc = sidecar_path(pdf)
+    if not sc.is_file():
+        return None
+    try:
+        rec = json.loads(sc.read_text(encoding="utf-8"))
+        claimed = [(str(e.get("role")), str(e.get("signer"))) for e in rec.get("signed") or []]
+    except (OSError, ValueError, AttributeError, TypeError):
+        return f"the build record {sc.name} cannot be read (a hint only; the signatures above are what counts)"
+    actual = [(s.role, s.signer) for s in psigs if s.role in ROLES]
+    if claimed == actual:
+        return None
+    said = ", ".join(f"{r} {n}" for r, n in claimed) or "none"
+    return (f"the build record {sc.name} lists other signatures ({said[:200]}) than the PDF carries: it is a "
+            f"hint only and was edited or is stale; the signatures above are what counts")
 
 
 @dataclass(frozen=True)
