@@ -487,10 +487,26 @@ def default_workers() -> int:
     return max(1, os.cpu_count() or 1)
 
 
+class _NoBar:
+    """Stands in for the bar without progress (a tqdm bar, even disabled, starts tqdm's monitor
+    thread, and a process with a second thread starts its workers by forkserver, not fork)."""
+
+    def __enter__(self) -> "_NoBar":
+        return self
+
+    def __exit__(self, *exc: Any) -> None:
+        return None
+
+    def update(self, n: int = 1) -> None:
+        return None
+
+
 def _bar(total: int, progress: bool) -> Any:
+    if not progress:
+        return _NoBar()
     from tqdm import tqdm
 
-    return tqdm(total=total, desc="Beams", unit="beam", file=sys.stderr, disable=not progress, leave=False)
+    return tqdm(total=total, desc="Beams", unit="beam", file=sys.stderr, leave=False)
 
 
 def _require_cluster_client(address: str) -> Any:
