@@ -234,6 +234,26 @@ def test_dask_local_cluster(tmp_path):
     assert rows[2]["outcome"] == "error" and rows[2]["status"].startswith("input error: beam.span")
 
 
+def test_dask_by_scheduler_address(tmp_path):
+    """--cluster ADDRESS: the client is made from the address and closed afterwards."""
+    distributed = pytest.importorskip("dask.distributed")
+    s = B.read_schedule(_write(tmp_path, SMALL))
+    with distributed.LocalCluster(n_workers=1, processes=False, threads_per_worker=1,
+                                  dashboard_address=None) as cluster:
+        rows = B.run_beams(s, cluster=cluster.scheduler_address, progress=False)
+    assert [r["outcome"] for r in rows] == ["within", "within"]
+    assert rows == [B.design_one(b.name, b.text) for b in s.beams]
+
+
+def test_pdf_without_xelatex_is_one_line_before_any_beam(tmp_path, capsys, monkeypatch):
+    monkeypatch.setenv("PATH", str(tmp_path / "nothing-here"))     # no xelatex, no pandoc
+    p = _write(tmp_path, SMALL)
+    assert main(["batch", str(p), "--out", str(tmp_path / "o"), "--pdf", "--quiet"]) == 2
+    err = capsys.readouterr().err.strip()
+    assert "xelatex" in err and len(err.splitlines()) == 1
+    assert not (tmp_path / "o" / "B1").exists()
+
+
 def test_cluster_address_errors_are_one_line(tmp_path, capsys):
     pytest.importorskip("dask.distributed")
     p = _write(tmp_path, SMALL)

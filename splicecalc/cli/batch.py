@@ -17,6 +17,7 @@ NOT CHECKED items.
 from __future__ import annotations
 
 import argparse
+import sys
 from pathlib import Path
 from typing import Any
 
@@ -58,8 +59,14 @@ def batch_command(args: argparse.Namespace) -> int:
     src = Path(args.schedule)
     schedule = read_schedule(src, args.csv)            # a bad schedule stops here (exit 2), before any work
     out = Path(args.out) if args.out else src.parent / src.stem
-    rows = run_beams(schedule, out=out, pdf=args.pdf, workers=args.workers, cluster=args.cluster,
-                     progress=not args.quiet)
+    from ..report.errors import CalcBuildError
+
+    try:
+        rows = run_beams(schedule, out=out, pdf=args.pdf, workers=args.workers, cluster=args.cluster,
+                         progress=not args.quiet)
+    except CalcBuildError as err:       # xelatex or pandoc missing for --pdf: said once, before any beam
+        print(f"splicecalc: error: {' '.join(str(err).split())}", file=sys.stderr)
+        return 2
     path = write_summary(rows, out / f"{src.stem}_summary.csv")
     print(summary_table(rows, title=schedule.title or f"Schedule {src.name}"))
     print(f"summary: {path}")

@@ -590,7 +590,7 @@ def _run_dask(todo: list[BeamEntry], pdf_dir: str | None, cluster: Any, rows: di
 
         futures = {client.submit(design_one, b.name, b.text, pdf_dir, pure=False, key=f"splicecalc-{b.name}-{id(b)}"):
                    b.name for b in todo}
-        with _bar(len(todo), progress) as bar:
+        with _bar(len(todo), progress) as bar, client.as_current():   # as_completed asks for the current client
             _collect(futures, as_completed(list(futures)), rows, bar, lambda f: f.result())
     finally:
         if own:
