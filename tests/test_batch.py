@@ -274,3 +274,11 @@ def test_pdf_package_of_one_beam(tmp_path):
     assert (out / "B1" / "B1.pdf").stat().st_size > 10_000 and (out / "B1" / "B1.toml").is_file()
     rows = list(csv.DictReader(io.StringIO((out / "sched_summary.csv").read_text(encoding="utf-8"))))
     assert rows[0]["package_pdf"] == "B1/B1.pdf"
+    assert (out / "sched_summary.pdf").read_bytes()[:5] == b"%PDF-"          # the summary sheet
+
+
+def test_summary_sheet_latex_escapes_job_text():
+    row = B.error_row("X_1", "input error: beam.span = '\\input{/etc/passwd} $x^' is not allowed & 100 % # ~")
+    tex = B.summary_latex([row], title="Bay {2} & $3$", source="a_b.toml")
+    assert "\\input{" not in tex and "\\input\\{" not in tex.replace("\\textbackslash{}", "")
+    assert "Bay \\{2\\} \\& \\$3\\$" in tex and "100 \\%" in tex and "X\\_1" in tex

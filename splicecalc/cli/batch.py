@@ -6,7 +6,8 @@ The schedule's ``[defaults]`` hold any job-file tables, each ``[beam.<name>]`` w
 (or ``--csv`` a row per beam of dotted job keys); see :mod:`splicecalc.workflow.batch`.
 Each beam is read by the one job validation and designed as ``splicecalc run`` designs it;
 ``--pdf`` also builds its calc package into ``DIR/<name>/``. The summary is written to
-``DIR/<schedule>_summary.csv`` and printed as a table.
+``DIR/<schedule>_summary.csv`` (with ``--pdf`` also a summary sheet, ``DIR/<schedule>_summary.pdf``)
+and printed as a table.
 
 Exit codes: 0 every beam within capacity; 1 a beam exceeds capacity or could not be designed
 (its row says why; the other beams are still designed); 2 a schedule file that cannot be read
@@ -49,7 +50,9 @@ def add_parser(subparsers: Any) -> argparse.ArgumentParser:
 
 
 def batch_command(args: argparse.Namespace) -> int:
-    from ..workflow.batch import exit_code, read_schedule, run_beams, summary_table, write_summary
+    from ..report.errors import CalcBuildError
+    from ..workflow.batch import (exit_code, read_schedule, run_beams, summary_table, write_summary,
+                                  write_summary_pdf)
 
     if args.workers is not None and not 1 <= args.workers <= 256:
         raise InputError("--workers", args.workers, "a number of worker processes from 1 to 256")
@@ -59,8 +62,6 @@ def batch_command(args: argparse.Namespace) -> int:
     src = Path(args.schedule)
     schedule = read_schedule(src, args.csv)            # a bad schedule stops here (exit 2), before any work
     out = Path(args.out) if args.out else src.parent / src.stem
-    from ..report.errors import CalcBuildError
-
     try:
         rows = run_beams(schedule, out=out, pdf=args.pdf, workers=args.workers, cluster=args.cluster,
                          progress=not args.quiet)
@@ -68,8 +69,17 @@ def batch_command(args: argparse.Namespace) -> int:
         print(f"splicecalc: error: {' '.join(str(err).split())}", file=sys.stderr)
         return 2
     path = write_summary(rows, out / f"{src.stem}_summary.csv")
-    print(summary_table(rows, title=schedule.title or f"Schedule {src.name}"))
+    title = schedule.title or f"Schedule {src.name}"
+    print(summary_table(rows, title=title))
     print(f"summary: {path}")
+    if args.pdf:
+        try:
+            sheet = write_summary_pdf(rows, out / f"{src.stem}_summary.pdf", title, src.name)
+            print(f"summary sheet: {sheet}")
+        except CalcBuildError as err:
+            print(f"splicecalc: error: the summary sheet was not typeset: {' '.join(str(err).split())}",
+                  file=sys.stderr)
+            return 1
     return exit_code(rows)
 
 

@@ -657,6 +657,71 @@ def summary_table(rows: list[dict[str, Any]], title: str = "") -> str:
     return "\n".join(lines)
 
 
+def summary_latex(rows: list[dict[str, Any]], title: str, source: str = "") -> str:
+    """The schedule summary sheet as a LaTeX document (every text escaped by ``core.text.escape_tex``)."""
+    from ..core.text import escape_tex as e
+
+    heads = ("beam", "section", "span (m)", "pieces", "splices", "bolts / splice", "heaviest piece (kg)",
+             "governing check", "u", "status")
+    body = []
+    for r in rows:
+        u = r.get("governing_utilisation")
+        cells = [e(r["beam"]), e(r.get("section") or "-"), e(_cell(r.get("span_m")) or "-"),
+                 e(_cell(r.get("pieces")) or "-"), e(_cell(r.get("splices")) or "-"),
+                 e(" ".join(str(b) for b in r.get("bolts_per_splice") or []) or "-"),
+                 e(_cell(r.get("heaviest_piece_kg")) or "-"), e(r.get("governing_check") or "-"),
+                 f"{u:.2f}" if isinstance(u, float) else "-", e(r["status"])]
+        if r.get("outcome") in ("exceeds", "error"):
+            cells[-1] = r"\textbf{" + cells[-1] + "}"
+        body.append(" & ".join(cells) + r" \\")
+    counts = {o: sum(r.get("outcome") == o for r in rows) for o in OUTCOMES}
+    tally = (f"{len(rows)} beam(s): {counts['within']} within capacity, {counts['exceeds']} exceeding capacity, "
+             f"{counts['not_checked']} with NOT CHECKED items, {counts['error']} not designed.")
+    return "\n".join([
+        r"\documentclass[10pt]{article}",
+        r"\usepackage[a4paper,landscape,margin=15mm]{geometry}",
+        r"\usepackage{fontspec}",
+        r"\usepackage{array,longtable,booktabs}",
+        r"\pagestyle{plain}",
+        r"\setlength{\parindent}{0pt}",
+        r"\begin{document}",
+        r"{\Large\bfseries " + e(title) + r"}\par\smallskip",
+        r"{\small Schedule summary" + (r": " + e(source) if source else "") + r". Each beam designed as "
+        r"\texttt{splicecalc run} designs it; u is the governing utilisation (demand / resistance) of the "
+        r"checks made.}\par\medskip",
+        r"\begin{longtable}{@{}l l r r r l r l r >{\raggedright\arraybackslash}p{70mm}@{}}",
+        r"\toprule",
+        " & ".join(r"\textbf{" + h + "}" for h in heads) + r" \\",
+        r"\midrule\endhead",
+        *body,
+        r"\bottomrule",
+        r"\end{longtable}",
+        e(tally) + r"\par\medskip",
+        r"{\small " + e("Design aid only: every result is to be checked by a competent engineer under the codes "
+                         "in force at the site. A NOT CHECKED item is a check the calculation could not make; "
+                         "it is not a pass. See each beam's calc package for the checks in full.") + "}",
+        r"\end{document}",
+        "",
+    ])
+
+
+def write_summary_pdf(rows: list[dict[str, Any]], path: str | os.PathLike, title: str, source: str = "") -> Path:
+    """Typeset :func:`summary_latex` with XeLaTeX (locked down, in a temporary folder) and write the PDF
+    atomically to ``path``."""
+    import tempfile
+
+    from ..report.compile import run_xelatex
+
+    p = Path(path)
+    with tempfile.TemporaryDirectory(prefix="splicecalc-schedule-") as tmp:
+        tex = Path(tmp) / "schedule_summary.tex"
+        tex.write_text(summary_latex(rows, title, source), encoding="utf-8")
+        run = run_xelatex(tex, progress=False)
+        data = Path(run.pdf_path).read_bytes()
+    p.parent.mkdir(parents=True, exist_ok=True)
+    return write_atomic(p, data)
+
+
 #: exit code when nothing exceeds capacity or errs but some beam has NOT CHECKED items (as ``run``)
 EXIT_NOT_CHECKED = 3
 
@@ -672,4 +737,4 @@ def exit_code(rows: list[dict[str, Any]]) -> int:
 
 __all__ = ["COLUMNS", "COLUMN_NOTES", "BeamEntry", "Schedule", "merge", "set_dotted", "csv_value", "read_csv_rows",
            "read_schedule", "design_one", "summary_row", "error_row", "run_beams", "summary_csv", "write_summary",
-           "summary_table", "exit_code", "default_workers", "EXIT_NOT_CHECKED"]
+           "summary_table", "summary_latex", "write_summary_pdf", "exit_code", "default_workers", "EXIT_NOT_CHECKED"]
