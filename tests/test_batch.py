@@ -264,6 +264,11 @@ def test_cluster_address_errors_are_one_line(tmp_path, capsys):
 def test_gallery_example_reads():
     s = B.read_schedule(GALLERY)
     assert len(s.beams) >= 4 and all(b.ok for b in s.beams), [b.error for b in s.beams]
+    s = B.read_schedule(GALLERY, GALLERY.with_name("gallery_beams_more.csv"))
+    assert [b.name for b in s.beams][-3:] == ["GB6", "GB7", "GB8"] and all(b.ok for b in s.beams)
+    gb6, gb7, gb8 = (tomllib.loads(b.text) for b in s.beams[-3:])
+    assert gb6["beam"]["restraints"] == ["2.8 m", "5.6 m"] and gb6["load"][1]["udl"] == "6.5 kN/m"
+    assert gb7["beam"]["section"] == "auto" and gb8["load"][1]["udl"] == "7.5 kN/m"   # empty cells: defaults
 
 
 @pytest.mark.pdf
