@@ -577,8 +577,12 @@ def _run_pool(todo: list[BeamEntry], pdf_dir: str | None, n: int, rows: dict[str
 
     with ProcessPoolExecutor(max_workers=n, mp_context=_pool_context()) as ex:
         futures: dict[Future, str] = {ex.submit(design_one, b.name, b.text, pdf_dir): b.name for b in todo}
-        with _bar(len(todo), progress) as bar:
-            _collect(futures, as_completed(futures), rows, bar, lambda f: f.result())
+        try:
+            with _bar(len(todo), progress) as bar:
+                _collect(futures, as_completed(futures), rows, bar, lambda f: f.result())
+        except BaseException:       # Ctrl-C: drop the beams not started instead of waiting for them all
+            ex.shutdown(wait=False, cancel_futures=True)
+            raise
 
 
 def _run_dask(todo: list[BeamEntry], pdf_dir: str | None, cluster: Any, rows: dict[str, dict[str, Any]],
