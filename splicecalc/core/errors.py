@@ -6,18 +6,29 @@ import math
 from typing import Any
 
 
+def one_line(text: Any) -> str:
+    """``text`` with every control character (newline, tab, escape ...) written as its escape, so a
+    message built from a job's own keys and values stays one printable line."""
+    s = str(text)
+    if s.isprintable():
+        return s
+    return "".join(ch if ch.isprintable() else ch.encode("unicode_escape").decode("ascii") for ch in s)
+
+
 class InputError(ValueError):
-    """Bad user input. ``str(err)`` is a one-line message fit for the CLI."""
+    """Bad user input. ``str(err)`` is a one-line message fit for the CLI (field names and hints may
+    come from the job file itself: they are made printable here, once)."""
 
     def __init__(self, field: str, value: Any, allowed: str, hint: str = "") -> None:
         self.field = field
         self.value = value
         self.allowed = allowed
         self.hint = hint
-        msg = (f"{field} is not given: write {allowed}" if value is None
-               else f"{field} = {value!r} is not allowed: expected {allowed}")
+        f = one_line(field)
+        msg = (f"{f} is not given: write {one_line(allowed)}" if value is None
+               else f"{f} = {one_line(repr(value))} is not allowed: expected {one_line(allowed)}")
         if hint:
-            msg += f". {hint}"
+            msg += f". {one_line(hint)}"
         super().__init__(msg)
 
 
