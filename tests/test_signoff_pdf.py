@@ -801,3 +801,16 @@ def test_a_build_record_that_names_other_signers_gets_a_note(signed, tmp_path):
     assert any("lists other signatures" in line for line in st.lines)
     sc.write_text("[1]")
     assert any("cannot be read" in n for n in verify_package(d / f"{NAME}.pdf").notes)
+
+
+def test_pdf_and_notebook_of_different_jobs_are_never_signed_or_valid(env, tmp_path):
+    """Without the build record (a hint, deleted here) the PDF's own title and job number (set from the
+    title block at build) still tie it to the notebook: another job's notebook beside it is refused."""
+    d = _fresh(env["built"], tmp_path)
+    (d / f"{NAME}.pdf.json").unlink()
+    _edit_nb(d, lambda nb: nb["metadata"]["splicecalc"].update(title="Roof beam R7, other site", job_number="X-77"))
+    with pytest.raises(InputError, match="another job"):
+        sign_package(d / f"{NAME}.pdf", "prepared", _k(env, "a"))
+    _low_level_sign(d, _k(env, "a"), "prepared")          # a forger's tool skips that refusal
+    st = verify_package(d / f"{NAME}.pdf")
+    assert st.state == "changed" and "another job" in st.lines[0], st.lines

@@ -199,6 +199,9 @@ def verify_package(path: str | Path, thorough: bool = False) -> PackageStatus:
             if pdf_roles != nb_roles:
                 problems.append(f"the PDF's signatures ({', '.join(r for r, _ in pdf_roles) or 'none'}) and the "
                                 f"notebook's ({', '.join(r for r, _ in nb_roles) or 'none'}) differ")
+            why = pdf_notebook_job_mismatch(data, nb)
+            if why:
+                problems.append(f"PDF and notebook: {why}")
             for s in nsigs:
                 if s.message.get("pdf_sha256") != base:
                     problems.append(f"notebook {s.role}: signed with another PDF than {p.name}")
@@ -288,6 +291,34 @@ def _build_record_note(pdf: Path, psigs: list[Any]) -> str | None:
             f"hint only and was edited or is stale; the signatures above are what counts")
 
 
+def _alnum(text: Any) -> str:
+    return "".join(ch for ch in str(text or "").casefold() if ch.isalnum())
+
+
+def pdf_notebook_job_mismatch(data: bytes, nb: dict) -> str | None:
+    """Why the PDF (its title and job number, set from the title block at build) is not of the
+    notebook's job, or None. Compared on letters and digits only, so escaping cannot differ."""
+    import io
+    import logging
+
+    from pypdf import PdfReader
+
+    logging.getLogger("pypdf").setLevel(logging.ERROR)
+    try:
+        info = PdfReader(io.BytesIO(data)).metadata or {}
+        pdf_title, subject = str(info.get("/Title") or ""), str(info.get("/Subject") or "")
+    except Exception:   # noqa: BLE001 - an unreadable PDF is reported by the signature check
+        return None
+    meta = nb.get("metadata", {}).get("splicecalc", {}) if isinstance(nb.get("metadata"), dict) else {}
+    meta = meta if isinstance(meta, dict) else {}
+    pdf_job = subject.rsplit(", job ", 1)[1] if ", job " in subject else ""
+    for what, mine, theirs in (("job number", meta.get("job_number"), pdf_job), ("title", meta.get("title"), pdf_title)):
+        a, b = _alnum(mine), _alnum(theirs)
+        if a and b and a != b:
+            return f"the PDF's {what} ({str(theirs)[:60]!r}) is not the notebook's ({str(mine)[:60]!r}): another job"
+    return None
+
+
 @dataclass(frozen=True)
 class SignResult:
     pdf: Path
@@ -330,7 +361,7 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
     if st.state == "unsigned":
         if nbs.sign_off_entries(nb):
             raise InputError("notebook", str(nb_path), "the notebook of this unsigned PDF (it carries signatures)")
-        why = _build_record_mismatch(p, nb, data)
+        why = _build_record_mismatch(p, nb, data) or pdf_notebook_job_mismatch(data, nb)
         if why:
             raise InputError("PACKAGE.pdf", str(pdf), "the PDF and notebook of one build", why)
     if not any(CHECK in json.dumps(c.get("outputs", [])) for c in nb.get("cells", []) if isinstance(c, dict)
