@@ -7,6 +7,8 @@ process as a user runs them (interpreter start and imports included):
 * ``splicecalc review import`` of the 50 mark-ups into an empty register;
 * ``splicecalc review list`` of the 50 comments (text and ``--json``).
 
+Run it after the bootstrap has byte-compiled the sources (as an install does): with
+PYTHONDONTWRITEBYTECODE set and no .pyc, each new process compiles the modules again.
 The in-process time of the import itself (read the PDF, map 50 mark-ups, append 50 events) is
 printed beside it.
 
