@@ -814,3 +814,14 @@ def test_pdf_and_notebook_of_different_jobs_are_never_signed_or_valid(env, tmp_p
     _low_level_sign(d, _k(env, "a"), "prepared")          # a forger's tool skips that refusal
     st = verify_package(d / f"{NAME}.pdf")
     assert st.state == "changed" and "another job" in st.lines[0], st.lines
+
+
+def test_percent_signs_in_a_name_or_reason_sign_as_typed(env, tmp_path):
+    """pyHanko fills the stamp text in with %-formatting: a "%" in a signer's name or reason once ended
+    sign with 'unsupported format character'."""
+    kp = keys.new_key("50% Partner & Co ~ #1 %(signer)s", tmp_path / "pct.p12", PW)
+    d = _fresh(env["built"], tmp_path)
+    sign_package(d / f"{NAME}.pdf", "prepared", kp, reason="100% of the checks %s %(ts)s")
+    st = verify_package(d / f"{NAME}.pdf")
+    assert st.state == "valid", st.lines
+    assert "prepared: 50% Partner & Co ~ #1 %(signer)s" in st.lines[1]

@@ -204,7 +204,8 @@ def sign_pdf_bytes(pdf_bytes: bytes, kp: Any, role: str, *, human_reason: str, t
         field_name=name, reason=tag_reason(human_reason, tag), name=kp.name, location=None,
         certify=first, docmdp_permissions=fields.MDPPerm.FILL_FORMS, md_algorithm="sha256",
         subfilter=fields.SigSeedSubFilter.PADES)
-    style = TextStampStyle(stamp_text="\n".join(_ascii(x) for x in appearance_lines), border_width=1,
+    # pyHanko fills stamp_text in with %-formatting (its %(signer)s, %(ts)s): a "%" of ours is doubled
+    style = TextStampStyle(stamp_text="\n".join(_ascii(x) for x in appearance_lines).replace("%", "%%"), border_width=1,
                            text_box_style=TextBoxStyle(font_size=6, leading=7))
     out = io.BytesIO()
     signers.PdfSigner(meta, _signer(kp), stamp_style=style).sign_pdf(w, existing_fields_only=True, output=out)
