@@ -11,6 +11,7 @@ from __future__ import annotations
 import copy
 import json
 import os
+import tomllib
 from pathlib import Path
 
 import nbformat
@@ -19,6 +20,7 @@ import pytest
 from splicecalc.core.errors import InputError
 from splicecalc.form import FormFile, FormState, design_summary, job_sha256, package_status
 from splicecalc.form.debounce import Debouncer
+from splicecalc.form.files import HEADER, default_pdf, toml_text
 from splicecalc.form.pick import filter_sections
 from splicecalc.job import load_job
 from splicecalc.job.loader import job_from_dict
@@ -105,7 +107,9 @@ def test_form_state_reproduces_the_job_dict_exactly():
     assert st.extras["beam"] == {"national_annex": {"xi": 0.9}}
     assert set(st.extras["splices"]) == {"gap", "cost"}
     assert st.support("start")["_extra"] == {"tying_force": "90 kN"}
-    assert "existing_member" in st.support("end")["_extra"]
+    # a measured existing member is shown as one line (not blank) and written back as the file's table
+    assert st.support("end")["existing_member"] == ("measured: h = 406 mm, b = 178 mm, tw = 7.9 mm, "
+                                                    "tf = 12.8 mm, r = 10.2 mm")
 
 
 @pytest.mark.parametrize("source", ["example", "rich"])
@@ -184,11 +188,13 @@ def test_load_row_error_names_the_row(tmp_path):
 
 def test_design_failure_other_than_input_error_is_one_line(monkeypatch):
     import splicecalc.design.beam as beam
+    import splicecalc.workflow.calc as calc      # imported first: it binds design_beam by name
     st = FormState.from_toml(EXAMPLE.read_text(encoding="utf-8"))
 
     def boom(job, render=False):
         raise RuntimeError("solver did not converge")
     monkeypatch.setattr(beam, "design_beam", boom)
+    monkeypatch.setattr(calc, "design_beam", boom)
     s = design_summary(st)
     assert s.error == "the design could not run (RuntimeError: solver did not converge)"
     assert "Traceback" not in s.html()
@@ -462,3 +468,171 @@ def test_widget_save_failure_keeps_file_and_edits(tmp_path, monkeypatch):
     assert src.read_bytes() == old and _listing(tmp_path) == {"job.toml"}
     assert form.state.get("project.title") == "Mezzanine infill beam, grid D"
     assert "unsaved edits" in form.banner.value
+
+
+# ------------------------------------------------------------------ saving keeps the file's own text
+COMMENTED = '''# Invented example: a store-room beam (test data)
+[project]
+number = "T-9"   # job number
+title = "Store-room beam"
+
+[beam]
+span = "6.0 m"        # bearing centres
+deflection_limit = 360
+
+# loads from the architect's brief
+[[load]]
+name = "floor"
+action = "permanent"
+udl = "5 kN/m"   # screed and finishes
+
+[[load]]
+name = "stores"
+action = "imposed"
+category = "E"
+udl = "7.5 kN/m"
+'''
+
+
+def test_save_unchanged_leaves_the_file_byte_identical(tmp_path):
+    src = tmp_path / "job.toml"
+    src.write_text(COMMENTED, encoding="utf-8")
+    ff = FormFile(src)
+    ff.save()
+    assert src.read_text(encoding="utf-8") == COMMENTED     # no header, no defaults added, comments kept
+
+
+def test_save_changes_only_the_edited_values(tmp_path):
+    src = tmp_path / "job.toml"
+    src.write_text(COMMENTED, encoding="utf-8")
+    ff = FormFile(src)
+    ff.state.set("beam.span", "6.5 m")
+    ff.state.set_load(1, "value", "9 kN/m")
+    ff.state.add_load("point", name="tank", action="permanent", value="20 kN", at="2 m")
+    ff.save()
+    text = src.read_text(encoding="utf-8")
+    want = (COMMENTED.replace('span = "6.0 m"', 'span = "6.5 m"').replace('udl = "7.5 kN/m"', 'udl = "9 kN/m"'))
+    assert text.startswith(want.rstrip("\n"))                 # every comment and line kept in place
+    assert load_job(src).to_canonical_dict() == ff.state.to_job().to_canonical_dict()
+    assert [ld.name for ld in load_job(src).loads] == ["floor", "stores", "tank"]
+    ff.state.remove_load(0)
+    ff.save()
+    text = src.read_text(encoding="utf-8")
+    assert "# Invented example" in text and "# bearing centres" in text and "floor" not in text.split("[[load]]", 1)[1]
+    assert [ld.name for ld in load_job(src).loads] == ["stores", "tank"]
+
+
+def test_new_file_gets_the_header(tmp_path):
+    ff = FormFile(tmp_path / "new.toml")
+    ff.state.set("beam.span", "5 m")
+    ff.save()
+    assert (tmp_path / "new.toml").read_text(encoding="utf-8").startswith(HEADER)
+
+
+@pytest.mark.parametrize("source", ["mezzanine_infill.toml", "plant_room_trimmer.toml", "demo_workshop_gallery.toml"])
+def test_examples_save_unchanged(tmp_path, source):
+    text = (EXAMPLE.parent / source).read_text(encoding="utf-8")
+    src = tmp_path / "job.toml"
+    src.write_text(text, encoding="utf-8")
+    FormFile(src).save()
+    assert src.read_text(encoding="utf-8") == text
+
+
+def test_toml_text_writes_exactly_the_data():
+    # whatever the merge does, the text read back is the validated dict (the loader's reference)
+    data = copy.deepcopy(RICH)
+    old = COMMENTED
+    assert tomllib.loads(toml_text(data, old)) == data
+    assert tomllib.loads(toml_text(data, None)) == data
+
+
+# ------------------------------------------------------------------ measured existing members
+def test_measured_member_is_shown_and_can_be_edited(tmp_path):
+    src = _write(tmp_path / "job.toml", RICH)
+    ff = FormFile(src)
+    shown = ff.state.support("end")["existing_member"]
+    assert shown.startswith("measured: h = 406 mm")
+    ff.state.set_support("end", "existing_member", shown.replace("tf = 12.8 mm", "tf = 12.0 mm"))
+    job = ff.save()
+    d = tomllib.loads(src.read_text(encoding="utf-8"))["support"][1]["existing_member"]
+    assert d == {"h": "406 mm", "b": "178 mm", "tw": "7.9 mm", "tf": "12.0 mm", "r": "10.2 mm"}
+    assert job.supports[1].existing_member.tf == pytest.approx(12.0)      # mm, as typed
+    ff.state.set_support("end", "existing_member", "measured: h = 406 mm, b 178 mm")
+    with pytest.raises(InputError) as e:
+        ff.state.to_job()
+    assert e.value.field == "support[2].existing_member" and "h = 406 mm" in str(e.value)
+
+
+# ------------------------------------------------------------------ which PDF the form watches
+def test_default_pdf_follows_the_notebook_and_the_builds(tmp_path, monkeypatch):
+    job = tmp_path / "job.toml"
+    monkeypatch.delenv("JPY_SESSION_NAME", raising=False)
+    assert default_pdf(job) == tmp_path / "beam_splice.pdf"      # what `splicecalc build beam_splice.ipynb` writes
+    (tmp_path / "job.pdf").write_bytes(b"%PDF")
+    assert default_pdf(job) == tmp_path / "job.pdf"               # `splicecalc build job.toml`
+    monkeypatch.chdir(tmp_path)
+    monkeypatch.setenv("JPY_SESSION_NAME", "jobs/B2/calc_b2.ipynb")   # set by Jupyter for the kernel
+    assert default_pdf(job) == tmp_path / "calc_b2.pdf"
+
+
+# ------------------------------------------------------------------ the summary covers the whole job
+def test_summary_covers_every_part_of_the_job():
+    from splicecalc.workflow import run_calc
+    from splicecalc.workflow.parts import job_parts
+    job = load_job(EXAMPLE.parent / "plant_room_trimmer.toml")   # a splice and two end connections
+    s = design_summary(job)
+    ref = run_calc(job, render=False)                         # the reference: the whole calculation
+    assert [p.key for p in s.parts] == [p.key for p in job_parts(ref)]
+    assert {p.key for p in s.parts} >= {"member", "S1", "A", "B"}
+    assert {r.id for r in s.rows} == {r.id for r in ref.records}
+    assert "S1" in s.html() and "governing check" in s.html()
+    # a part that cannot be designed: the beam is still summarised, with the reason
+    bad = design_summary(job_from_dict(copy.deepcopy(RICH)))
+    assert bad.rows and not bad.ok and not bad.parts
+    assert any("splices" in n for n in bad.notes)
+
+
+# ------------------------------------------------------------------ the export
+def _executed_like(tmp_path, span):
+    """A notebook as Jupyter leaves it: the form's widget output and the job inputs it ran with."""
+    nb = nbformat.v4.new_notebook()
+    nb.cells = [nbformat.v4.new_code_cell('job_file = "job.toml"', metadata={"tags": ["parameters"]}),
+                nbformat.v4.new_code_cell("form = show_form(job_file)", metadata={"tags": ["form"]}),
+                nbformat.v4.new_code_cell("part.show_inputs(job)")]
+    nb.cells[1].outputs = [nbformat.v4.new_output(
+        "display_data", data={"text/plain": "Job form for job.toml (interactive)",
+                              "application/vnd.jupyter.widget-view+json": {"model_id": "x", "version_major": 2,
+                                                                           "version_minor": 0}})]
+    data = copy.deepcopy(RICH)
+    data["beam"]["span"] = span
+    nb.cells[2].outputs = [nbformat.v4.new_output(
+        "display_data", data={JOB_MIME: job_from_dict(data).to_canonical_dict(), "text/plain": "inputs"})]
+    return nb
+
+
+def test_export_drops_the_form_and_refuses_stale_outputs(tmp_path):
+    from splicecalc.report.errors import CalcBuildError
+    from splicecalc.report.liveonly import LiveOnlyOutputsPreprocessor, StaleInputsPreprocessor
+    _write(tmp_path / "job.toml", RICH)
+    res = {"metadata": {"name": "beam_splice", "path": str(tmp_path)}}
+    nb = _executed_like(tmp_path, RICH["beam"]["span"])
+    StaleInputsPreprocessor().preprocess(nb, res)             # ran with the file's inputs: printed
+    nb, _ = LiveOnlyOutputsPreprocessor().preprocess(nb, res)
+    assert nb.cells[1].outputs == [] and nb.cells[2].outputs    # the form is not printed, the calc is
+    stale = _executed_like(tmp_path, "5.0 m")                  # saved in the form, not run again
+    with pytest.raises(CalcBuildError, match="job.toml changed.*Run all cells again"):
+        StaleInputsPreprocessor().preprocess(stale, res)
+
+
+def test_load_rows_have_their_own_layouts(tmp_path):
+    pytest.importorskip("ipywidgets")
+    from splicecalc.form import JobForm
+    form = JobForm(_write(tmp_path / "job.toml", RICH))
+    layouts = [w.layout.model_id for row in form.load_rows for w in row.values()]
+    assert len(set(layouts)) == len(layouts)                  # hiding one box never hides another
+    udl = form.load_rows[0]
+    assert udl["value"].layout.display != "none" and udl["from"].layout.display != "none"
+    assert udl["at"].layout.display == "none"                  # a UDL has no single position
+    point = form.load_rows[1]
+    assert point["at"].layout.display != "none" and point["value"].layout.display != "none"
+    assert form.support_controls["end"]["existing_member"].value.startswith("measured: h = 406 mm")

@@ -104,7 +104,12 @@ def test_new_build_verify_in_a_fresh_environment(installed):
     r = _ok(_run([cli, "new", "beam_splice", "pkg", "--project", "Hollin Lane stores (test)", "--number",
                   "HL-7", "--title", "Beam B1"], work, env))
     assert (work / "pkg" / "beam_splice.ipynb").is_file() and (work / "pkg" / "job.toml").is_file()
+    source = (work / "pkg" / "beam_splice.ipynb").read_bytes()
     r = _ok(_run([cli, "build", "pkg/beam_splice.ipynb", "--quiet"], work, env))
+    # the notebook built (perhaps open in Jupyter) is never rewritten; the executed copy has its own name
+    assert (work / "pkg" / "beam_splice.ipynb").read_bytes() == source
+    assert (work / "pkg" / "beam_splice.executed.ipynb").is_file()
+    assert "beam_splice.executed.ipynb" in r.stdout
     pdf = work / "pkg" / "beam_splice.pdf"
     assert pdf.is_file() and (work / "pkg" / "beam_splice.pdf.json").is_file()
     info = subprocess.run(["pdfinfo", str(pdf)], capture_output=True, text=True, check=True).stdout

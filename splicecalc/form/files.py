@@ -15,6 +15,11 @@ Two things can be out of date, and the form says so in a banner:
   job file's canonical job. A sidecar key ``job_sha256``, when present, is
   compared directly.
 
+Saving keeps the file's comments, key order and layout: the new values are
+merged into the parsed document (:mod:`tomlkit`), only changed keys are
+rewritten, and the text written is checked to read back as exactly the job
+dict the form validated (otherwise the whole file is written afresh).
+
 Saving validates first (nothing is written for bad input), refuses to
 overwrite a file that another program changed since the form read it (unless
 forced), and writes through a temporary file in the same folder and
@@ -38,8 +43,81 @@ from ..job.model import Job
 from ..signoff.digest import canonical_json, compute_digest, job_inputs
 from .state import FormState
 
-#: first line of a job file written by the form
+#: first line of a new job file written by the form
 HEADER = "# splicecalc job file, written by the job form (quantities carry their units)\n"
+
+
+# ---------------------------------------------------------------- saving, keeping the file's layout
+def _plain(v: Any) -> Any:
+    unwrap = getattr(v, "unwrap", None)
+    return unwrap() if callable(unwrap) else v
+
+
+def _merge_table(table: Any, data: dict[str, Any]) -> None:
+    """Make the tomlkit ``table`` hold ``data``: unchanged values keep their text and comments."""
+    for k in [k for k in table if k not in data]:
+        del table[k]
+    for k, v in data.items():
+        if k not in table:
+            table[k] = v
+            continue
+        old = table[k]
+        if isinstance(v, dict) and isinstance(_plain(old), dict) and hasattr(old, "keys"):
+            _merge_table(old, v)
+        elif (isinstance(v, list) and v and all(isinstance(x, dict) for x in v) and isinstance(_plain(old), list)
+              and all(hasattr(x, "keys") for x in old)):
+            _merge_rows(old, v)
+        elif _plain(old) != v or type(_plain(old)) is not type(v):
+            table[k] = v
+
+
+def _merge_rows(rows: Any, data: list[dict[str, Any]]) -> None:
+    """An array of tables (``[[load]]``) row by row: kept rows keep their comments."""
+    while len(rows) > len(data):
+        del rows[len(rows) - 1]
+    for i, row in enumerate(data):
+        if i < len(rows):
+            _merge_table(rows[i], row)
+        else:
+            rows.append(row)
+
+
+def toml_text(data: dict[str, Any], old_text: str | None) -> str:
+    """TOML text holding exactly ``data``: ``old_text`` updated in place (its comments and layout kept),
+    or, for a new file (or one tomlkit cannot update faithfully), the whole file written afresh."""
+    if old_text is not None:
+        try:
+            import tomlkit
+
+            doc = tomlkit.parse(old_text)
+            _merge_table(doc, data)
+            text = tomlkit.dumps(doc)
+            if tomllib.loads(text) == data:
+                return text
+        except Exception:  # noqa: BLE001 - any surprise: write the file afresh (still exactly the job)
+            pass
+    return HEADER + dumps_toml(data)
+
+
+def default_pdf(job_path: Path) -> Path:
+    """The calc-package PDF printed from the job file at ``job_path``.
+
+    In Jupyter, the notebook the form runs in names it (``<notebook>.pdf``, as
+    ``splicecalc build <notebook>`` writes it; the kernel learns the notebook from
+    ``JPY_SESSION_NAME``); otherwise the newest of ``<template>.pdf`` and ``<job>.pdf``
+    beside the job file (``splicecalc build job.toml`` writes the latter), or the
+    template's name when neither exists yet.
+    """
+    from ..workflow.package import DEFAULT_TEMPLATE
+
+    session = os.environ.get("JPY_SESSION_NAME", "")
+    if session.endswith(".ipynb"):
+        return Path.cwd() / (Path(session).stem + ".pdf")
+    folder = job_path.parent
+    found = [p for p in (folder / f"{DEFAULT_TEMPLATE}.pdf", job_path.with_suffix(".pdf")) if p.is_file()]
+    if found:
+        return max(found, key=lambda p: p.stat().st_mtime_ns)
+    return folder / f"{DEFAULT_TEMPLATE}.pdf"
 
 
 def job_sha256(job: Job | dict[str, Any]) -> str:
@@ -176,8 +254,8 @@ class FormStatus:
 class FormFile:
     """A :class:`FormState` bound to a job file (and the calc-package PDF printed from it).
 
-    Opening reads the file into the form (if it exists). ``pdf`` defaults to the
-    job file's name with ``.pdf`` in the same folder.
+    Opening reads the file into the form (if it exists). ``pdf`` defaults to
+    :func:`default_pdf`.
     """
 
     def __init__(self, path: str | os.PathLike, pdf: str | os.PathLike | None = None) -> None:
@@ -185,11 +263,16 @@ class FormFile:
         if p.suffix.lower() != ".toml":
             raise InputError("job file", str(path), "a file name ending in .toml")
         self.path = p
-        self.pdf = Path(pdf) if pdf is not None else p.with_suffix(".pdf")
+        self._pdf = Path(pdf) if pdf is not None else None
         self.state = FormState()
         self.load_error = ""
         self._baseline: str | None = None   # text of the file when last read or written
         self.reload()
+
+    @property
+    def pdf(self) -> Path:
+        """The calc-package PDF compared with the job file (given, or :func:`default_pdf` now)."""
+        return self._pdf if self._pdf is not None else default_pdf(self.path)
 
     # ------------------------------------------------------------ disk
     def _read_disk(self) -> str | None:
@@ -269,7 +352,7 @@ class FormFile:
         in the last two cases.
         """
         job = self.state.to_job()                      # bad input: InputError, nothing written
-        text = HEADER + dumps_toml(self.state.to_job_dict(strict=True))
+        data = self.state.to_job_dict(strict=True)
         if not force:
             if self.load_error:
                 raise InputError("job file", str(self.path), "a job file the form could read",
@@ -279,6 +362,13 @@ class FormFile:
                 raise InputError("job file", str(self.path), "a file unchanged since the form read it",
                                  "Another program changed it: reload it (discarding the form's edits) or "
                                  "overwrite it on purpose")
+        try:
+            old = self._read_disk()
+        except InputError:
+            old = None
+        text = toml_text(data, old if not self.load_error else None)
+        if text == old:
+            return job                                 # nothing changed: the file is left alone
         write_text_atomic(self.path, text)
         self._baseline = text
         self.load_error = ""
@@ -302,4 +392,5 @@ class FormFile:
                           package=package_status(self.pdf, digest))
 
 
-__all__ = ["FormFile", "FormStatus", "PackageStatus", "package_status", "job_sha256", "HEADER"]
+__all__ = ["FormFile", "FormStatus", "PackageStatus", "package_status", "job_sha256", "HEADER", "default_pdf",
+           "toml_text"]

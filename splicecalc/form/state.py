@@ -171,6 +171,9 @@ class FormState:
         self.extras: dict[str, dict[str, Any]] = {"top": {}, "project": {}, "beam": {}, "splices": {}}
         #: splice option keys present in the loaded file (written even when equal to the default)
         self.present: set[str] = set()
+        #: [beam] keys of the loaded file (None: a new form, which writes every choice it shows);
+        #: a choice the file left out is written only when the engineer changes it from the default
+        self.beam_present: set[str] | None = None
 
     # ------------------------------------------------------------ fields
     def get(self, name: str) -> Any:
@@ -277,7 +280,7 @@ class FormState:
         sp = self._splices_dict(strict)
         if sp is not None:
             out["splices"] = sp
-        sup = [self._support_dict(row) for row in self.supports]
+        sup = [self._support_dict(i, row, strict) for i, row in enumerate(self.supports)]
         if sup:
             out["support"] = sup
         for k, v in self.extras["top"].items():
@@ -304,6 +307,11 @@ class FormState:
             elif str(v).strip():
                 v = str(v).strip()
                 b[k] = parse_number(f"beam.{k}", v, strict) if k.endswith("deflection_limit") else v
+        if self.beam_present is not None:
+            # the file left these out and the form still shows the loader's default: leave them out
+            for k in _OMITTED_DEFAULTS:
+                if k not in self.beam_present and k in b and b[k] == _written_default(k):
+                    del b[k]
         for k, v in self.extras["beam"].items():
             b.setdefault(k, copy.deepcopy(v))
         return b
@@ -356,12 +364,19 @@ class FormState:
         return s
 
     @staticmethod
-    def _support_dict(row: dict[str, Any]) -> dict[str, Any]:
+    def _support_dict(i: int, row: dict[str, Any], strict: bool = True) -> dict[str, Any]:
         d: dict[str, Any] = {"at": str(row.get("at", "")).strip()}
         for k in SUPPORT_FIELDS:
             v = str(row.get(k, "") or "").strip()
             if v:
                 d[k] = v
+        member = str(row.get("existing_member", "") or "").strip()
+        if is_measured_text(member):
+            kept = row.get("_measured")
+            if kept is not None and kept[0] == member:
+                d["existing_member"] = copy.deepcopy(kept[1])     # as read: the file's own values
+            else:
+                d["existing_member"] = parse_measured(f"support[{i + 1}].existing_member", member, strict)
         for k, v in row.get("_extra", {}).items():
             d.setdefault(k, copy.deepcopy(v))
         return d
@@ -390,6 +405,7 @@ class FormState:
         new.supports = copy.deepcopy(self.supports)
         new.extras = copy.deepcopy(self.extras)
         new.present = set(self.present)
+        new.beam_present = None if self.beam_present is None else set(self.beam_present)
         return new
 
     # ------------------------------------------------------------ from a job dict / text
@@ -435,6 +451,7 @@ class FormState:
 
     def _read_beam(self, beam: dict[str, Any]) -> None:
         f = self.fields
+        self.beam_present = set(beam)
         # keys absent from the file are blank in the form (the loader's defaults apply),
         # except the choices, which show the default the loader uses
         for k in ("span", "max_depth", "bearing_length", "end_distance", "deflection_limit",
@@ -506,9 +523,64 @@ def _read_support(t: dict[str, Any]) -> dict[str, Any]:
     for k, v in t.items():
         if k in ("at", *SUPPORT_FIELDS) and isinstance(v, str):
             row[k] = v
+        elif k == "existing_member" and _measured_table(v):
+            text = measured_text(v)
+            row[k] = text
+            row["_measured"] = (text, copy.deepcopy(v))
         else:
             row["_extra"][k] = copy.deepcopy(v)
     return row
+
+
+# ---------------------------------------------------------------- measured existing members
+#: keys of a measured existing member table (job file: existing_member = {h = "406 mm", ...})
+MEASURED_KEYS: tuple[str, ...] = ("h", "b", "tw", "tf", "r")
+_MEASURED_PREFIX = "measured:"
+_MEASURED_EXAMPLE = "measured: h = 406 mm, b = 178 mm, tw = 7.9 mm, tf = 12.8 mm, r = 10.2 mm"
+
+
+def _measured_table(v: Any) -> bool:
+    """A measured-member table the form can show as one line (scalar values only)."""
+    return (isinstance(v, dict) and bool(v) and set(v) <= {*MEASURED_KEYS, "designation"}
+            and all(isinstance(x, (str, int, float)) and not isinstance(x, bool) for x in v.values())
+            and all("," not in str(x) and "=" not in str(x) for x in v.values()))
+
+
+def is_measured_text(text: str) -> bool:
+    return str(text).strip().lower().startswith(_MEASURED_PREFIX)
+
+
+def measured_text(table: dict[str, Any]) -> str:
+    """``{h = "406 mm", ...}`` -> ``"measured: h = 406 mm, b = ..."`` (the form's one-line view)."""
+    keys = [k for k in (*MEASURED_KEYS, "designation") if k in table]
+    return _MEASURED_PREFIX + " " + ", ".join(f"{k} = {_text(table[k])}" for k in keys)
+
+
+def parse_measured(field: str, text: str, strict: bool = True) -> Any:
+    """The one-line view back to the job-file table; InputError naming ``field`` when it is not one."""
+    body = str(text).strip()[len(_MEASURED_PREFIX):]
+    out: dict[str, Any] = {}
+    for part in body.split(","):
+        if not part.strip():
+            continue
+        key, eq, value = part.partition("=")
+        key, value = key.strip(), value.strip()
+        if not eq or key not in (*MEASURED_KEYS, "designation") or not value or key in out:
+            if strict:
+                raise InputError(field, text, f"'{_MEASURED_EXAMPLE}' (each of h, b, tw, tf, r once, with "
+                                 "its unit), or a catalogue designation such as '254x254x73 UKC'")
+            return text
+        out[key] = value
+    return out
+
+
+#: [beam] choices a loaded file may leave out (the loader's default then applies)
+_OMITTED_DEFAULTS: tuple[str, ...] = ("grade", "section", "families", "load_level", "combination")
+
+
+def _written_default(k: str) -> Any:
+    v = BEAM_DEFAULTS[k]
+    return [str(x) for x in v] if isinstance(v, list) else v
 
 
 #: choices offered by the form's drop-downs (the loader remains the judge)
@@ -522,4 +594,5 @@ CHOICES: dict[str, tuple[str, ...]] = {
 
 __all__ = ["FormState", "CHOICES", "SPLICE_MODES", "SPLICE_MODE_KEYS", "SPLICE_OPTIONS", "SUPPORT_ENDS",
            "CONNECTION_TYPES", "EXISTING_FACES", "SUPPORT_FIELDS", "SUPPORT_DEFAULTS", "LOAD_KINDS",
-           "LOAD_FIELDS", "BEAM_DEFAULTS", "split_list", "parse_number", "parse_whole"]
+           "LOAD_FIELDS", "BEAM_DEFAULTS", "MEASURED_KEYS", "split_list", "parse_number", "parse_whole",
+           "is_measured_text", "measured_text", "parse_measured"]

@@ -387,7 +387,11 @@ class JobForm:
     def _build_load_rows(self) -> None:
         rows = []
         self.load_rows = []
-        small = W.Layout(width="110px")
+
+        def small() -> W.Layout:
+            # one Layout per box: a Layout is a shared model, so hiding one box would hide them all
+            return W.Layout(width="110px")
+
         for i, r in enumerate(self.state.loads):
             c: dict[str, W.Widget] = {
                 "name": W.Text(value=str(r["name"]), placeholder="name", layout=W.Layout(width="160px")),
@@ -396,10 +400,10 @@ class JobForm:
                                        layout=W.Layout(width="90px")),
                 "kind": W.Dropdown(options=[("UDL", "udl"), ("point", "point")], layout=W.Layout(width="80px")),
                 "value": W.Text(value=str(r["value"]), placeholder="kN/m" if r["kind"] == "udl" else "kN",
-                                layout=small),
-                "from": W.Text(value=str(r["from"]), placeholder="from (m)", layout=small),
-                "to": W.Text(value=str(r["to"]), placeholder="to (m)", layout=small),
-                "at": W.Text(value=str(r["at"]), placeholder="at (m)", layout=small),
+                                layout=small()),
+                "from": W.Text(value=str(r["from"]), placeholder="from (m)", layout=small()),
+                "to": W.Text(value=str(r["to"]), placeholder="to (m)", layout=small()),
+                "at": W.Text(value=str(r["at"]), placeholder="at (m)", layout=small()),
             }
             _set_choice(c["action"], r["action"])
             _set_choice(c["category"], r["category"])
@@ -528,7 +532,10 @@ class JobForm:
         self._force_save = False
         self.save_button.description = "Save job file"
         self.message.value = (f"<div style='{_LEVEL_STYLE['ok']}'>Saved {html.escape(self.file.path.name)} "
-                              f"({len(job.loads)} loads).</div>")
+                              f"({len(job.loads)} loads).</div>"
+                              f"<div style='{_LEVEL_STYLE['warn']}'>The calc below this form still shows the "
+                              "values it last ran with: run all cells again (Run &gt; Run All Cells) before "
+                              "exporting or printing the package.</div>")
         self.update()
         return True
 

@@ -5,7 +5,7 @@ Public API (imported lazily, so ``import splicecalc.report`` stays cheap)::
     build_pdf(notebook_path, pdf_path, execute=True, progress=True) -> BuildReport
     execute_notebook(nb_or_path, cwd=None, timeout=300) -> NotebookNode
     is_protected(pdf_path) -> bool
-    CalcPackageExporter                      # nbconvert --to splicecalc_pdf
+    CalcPackageExporter                      # nbconvert --to Calc_package_PDF
     show_check(record), show_summary(records), show_table(columns, rows)
     build_demo(out_dir) -> Path
     CalcBuildError, ToolMissingError, ProtectedPDFError, CellExecutionFailed

@@ -1,4 +1,4 @@
-"""nbconvert exporter for splicecalc calc packages (``--to splicecalc_pdf``).
+"""nbconvert exporter for splicecalc calc packages (``--to Calc_package_PDF``).
 
 ``CalcPackageExporter`` is nbconvert's PDF exporter with our own LaTeX
 template (``latex/calcpackage``): A4 sheets with a title block on every page,
@@ -7,7 +7,7 @@ JSON data (see :mod:`splicecalc.report.display`), handcalcs equations split
 into page-breakable rows (:func:`splicecalc.report.latexfix.break_handcalcs`),
 and XeLaTeX run as many passes as "Sheet N of M" and the contents need.
 
-Command line: ``jupyter nbconvert --to splicecalc_pdf calc.ipynb`` (the
+Command line: ``jupyter nbconvert --to Calc_package_PDF calc.ipynb`` (the
 notebook must already be executed; :func:`splicecalc.report.build.build_pdf`
 executes and writes atomically).
 """
@@ -29,6 +29,7 @@ from .errors import CalcBuildError
 from .figures import fill_figures
 from .latexfix import break_handcalcs
 from .latexout import check_latex, escape_tex, review_latex, table_latex, verbatim_text
+from .liveonly import LiveOnlyOutputsPreprocessor, StaleInputsPreprocessor
 from .metadata import calc_metadata
 
 #: folder holding our nbconvert template(s)
@@ -84,7 +85,9 @@ class FigurePreprocessor(Preprocessor):
 class CalcPackageExporter(PDFExporter):
     """PDF calc package: our LaTeX template, XeLaTeX, title block on every sheet."""
 
-    export_from_notebook = "splicecalc calc package (PDF)"
+    #: JupyterLab and Notebook 7 label the export menu with the entry-point name (pyproject.toml:
+    #: ``Calc_package_PDF``, capitalised), not with this attribute, which older front ends read
+    export_from_notebook = "Calc package (PDF)"
     #: show a tqdm bar over the LaTeX passes (stderr)
     progress = Bool(False, help="Show a progress bar over the LaTeX passes").tag(config=True)
     #: keep the .tex/.log here (a fresh temporary folder when empty)
@@ -123,7 +126,8 @@ class CalcPackageExporter(PDFExporter):
         # ours run after nbconvert's execution (``--execute``) and before outputs are extracted to files
         base = list(PDFExporter.class_traits()["default_preprocessors"].default())
         at = next((i for i, p in enumerate(base) if "ExtractOutputPreprocessor" in str(p)), len(base))
-        return base[:at] + [RefuseErrorsPreprocessor, FigurePreprocessor] + base[at:]
+        return base[:at] + [RefuseErrorsPreprocessor, StaleInputsPreprocessor, LiveOnlyOutputsPreprocessor,
+                            FigurePreprocessor] + base[at:]
 
     def default_filters(self):  # type: ignore[override]
         yield from super().default_filters()

@@ -227,6 +227,12 @@ def starter_job(project: str = "", number: str = "", title: str = "") -> str:
 
 
 # ======================================================================== build
+def executed_name(pdf: Path) -> Path:
+    """Where a build keeps the executed notebook of ``pdf`` when the source notebook has its name:
+    ``<stem>.executed.ipynb`` beside the PDF."""
+    return pdf.with_name(f"{pdf.stem}.executed.ipynb")
+
+
 from ..signoff.ledger import sidecar_path as _sidecar  # noqa: E402  (one definition of the record's name)
 
 
@@ -308,7 +314,8 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
 
     Default ``pdf``: the source's name with ``.pdf``. The executed notebook is
     written next to the PDF (same name, ``.ipynb``); for a job file that is also
-    the notebook built. Raises InputError for bad paths or inputs,
+    the notebook built. A source notebook is never rewritten: when it has that
+    name, the executed copy is :func:`executed_name` (``<stem>.executed.ipynb``). Raises InputError for bad paths or inputs,
     :class:`SignedPDFError` when the PDF must not be overwritten, and
     :class:`~splicecalc.report.errors.CalcBuildError` (failing cell, missing tool, LaTeX) otherwise.
     """
@@ -328,8 +335,10 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
     require_tool("xelatex")                 # missing tools stop the build before any file is written
     require_tool("pandoc")
     executed = out.with_suffix(".ipynb")
-    if executed.resolve() == src.resolve() and src.suffix == ".toml":  # pragma: no cover - suffixes differ
-        raise InputError("-o", str(out), "a PDF name other than the job file's")
+    if executed.resolve() == src.resolve():
+        # never rewrite the notebook being built (it may be open in Jupyter, which would then ask to
+        # overwrite or revert): the executed copy, which is what is signed, gets a name of its own
+        executed = executed_name(out)
     out.parent.mkdir(parents=True, exist_ok=True)
     run_dir = executed.parent if src.suffix == ".toml" else src.parent   # where the notebook runs
 
@@ -352,8 +361,6 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
 
         if src.suffix == ".toml":
             nb_source = notebook_for_job(src, executed)
-        elif executed.resolve() == src.resolve():
-            nb_source = src
         else:
             # execute in the source's folder (relative job paths), keep the ledger of the executed copy
             nb = _read(src)
@@ -415,4 +422,4 @@ def build_demo(out_dir: str | os.PathLike = "out", *, progress: bool = True) -> 
 
 __all__ = ["SIGNED_STATUSES", "DEFAULT_TEMPLATE", "HEADLESS_ENV", "JOB_FILE", "NewPackage", "PackageBuild", "SignedPDFError",
            "TEMPLATES", "build_demo", "build_package", "demo_job_path", "metadata_from_job", "new_package",
-           "notebook_for_job", "protection", "starter_job", "template_path"]
+           "notebook_for_job", "protection", "starter_job", "template_path", "executed_name"]

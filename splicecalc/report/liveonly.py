@@ -1,0 +1,71 @@
+"""What a notebook shows only to the person working in Jupyter stays out of the calc package.
+
+Two nbconvert preprocessors run by :class:`~splicecalc.report.exporter.CalcPackageExporter`
+(also when the package is exported from Jupyter's menu):
+
+* :class:`LiveOnlyOutputsPreprocessor` drops the outputs of cells tagged ``form``
+  (the job form) and every interactive widget view, whatever cell shows it: a
+  widget has no meaning on paper, and its plain-text stand-in ("Job form for
+  job.toml ...") must not be printed as if it were part of the calculation;
+* :class:`StaleInputsPreprocessor` refuses to print a notebook whose calc ran with
+  other inputs than the job file now holds (the form saved new values, the
+  notebook was not run again): the package would print the old values with
+  nothing to say so. The comparison is :func:`splicecalc.signoff.ledger.job_file_drift`
+  (the job inputs the notebook published against the job file its parameters
+  cell names, in the notebook's folder).
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+from typing import Any
+
+from nbconvert.preprocessors import Preprocessor
+
+from .errors import CalcBuildError
+
+#: tag of the cells whose outputs exist only in a live session
+LIVE_ONLY_TAGS: frozenset[str] = frozenset({"form"})
+#: MIME type of an ipywidgets view
+WIDGET_VIEW_MIME = "application/vnd.jupyter.widget-view+json"
+
+
+class LiveOnlyOutputsPreprocessor(Preprocessor):
+    """Remove the job form's outputs and widget views from the notebook being exported."""
+
+    def preprocess(self, nb: Any, resources: Any) -> tuple[Any, Any]:
+        for cell in nb.cells:
+            if cell.cell_type != "code":
+                continue
+            tags = set(cell.get("metadata", {}).get("tags", []))
+            if tags & LIVE_ONLY_TAGS:
+                cell.outputs = []
+                continue
+            outs = cell.get("outputs", [])
+            kept = [o for o in outs if WIDGET_VIEW_MIME not in o.get("data", {})]
+            if len(kept) != len(outs):
+                cell.outputs = kept
+        nb.metadata.pop("widgets", None)
+        return nb, resources
+
+
+class StaleInputsPreprocessor(Preprocessor):
+    """Refuse to print a notebook whose outputs were computed from other inputs than its job file."""
+
+    def preprocess(self, nb: Any, resources: Any) -> tuple[Any, Any]:
+        folder = (resources or {}).get("metadata", {}).get("path", "")
+        if not folder:
+            return nb, resources           # the notebook's folder is unknown: nothing to compare with
+        from ..signoff.ledger import job_file_drift
+
+        name = (resources or {}).get("metadata", {}).get("name", "") or "notebook"
+        why = job_file_drift(nb, Path(folder) / f"{name}.ipynb")
+        if why is not None:
+            why = why.replace(": rebuild, then sign again", "")
+            raise CalcBuildError(f"not printed: {why}, so the notebook's results are out of date. Run all "
+                                 "cells again (Run > Run All Cells), save, then export; or build with "
+                                 "`splicecalc build`.")
+        return nb, resources
+
+
+__all__ = ["LIVE_ONLY_TAGS", "LiveOnlyOutputsPreprocessor", "StaleInputsPreprocessor", "WIDGET_VIEW_MIME"]
