@@ -10,6 +10,9 @@ PYTHON_BIN="${PYTHON:-python3}"
 
 # Debian packages the PDF build and the PDF tests need.
 APT_PACKAGES="texlive-xetex texlive-latex-recommended texlive-latex-extra texlive-fonts-recommended lmodern fonts-dejavu-core pandoc poppler-utils"
+# Debian packages only the browser test needs (tests/test_browser.py, skipped without them):
+# installed when we are root, otherwise only mentioned.
+APT_PACKAGES_BROWSER="chromium"
 
 _missing_system() {
     local missing=0
@@ -38,6 +41,21 @@ ensure_system_packages() {
             echo "  sudo apt-get update && sudo apt-get install -y --no-install-recommends $APT_PACKAGES" >&2
             exit 1
         fi
+    fi
+}
+
+ensure_browser() {
+    command -v chromium >/dev/null 2>&1 && return 0
+    if [ "$(id -u)" = "0" ] && command -v apt-get >/dev/null 2>&1; then
+        echo "splicecalc: installing Chromium (Debian package) for the browser test ..." >&2
+        export DEBIAN_FRONTEND=noninteractive
+        # shellcheck disable=SC2086
+        if ! apt-get install -y -qq --no-install-recommends $APT_PACKAGES_BROWSER >/dev/null 2>&1; then
+            apt-get update -qq && apt-get install -y -qq --no-install-recommends $APT_PACKAGES_BROWSER >/dev/null \
+                || echo "splicecalc: warning: Chromium could not be installed; the browser test will be skipped" >&2
+        fi
+    else
+        echo "splicecalc: note: no Chromium, so the browser test is skipped (install: sudo apt-get install -y $APT_PACKAGES_BROWSER)" >&2
     fi
 }
 
