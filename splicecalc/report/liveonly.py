@@ -10,9 +10,9 @@ Two nbconvert preprocessors run by :class:`~splicecalc.report.exporter.CalcPacka
 * :class:`StaleInputsPreprocessor` refuses to print a notebook whose calc ran with
   other inputs than the job file now holds (the form saved new values, the
   notebook was not run again): the package would print the old values with
-  nothing to say so. The comparison is :func:`splicecalc.signoff.ledger.job_file_drift`
-  (the job inputs the notebook published against the job file its parameters
-  cell names, in the notebook's folder).
+  nothing to say so. :func:`job_file_drift` compares the canonical job inputs the
+  notebook published with those of the job file its parameters cell names, in the
+  notebook's folder.
 """
 
 from __future__ import annotations
@@ -49,6 +49,31 @@ class LiveOnlyOutputsPreprocessor(Preprocessor):
         return nb, resources
 
 
+def job_file_drift(nb: Any, folder: str | Path) -> str | None:
+    """Why the job file no longer matches the inputs the notebook printed, or None (also when the
+    notebook names no job file or published no inputs: nothing to compare)."""
+    from ..core.errors import InputError
+    from ..signoff.digest import canonical_json, job_inputs
+    from ..signoff.notebook import job_file_name
+
+    printed = job_inputs(nb)
+    name = job_file_name(nb)
+    if not printed or not name:
+        return None
+    path = Path(folder) / name
+    if not path.is_file():
+        return f"the job file {name} named by the notebook is missing"
+    from ..job import load_job
+
+    try:
+        now = load_job(path).to_canonical_dict()
+    except InputError as exc:
+        return f"the job file {name} no longer loads ({exc})"
+    if canonical_json(now) != canonical_json(printed):
+        return f"the job file {name} changed since the notebook was executed"
+    return None
+
+
 class StaleInputsPreprocessor(Preprocessor):
     """Refuse to print a notebook whose outputs were computed from other inputs than its job file."""
 
@@ -56,16 +81,12 @@ class StaleInputsPreprocessor(Preprocessor):
         folder = (resources or {}).get("metadata", {}).get("path", "")
         if not folder:
             return nb, resources           # the notebook's folder is unknown: nothing to compare with
-        from ..signoff.ledger import job_file_drift
-
-        name = (resources or {}).get("metadata", {}).get("name", "") or "notebook"
-        why = job_file_drift(nb, Path(folder) / f"{name}.ipynb")
+        why = job_file_drift(nb, folder)
         if why is not None:
-            why = why.replace(": rebuild, then sign again", "")
             raise CalcBuildError(f"not printed: {why}, so the notebook's results are out of date. Run all "
                                  "cells again (Run > Run All Cells), save, then export; or build with "
                                  "`splicecalc build`.")
         return nb, resources
 
 
-__all__ = ["LIVE_ONLY_TAGS", "LiveOnlyOutputsPreprocessor", "StaleInputsPreprocessor", "WIDGET_VIEW_MIME"]
+__all__ = ["job_file_drift", "LIVE_ONLY_TAGS", "LiveOnlyOutputsPreprocessor", "StaleInputsPreprocessor", "WIDGET_VIEW_MIME"]

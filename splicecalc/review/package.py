@@ -101,6 +101,9 @@ def locate(package: str | os.PathLike) -> ReviewPackage:
         return ReviewPackage(p.resolve(), None, None)
     pdf = p.resolve() if suffix == ".pdf" else None
     nb = p.resolve() if suffix == ".ipynb" else p.resolve().with_suffix(".ipynb")
+    if suffix == ".pdf":
+        from ..signoff.notebook import sibling
+        nb = sibling(p.resolve(), ".ipynb") or nb      # the executed notebook beside it, by the one rule
     if not nb.is_file():
         raise InputError("PACKAGE", str(package), "a calc package PDF with its executed notebook beside it "
                          f"({nb.name})", "Give the notebook or the job file instead")

@@ -341,7 +341,21 @@ def verify_entries(nb: dict, nb_path: Path, trusted: list[Any], digest: str | No
 
 
 def sibling(path: Path, suffix: str) -> Path | None:
-    """The file with ``path``'s stem and ``suffix`` in the same folder (case-insensitive), or None."""
+    """The file with ``path``'s stem and ``suffix`` in the same folder (case-insensitive), or None.
+
+    A PDF's executed notebook is ``<stem>.executed.ipynb`` when the build kept it under that name
+    (``splicecalc build X.ipynb`` never rewrites its source ``X.ipynb``), unless the PDF's build
+    record names the plain ``<stem>.ipynb``."""
+    if suffix == ".ipynb" and path.suffix.lower() == ".pdf":
+        executed = path.with_name(f"{path.stem}.executed.ipynb")
+        if executed.is_file():
+            recorded = None
+            try:
+                recorded = json.loads(Path(str(path) + ".json").read_text(encoding="utf-8")).get("notebook")
+            except (OSError, ValueError, AttributeError):
+                pass
+            if not recorded or Path(recorded).name != path.with_suffix(suffix).name:
+                return executed
     want = (path.stem + suffix).casefold()
     exact = path.with_suffix(suffix)
     if exact.is_file():
