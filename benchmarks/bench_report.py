@@ -8,9 +8,9 @@ Routes, each a fresh process timed from outside (interpreter start, imports, eve
   (what the CLI runs: ``workflow.package.build_package``, in a child Python that prints its timings);
 * **ours, rebuild** - the same build again, unchanged job: the XeLaTeX passes are seeded with the
   previous build's .aux/.toc/.out (report.compile), as after signing or a revision that keeps the pages;
-* **stock**         - ``jupyter nbconvert --to splicecalc_pdf --execute`` of the same notebook (the one our
+* **stock**         - ``jupyter nbconvert --to Calc_package_PDF --execute`` of the same notebook (the one our
   build writes from the job, its job file beside it, the kernel headless like ours): nbconvert's own
-  command line and ExecutePreprocessor with our exporter (entry point ``splicecalc_pdf``), so the same
+  command line and ExecutePreprocessor with our exporter (entry point ``Calc_package_PDF``), so the same
   LaTeX, with XeLaTeX passes from nothing (no seed: the CLI keeps no build folder) and none of our
   build's own arrangements (kernel launched first, nothing else). ``--to pdf`` (nbconvert's own
   template) cannot typeset this notebook any more: its check tables are ``text/latex`` using macros
@@ -72,7 +72,7 @@ def ours(job: Path, pdf: Path, fresh: bool) -> dict:
     return r
 
 
-def stock(notebook: Path, exporter: str = "splicecalc_pdf") -> dict:
+def stock(notebook: Path, exporter: str = "Calc_package_PDF") -> dict:
     jupyter = Path(sys.executable).with_name("jupyter")
     out = notebook.with_name(notebook.stem + "_stock")
     env = {**os.environ, "SPLICECALC_HEADLESS": "1"}
@@ -102,8 +102,8 @@ def main() -> int:
     ap.add_argument("--rounds", type=int, default=3)
     ap.add_argument("--out", type=Path, default=None)
     ap.add_argument("--no-stock", action="store_true", help="time our builds only")
-    ap.add_argument("--stock-exporter", default="splicecalc_pdf",
-                    help="nbconvert exporter of the stock route (default splicecalc_pdf; 'pdf' = nbconvert's template)")
+    ap.add_argument("--stock-exporter", default="Calc_package_PDF",
+                    help="nbconvert exporter of the stock route (default Calc_package_PDF; 'pdf' = nbconvert's template)")
     args = ap.parse_args()
     sys.path.insert(0, str(ROOT))
     from splicecalc.workflow.package import demo_job_path, notebook_for_job
