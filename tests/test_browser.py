@@ -65,6 +65,9 @@ MEASURED = 'existing_member = { h = "254.1 mm", b = "254.6 mm", tw = "8.6 mm", t
 
 def _job_text() -> str:
     text = (ROOT / "examples" / "plant_room_trimmer.toml").read_text(encoding="utf-8")
+    # slip-resistant splice bolts (a bearing-type splice's slip fails the deflection checks, and a
+    # build with a failing check exits 1)
+    text = text.replace('category = "A"', 'category = "B"\nfriction_class = "B"')
     i = text.rfind('existing_member = "254x254x73 UKC"')
     return text[:i] + MEASURED + text[i + len('existing_member = "254x254x73 UKC"'):]
 
