@@ -21,7 +21,8 @@ def notebook_path(arg: str, which: str) -> Path:
     p = Path(arg)
     suffix = p.suffix.lower()
     if suffix == ".pdf":
-        nb = p.with_suffix(".ipynb")
+        from ..signoff.notebook import sibling
+        nb = sibling(p, ".ipynb") or p.with_suffix(".ipynb")     # <stem>.executed.ipynb when the build kept one
         if not nb.is_file():
             raise InputError(which, arg, f"a package PDF with its executed notebook beside it ({nb.name} is "
                              "missing: give the notebook, or copy it next to the PDF)")

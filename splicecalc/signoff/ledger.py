@@ -231,7 +231,7 @@ def protection_reason(pdf: str | Path) -> str | None:
                 return "recorded in an unreadable build record"
             if not isinstance(data, dict) or data.get("issued") is True:
                 return "an issued revision"
-    for cand in _same_name_files(p.with_suffix(".ipynb")):
+    for cand in [*_same_name_files(p.with_suffix(".ipynb")), p.with_name(f"{p.stem}.executed.ipynb")]:
         if cand.is_file() and _notebook_is_signed(cand):
             return f"the PDF of a signed notebook ({cand.name} is signed; its package is a record)"
     reg = p.parent / "issue_register.json"
