@@ -625,6 +625,10 @@ def test_export_drops_the_form_and_refuses_stale_outputs(tmp_path):
     stale = _executed_like(tmp_path, "5.0 m")                  # saved in the form, not run again
     with pytest.raises(CalcBuildError, match="job.toml changed.*Run all cells again"):
         StaleInputsPreprocessor().preprocess(stale, res)
+    # and the exporter runs it, as Jupyter's export menu calls it (refused before any LaTeX work)
+    from splicecalc.report.exporter import CalcPackageExporter
+    with pytest.raises(CalcBuildError, match="Run all cells again"):
+        CalcPackageExporter().from_notebook_node(_executed_like(tmp_path, "5.0 m"), resources=copy.deepcopy(res))
 
 
 def test_load_rows_have_their_own_layouts(tmp_path):

@@ -21,6 +21,7 @@ from pathlib import Path
 from typing import Any
 
 from nbconvert.preprocessors import Preprocessor
+from traitlets import Bool
 
 from .errors import CalcBuildError
 
@@ -32,6 +33,8 @@ WIDGET_VIEW_MIME = "application/vnd.jupyter.widget-view+json"
 
 class LiveOnlyOutputsPreprocessor(Preprocessor):
     """Remove the job form's outputs and widget views from the notebook being exported."""
+
+    enabled = Bool(True).tag(config=True)        # on in every export (nbconvert's default is off)
 
     def preprocess(self, nb: Any, resources: Any) -> tuple[Any, Any]:
         for cell in nb.cells:
@@ -76,6 +79,8 @@ def job_file_drift(nb: Any, folder: str | Path) -> str | None:
 
 class StaleInputsPreprocessor(Preprocessor):
     """Refuse to print a notebook whose outputs were computed from other inputs than its job file."""
+
+    enabled = Bool(True).tag(config=True)
 
     def preprocess(self, nb: Any, resources: Any) -> tuple[Any, Any]:
         folder = (resources or {}).get("metadata", {}).get("path", "")
