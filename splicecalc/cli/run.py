@@ -113,6 +113,10 @@ def summary_text(result: Any, source: str = "") -> str:
     head = " - ".join(t for t in (p.number, p.title) if t) or "splicecalc job"
     width = max(90, min(140, shutil.get_terminal_size((110, 24)).columns))
     lines = [head + (f"   ({source})" if source else ""), result.headline + "."]
+    passed = getattr(result.design, "passed_over", ())
+    if passed:
+        lines.append("Section search: lighter sections that pass the member checks, passed over:")
+        lines += [f"  {p.line()}" for p in passed]
     parts = job_parts(result)
     for part in parts:
         lines.append("")

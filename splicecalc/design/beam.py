@@ -251,6 +251,23 @@ class Candidate:
 
 
 @dataclass(frozen=True)
+class PassedOver:
+    """A section that passes every member check but with which the rest of the job cannot be
+    carried out (``section = "auto"`` with a ``whole_job`` test): no splice layout fits or carries
+    the forces, or the pieces cannot meet the access limits. ``reason``: one line, from the error."""
+
+    designation: str
+    mass_kg_per_m: float
+    reason: str
+
+    def line(self) -> str:
+        return f"{self.designation}: {self.reason}"
+
+    def to_dict(self) -> dict[str, Any]:
+        return {"designation": self.designation, "mass_kg_per_m": self.mass_kg_per_m, "reason": self.reason}
+
+
+@dataclass(frozen=True)
 class BeamDesign:
     """Result of :func:`design_beam`.
 
@@ -272,6 +289,8 @@ class BeamDesign:
     alternatives: tuple[Candidate, ...] = ()
     message: str = ""
     combinations: tuple[str, ...] = field(default=())
+    #: lighter sections that pass the member checks but fail the ``whole_job`` test, lightest first
+    passed_over: tuple[PassedOver, ...] = ()
 
     @property
     def governing_record(self) -> CheckRecord | None:
@@ -315,6 +334,7 @@ class BeamDesign:
             "checks": [r.to_dict() for r in self.records],
             "candidates": [c.to_dict() for c in self.candidates],
             "alternatives": [c.to_dict() for c in self.alternatives],
+            "passed_over": [p.to_dict() for p in self.passed_over],
         }
 
 
@@ -371,6 +391,9 @@ def _summary(design: "BeamDesign", source: str = "", show_candidates: int = 12) 
             lines.append(f"  ... {len(hidden)} lighter sections fail as well (all listed with --json)")
             cands = cands[len(hidden):]
         lines.extend(f"  {c.summary()}" for c in cands)
+        if design.passed_over:
+            lines.append("Passed over (pass the member checks, but the job cannot be completed with them):")
+            lines.extend(f"  {p.line()}" for p in design.passed_over)
         if design.alternatives:
             lines.append("Next passing candidates: " + ", ".join(
                 f"{c.designation} ({c.mass_kg_per_m:g} kg/m, {c.governing} u = {c.utilisation:.3f})"
@@ -843,11 +866,21 @@ def _analysis(ctx: _Context, section: Section) -> BeamAnalysis:
                         ctx.beam.restraints)
 
 
-def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None) -> BeamDesign:
+def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None,
+                whole_job: Callable[["BeamDesign"], Exception | str | None] | None = None) -> BeamDesign:
     """Design (``section = "auto"``) or check (a designation) the job's beam; see the module docstring.
 
     ``render``: render the chosen section's checks with handcalcs (LaTeX in each record).
     ``psi``: combination factors; None (default) takes the job's ``beam.psi_table`` (UK NA unless set).
+    ``whole_job`` (``section = "auto"`` only): the test of the rest of the job for a section that
+    passes the member checks, given its plain-float design; it returns None when the job can be
+    completed with it (the splices fit, carry the forces and the pieces meet the access limits), else
+    the error that stopped it, or a one-line reason when the joints were designed but one of their
+    checks fails. Such a section is passed over (``passed_over``, with the reason) and the search goes
+    on, heavier, through the sections that pass the member checks (only those: a failed attempt costs
+    one splice plan). When none completes the job, the lightest whose joints only fail a check is the
+    result (those checks failing in it); when every one stopped with an error, the heaviest one's
+    error is raised, naming how many were tried. The search stays the one loop of the design.
     Raises :class:`InputError` for bad input; a failing design is a result (``ok`` False).
     """
     if not isinstance(job, Job):
@@ -875,11 +908,23 @@ def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None) 
     tried: list[Candidate] = []
     chosen: tuple[Section, _Run] | None = None
     alternatives: list[Candidate] = []
+    passed: list[PassedOver] = []
+    errors: list[Exception] = []           # of the passed-over sections (while none only fails a check)
+    fallback: tuple[Section, _Run, int] | None = None     # the lightest whose joints fail a check only
     for s in secs:
         cand, run = _try(ctx, s)
         tried.append(cand)
         if cand.ok:
             if chosen is None:
+                if whole_job is not None:
+                    err = whole_job(_result(ctx, s, run, (cand,), (), ""))   # plain floats, this section
+                    if err is not None:
+                        passed.append(PassedOver(s.designation, s.mass_nominal, _reason(err, s)))
+                        if not isinstance(err, str):
+                            errors.append(err)
+                        elif fallback is None:
+                            fallback = (s, run, len(passed) - 1)
+                        continue
                 chosen = (s, run)  # type: ignore[assignment]
             else:
                 alternatives.append(cand)
@@ -896,6 +941,32 @@ def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None) 
     for i in (i for i in shown if tried[i].stage == "full"):
         sec = by_name[tried[i].designation]
         tried[i] = _candidate(sec, _check_section_all(ctx, sec, render=False), "full")
+    if chosen is None and fallback is not None:
+        # no section completes the job with every joint check within capacity, but this one's joints
+        # can be designed: it is the result, its failing joint checks shown (not an error)
+        chosen = (fallback[0], fallback[1])
+        passed = passed[:fallback[2]]
+    if chosen is None and passed:
+        # the cause shared by most of them is the real one (the access limits for every section, say, when
+        # a few light ones also fail on bolts that do not fit their flange); named for the lightest of
+        # those, the nearest to working, with the first of any other cause
+        def cause(e: Exception) -> str:
+            return (f"{e.field}: {' '.join(str(e.allowed).split()[:3])}" if isinstance(e, InputError)
+                    else type(e).__name__)
+        errs = [(p, e) for p, e in zip(passed, errors)]
+        counts: dict[str, int] = {}
+        for _, e in errs:
+            counts[cause(e)] = counts.get(cause(e), 0) + 1
+        main = max(counts, key=lambda k: counts[k])
+        p0, e0 = next((p, e) for p, e in errs if cause(e) == main)
+        other = next((p for p, e in errs if cause(e) != main), None)
+        what = (f"beam.section = 'auto': none of the {len(passed)} sections of {fams}{depth} that pass the "
+                f"member checks can be spliced (and connected) within the job's limits; {counts[main]} of "
+                f"them for this cause, the lightest, {p0.line()}"
+                + (f"; {len(passed) - counts[main]} for others, e.g. {other.line()}" if other is not None else ""))
+        if isinstance(e0, InputError):
+            raise InputError(e0.field, e0.value, what, e0.hint) from None
+        raise type(e0)(what) from None
     if chosen is None:
         heaviest = max(secs, key=lambda s: (s.mass_nominal, s.h))
         last = next(c for c in tried if c.designation == heaviest.designation)
@@ -909,9 +980,24 @@ def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None) 
     assert gov is not None
     msg = (f"Lightest passing section of {fams}{depth}: {section.designation} {job.beam.grade} "
            f"({section.mass_nominal:g} kg/m), governed by {gov.id} (u = {gov.utilisation:.3f})")
+    if passed:
+        msg += (f"; passed over (pass the member checks, but the splices cannot be designed with them): "
+                + ", ".join(p.designation for p in passed))
     # the passing record of the chosen section replaces its fail-fast entry
     tried = [(_candidate(section, run, "full") if c.designation == section.designation else c) for c in tried]
-    return _result(ctx, section, run, tuple(tried), tuple(alternatives), msg)
+    return replace(_result(ctx, section, run, tuple(tried), tuple(alternatives), msg), passed_over=tuple(passed))
+
+
+def _reason(err: Exception, section: Section) -> str:
+    """One line of why the job cannot be completed with ``section``, from its error: what was
+    expected (an InputError's 'expected ...' part, which names the cause) or the message."""
+    if isinstance(err, str):
+        text = err
+    elif isinstance(err, InputError):
+        text = f"{err.field} = {err.value!r}: needs {err.allowed}"
+    else:
+        text = str(err)
+    return " ".join(text.split())
 
 
 def _result(ctx: _Context, section: Section, run: _Run, candidates: tuple[Candidate, ...],
@@ -927,4 +1013,4 @@ def _result(ctx: _Context, section: Section, run: _Run, candidates: tuple[Candid
                       alternatives=alternatives, message=message, combinations=combos)
 
 
-__all__ = ["SELF_WEIGHT", "BeamAnalysis", "BeamDesign", "Candidate", "design_beam", "search_candidates"]
+__all__ = ["SELF_WEIGHT", "BeamAnalysis", "BeamDesign", "Candidate", "PassedOver", "design_beam", "search_candidates"]

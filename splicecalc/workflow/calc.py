@@ -259,9 +259,10 @@ def _sls_at(design: BeamDesign, x: float) -> tuple[float, float]:
 
 
 # ======================================================================== parts
-def design_member(job: Job, render: bool = True) -> BeamDesign:
-    """Actions, analysis, member checks and (``section = "auto"``) the lightest section."""
-    design = design_beam(job, render=render)
+def design_member(job: Job, render: bool = True, whole_job: Any = None) -> BeamDesign:
+    """Actions, analysis, member checks and (``section = "auto"``) the lightest section
+    (for which ``whole_job`` finds no error: see :func:`splicecalc.design.beam.design_beam`)."""
+    design = design_beam(job, render=render, whole_job=whole_job)
     if design.section is None or design.analysis is None:
         raise CalcError(f"the member design gave no section: {design.message}")
     return design
@@ -385,12 +386,34 @@ def run_calc(job: Job, render: bool = True) -> CalcResult:
     if not isinstance(render, bool):
         raise InputError("render", render, "True or False")
     _require_spec(job)
-    design = design_member(job, render=render)
+    # section = "auto" with splices: the search takes the lightest section with which the end connections
+    # and the splices can be designed too (plain floats; kept to be reused when not rendering)
+    tried: dict[str, tuple] = {}
+
+    def joints(d: BeamDesign) -> Exception | None:
+        try:
+            conns = design_connections(job, d, render=False)
+            tried[d.section.designation] = (conns, *design_splices(job, d, render=False,
+                                                                    end_mass_kg=_end_masses(job, conns)))
+        except (InputError, CalcError) as err:
+            return err
+        conns, _, parts = tried[d.section.designation]
+        bad = [r for p in (*parts, *conns) for r in p.records if r.checked and not r.ok and not r.id.endswith("tie_force")]
+        if bad:
+            r = max(bad, key=lambda r: r.utilisation)
+            return f"{r.title} exceeds capacity (u = {r.utilisation:.2f}; {r.clause})"
+        return None
+
+    auto_splices = job.beam.is_auto and job.splices is not None
+    design = design_member(job, render=render, whole_job=joints if auto_splices else None)
     notes: list[str] = list(job.notes)
 
-    # end connections first: what they weigh is carried by the end pieces
-    connections = design_connections(job, design, render=render)
-    plan, splices = design_splices(job, design, render=render, end_mass_kg=_end_masses(job, connections))
+    if not render and design.section.designation in tried:
+        connections, plan, splices = tried[design.section.designation]
+    else:
+        # end connections first: what they weigh is carried by the end pieces
+        connections = design_connections(job, design, render=render)
+        plan, splices = design_splices(job, design, render=render, end_mass_kg=_end_masses(job, connections))
     positions = plan.positions if plan is not None else None
     slip = splice_slip_checks(job, design, plan, render=render)
     rounds = plan.rounds if plan is not None else 0

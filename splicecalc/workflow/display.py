@@ -442,6 +442,8 @@ def show_member(result: CalcResult) -> None:
         lighter = list(d.lighter_failures)[-6:]
         rows = [[c.designation, f"{c.mass_kg_per_m:g}", "fails", c.governing, fmt_utilisation(c.utilisation)]
                 for c in lighter]
+        rows += [[p.designation, f"{p.mass_kg_per_m:g}", "passed over", f"joints: see note {k}", "-"]
+                 for k, p in enumerate(d.passed_over, start=1)]
         rows.append([d.section.designation, f"{d.section.mass_nominal:g}", "chosen" if d.ok else "fails",
                      (d.governing_record.id if d.governing_record else "-"),
                      fmt_utilisation(d.governing_record.utilisation) if d.governing_record else "-"])
@@ -451,7 +453,9 @@ def show_member(result: CalcResult) -> None:
                    title="Section search (the heaviest lighter sections tried, the chosen one, the next passing)",
                    notes="Each section with its worst check. A section stopped by the first checks (bending, "
                          "shear, deflection, floor frequency) shows the worst of those; one that reached the "
-                         "lateral-torsional buckling stage was checked in full.")
+                         "lateral-torsional buckling stage was checked in full."
+                         + "".join(f" ({k}) {p.designation} passes the member checks but is passed over: "
+                                   f"{p.reason}." for k, p in enumerate(d.passed_over, start=1)))
     show_part_checks(result.member_records, "Member: detailing rules")
 
 
