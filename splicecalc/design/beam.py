@@ -982,7 +982,8 @@ def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None,
     msg = (f"Lightest passing section of {fams}{depth}: {section.designation} {job.beam.grade} "
            f"({section.mass_nominal:g} kg/m), governed by {gov.id} (u = {gov.utilisation:.3f})")
     if passed:
-        msg += (f"; passed over (pass the member checks, but the splices cannot be designed with them): "
+        msg += (f"; passed over (pass the member checks, but their splices or end connections cannot be "
+                f"designed, or fail a check): "
                 + ", ".join(p.designation for p in passed))
     # the passing record of the chosen section replaces its fail-fast entry
     tried = [(_candidate(section, run, "full") if c.designation == section.designation else c) for c in tried]
