@@ -134,3 +134,93 @@ def test_when_no_section_can_be_spliced_one_error_names_the_cause():
     assert "\n" not in msg
     assert "beam.section = 'auto'" in msg and "max_piece_mass = 60 kg" in msg
     assert ei.value.field == "splices"
+
+
+SUPPORTS = """
+[[support]]
+at = "start"
+connection = "end plate"
+bolts = "M20 8.8"
+plate = "S275"
+existing_face = "column flange"
+existing_steel = "1950-1958"
+
+[support.existing_member]
+designation = "existing stanchion (measured)"
+h = "254 mm"
+b = "203 mm"
+tw = "8.9 mm"
+tf = "12.7 mm"
+r = "10.2 mm"
+
+[support.existing_loads]
+kind = "column"
+height = "4.2 m"
+category = "H"
+
+[support.existing_loads.axial]
+permanent = "95 kN"
+imposed = "40 kN"
+
+[[support]]
+at = "end"
+connection = "end plate"
+bolts = "M20 8.8"
+plate = "S275"
+existing_face = "beam web"
+existing_steel = "1950-1958"
+
+[support.existing_member]
+designation = "existing crossbeam (measured)"
+h = "457 mm"
+b = "152 mm"
+tw = "9.9 mm"
+tf = "17.0 mm"
+r = "10.2 mm"
+
+[support.existing_loads]
+kind = "beam"
+span = "6.0 m"
+at = "3.0 m"
+restraints = [
+    "3.0 m",
+]
+category = "H"
+torsion = "free"
+
+[support.existing_loads.udl]
+permanent = "3.5 kN/m"
+imposed = "2.0 kN/m"
+"""
+
+
+@pytest.fixture(scope="module")
+def with_supports():
+    return run_calc(loads_job(JOB + SUPPORTS, source="auto-splice test, supports"), render=False)
+
+
+def test_a_section_whose_end_plate_fails_is_passed_over(with_supports):
+    r = with_supports
+    d = r.design
+    over = {p.designation: p.reason for p in d.passed_over}
+    # 254x146x37 UKB splices, but its end plate does not fit the web between the root fillets
+    assert "254x146x37 UKB" in over and over["254x146x37 UKB"].startswith("End ")
+    assert all(p.mass_kg_per_m <= d.section.mass_nominal for p in d.passed_over)
+    assert d.ok and all(rec.ok for rec in r.records if rec.checked)
+    # the same section given by the job: designed, with the failing end-plate check the reason names
+    fixed = run_calc(loads_job((JOB + SUPPORTS).replace('section = "auto"', 'section = "254x146x37 UKB"'),
+                               source="fixed"), render=False)
+    bad = [rec for rec in fixed.records if rec.checked and not rec.ok]
+    assert bad and any(rec.title in over["254x146x37 UKB"] for rec in bad)
+
+
+def test_joints_failing_a_check_for_every_section_are_a_result_not_an_error():
+    # an existing stanchion flange too narrow (102 mm) for the end plate's bolts: a joint check fails
+    # whatever the beam; the lightest section whose joints can be designed is the result, its failing
+    # checks shown (a failing design is a result, never an input error)
+    text = (JOB + SUPPORTS).replace('b = "203 mm"', 'b = "102 mm"', 1)
+    r = run_calc(loads_job(text, source="narrow stanchion"), render=False)
+    assert not r.ok and r.design.ok
+    assert any(rec.id.startswith("A.") and rec.checked and not rec.ok for rec in r.records)
+    # only the sections stopped by an error are listed as passed over (lighter than the result)
+    assert [p.designation for p in r.design.passed_over] == ["305x102x33 UKB", "356x127x33 UKB"]

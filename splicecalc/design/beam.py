@@ -23,7 +23,10 @@ With ``section = "auto"`` it searches the job's families (honouring ``max_depth`
 the plain-float path, lightest first: cheap checks (bending, shear, deflection) before
 the eigenvalue M_cr solves, failing fast; the analysis is cached per section mass since
 only the self-weight changes. The result names the lightest passing section, the next
-two passing candidates and why every lighter one failed. ``render=True`` re-runs the
+two passing candidates and why every lighter one failed. Given ``whole_job`` (the calc gives it
+for a job with splices), a section passing the member checks is taken only when its splices and
+end connections can be designed too; the lighter ones that could not are ``passed_over``, each
+with its one-line reason. ``render=True`` re-runs the
 chosen section's checks with handcalcs rendering (only that section).
 
 Units: N, mm, N*mm internally; records in kN, kNm, mm.
