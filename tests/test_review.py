@@ -378,6 +378,10 @@ def test_checked_signature_waits_for_closed_comments(built, tmp_path, signers):
     reg.path.write_bytes(raw.replace(b"answered in rev. P1", b"answered in rev. P9"))
     st = verify_package(pdf)
     assert st.state == "changed" and "review register" in " ".join(st.lines)
+    # junk appended by hand (not an event of the chain) is a change too
+    reg.path.write_bytes(raw + b"not an event\n")
+    st = verify_package(pdf)
+    assert st.state == "changed" and "appended to by hand" in " ".join(st.lines)
 
 
 @pdf_mark

@@ -153,6 +153,10 @@ BOUNDS: tuple[Bound, ...] = (
 #: longest text of a title-block field, a load name or group, a designation (characters); the title
 #: block, the running footer and the table rows have room for this much
 TEXT_MAX = {"project": 200, "load.name": 80, "load.group": 80, "designation": 80}
+#: title-block fields printed in the running strip and footer of every sheet: each has room for one
+#: line there (a longer title wrapped the strip onto the sheet's first heading); the rest, 200
+PROJECT_TEXT_MAX = {"number": 40, "revision": 20, "date": 30, "title": 100, "client": 80, "location": 80,
+                    "prepared_by": 80, "checked_by": 80, "approved_by": 80}
 
 
 def _fmt(x: float) -> str:
@@ -224,7 +228,7 @@ def check_text_lengths(doc: dict) -> None:
     proj = doc.get("project")
     if isinstance(proj, dict):
         for k, v in proj.items():
-            one(f"project.{k}", v, TEXT_MAX["project"], "the title block")
+            one(f"project.{k}", v, PROJECT_TEXT_MAX.get(k, TEXT_MAX["project"]), "the sheet's title strip")
     loads = doc.get("load")
     if isinstance(loads, list):
         for i, ld in enumerate(loads):

@@ -139,6 +139,10 @@ def register_changed_since(package: str | os.PathLike, tag: dict) -> str | None:
         return f"the review register {tag.get('review_register', '')} recorded at signing cannot be read"
     if len(raw) < int(size) or hashlib.sha256(raw[:int(size)]).hexdigest() != sha:
         return f"the review register {pkg.register.path.name} was changed after signing (not only appended to)"
+    try:
+        pkg.register.events()          # what was appended since must be events of the register, chained
+    except RegisterError as err:
+        return f"the review register {pkg.register.path.name} was appended to by hand after signing ({err})"
     return None
 
 
