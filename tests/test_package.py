@@ -274,3 +274,20 @@ def test_bad_input_exit_2(tmp_path):
     (tmp_path / "bad.toml").write_text('[beam]\nspan = "-3 m"\n', encoding="utf-8")
     r = cli("build", "bad.toml", cwd=tmp_path)
     assert r.returncode == 2 and "beam.span" in r.stderr
+
+
+def test_cover_states_the_result_the_records_give(demo, pages):
+    # the cover's result line counts what the executed notebook holds (outside reading: pdftotext)
+    recs = collect_records(nbformat.read(demo.notebook, as_version=4))
+    made = [r for r in recs if r.get("status") not in ("info", "not checked")]
+    gaps = [r for r in recs if r.get("status") == "not checked"]
+    cover = " ".join(pages[0].split())
+    failing = [r for r in made if not r.get("ok")]
+    if failing:
+        assert f"{len(failing)} of {len(made)} checks exceed capacity" in cover
+    else:
+        assert f"all {len(made)} checks made are within capacity" in cover
+    top = max(made, key=lambda r: r.get("utilisation") or 0.0)
+    assert f"highest utilisation {top['utilisation']:.2f}" in cover
+    if gaps:
+        assert f"{len(gaps)} NOT CHECKED" in cover
