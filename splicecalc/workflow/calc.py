@@ -390,9 +390,11 @@ def run_calc(job: Job, render: bool = True) -> CalcResult:
     # and the splices can be designed too (plain floats; kept to be reused when not rendering)
     tried: dict[str, tuple] = {}
 
-    def joints(d: BeamDesign) -> Exception | None:
+    def joints(d: BeamDesign) -> Exception | str | None:
+        # an end connection that cannot be designed stops the job (its error names the job's own input,
+        # a notch or a plate, as with a given section); splices that cannot be designed pass it over
+        conns = design_connections(job, d, render=False)
         try:
-            conns = design_connections(job, d, render=False)
             tried[d.section.designation] = (conns, *design_splices(job, d, render=False,
                                                                     end_mass_kg=_end_masses(job, conns)))
         except (InputError, CalcError) as err:
