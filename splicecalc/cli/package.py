@@ -67,6 +67,10 @@ def _print_build(b: Any, quiet: bool) -> None:
               f"{r.overhead_s:.1f} s, total {r.total_s:.1f} s")
         if r.wide_boxes:
             print(f"warning: {len(r.wide_boxes)} line(s) too wide for the sheet, see {r.log_path}", file=sys.stderr)
+    if r.missing_chars:
+        shown = ", ".join(r.missing_chars[:8]) + (" ..." if len(r.missing_chars) > 8 else "")
+        print(f"warning: {len(r.missing_chars)} character(s) are not in the sheet's fonts and are left out of the "
+              f"PDF: {shown}; write them differently in the job file (see {r.log_path})", file=sys.stderr)
 
 
 def _failing_checks(notebook: Any) -> int:

@@ -55,6 +55,8 @@ class BuildReport:
     overfull: list[BadBox] = field(default_factory=list)
     overfull_limit_pt: float = OVERFULL_LIMIT_PT
     latex_seeded: bool = False
+    #: characters the fonts lack, left out of the PDF (never silently: the build warns)
+    missing_chars: list[str] = field(default_factory=list)
 
     @property
     def overhead_s(self) -> float:
@@ -157,7 +159,7 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
                          execution_s=execution_s, kernel_start_s=timings.get("kernel_start_s", 0.0),
                          cells_s=timings.get("cells_s", 0.0), latex_s=run.seconds,
                          total_s=time.perf_counter() - t0, overfull=run.overfull,
-                         overfull_limit_pt=overfull_limit_pt)
+                         overfull_limit_pt=overfull_limit_pt, missing_chars=list(run.missing_chars))
     if report.wide_boxes and progress:
         print(f"warning: {len(report.wide_boxes)} overfull box(es) wider than {overfull_limit_pt:g} pt:\n  "
               + "\n  ".join(str(b) for b in report.wide_boxes), file=sys.stderr)

@@ -31,7 +31,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from .errors import CalcBuildError, ToolMissingError
-from .latexfix import BadBox, first_error, overfull_boxes
+from .latexfix import BadBox, first_error, missing_characters, overfull_boxes
 
 #: most XeLaTeX passes (latexmk's default limit)
 MAX_PASSES = 5
@@ -77,6 +77,8 @@ class LatexRun:
     seconds: float
     pass_seconds: list[float] = field(default_factory=list)
     overfull: list[BadBox] = field(default_factory=list)
+    #: characters left out of the PDF because the font lacks them (from the log)
+    missing_chars: list[str] = field(default_factory=list)
     #: pages of the PDF (from the log)
     pages: int = 0
     #: the first pass read the previous build's files (``seed_dir``)
@@ -227,4 +229,5 @@ def run_xelatex(tex_path: Path, progress: bool = True, timeout_s: float = 300.0,
             bar.close()
     return LatexRun(pdf_path=pdf_path, log_path=log_path, passes=len(times),
                     seconds=time.perf_counter() - t0, pass_seconds=times,
-                    overfull=overfull_boxes(log_text), pages=_pages(log_text), seeded=seeded, seed_dropped=dropped)
+                    overfull=overfull_boxes(log_text),
+                    missing_chars=missing_characters(log_text), pages=_pages(log_text), seeded=seeded, seed_dropped=dropped)

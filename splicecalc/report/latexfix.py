@@ -197,6 +197,17 @@ class BadBox:
 _OVERFULL_RE = re.compile(r"^Overfull \\(hbox|vbox) \((\d+(?:\.\d+)?)pt too (?:wide|high)\) ?(.*)$", re.M)
 
 
+_MISSING_RE = re.compile(r"^Missing character: There is no (.+?) \(U\+([0-9A-F]{4,6})\) in font", re.M)
+
+
+def missing_characters(log_text: str) -> list[str]:
+    """Characters XeTeX left out because the font has no glyph for them (``X (U+XXXX)``), each once."""
+    seen: dict[str, None] = {}
+    for m in _MISSING_RE.finditer(log_text):
+        seen.setdefault(f"{m.group(1)} (U+{m.group(2)})", None)
+    return list(seen)
+
+
 def overfull_boxes(log_text: str) -> list[BadBox]:
     """All overfull boxes reported in a LaTeX log."""
     return [BadBox(m.group(1), float(m.group(2)), m.group(3).strip())
