@@ -102,14 +102,19 @@ def _cmd_schema(args: argparse.Namespace) -> int:
     return 0
 
 
-def _optional(module: str, attr: str):
-    """Import an optional sub-command implementation (None while it does not exist)."""
+#: the commands that live in their own modules: (module under splicecalc.cli, its registering function).
+#: Imported plainly: a module that fails to import is an error to see, never a command that quietly
+#: disappears from the CLI.
+_COMMAND_MODULES: tuple[tuple[str, str], ...] = (
+    ("review", "add_parser"), ("compare", "add_parser"), ("batch", "add_parser"),
+    ("package", "add_parsers"), ("package", "add_signoff_parsers"),
+)
+
+
+def _register(sub: Any, module: str, attr: str) -> None:
     import importlib
 
-    try:
-        return getattr(importlib.import_module(module), attr)
-    except (ImportError, AttributeError):
-        return None
+    getattr(importlib.import_module(f"splicecalc.cli.{module}"), attr)(sub)
 
 
 class _Parser(argparse.ArgumentParser):
@@ -120,7 +125,10 @@ class _Parser(argparse.ArgumentParser):
 
 
 def build_parser() -> argparse.ArgumentParser:
-    p = _Parser(prog="splicecalc", description=__doc__.split("\n\n")[0])
+    p = _Parser(prog="splicecalc", description="Design a new steel beam delivered in pieces and spliced on site "
+                "(EN 1990, EN 1993-1-1/-1-5/-1-8, UK NA), check the existing steel it hangs on, and build, sign "
+                "and review its calc package. A design aid: every result is to be checked by a competent "
+                "engineer. 'splicecalc COMMAND --help' explains each command.")
     sub = p.add_subparsers(dest="command", required=True)
 
     s = sub.add_parser("section", help="properties of one catalogue section")
@@ -148,9 +156,7 @@ def build_parser() -> argparse.ArgumentParser:
     s.add_argument("--json", action="store_true")
     s.set_defaults(func=_cmd_weld)
 
-    run_parser = _optional("splicecalc.cli.run", "add_parser")
-    if run_parser:
-        run_parser(sub)
+    _register(sub, "run", "add_parser")
 
     s = sub.add_parser("schema", help="the job-file reference (Markdown) or, with --json, its JSON Schema",
                        description="Every table and key a job file may hold. --json prints the JSON Schema an "
@@ -158,25 +164,8 @@ def build_parser() -> argparse.ArgumentParser:
     s.add_argument("--json", action="store_true", help="print the JSON Schema")
     s.set_defaults(func=_cmd_schema)
 
-    review = _optional("splicecalc.cli.review", "add_parser")
-    if review:
-        review(sub)
-
-    compare = _optional("splicecalc.cli.compare", "add_parser")
-    if compare:
-        compare(sub)
-
-    batch = _optional("splicecalc.cli.batch", "add_parser")
-    if batch:
-        batch(sub)
-
-    pkg = _optional("splicecalc.cli.package", "add_parsers")
-    if pkg:
-        pkg(sub)
-
-    signoff = _optional("splicecalc.cli.package", "add_signoff_parsers")
-    if signoff:
-        signoff(sub)
+    for module, attr in _COMMAND_MODULES:
+        _register(sub, module, attr)
     return p
 
 
