@@ -61,6 +61,8 @@ def _print_build(b: Any, quiet: bool) -> None:
     print(f"executed notebook: {b.notebook}  (sign the package with: splicecalc sign {b.pdf} --role prepared "
           "--key YOUR.p12)")
     print(f"status: {b.status}; build record: {b.sidecar}")
+    if r.cells_reused:
+        print(r.reuse_line())
     if not quiet:
         print(f"time: execution {r.execution_s:.1f} s (kernel start {r.kernel_start_s:.1f} s, cells {r.cells_s:.1f} s), "
               f"LaTeX {r.latex_passes} passes {r.latex_s:.1f} s, our overhead (all but kernel start and LaTeX) "
@@ -112,7 +114,8 @@ def cmd_build(args: argparse.Namespace) -> int:
     from ..workflow.package import build_package
 
     def go() -> int:
-        b = build_package(args.source, args.output, progress=not args.quiet, timeout=args.timeout)
+        b = build_package(args.source, args.output, progress=not args.quiet, timeout=args.timeout,
+                          fresh=args.fresh)
         _print_build(b, args.quiet)
         return _failing_checks(b.notebook)
     return _run(go)
@@ -122,7 +125,7 @@ def cmd_demo(args: argparse.Namespace) -> int:
     from ..workflow.package import build_demo
 
     def go() -> int:
-        b = build_demo(args.out, progress=not args.quiet)
+        b = build_demo(args.out, progress=not args.quiet, fresh=args.fresh)
         _print_build(b, args.quiet)
         return _failing_checks(b.notebook)
     return _run(go)
@@ -152,12 +155,17 @@ def add_parsers(sub: Any) -> None:
     p.add_argument("-o", "--output", metavar="PDF", help="PDF to write (default: the source name with .pdf)")
     p.add_argument("--quiet", action="store_true", help="no progress bars or timings")
     p.add_argument("--timeout", type=float, default=600.0, help="time limit per cell, s (default 600)")
+    p.add_argument("--fresh", action="store_true",
+                   help="execute every cell and run XeLaTeX from nothing, even when the previous build's "
+                        "outputs are up to date (by default an unchanged job, template and splicecalc reuse "
+                        "them: 'cells up to date, not executed')")
     p.set_defaults(func=cmd_build)
 
     p = sub.add_parser("demo", help="build the demo calc package (an invented job) end to end",
                        description="Copy the demo job (examples/demo_*.toml) into DIR and build its package there.")
     p.add_argument("--out", default="out", metavar="DIR", help="output folder (default: out)")
     p.add_argument("--quiet", action="store_true", help="no progress bars or timings")
+    p.add_argument("--fresh", action="store_true", help="execute every cell even if the last demo build is up to date")
     p.set_defaults(func=cmd_demo)
 
 

@@ -57,6 +57,9 @@ class BuildReport:
     latex_seeded: bool = False
     #: characters the fonts lack, left out of the PDF (never silently: the build warns)
     missing_chars: list[str] = field(default_factory=list)
+    #: the inputs digest when the cells were up to date and not executed (their outputs reused,
+    #: :mod:`splicecalc.report.uptodate`), else ""
+    cells_reused: str = ""
 
     @property
     def overhead_s(self) -> float:
@@ -69,9 +72,14 @@ class BuildReport:
         """Overfull hboxes wider than :attr:`overfull_limit_pt` (should be none)."""
         return [b for b in self.overfull if b.kind == "hbox" and b.amount_pt > self.overfull_limit_pt]
 
+    def reuse_line(self) -> str:
+        """The one line saying the cells were not executed, or ""."""
+        return (f"cells up to date, not executed (inputs digest {self.cells_reused[:16]})"
+                if self.cells_reused else "")
+
     def summary(self) -> str:
         wide = self.wide_boxes
-        return (f"{self.pdf_path} ({self.pages} sheets): execution {self.execution_s:.1f} s "
+        return ((self.reuse_line() + "\n" if self.cells_reused else "") + f"{self.pdf_path} ({self.pages} sheets): execution {self.execution_s:.1f} s "
                 f"(kernel start {self.kernel_start_s:.1f} s, cells {self.cells_s:.1f} s), LaTeX {self.latex_passes} "
                 f"pass{'' if self.latex_passes == 1 else 'es'}{' (seeded)' if self.latex_seeded else ''} "
                 f"{self.latex_s:.1f} s, our overhead {self.overhead_s:.1f} s, total {self.total_s:.1f} s; "
@@ -90,7 +98,8 @@ def _save(path: Path, nb: Any) -> None:
 def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = True, progress: bool = True,
               timeout: float = 300.0, overfull_limit_pt: float = OVERFULL_LIMIT_PT,
               build_dir: str | Path | None = None, executed_path: str | Path | None = None,
-              kernel: KernelLaunch | None = None) -> BuildReport:
+              kernel: KernelLaunch | None = None, inputs_digest: str | None = None,
+              reuse: dict | None = None, seed: bool = True) -> BuildReport:
     """Execute ``notebook_path`` (unless ``execute=False``) and write the calc package to ``pdf_path``.
 
     The PDF appears under its final name only when complete (temporary file
@@ -100,7 +109,11 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
     receives the executed notebook (written atomically). ``timeout`` (s) is
     per cell. ``kernel``: a kernel launched beforehand in the notebook's folder
     (:class:`~splicecalc.report.kernel.KernelLaunch`); the caller discards it if
-    this function stops before running it.
+    this function stops before running it. ``inputs_digest``: the digest of the cells' inputs
+    (:func:`splicecalc.report.uptodate.cells_inputs`), stored in the executed notebook's metadata;
+    ``reuse``: an executed notebook with that digest whose outputs stand for this run's
+    (:func:`~splicecalc.report.uptodate.reusable_outputs`): the cells are not executed. ``seed=False``
+    starts the XeLaTeX passes from nothing.
     """
     t0 = kernel.launched_at if kernel is not None else time.perf_counter()
     nb_path = Path(notebook_path)
@@ -136,16 +149,28 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
 
     timings: dict[str, float] = {}
     execution_s = 0.0
-    if execute:
+    reused = ""
+    if execute and reuse is not None and inputs_digest:
+        from .uptodate import with_outputs
+
+        nb = with_outputs(nb, reuse)
+        reused = inputs_digest              # said in one line by BuildReport.reuse_line / summary
+    elif execute:
         nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings,
                               kernel=kernel)
         execution_s = timings.get("kernel_start_s", 0.0) + timings.get("cells_s", 0.0)
+    if execute and inputs_digest:
+        from .uptodate import INPUTS_KEY
+
+        nb.metadata.setdefault("splicecalc", {})[INPUTS_KEY] = inputs_digest
     ep = Path(executed_path) if execute and executed_path is not None else None
     if ep is not None:                  # kept even if the export fails: the cell named can be looked at
         _save(ep, nb)
     # the previous build of this output seeds the XeLaTeX passes (splicecalc.report.compile)
-    seed = out.parent / ".build" / f"{out.stem}.seed"
-    exporter = CalcPackageExporter(progress=progress, build_directory=str(work), seed_directory=str(seed))
+    seed_dir = out.parent / ".build" / f"{out.stem}.seed"
+    if not seed:
+        shutil.rmtree(seed_dir, ignore_errors=True)
+    exporter = CalcPackageExporter(progress=progress, build_directory=str(work), seed_directory=str(seed_dir))
     resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
     pdf_bytes, resources = exporter.from_notebook_node(nb, resources)
     run: LatexRun = resources["latex_run"]
@@ -159,7 +184,8 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
                          execution_s=execution_s, kernel_start_s=timings.get("kernel_start_s", 0.0),
                          cells_s=timings.get("cells_s", 0.0), latex_s=run.seconds,
                          total_s=time.perf_counter() - t0, overfull=run.overfull,
-                         overfull_limit_pt=overfull_limit_pt, missing_chars=list(run.missing_chars))
+                         overfull_limit_pt=overfull_limit_pt, missing_chars=list(run.missing_chars),
+                         cells_reused=reused)
     if report.wide_boxes and progress:
         print(f"warning: {len(report.wide_boxes)} overfull box(es) wider than {overfull_limit_pt:g} pt:\n  "
               + "\n  ".join(str(b) for b in report.wide_boxes), file=sys.stderr)

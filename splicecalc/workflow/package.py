@@ -308,8 +308,19 @@ def _headless() -> Iterator[None]:
             os.environ[HEADLESS_ENV] = old
 
 
+def _previous_executed(path: Path) -> dict | None:
+    """The executed notebook of the previous build, as JSON, when it stores an inputs digest."""
+    from ..report.uptodate import stored_inputs
+
+    try:
+        nb = json.loads(path.read_text(encoding="utf-8"))
+    except (OSError, ValueError):
+        return None
+    return nb if isinstance(nb, dict) and stored_inputs(nb) else None
+
+
 def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = None, *, progress: bool = True,
-                  timeout: float = 600.0) -> PackageBuild:
+                  timeout: float = 600.0, fresh: bool = False) -> PackageBuild:
     """Build the calc package of ``source`` (a notebook, or a ``.toml`` job file) into ``pdf``.
 
     Default ``pdf``: the source's name with ``.pdf``. The executed notebook is
@@ -318,6 +329,11 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
     name, the executed copy is :func:`executed_name` (``<stem>.executed.ipynb``). Raises InputError for bad paths or inputs,
     :class:`SignedPDFError` when the PDF must not be overwritten, and
     :class:`~splicecalc.report.errors.CalcBuildError` (failing cell, missing tool, LaTeX) otherwise.
+
+    Make-style: when the executed notebook of the previous build holds the same inputs digest as
+    this build's cells (:mod:`splicecalc.report.uptodate`) and is, unedited and unsigned, what that
+    build wrote, its outputs are reused and no cell runs (the report says so in one line); only the
+    export and XeLaTeX run. ``fresh=True`` executes every cell and starts XeLaTeX from nothing.
     """
     src = Path(source)
     if not src.is_file():
@@ -354,10 +370,13 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
     if why:
         lock.release()
         raise SignedPDFError(str(out), why)
-    kernel = KernelLaunch(run_dir)
+    # read before the notebook below overwrites it: the previous build's outputs, if it left a digest
+    previous = None if fresh else _previous_executed(executed)
+    kernel = None if previous is not None else KernelLaunch(run_dir)   # no candidate: boot it first
     staged: Path | None = None
     try:
         from ..report.build import build_pdf
+        from ..report.uptodate import cells_inputs, reusable_outputs
 
         if src.suffix == ".toml":
             nb_source = notebook_for_job(src, executed)
@@ -376,14 +395,20 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
             _write(nb, staged)
             nb_source = staged
         with _headless():
+            digest, _why = cells_inputs(json.loads(nb_source.read_text(encoding="utf-8")), run_dir)
+            reuse, _why = reusable_outputs(previous, out, digest) if previous is not None else (None, "")
+            if reuse is None and kernel is None:
+                kernel = KernelLaunch(run_dir)
             report = build_pdf(nb_source, out, execute=True, progress=progress, timeout=timeout,
-                               executed_path=executed, kernel=kernel)
+                               executed_path=executed, kernel=kernel, inputs_digest=digest, reuse=reuse,
+                               seed=not fresh)
         from ..signoff.ledger import write_sidecar
 
         nb_exec = _read(executed)
         data = write_sidecar(out, nb_exec, executed.resolve())
     finally:
-        kernel.discard()
+        if kernel is not None:
+            kernel.discard()
         if staged is not None and staged.exists():
             staged.unlink()
         lock.release()
@@ -399,7 +424,7 @@ def demo_job_path() -> Path:
     return found[0]
 
 
-def build_demo(out_dir: str | os.PathLike = "out", *, progress: bool = True) -> PackageBuild:
+def build_demo(out_dir: str | os.PathLike = "out", *, progress: bool = True, fresh: bool = False) -> PackageBuild:
     """Copy the demo job into ``out_dir`` and build its package there (``<demo name>.pdf``).
 
     An existing job file in ``out_dir`` is replaced by the demo's (it is the demo);
@@ -417,7 +442,7 @@ def build_demo(out_dir: str | os.PathLike = "out", *, progress: bool = True) -> 
         from ..job.loader import write_text_atomic
 
         write_text_atomic(job, job_src.read_text(encoding="utf-8"))
-    return build_package(job, pdf, progress=progress)
+    return build_package(job, pdf, progress=progress, fresh=fresh)
 
 
 __all__ = ["SIGNED_STATUSES", "DEFAULT_TEMPLATE", "HEADLESS_ENV", "JOB_FILE", "NewPackage", "PackageBuild", "SignedPDFError",
