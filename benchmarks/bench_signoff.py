@@ -62,7 +62,8 @@ def main(argv: list[str]) -> int:
             t1 = time.perf_counter()
             sign_package(pdf, "prepared", keys.load_key(a.path, pw))
             t2 = time.perf_counter()
-            sign_package(pdf, "checked", keys.load_key(b.path, pw))
+            sign_package(pdf, "checked", keys.load_key(b.path, pw),
+                         accept_not_checked="covered by a separate calc (benchmark)")
             t3 = time.perf_counter()
             st = verify_package(pdf)
             t4 = time.perf_counter()

@@ -32,6 +32,9 @@ pytestmark = pytest.mark.pdf
 PW = b"corpus passphrase"
 CLI = [sys.executable, "-m", "splicecalc.cli.main"]
 NAME = "demo_workshop_gallery"
+#: the demo has NOT CHECKED items (the column below, tying yield lines, the existing beam's supports): a checked
+#: or approved signature states how they are covered
+NC = "column below, tying yield lines and existing supports covered by calc 0931-S2 (demo)"
 
 
 @pytest.fixture(scope="session")
@@ -73,7 +76,8 @@ def signed(env, tmp_path_factory):
     for tag, checker in (("s1", "b"), ("s2", "c")):
         d = _copy(env["built"], tmp_path_factory.mktemp(tag))
         sign_package(d / f"{NAME}.pdf", "prepared", env["keys"]["a"])
-        sign_package(d / f"{NAME}.pdf", "checked", env["keys"][checker], reason="checked against the drawings")
+        sign_package(d / f"{NAME}.pdf", "checked", env["keys"][checker], reason="checked against the drawings",
+                     accept_not_checked=NC)
         out[tag] = d
     return out
 
@@ -491,6 +495,31 @@ for cid, steps in (("order-checked-without-prepared", [("b", "checked")]),
     case(cid, base="built")(lambda d, e, s, steps=steps: [_low_level_sign(d, _k(e, k), role) for k, role in steps])
 
 
+# the summary's acceptance boxes (read-only text fields, filled by a checked / approved signature's own update)
+def _fill_accept(w, name="AcceptApproved", text="Approved by Z. Nobody: all accepted."):
+    from pyhanko.pdf_utils.form_tools import populate_static_text_field
+    from pyhanko.pdf_utils.text import TextBoxStyle
+
+    populate_static_text_field(w, name, TextBoxStyle(font_size=6), text)
+
+
+def _refill_accept(w):
+    from pyhanko.pdf_utils import generic
+
+    for ref in w.root["/AcroForm"]["/Fields"]:
+        f = ref.get_object()
+        if f.get("/T") == "AcceptChecked":
+            f[generic.NameObject("/V")] = generic.TextStringObject("Checked by B. Checker: nothing to accept.")
+            w.mark_update(ref)
+
+
+case("accept-box-filled-by-hand")(lambda d, e, s: _incremental(d, _fill_accept))
+case("accept-box-refilled")(lambda d, e, s: _incremental(d, _refill_accept))
+case("accept-box-filled-then-signed", base="built")(lambda d, e, s: [
+    _low_level_sign(d, _k(e, "a"), "prepared"), _incremental(d, lambda w: _fill_accept(w, "AcceptChecked", "x")),
+    _low_level_sign(d, _k(e, "b"), "checked", accept_note="x")])
+
+
 def test_corpus_is_large_enough():
     assert len(CASES) >= 60
 
@@ -560,13 +589,14 @@ def test_sign_refuses_out_of_order_and_same_person_needs_a_reason(env, tmp_path,
         sign_package(pdf, "checked", _k(env, "a"))
     with pytest.raises(InputError, match="approved without a checked"):
         sign_package(pdf, "approved", _k(env, "c"))
-    r = sign_package(pdf, "checked", _k(env, "a2"), same_person_ok="sole practitioner, checked a day later")
+    r = sign_package(pdf, "checked", _k(env, "a2"), same_person_ok="sole practitioner, checked a day later",
+                     accept_not_checked=NC)
     st = r.status
     assert st.state == "valid" and "same person: sole practitioner" in "\n".join(st.lines)
     txt = subprocess.run(["pdftotext", "-f", "1", "-l", "1", str(pdf), "-"], capture_output=True, text=True).stdout
     assert "Same person as earlier role: sole practitioner" in txt          # printed on the cover
     with pytest.raises(InputError, match="signed twice"):
-        sign_package(pdf, "checked", _k(env, "b"))
+        sign_package(pdf, "checked", _k(env, "b"), accept_not_checked=NC)
 
 
 def _make_failing(d: Path) -> None:
@@ -582,7 +612,8 @@ def test_failing_package_needs_a_reason_to_be_checked_and_issued(env, tmp_path):
     assert len(r.failing) == 1
     with pytest.raises(InputError, match="failing"):
         sign_package(pdf, "checked", _k(env, "b"))
-    r = sign_package(pdf, "checked", _k(env, "b"), accept_failing="plate check conservative, see note 3")
+    r = sign_package(pdf, "checked", _k(env, "b"), accept_failing="plate check conservative, see note 3",
+                     accept_not_checked=NC)
     assert "failing checks accepted: plate check conservative" in "\n".join(r.status.lines)
     txt = subprocess.run(["pdftotext", "-f", "1", "-l", "1", str(pdf), "-"], capture_output=True, text=True).stdout
     assert "failing check(s) accepted" in txt
@@ -591,6 +622,58 @@ def test_failing_package_needs_a_reason_to_be_checked_and_issued(env, tmp_path):
     row = issue_package(pdf, "for construction", _k(env, "c"), override="client instruction 14")
     assert row["override"] == "client instruction 14"
     assert verify_package(pdf).state == "valid"
+
+
+def test_not_checked_items_need_an_acknowledgement_printed_on_the_cover_and_in_the_summary(env, tmp_path):
+    """Issue 10 item 6 / audit: checked and approved signatures over failing checks or NOT CHECKED items state a
+    reason, printed on the cover (the signature's appearance) and in the summary's acceptance box, a read-only
+    text field filled in the signature's own update and locked by its field (FieldMDP)."""
+    from pyhanko.pdf_utils.reader import PdfFileReader
+
+    d = _fresh(env["built"], tmp_path)
+    pdf = d / f"{NAME}.pdf"
+    base = PdfFileReader(io.BytesIO(pdf.read_bytes()))
+    boxes = pdfsign.field_boxes(base, pdfsign.ACCEPT_PREFIX, (pdfsign.ACCEPT_W, pdfsign.ACCEPT_H))
+    assert set(boxes) == {"checked", "approved"}               # the demo has NOT CHECKED items: boxes reserved
+    summary_page = boxes["checked"][0]
+    sign_package(pdf, "prepared", _k(env, "a"))
+    with pytest.raises(InputError, match="accept-not-checked") as exc:
+        sign_package(pdf, "checked", _k(env, "b"))
+    assert "3 NOT CHECKED" in str(exc.value) and "\n" not in str(exc.value)
+    r = sign_package(pdf, "checked", _k(env, "b"), accept_not_checked=NC)
+    assert len(r.not_checked) == 3
+    st = r.status
+    assert st.state == "valid" and "NOT CHECKED items acknowledged: " + NC in "\n".join(st.lines)
+    reader = PdfFileReader(io.BytesIO(pdf.read_bytes()))
+    vals = pdfsign.accept_values(reader)
+    assert vals["AcceptApproved"] is None
+    assert vals["AcceptChecked"].replace("\n", " ").startswith("Checked by B. Checker: 3 NOT CHECKED item(s) "
+                                                               "acknowledged: column below")
+    lock = next(f.get_object()["/Lock"] for n, f in pdfsign._form_field_names(reader) if n == "SignChecked")
+    assert lock["/Action"] == "/Include" and list(lock["/Fields"]) == ["AcceptChecked"]
+    # pyHanko's full difference analysis and poppler's pdfsig agree the document is signed and unchanged since
+    full = pdfsign.validate_pdf_bytes(pdf.read_bytes(), [], thorough=True)
+    assert all(not s.problems and s.modification_ok for s in full), [s.problems for s in full]
+    out = subprocess.run(["pdfsig", str(pdf)], capture_output=True, text=True).stdout
+    assert out.count("Signature Validation: Signature is Valid.") == 2
+    # printed: the cover (signature appearance) and the summary sheet (the field's appearance, rendered by poppler)
+    txt = subprocess.run(["pdftotext", "-f", "1", "-l", "1", str(pdf), "-"], capture_output=True, text=True).stdout
+    assert "3 NOT CHECKED acknowledged" in txt
+    png = tmp_path / "summary"
+    subprocess.run(["pdftoppm", "-f", str(summary_page + 1), "-l", str(summary_page + 1), "-r", "40", "-png",
+                    str(pdf), str(png)], check=True)
+    blank = tmp_path / "blank"
+    subprocess.run(["pdftoppm", "-f", str(summary_page + 1), "-l", str(summary_page + 1), "-r", "40", "-png",
+                    str(env["built"] / f"{NAME}.pdf"), str(blank)], check=True)
+    assert next(tmp_path.glob("summary*.png")).read_bytes() != next(tmp_path.glob("blank*.png")).read_bytes()
+    # an approver over the same package says it again, in the approver's own box
+    with pytest.raises(InputError, match="accept-not-checked"):
+        sign_package(pdf, "approved", _k(env, "c"))
+    sign_package(pdf, "approved", _k(env, "c"), accept_not_checked="agreed with the checker")
+    vals = pdfsign.accept_values(PdfFileReader(io.BytesIO(pdf.read_bytes())))
+    assert "agreed with the checker" in vals["AcceptApproved"] and "column below" in vals["AcceptChecked"]
+    assert verify_package(pdf).state == "valid"
+    assert all(not s.problems for s in pdfsign.validate_pdf_bytes(pdf.read_bytes(), [], thorough=True))
 
 
 def test_sign_refuses_a_pdf_and_notebook_of_different_builds(env, tmp_path):
@@ -635,7 +718,8 @@ def test_cli_sign_verify_issue(env, tmp_path):
     kd = env["root"] / "keys"
     r = run("sign", f"{NAME}.pdf", "--role", "prepared", "--key", str(kd / "a.p12"))
     assert r.returncode == 0, r.stderr
-    r = run("sign", f"{NAME}.pdf", "--role", "checked", "--key", str(kd / "b.p12"), "--reason", "checked")
+    r = run("sign", f"{NAME}.pdf", "--role", "checked", "--key", str(kd / "b.p12"), "--reason", "checked",
+            "--accept-not-checked", NC)
     assert r.returncode == 0, r.stderr
     v = run("verify", f"{NAME}.pdf")
     assert v.returncode == 0 and "VALID" in v.stdout and "valid but untrusted signer" in v.stdout

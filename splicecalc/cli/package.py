@@ -212,12 +212,16 @@ def cmd_sign(args: argparse.Namespace) -> int:
     def go() -> int:
         r = sign_package(args.package, args.role, _key(args.key), reason=args.reason,
                          same_person_ok=args.same_person_ok, accept_failing=args.accept_failing,
-                         open_comments_ok=args.open_comments_ok)
+                         open_comments_ok=args.open_comments_ok, accept_not_checked=args.accept_not_checked)
         print(f"signed {r.pdf.name} and {r.notebook.name} as {r.role} by {r.signer}")
         if r.failing:
             print(f"{len(r.failing)} failing check(s)"
                   + (f" accepted: {args.accept_failing}" if args.accept_failing and r.role != "prepared" else "")
                   + ": " + ", ".join(r.failing))
+        if r.not_checked:
+            print(f"{len(r.not_checked)} NOT CHECKED item(s)"
+                  + (f" acknowledged: {args.accept_not_checked}" if args.accept_not_checked and r.role != "prepared"
+                     else "") + ": " + ", ".join(r.not_checked))
         print("\n".join(r.status.lines))
         return 0
     return _signoff(go)
@@ -303,7 +307,10 @@ def add_signoff_parsers(sub: Any) -> None:
     p.add_argument("--same-person-ok", metavar="REASON", help="you signed an earlier role too: say why that is "
                    "acceptable (printed in the signature on the cover)")
     p.add_argument("--accept-failing", metavar="REASON", help="check or approve a package with failing checks, "
-                   "saying why (printed on the cover)")
+                   "saying why (printed on the cover and in the summary's acceptance box)")
+    p.add_argument("--accept-not-checked", metavar="REASON", help="check or approve a package with NOT CHECKED "
+                   "items (checks it does not make), saying how they are covered (printed on the cover and in "
+                   "the summary's acceptance box)")
     p.add_argument("--open-comments-ok", metavar="REASON", help="check or approve while review comments are not "
                    "closed (splicecalc review), saying why (printed on the cover)")
     p.set_defaults(func=cmd_sign)

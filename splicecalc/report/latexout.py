@@ -211,7 +211,19 @@ def table_latex(p: dict[str, Any]) -> str:
     lines.append("\\end{calctable}")
     if p.get("notes"):
         lines.append(f"\\calctablenote{{{escape_tex(p['notes'])}}}")
+    if kind == "parts" and isinstance(p.get("acceptance"), dict):
+        lines.append(acceptance_latex(p["acceptance"]))
     return "\n".join(lines) + "\n"
+
+
+def acceptance_latex(a: dict[str, Any]) -> str:
+    """The summary's acceptance boxes of a package with failing checks or NOT CHECKED items: one framed
+    box per role (checked, approved) that `splicecalc sign` fills with the signer's stated reasons, in
+    the signature's own update (``signoff.pdfsign.ACCEPT_FIELDS``; the template's ``\\acceptbox``)."""
+    bad, gap = _count(a.get("failing")), _count(a.get("not_checked"))
+    what = " and ".join(x for x in (f"{bad} failing check(s)" if bad else "",
+                                    f"{gap} item(s) NOT CHECKED" if gap else "") if x)
+    return ("\\calcacceptance{" + escape_tex(what) + "}")
 
 
 _STATE_TEX = {"open": r"\textbf{open}", "answered": "answered", "closed": "closed"}

@@ -211,6 +211,7 @@ def verify_package(path: str | Path, thorough: bool = False) -> PackageStatus:
     for s in psigs:
         extra = ""
         for key, label in (("same_person_ok", "same person"), ("accept_failing", "failing checks accepted"),
+                           ("accept_not_checked", "NOT CHECKED items acknowledged"),
                            ("open_comments_ok", "open review comments accepted"),
                            ("override", "override"), ("purpose", "purpose")):
             if s.tag.get(key):
@@ -319,6 +320,20 @@ def pdf_notebook_job_mismatch(data: bytes, nb: dict) -> str | None:
     return None
 
 
+def acceptance_note(role: str, name: str, failing: int, accept_failing: str | None, gaps: int,
+                    accept_not_checked: str | None) -> str | None:
+    """The sentence a checked / approved signature prints in the summary's acceptance box (and keeps in
+    its own record as ``accept_note``), or None when it accepts nothing."""
+    parts = []
+    if accept_failing:
+        parts.append(f"{failing} failing check(s) accepted: {accept_failing}")
+    if accept_not_checked:
+        parts.append(f"{gaps} NOT CHECKED item(s) acknowledged: {accept_not_checked}")
+    if not parts:
+        return None
+    return f"{role.capitalize()} by {name}: " + ". ".join(parts) + "."
+
+
 @dataclass(frozen=True)
 class SignResult:
     pdf: Path
@@ -326,6 +341,7 @@ class SignResult:
     role: str
     signer: str
     failing: list[str]
+    not_checked: tuple[str, ...] = ()
 
     @property
     def status(self) -> PackageStatus:
@@ -335,13 +351,19 @@ class SignResult:
 
 def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = None,
                  same_person_ok: str | None = None, accept_failing: str | None = None,
-                 open_comments_ok: str | None = None, when: _dt.datetime | None = None) -> SignResult:
-    """Sign the package ``pdf`` (and its notebook) in ``role`` with the key pair ``kp``."""
+                 open_comments_ok: str | None = None, accept_not_checked: str | None = None,
+                 when: _dt.datetime | None = None) -> SignResult:
+    """Sign the package ``pdf`` (and its notebook) in ``role`` with the key pair ``kp``.
+
+    A checked or approved signature over failing checks needs ``accept_failing``, over NOT CHECKED
+    records ``accept_not_checked`` (each a reason in words); both are printed in the signature on the
+    cover and in the summary's acceptance box (:func:`acceptance_note`)."""
     if role not in ROLES:
         raise InputError("--role", role, "one of " + ", ".join(ROLES))
     reason, same_person_ok, accept_failing = (_text("--reason", reason), _text("--same-person-ok", same_person_ok),
                                               _text("--accept-failing", accept_failing))
     open_comments_ok = _text("--open-comments-ok", open_comments_ok)
+    accept_not_checked = _text("--accept-not-checked", accept_not_checked)
     p = Path(pdf)
     if not p.is_file() or p.suffix.lower() != ".pdf":
         raise InputError("PACKAGE.pdf", str(pdf), "an existing calc-package PDF")
@@ -368,12 +390,25 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
                for CHECK in [nbs.CHECK_MIME]):
         raise InputError("notebook", str(nb_path), "an executed calc notebook with check records",
                          "build it first with splicecalc build")
+    prior = [(s.role, s.fingerprint, s.signer, s.tag) for s in st.pdf]
+    probs = role_order_problems(prior + [(role, kp.fingerprint, kp.name,
+                                          {"same_person_ok": same_person_ok} if same_person_ok else {})])
+    if probs:           # the order first: what else the role needs is said once it may sign at all
+        raise InputError("--role", role, "the next role in order: prepared, then checked by another person, "
+                         "then approved", probs[-1])
     failing = nbs.failing_checks(nb)
     if failing and role in ("checked", "approved") and not accept_failing:
         raise InputError("--role", role, "a package without failing checks, or --accept-failing \"reason\"",
                          f"{len(failing)} failing: " + ", ".join(failing[:8]) + ("..." if len(failing) > 8 else ""))
-    if not failing:
+    if not failing or role == "prepared":
         accept_failing = None
+    gaps = nbs.not_checked(nb)
+    if gaps and role in ("checked", "approved") and not accept_not_checked:
+        raise InputError("--role", role, "a package without NOT CHECKED items, or --accept-not-checked \"reason\"",
+                         f"{len(gaps)} NOT CHECKED: " + ", ".join(gaps[:8]) + ("..." if len(gaps) > 8 else "")
+                         + " (each needs information or a separate check; say how that is covered)")
+    if not gaps or role == "prepared":
+        accept_not_checked = None
     # the review register (splicecalc review): no checked / approved signature over open queries
     review = register_state(p)
     unresolved = review.unresolved if review else ()
@@ -383,7 +418,6 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
                          + " (splicecalc review list PACKAGE --open)")
     if not unresolved or role == "prepared":
         open_comments_ok = None
-    prior = [(s.role, s.fingerprint, s.signer, s.tag) for s in st.pdf]
     digest = nbs.notebook_digest(nb)
     tag = {"role": role, "notebook_sha256": digest,
            "revision": str(nbs.calc_meta(nb).get("revision", "") or ""), "failing": len(failing)}
@@ -391,6 +425,12 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
         tag["same_person_ok"] = same_person_ok
     if accept_failing:
         tag["accept_failing"] = accept_failing
+    if accept_not_checked:
+        tag["not_checked"] = len(gaps)
+        tag["accept_not_checked"] = accept_not_checked
+    note = acceptance_note(role, kp.name, len(failing), accept_failing, len(gaps), accept_not_checked)
+    if note:
+        tag["accept_note"] = note
     if review:
         tag.update(review.tag())
     if open_comments_ok:
@@ -400,7 +440,8 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
         raise InputError("--role", role, "the next role in order: prepared, then checked by another person, "
                          "then approved", probs[-1])
     when = when or _dt.datetime.now(_dt.timezone.utc)
-    extra = {k: tag[k] for k in ("same_person_ok", "accept_failing", "open_comments_ok", "review_register",
+    extra = {k: tag[k] for k in ("same_person_ok", "accept_failing", "accept_not_checked", "open_comments_ok",
+                                 "review_register",
                                  "review_bytes", "review_sha256") if k in tag}
     entry = nbs.make_entry(nb, nb_path, kp, role, pdf_sha256=pdfsign.base_revision_sha256(data), extra=extra,
                            when=when, digest=digest)
@@ -409,6 +450,8 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
         lines.append(f"Same person as earlier role: {same_person_ok}"[:64])
     if accept_failing:
         lines.append(f"{len(failing)} failing check(s) accepted: {accept_failing}"[:64])
+    if accept_not_checked:
+        lines.append(f"{len(gaps)} NOT CHECKED acknowledged: {accept_not_checked}"[:64])
     if open_comments_ok:
         lines.append(f"{len(unresolved)} review comment(s) open: {open_comments_ok}"[:64])
     if reason:
@@ -418,6 +461,8 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
         human += f". Same person in two roles: {same_person_ok}"
     if accept_failing:
         human += f". {len(failing)} failing check(s) accepted: {accept_failing}"
+    if accept_not_checked:
+        human += f". {len(gaps)} NOT CHECKED item(s) acknowledged: {accept_not_checked}"
     if open_comments_ok:
         human += f". {len(unresolved)} review comment(s) open ({', '.join(unresolved[:10])}): {open_comments_ok}"
     signed = pdfsign.sign_pdf_bytes(data, kp, role, human_reason=human, tag=tag, appearance_lines=lines[:5],
@@ -426,7 +471,7 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
     write_atomic(p, signed)
     nbs.write_notebook(nb, nb_path)
     _update_record(p, nb)
-    return SignResult(p, nb_path, role, kp.name, failing)
+    return SignResult(p, nb_path, role, kp.name, failing, tuple(gaps))
 
 
 def _update_record(pdf: Path, nb: dict) -> None:

@@ -31,6 +31,15 @@ ROLE_OF_FIELD = {v: k for k, v in FIELDS.items()}
 DEST_PREFIX = "splicecalc.sign."
 #: field size on the cover, pt (70 mm x 12 mm; the template's cell is about 78 mm x 12 mm)
 FIELD_W, FIELD_H, FIELD_DEPTH = 198.0, 34.0, 5.6
+#: the summary's acceptance boxes (read-only text fields): a checked / approved signature over failing
+#: checks or NOT CHECKED items fills its role's box in the same update, locked by that signature (FieldMDP)
+ACCEPT_FIELDS = {"checked": "AcceptChecked", "approved": "AcceptApproved"}
+ROLE_OF_ACCEPT = {v: k for k, v in ACCEPT_FIELDS.items()}
+ACCEPT_PREFIX = "splicecalc.accept."
+#: the template's box (``\acceptbox``): 480 pt x 60 pt, anchor 5.6 pt above its bottom edge, as \signbox
+ACCEPT_W, ACCEPT_H = 480.0, 60.0
+#: the acceptance text's font size and leading (pt) in the field's appearance (Courier: 0.6 em a character)
+ACCEPT_FONT, ACCEPT_LEADING = 6.5, 7.8
 _TAG_RE = re.compile(r"\[splicecalc (\{.*\})\]\s*$", re.S)
 
 
@@ -71,8 +80,11 @@ class MalformedPDF(ValueError):
     """The file is not a PDF pyHanko can read."""
 
 
-def field_boxes(reader: Any) -> dict[str, tuple[int, tuple[float, float, float, float]]]:
-    """``role -> (page index, box)`` from the template's named destinations; {} when there are none."""
+def field_boxes(reader: Any, prefix: str = DEST_PREFIX,
+                size: tuple[float, float] = (FIELD_W, FIELD_H)) -> dict[str, tuple[int, tuple[float, float, float, float]]]:
+    """``role -> (page index, box)`` from the template's named destinations ``<prefix><role>`` (the
+    signature boxes of the cover, or with :data:`ACCEPT_PREFIX` the summary's acceptance boxes);
+    {} when there are none."""
     try:
         names = reader.root.get("/Names")
         tree = names.get_object().get("/Dests") if names is not None else None
@@ -87,19 +99,19 @@ def field_boxes(reader: Any) -> dict[str, tuple[int, tuple[float, float, float, 
             return
         node = node.get_object()
         lim = node.get("/Limits")
-        if lim is not None and len(lim) == 2 and (str(lim[1]) < DEST_PREFIX or str(lim[0]) > DEST_PREFIX + "~"):
+        if lim is not None and len(lim) == 2 and (str(lim[1]) < prefix or str(lim[0]) > prefix + "~"):
             return                                 # a name-tree branch without our names
         arr = node.get("/Names")
         if arr is not None:
             for i in range(0, len(arr) - 1, 2):
                 name = str(arr[i])
-                if not name.startswith(DEST_PREFIX):
+                if not name.startswith(prefix):
                     continue
                 dest = arr[i + 1].get_object()
                 if isinstance(dest, dict) or hasattr(dest, "keys"):
                     dest = dest.get("/D")
                 try:
-                    raw[name[len(DEST_PREFIX):]] = (dest.raw_get(0).idnum, float(dest[2]), float(dest[3]))
+                    raw[name[len(prefix):]] = (dest.raw_get(0).idnum, float(dest[2]), float(dest[3]))
                 except (IndexError, TypeError, AttributeError, ValueError):
                     continue
         for kid in node.get("/Kids", []) or []:
@@ -113,7 +125,7 @@ def field_boxes(reader: Any) -> dict[str, tuple[int, tuple[float, float, float, 
     out: dict[str, tuple[int, tuple[float, float, float, float]]] = {}
     for role, (idnum, x, y) in raw.items():
         if idnum in index:
-            out[role] = (index[idnum], (x, y - FIELD_DEPTH, x + FIELD_W, y - FIELD_DEPTH + FIELD_H))
+            out[role] = (index[idnum], (x, y - FIELD_DEPTH, x + size[0], y - FIELD_DEPTH + size[1]))
     return out
 
 
@@ -164,12 +176,55 @@ def _signer(kp: Any):
     return SimpleSigner(signing_cert=cert, signing_key=key, cert_registry=SimpleCertificateStore.from_certs(chain))
 
 
+def accept_lines(text: str) -> list[str]:
+    """The acceptance text as the lines of its box (wrapped at word boundaries, long words cut; what
+    does not fit ends in "..."; the whole text is in the signature's ``/Reason`` and the notebook)."""
+    import textwrap
+
+    per_line = int((ACCEPT_W - 8) / (0.6 * ACCEPT_FONT))
+    n_lines = int((ACCEPT_H - 8) / ACCEPT_LEADING)
+    lines = textwrap.wrap(_ascii(text), per_line, break_long_words=True, break_on_hyphens=False) or [""]
+    if len(lines) > n_lines:
+        lines = lines[:n_lines]
+        lines[-1] = lines[-1][:per_line - 3] + "..."
+    return lines
+
+
+def _add_accept_field(w: Any, name: str, page: int, box: tuple[float, float, float, float]) -> None:
+    """An empty read-only text field ``name`` on ``page`` at ``box`` (field and widget in one dictionary)."""
+    from pyhanko.pdf_utils import generic
+    from pyhanko.pdf_utils.content import RawContent
+    from pyhanko.pdf_utils.layout import BoxConstraints
+
+    page_ref = w.find_page_for_modification(page)[0]
+    width, height = box[2] - box[0], box[3] - box[1]
+    ap = w.add_object(RawContent(b"", box=BoxConstraints(width=width, height=height)).as_form_xobject())
+    n = generic.NameObject
+    fld = generic.DictionaryObject({
+        n("/Type"): n("/Annot"), n("/Subtype"): n("/Widget"), n("/FT"): n("/Tx"),
+        n("/T"): generic.TextStringObject(name), n("/Ff"): generic.NumberObject(1),     # read-only
+        n("/F"): generic.NumberObject(4),                                                 # printed
+        n("/Rect"): generic.ArrayObject([generic.FloatObject(round(v, 2)) for v in box]),
+        n("/P"): page_ref, n("/AP"): generic.DictionaryObject({n("/N"): ap}),
+        n("/TU"): generic.TextStringObject(f"acceptance stated by the {ROLE_OF_ACCEPT[name]} signature"),
+    })
+    ref = w.add_object(fld)
+    w.register_annotation(page_ref, ref)
+    form = w.root["/AcroForm"]
+    form["/Fields"].append(ref)
+    w.update_container(form["/Fields"])
+
+
 def sign_pdf_bytes(pdf_bytes: bytes, kp: Any, role: str, *, human_reason: str, tag: dict,
                    appearance_lines: list[str], when: _dt.datetime | None = None) -> bytes:
     """Sign ``pdf_bytes`` in ``role``'s field (incremental update) and return the new file's bytes.
 
     The first signature of the document creates every role's field and certifies it
-    (DocMDP: form filling and further signatures only).
+    (DocMDP: form filling and further signatures only); where the summary reserved acceptance
+    boxes (a package with failing checks or NOT CHECKED items) it also creates their read-only
+    text fields, each locked by its role's signature field (``/Lock``, FieldMDP). A checked or
+    approved signature whose ``tag`` carries ``accept_note`` fills its role's box with that text
+    in the same update as the signature.
     """
     from pyhanko.pdf_utils.incremental_writer import IncrementalPdfFileWriter
     from pyhanko.pdf_utils.text import TextBoxStyle
@@ -194,12 +249,32 @@ def sign_pdf_bytes(pdf_bytes: bytes, kp: Any, role: str, *, human_reason: str, t
     if first:
         boxes = field_boxes(w.prev) or _fallback_boxes()
         have = {f[0] for f in _form_field_names(w.prev)}
+        accept = field_boxes(w.prev, ACCEPT_PREFIX, (ACCEPT_W, ACCEPT_H))
         for r, fname in FIELDS.items():
             if fname in have:
                 continue
             page, box = boxes.get(r, _fallback_boxes()[r])
+            lock = (fields.FieldMDPSpec(fields.FieldMDPAction.INCLUDE, [ACCEPT_FIELDS[r]])
+                    if r in accept and r in ACCEPT_FIELDS else None)
             fields.append_signature_field(w, fields.SigFieldSpec(sig_field_name=fname, on_page=page,
-                                                                 box=tuple(round(v, 2) for v in box)))
+                                                                 box=tuple(round(v, 2) for v in box),
+                                                                 field_mdp_spec=lock))
+        for r, fname in ACCEPT_FIELDS.items():
+            if r in accept and fname not in have:
+                _add_accept_field(w, fname, *accept[r])
+    note = tag.get("accept_note")
+    if role in ACCEPT_FIELDS and note and ACCEPT_FIELDS[role] in accept_values(w) \
+            and accept_values(w)[ACCEPT_FIELDS[role]] is None:      # filled before: verify says so
+        from pyhanko.pdf_utils import layout
+        from pyhanko.pdf_utils.form_tools import populate_static_text_field
+
+        top_left = layout.SimpleBoxLayoutRule(x_align=layout.AxisAlignment.ALIGN_MIN,
+                                              y_align=layout.AxisAlignment.ALIGN_MAX,
+                                              margins=layout.Margins(3, 3, 3, 3),
+                                              inner_content_scaling=layout.InnerScaling.NO_SCALING)
+        populate_static_text_field(w, ACCEPT_FIELDS[role], TextBoxStyle(font_size=ACCEPT_FONT, leading=ACCEPT_LEADING,
+                                                                        box_layout_rule=top_left),
+                                   "\n".join(accept_lines(note)))
     meta = signers.PdfSignatureMetadata(
         field_name=name, reason=tag_reason(human_reason, tag), name=kp.name, location=None,
         certify=first, docmdp_permissions=fields.MDPPerm.FILL_FORMS, md_algorithm="sha256",
@@ -269,15 +344,18 @@ def base_revision_sha256(pdf_bytes: bytes) -> str:
 _CATALOG_FREE = {"/Metadata", "/Version", "/Extensions", "/DSS"}
 
 
-def update_problems(reader: Any, after_revision: int) -> list[str]:
+def update_problems(reader: Any, after_revision: int, fills: dict[str, int] | None = None) -> list[str]:
     """What the incremental updates after revision ``after_revision`` change beyond filling signatures.
 
     The quick, strict rule used by default (pyHanko's full difference analysis walks every
     object of every revision and takes seconds on a package; ``thorough=True`` runs it):
     an update may add new objects, rewrite the document's XMP metadata stream, rewrite the
     catalog with no entry changed other than :data:`_CATALOG_FREE`, and fill our signature
-    fields (same name, type, page and place; a value and an appearance added). Anything else
-    (a page, its content, an annotation list, a font, a freed object) is a change.
+    fields or our acceptance text fields (same name, type, page and place; a value and an
+    appearance added, nothing else). Anything else (a page, its content, an annotation list, a
+    font, a freed object, a filled field filled again) is a change. ``fills`` receives the
+    revision in which each acceptance field was filled (the caller checks a signature of its
+    role was made in that very revision).
     """
     from pyhanko.pdf_utils.generic import Reference
 
@@ -313,6 +391,11 @@ def update_problems(reader: Any, after_revision: int) -> list[str]:
                 continue
             if _is_filled_sig_field(before, after):
                 continue
+            filled = _filled_accept_field(before, after)
+            if filled:
+                if fills is not None:
+                    fills[filled] = rev
+                continue
             problems.append(f"update {rev} rewrites object {ref.idnum} "
                             f"({str(before.get('/Type', before.get('/Subtype', 'content')) if hasattr(before, 'get') else 'content')})")
     return problems
@@ -332,6 +415,37 @@ def _is_filled_sig_field(before: Any, after: Any) -> bool:
         return "/V" not in before and "/V" in after
     except (AttributeError, KeyError, TypeError):
         return False
+
+
+def _filled_accept_field(before: Any, after: Any) -> str | None:
+    """The name of our acceptance text field when ``after`` is ``before`` filled (value and appearance
+    added, /DA dropped, read-only kept), else None."""
+    try:
+        name = str(before.get("/T"))
+        if before.get("/FT") != "/Tx" or after.get("/FT") != "/Tx" or name not in ROLE_OF_ACCEPT:
+            return None
+        if str(after.get("/T")) != name or "/V" in before or "/V" not in after:
+            return None
+        if int(after.get("/Ff", 0)) & 1 != 1:
+            return None
+        for k in set(before.keys()) | set(after.keys()):
+            if k in ("/V", "/AP", "/DA", "/Ff"):
+                continue
+            if str(before.raw_get(k) if k in before else None) != str(after.raw_get(k) if k in after else None):
+                return None
+        return name
+    except (AttributeError, KeyError, TypeError, ValueError):
+        return None
+
+
+def accept_values(reader: Any) -> dict[str, str | None]:
+    """Value of each acceptance field present in the PDF (None while empty)."""
+    out: dict[str, str | None] = {}
+    for name, ref in _form_field_names(reader):
+        if name in ROLE_OF_ACCEPT:
+            v = ref.get_object().get("/V")
+            out[name] = None if v is None else str(v)
+    return out
 
 
 def validate_pdf_bytes(pdf_bytes: bytes, trust_roots: list[Any], thorough: bool = False) -> list[PdfSig]:
@@ -392,13 +506,39 @@ def validate_pdf_bytes(pdf_bytes: bytes, trust_roots: list[Any], thorough: bool 
     if out and not out[-1].covers_whole_file:
         out[-1].problems.append("bytes were added after the last signature")
     if sigs:
+        fills: dict[str, int] = {}
         try:
-            upd = update_problems(reader, sigs[0].signed_revision)
+            upd = update_problems(reader, sigs[0].signed_revision, fills)
+            upd += accept_problems(reader, sigs, out, fills)
         except Exception as exc:  # noqa: BLE001 - an unreadable update is a change
             upd = [f"the updates after the first signature cannot be read ({exc.__class__.__name__})"]
         if upd:
             out[0].problems.extend(upd)
     return out
+
+
+def accept_problems(reader: Any, sigs: list[Any], found: list[PdfSig], fills: dict[str, int]) -> list[str]:
+    """The summary's acceptance fields against the signatures: each filled in the very update that added
+    its role's signature, with the text that signature's own record states (``accept_note``); a
+    signature stating an acceptance leaves it in the box when the PDF has one."""
+    problems: list[str] = []
+    values = accept_values(reader)
+    by_role = {f.role: (es, f) for es, f in zip(sigs, found)}
+    for name, value in values.items():
+        role = ROLE_OF_ACCEPT[name]
+        es, f = by_role.get(role, (None, None))
+        note = f.tag.get("accept_note") if f else None
+        if value is None:
+            if note:
+                problems.append(f"the {role} signature states an acceptance that its box in the summary lacks")
+            continue
+        if es is None:
+            problems.append(f"the summary's {role} acceptance box is filled without a {role} signature")
+        elif fills.get(name) != es.signed_revision:
+            problems.append(f"the summary's {role} acceptance box was not filled by the {role} signature's update")
+        elif not note or value != "\n".join(accept_lines(note)):
+            problems.append(f"the summary's {role} acceptance box does not say what the {role} signature states")
+    return problems
 
 
 def _is_certification(es: Any) -> bool:

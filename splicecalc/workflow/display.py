@@ -757,6 +757,10 @@ def parts_table(result: CalcResult) -> TableOutput:
     table = TableOutput(["Part", "Governing check (clause)", "Checks", "Util.", "Verdict"], rows, align="llrrl",
                         title="Summary by part: the governing check of each", kind="parts")
     table.payload["parts"] = parts_index(parts)
+    bad, gap = count_verdicts(result.summary_records)
+    if bad or gap:
+        # the sheet reserves the checker's and approver's acceptance boxes (filled by `splicecalc sign`)
+        table.payload["acceptance"] = {"failing": bad, "not_checked": gap}
     return table
 
 
