@@ -62,21 +62,41 @@ def test_short_step_is_set_on_one_line():
 
 
 def test_long_step_is_split_into_symbolic_numeric_result():
-    long_pieces = ["\\operatorname{min} \\left( \\frac{ 1 }{ \\Phi_{LT} + \\sqrt { \\Phi_{LT} ^{ 2 } - "
-                   "\\beta \\cdot \\lambda_{LT} ^{ 2 } } } ,\\  1.0 \\right)",
-                   "\\operatorname{min} \\left( \\frac{ 1 }{ 0.792 + \\sqrt { 0.792 ^{ 2 } - 0.750 \\cdot "
-                   "0.744 ^{ 2 } } } ,\\  1.0 \\right)", "0.798"]
-    assert sum(latexfix.shown_chars(p) for p in long_pieces) > latexfix.ONE_LINE_CHARS
-    tex = "$$\n\\begin{aligned}\n\\chi_{LT} &= " + " = ".join(long_pieces[:2]) + " &= 0.798\n\\end{aligned}\n$$"
+    # M_cr-like step: the formula and its numbers do not share one row, the numbers and the result do
+    sym = " + ".join(f"C_{{{i}}} \\cdot \\frac{{ \\pi^{{2}} \\cdot E \\cdot I_{{z}} }}{{ L_{{cr}}^{{2}} }}" for i in range(3))
+    num = " + ".join(f"1.{i}00 \\cdot \\frac{{ 9.870 \\cdot 210.000\\ \\mathrm{{GPa}} \\cdot 645.000\\ "
+                     f"\\mathrm{{cm}}^{{4}} }}{{ (3200.000\\ \\mathrm{{mm}})^{{2}} }}" for i in range(2))
+    long_pieces = [sym, num, "400.123\\ \\mathrm{kN} \\cdot \\mathrm{m}"]
+    room = latexfix.ROW_FILL * (latexfix.RHS_ROOM_EM - latexfix.shown_width("M_{cr}"))
+    widths = [latexfix.shown_width(p) for p in long_pieces]
+    assert sum(widths) > room > widths[1] + widths[2] + 1.34   # too long for one row; numbers = result fit one
+    tex = "$$\n\\begin{aligned}\nM_{cr} &= " + " = ".join(long_pieces[:2]) + " &= " + long_pieces[2] + "\n\\end{aligned}\n$$"
     out = latexfix.break_handcalcs(tex)
     body = out.split("\\begin{calcsteps}")[1].split("\\end{calcsteps}")[0]
-    assert body.count("&= \\calcfit{") == 3 and "0.744" in body and "\\Phi_{LT}" in body
+    rows = body.split("\\\\*")
+    assert len(rows) == 2 and "L_{cr}" in rows[0] and "210.000" not in rows[0]   # the formula alone
+    assert "210.000" in rows[1] and rows[1].rstrip().endswith("400.123\\ \\mathrm{kN} \\cdot \\mathrm{m}}")
+
+
+def test_shown_width_counts_a_fraction_by_its_wider_part():
+    # a stacked fraction prints as wide as its wider line, not the sum of both (TeX's \frac)
+    frac = latexfix.shown_width("\\frac{ 245.000\\ \\mathrm{mm}^{2} }{ 1.250 }")
+    assert frac == pytest.approx(latexfix.shown_width("245.000\\ \\mathrm{mm}^{2}") + 0.25)
+    assert latexfix.shown_width("a \\cdot b") > latexfix.shown_width("ab")       # operator spacing counted
+
+
+def test_packing_never_loses_or_reorders_a_piece():
+    long = "\\operatorname{min} \\left( " + " + ".join(["123.456\\ \\mathrm{kN}"] * 12) + " \\right)"
+    for pieces in (["a", "b", "c"], ["a", long, "c"], [long, long, "1.000"], [long, "c"]):
+        rows = latexfix._pack(pieces, room=40.0)
+        assert [p for r in rows for p in r] == pieces
+        assert all(len(r) == 1 or sum(latexfix.shown_width(p) for p in r) <= 40.0 for r in rows)
 
 
 def test_several_steps_keep_every_piece():
     out = latexfix.break_handcalcs(LONG)
     body = out.split("\\begin{calcsteps}")[1].split("\\end{calcsteps}")[0]
-    steps = body.split("\\\\[0.9ex]")
+    steps = body.split("\\\\[0.6ex]")
     assert len(steps) == 2                                  # two statements -> two steps
     for piece in ("8550.769", "189.900", "3727.3", "3638.0", "\\operatorname{max}"):
         assert piece in out

@@ -261,24 +261,30 @@ def job_tables(job: Any) -> list[TableOutput]:
         if s.category in ("B", "C"):
             srows.append(["Slip surface class", s.friction_class])
         out.append(TableOutput(["Splice option", "Value"], srows, title="Splices", align="ll"))
-    for spec in job.supports:
-        if isinstance(spec, dict):
-            continue
-        m = spec.existing_member
-        rows = [["End", f"{spec.at} ({'A' if spec.at == 'start' else 'B'})"],
-                ["Connection", spec.connection], ["Bolts", f"{spec.bolt_size} {spec.bolt_class}"],
-                ["Plate", (f"{spec.plate_t:g} mm " if spec.plate_t else "thickness chosen, ") + spec.plate_grade],
-                ["Existing member", getattr(m, "designation", str(m))],
-                ["Existing member dimensions h x b x tw x tf x r",
-                 f"{m.h:g} x {m.b:g} x {m.tw:g} x {m.tf:g} x {m.r:g} mm"],
-                ["Face connected to", spec.existing_face], ["Existing steel", _steel_text(spec.existing_steel)],
-                ["Tying force", f"{spec.tying_force / 1000:g} kN" if spec.tying_given else
-                 f"from the beam's loads, consequence class {spec.consequence_class} (at least 75 kN)"],
-                ["Existing member's own loads", _loads_text(spec.existing_loads)]]
-        if spec.notched:
-            rows.append(["Top notch depth x length", f"{spec.notch_depth:g} x {spec.notch_length:g} mm"])
-        out.append(TableOutput(["Support item", "Value"], rows, title=f"End connection, support[{spec.index}]",
-                               align="ll"))
+    specs = [spec for spec in job.supports if not isinstance(spec, dict)]
+    if specs:
+        # one column per support: the ends read side by side
+        items = ["End", "Connection", "Bolts", "Plate", "Existing member",
+                 "Existing member h x b x tw x tf x r", "Face connected to", "Existing steel", "Tying force",
+                 "Existing member's own loads"]
+        if any(spec.notched for spec in specs):
+            items.append("Top notch depth x length")
+        cols = []
+        for spec in specs:
+            m = spec.existing_member
+            cols.append([f"{spec.at} ({'A' if spec.at == 'start' else 'B'})", spec.connection,
+                         f"{spec.bolt_size} {spec.bolt_class}",
+                         (f"{spec.plate_t:g} mm " if spec.plate_t else "thickness chosen, ") + spec.plate_grade,
+                         getattr(m, "designation", str(m)), f"{m.h:g} x {m.b:g} x {m.tw:g} x {m.tf:g} x {m.r:g} mm",
+                         spec.existing_face, _steel_text(spec.existing_steel),
+                         f"{spec.tying_force / 1000:g} kN" if spec.tying_given else
+                         f"from the beam's loads, consequence class {spec.consequence_class} (at least 75 kN)",
+                         _loads_text(spec.existing_loads)]
+                        + ([f"{spec.notch_depth:g} x {spec.notch_length:g} mm" if spec.notched else "-"]
+                           if len(items) > 10 else []))
+        rows = [[item, *(c[i] for c in cols)] for i, item in enumerate(items)]
+        out.append(TableOutput(["Support item", *(f"support[{spec.index}]" for spec in specs)], rows,
+                               title="End connections (job [[support]] tables)", align="l" * (1 + len(specs))))
     return out
 
 
@@ -312,11 +318,11 @@ def show_inputs(job: Any) -> None:
     for t in tables[1:]:
         publish(t)
     p = job.project
-    rows = [[k.replace("_", " ").capitalize(), getattr(p, k)] for k in
-            ("number", "title", "client", "location", "prepared_by", "checked_by", "date", "revision")
-            if getattr(p, k)]
-    if rows:
-        show_table(["Project item", "Value"], rows, title="Project (from the job file)", align="ll")
+    items = [f"{k.replace('_', ' ')} {getattr(p, k)}" for k in
+             ("number", "title", "client", "location", "prepared_by", "checked_by", "date", "revision")
+             if getattr(p, k)]
+    if items:   # as on the cover: one line, not a table
+        show_text("**Project (from the job file):** " + "; ".join(items) + ".")
     if job.notes:
         show_list(job.notes, "Notes on the job file")
 
@@ -566,9 +572,10 @@ def _splice_heading(part: Any) -> None:
         show_heading("Splice design" + (f": {part.combination}" if part.combination else ""))
 
 
-def show_splice(result: CalcResult, part: Any) -> None:
+def show_splice(result: CalcResult, part: Any, like: Any = None, groups: tuple[str, ...] = ()) -> None:
     """One splice: heading, forces (rendered), layout, drawing, alternatives, strength checks in full,
-    detailing rules as one table."""
+    detailing rules as one table. ``groups`` ("flange", "web") laid out as in the splice ``like`` shown
+    before: their strength checks are rows referring to its working."""
     d = part.design
     _splice_heading(part)
     _splice_forces_table(part)
@@ -576,14 +583,32 @@ def show_splice(result: CalcResult, part: Any) -> None:
     rows = splice_layout_rows(part, getattr(part.spec, "plate_grade", ""))
     show_table(["Item", "Layout"], rows, align="ll", title=f"Layout of splice {part.label}")
     show_drawing(d.drawing_data(), f"Splice {part.label}: elevation and plan of the top flange, to scale, dimensions in mm.")
-    if d.notes:
+    if d.notes and like is not None and list(d.notes) == list(like.design.notes):
+        show_text(f"**Notes**: as for splice {like.label}.")
+    elif d.notes:
         show_list(d.notes, "Notes")
     if d.alternatives:
         rows = [[a.layout.bolt_size + " " + a.layout.bolt_class, str(a.n_bolts), f"{a.plate_mass:.1f}",
                  f"{a.cost:.1f}", f"{a.max_utilisation:.2f}"] for a in d.alternatives]
         show_table(["Bolts", "No. of bolts", "Plates (kg)", "Cost", "Max util."], rows, align="lrrrr",
                    title="Alternatives considered (also passing)")
-    show_part_checks(part.records, f"Splice {part.label}: detailing rules")
+    records = list(part.records)
+    if like is not None and groups:
+        # a group (flange or web) laid out as in an earlier splice: its strength checks as rows, the
+        # working referred to that splice; the other group's checks in full
+        referred = [r for r in records if _splice_group(r) in groups and not is_detailing_rule(r)]
+        words = " and ".join(groups)
+        rest = "web" if groups == ("flange",) else "flange"
+        verb = "are" if len(groups) > 1 else "is"
+        show_text(f"**The {words} of splice {part.label} {verb} laid out as in splice {like.label}** (the same "
+                  f"bolts, rows, pitches and plate sizes; plate thickness as tabled above). Its {words} checks "
+                  f"are made for the forces and plates of {part.label} with the formulas shown in full for "
+                  f"{like.label}; the {rest} checks follow in full.")
+        show_rules(referred, f"Splice {part.label}: {words} checks (working as for {like.label})",
+                   note=f"Each row is the check of splice {like.label} of the same title, made with the forces and "
+                        f"plates of {part.label}; the formulas are those shown there.")
+        records = [r for r in records if r not in referred]
+    show_part_checks(records, f"Splice {part.label}: detailing rules")
 
 
 def show_splice_as(result: CalcResult, part: Any, first: Any) -> None:
@@ -614,19 +639,47 @@ def same_splice_layout(a: Any, b: Any) -> bool:
     return [[k, _THICKNESS.sub(r"\1 x t x ", v)] for k, v in ra] == [[k, _THICKNESS.sub(r"\1 x t x ", v)] for k, v in rb]
 
 
+#: layout rows of each bolt group of a splice (``splice_layout_rows`` item names)
+_GROUP_ROWS = {"flange": ("Flange bolts", "Outer flange plates", "Inner flange plates"),
+               "web": ("Web bolts", "Web plates")}
+
+
+def _splice_group(rec: CheckRecord) -> str:
+    """The bolt group a splice record belongs to ("flange", "web") from its tags, or ""."""
+    return next((g for g in _GROUP_ROWS if rec.has(g)), "")
+
+
+def same_group_layout(a: Any, b: Any, group: str) -> bool:
+    """True when one bolt group ("flange" or "web") of two splices has the same bolts, rows, pitches and
+    plate sizes (thickness aside)."""
+    def key(part: Any) -> list[Any]:
+        lay = part.design.layout
+        return [lay.bolt_size, lay.bolt_class] + [[k, _THICKNESS.sub(r"\1 x t x ", v)]
+                                                  for k, v in splice_layout_rows(part)
+                                                  if k.startswith(_GROUP_ROWS[group])]
+    return key(a) == key(b)
+
+
 def show_splices(result: CalcResult) -> None:
-    """Every splice of the beam, one section each; a splice laid out like an earlier one refers to it."""
+    """Every splice of the beam, one section each; a splice laid out like an earlier one refers to it,
+    one whose flange (or web) alone is laid out like an earlier one's refers to it for those checks."""
     if not result.splices:
         show_text("No splice: the beam is delivered in one piece.")
         return
     shown: list[Any] = []
     for part in result.splices:
         first = next((f for f in shown if same_splice_layout(f, part)), None)
-        if first is None:
-            show_splice(result, part)
-            shown.append(part)
-        else:
+        if first is not None:
             show_splice_as(result, part, first)
+            continue
+        like, groups = None, ()
+        for f in shown:
+            groups = tuple(g for g in _GROUP_ROWS if same_group_layout(f, part, g))
+            if groups:
+                like = f
+                break
+        show_splice(result, part, like, groups)
+        shown.append(part)
 
 
 # ======================================================================== connections, existing
@@ -685,6 +738,7 @@ def show_existing(result: CalcResult) -> None:
     if not result.connections:
         show_text("No existing member: no `[[support]]` table in the job.")
         return
+    cautioned: dict[str, str] = {}     # caution text -> the support where it was printed
     for part in result.connections:
         ex = part.design.existing
         m = part.spec.existing_member
@@ -702,8 +756,11 @@ def show_existing(result: CalcResult) -> None:
                  ["Eccentricity from the member axis", f"{ex.e_mm:.1f}", _u("mm")]]
         show_table(["Item", "Value", "Unit"], rows, align="lrl", title=f"Existing member at support {part.end}",
                    notes=ex.material.note)
-        if ex.material.historic:
+        if ex.material.historic and ex.caution in cautioned:
+            show_text(f"**Old steel**: the caution at support {cautioned[ex.caution]} applies here too.")
+        elif ex.material.historic:
             show_list([ex.caution], "Old steel: cautions")
+            cautioned[ex.caution] = part.end
         show_text(ex.text[0].upper() + ex.text[1:] + ("." if not ex.text.endswith(".") else ""))
         member = ex.member
         member_ids = {f"{part.end}.{r.id}" for r in member.records} if member is not None else set()
@@ -779,13 +836,11 @@ def show_summary(result: CalcResult) -> None:
 
 def show_references(result: CalcResult) -> None:
     """Clauses cited by the checks (by standard) and the standards and guidance used."""
-    rows = []
-    for r in result.references:
-        if not r.clauses:
-            rows.append([r.standard, "-", str(r.checks)])
-        for i, (c, n) in enumerate(zip(r.clauses, r.counts)):
-            rows.append([r.standard if i == 0 else "", c, str(n)])
-    show_table(["Standard", "Clause cited", "Checks citing it"], rows, align="llr",
+    # one row per standard, its clauses in one wrapping cell (a clause per row took a sheet); a clause and
+    # its count never break across lines (no-break spaces)
+    rows = [[r.standard, "; ".join(f"{c} ({n})".replace(" ", "\u00a0") for c, n in zip(r.clauses, r.counts))
+             if r.clauses else "-", str(r.checks)] for r in result.references]
+    show_table(["Standard", "Clauses cited (number of checks citing each)", "Checks"], rows, align="llr",
                title="Clauses cited by the checks of this package")
     show_list([f"**{doc}**: {title}" for doc, title in result.standards],
               "Standards and guidance (the UK National Annexes apply throughout)")
