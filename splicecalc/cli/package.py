@@ -63,6 +63,8 @@ def _print_build(b: Any, quiet: bool) -> None:
     print(f"status: {b.status}; build record: {b.sidecar}")
     if r.cells_reused:
         print(r.reuse_line())
+    if b.changes_line():
+        print(b.changes_line())
     if not quiet:
         print(f"time: execution {r.execution_s:.1f} s (kernel start {r.kernel_start_s:.1f} s, cells {r.cells_s:.1f} s), "
               f"LaTeX {r.latex_passes} passes {r.latex_s:.1f} s, our overhead (all but kernel start and LaTeX) "

@@ -99,7 +99,8 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
               timeout: float = 300.0, overfull_limit_pt: float = OVERFULL_LIMIT_PT,
               build_dir: str | Path | None = None, executed_path: str | Path | None = None,
               kernel: KernelLaunch | None = None, inputs_digest: str | None = None,
-              reuse: dict | None = None, seed: bool = True) -> BuildReport:
+              reuse: dict | None = None, seed: bool = True, previous: dict[str, Any] | None = None,
+              changes_note: str = "") -> BuildReport:
     """Execute ``notebook_path`` (unless ``execute=False``) and write the calc package to ``pdf_path``.
 
     The PDF appears under its final name only when complete (temporary file
@@ -113,7 +114,10 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
     (:func:`splicecalc.report.uptodate.cells_inputs`), stored in the executed notebook's metadata;
     ``reuse``: an executed notebook with that digest whose outputs stand for this run's
     (:func:`~splicecalc.report.uptodate.reusable_outputs`): the cells are not executed. ``seed=False``
-    starts the XeLaTeX passes from nothing.
+    starts the XeLaTeX passes from nothing. ``previous``: the previous issued revision to mark
+    changes against (``revision``, executed ``notebook`` dict, ``name``; see
+    :class:`~splicecalc.report.exporter.ChangeMarkPreprocessor`); ``changes_note``: why changes are
+    not marked although a revision was issued before (printed on the cover).
     """
     t0 = kernel.launched_at if kernel is not None else time.perf_counter()
     nb_path = Path(notebook_path)
@@ -172,6 +176,10 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
         shutil.rmtree(seed_dir, ignore_errors=True)
     exporter = CalcPackageExporter(progress=progress, build_directory=str(work), seed_directory=str(seed_dir))
     resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
+    if previous:
+        resources["previous"] = previous
+    if changes_note:
+        resources["changes_note"] = changes_note
     pdf_bytes, resources = exporter.from_notebook_node(nb, resources)
     run: LatexRun = resources["latex_run"]
 

@@ -82,6 +82,36 @@ class FigurePreprocessor(Preprocessor):
         return nb, resources
 
 
+class ChangeMarkPreprocessor(Preprocessor):
+    """Change marks against the previous issued revision (``resources["previous"]``: its ``revision``,
+    its executed ``notebook`` as a dict and a ``name``; given by the build, see
+    :mod:`splicecalc.signoff.previous`). Each output printed differently from that revision
+    (:func:`splicecalc.review.compare.changed_outputs`) is listed in its cell's metadata
+    (``splicecalc_changed``: output indices), which the template wraps in the change marks; the
+    comparison (:func:`~splicecalc.review.compare.comparison_latex`) becomes the package's last
+    section. Runs after the outputs only for Jupyter are dropped, so the indices are the printed ones."""
+
+    enabled = Bool(True).tag(config=True)
+
+    def preprocess(self, nb: Any, resources: Any) -> tuple[Any, Any]:
+        prev = resources.get("previous")
+        calc = resources.get("calc")
+        if not prev or not isinstance(calc, dict):
+            return nb, resources
+        from ..review.compare import changed_outputs, compare_revisions, comparison_latex
+
+        old = prev["notebook"]
+        changed = changed_outputs(old, nb)
+        for ci, oi in changed:
+            nb.cells[ci].metadata.setdefault("splicecalc_changed", []).append(oi)
+        name = prev.get("new_name") or resources.get("metadata", {}).get("name", "") or "this package"
+        c = compare_revisions(old, nb, old_name=str(prev.get("name", "previous")), new_name=str(name))
+        since = str(prev.get("revision", "") or "-")
+        calc["changes"] = {"since": since, "outputs": len(changed),
+                           "latex": comparison_latex(c, heading=f"Changes since issued revision {since}")}
+        return nb, resources
+
+
 class CalcPackageExporter(PDFExporter):
     """PDF calc package: our LaTeX template, XeLaTeX, title block on every sheet."""
 
@@ -127,7 +157,7 @@ class CalcPackageExporter(PDFExporter):
         base = list(PDFExporter.class_traits()["default_preprocessors"].default())
         at = next((i for i, p in enumerate(base) if "ExtractOutputPreprocessor" in str(p)), len(base))
         return base[:at] + [RefuseErrorsPreprocessor, StaleInputsPreprocessor, LiveOnlyOutputsPreprocessor,
-                            FigurePreprocessor] + base[at:]
+                            FigurePreprocessor, ChangeMarkPreprocessor] + base[at:]
 
     def default_filters(self):  # type: ignore[override]
         yield from super().default_filters()
@@ -146,6 +176,8 @@ class CalcPackageExporter(PDFExporter):
         resources = dict(resources or {})
         name = resources.get("metadata", {}).get("name", "") or "Calculation"
         resources["calc"] = calc_metadata(nb.metadata, default_title=name, signoff=_signoff_state(nb))
+        if resources.get("changes_note"):
+            resources["calc"]["changes_note"] = str(resources["changes_note"])
         latex, resources = LatexExporter.from_notebook_node(self, nb, resources=resources, **kw)
         return break_handcalcs(latex), resources
 
@@ -185,4 +217,17 @@ class CalcPackageExporter(PDFExporter):
         return pdf, resources
 
 
-__all__ = ["CalcPackageExporter", "LATEX_DIR", "TEMPLATE_NAME"]
+class ComparisonExporter(CalcPackageExporter):
+    """The comparison of two revisions as a short PDF on the package's sheets (template
+    ``calcpackage/comparison.tex.j2``): the notebook given is an empty one carrying the new
+    revision's title block, ``resources["comparison"]`` the LaTeX of
+    :func:`splicecalc.review.compare.comparison_latex`."""
+
+    export_from_notebook = None  # type: ignore[assignment]
+
+    @default("template_file")
+    def _template_file_default(self) -> str:
+        return "comparison.tex.j2"
+
+
+__all__ = ["CalcPackageExporter", "ChangeMarkPreprocessor", "ComparisonExporter", "LATEX_DIR", "TEMPLATE_NAME"]

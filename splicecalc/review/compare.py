@@ -19,6 +19,8 @@ Nothing is recomputed: every number is one a notebook printed.
 
 from __future__ import annotations
 
+import hashlib
+import json
 import math
 from dataclasses import dataclass
 from typing import Any
@@ -305,5 +307,147 @@ def comparison_text(c: dict[str, Any]) -> str:
     return "\n".join(lines)
 
 
-__all__ = ["MOVE_THRESHOLD", "Revision", "changed_inputs", "compare_revisions", "comparison_text", "flatten_inputs",
-           "governing_by_part", "moved_checks", "read_revision"]
+# ----------------------------------------------------------------- changed outputs (change bars)
+#: the MIME type of a figure's data (drawn from it; its PDF / PNG bytes carry creation dates)
+_FIGURE_MIME = "application/vnd.splicecalc.figure+json"
+#: a table of the title block's fields: its revision row differs in every revision, like every sheet's strip
+_PROJECT_TABLE = "Project (from the job file)"
+
+
+def output_fingerprint(output: Any) -> str:
+    """SHA-256 of what the package prints of one notebook output: the first MIME type of
+    :data:`~splicecalc.report.display.DISPLAY_PRIORITY` it carries (a check record's JSON with its
+    rendered steps, a table's rows, markdown text), a figure's data rather than its image bytes,
+    printed text of a stream. The revision row of the project table is left out (the revision code
+    is on every sheet's strip; a new code is not a change of content)."""
+    from ..report.display import DISPLAY_PRIORITY
+
+    if not isinstance(output, dict):
+        return ""
+    if output.get("output_type") == "stream":
+        text = output.get("text", "")
+        body: Any = ["stream", str(output.get("name", "")), "".join(text) if isinstance(text, list) else str(text)]
+    else:
+        data = output.get("data") if isinstance(output.get("data"), dict) else {}
+        mime = _FIGURE_MIME if _FIGURE_MIME in data else next((m for m in DISPLAY_PRIORITY if m in data), None)
+        value = data.get(mime) if mime else sorted(data)
+        if mime == TABLE_MIME and isinstance(value, dict) and value.get("title") == _PROJECT_TABLE:
+            value = dict(value, rows=[r for r in value.get("rows") or []
+                                      if not (isinstance(r, list) and r and r[0] == "Revision")])
+        if isinstance(value, list) and mime and mime.startswith("text/"):
+            value = "".join(str(x) for x in value)
+        body = [str(mime), value]
+    raw = json.dumps(body, sort_keys=True, ensure_ascii=False, separators=(",", ":"), default=str)
+    return hashlib.sha256(raw.encode("utf-8")).hexdigest()
+
+
+def _outputs(nb: Any):
+    for ci, cell in enumerate(nb.get("cells", []) if isinstance(nb, dict) else []):
+        if isinstance(cell, dict) and cell.get("cell_type") == "code":
+            for oi, out in enumerate(cell.get("outputs") or []):
+                yield ci, oi, out
+
+
+def changed_outputs(old_nb: Any, new_nb: Any) -> list[tuple[int, int]]:
+    """(cell index, output index) of every output of ``new_nb`` whose printed content the old
+    notebook does not have (compared by :func:`output_fingerprint`, each old output matched once, so a
+    repeated output that appears once more counts as changed). An output only moved is not changed;
+    what was removed is listed by the comparison (checks removed), it has no place to carry a bar."""
+    from collections import Counter
+
+    have = Counter(output_fingerprint(o) for _, _, o in _outputs(old_nb))
+    out = []
+    for ci, oi, o in _outputs(new_nb):
+        f = output_fingerprint(o)
+        if have[f] > 0:
+            have[f] -= 1
+        else:
+            out.append((ci, oi))
+    return out
+
+
+# ----------------------------------------------------------------- LaTeX (the appendix)
+def _tex_u(x: float | None) -> str:
+    return "--" if x is None else f"{x:.3f}"
+
+
+def _tex_table(title: str, spec: str, head: list[str], rows: list[list[str]], empty: str) -> list[str]:
+    """One titled ``calctable`` (macros of the package template); cells are LaTeX already."""
+    from ..core.text import escape_tex as e
+
+    out = [r"\subsection*{" + e(title) + "}"]
+    if not rows:
+        return out + [r"{\small\itshape " + e(empty) + r"}\par"]
+    out += [r"\begin{calctable}{" + spec + "}",
+            " & ".join(r"\textbf{" + e(h) + "}" for h in head) + r" \\ \midrule\endhead"]
+    out += [" & ".join(r) + r" \\" for r in rows]
+    out += [r"\bottomrule", r"\end{calctable}"]
+    return out
+
+
+_RAGGED = r">{\raggedright\arraybackslash}"
+
+
+def comparison_latex(c: dict[str, Any], *, heading: str = "", label: str = "calc-changes") -> str:
+    """The comparison of :func:`compare_revisions` as a LaTeX section for the calc package's sheets
+    (macros of ``report/latex/calcpackage``): changed inputs, moved checks, checks added and removed, the
+    governing check of each part before and after. Every text from a notebook goes through
+    :func:`splicecalc.core.text.escape_tex`; numbers are formatted here."""
+    from ..core.text import escape_tex as e
+
+    o, n = c["old"], c["new"]
+    ro, rn = (o.get("revision") or "-"), (n.get("revision") or "-")
+    heading = heading or f"Changes from revision {ro} to revision {rn}"
+    lines = [r"\clearpage", r"\section{" + e(heading) + "}", r"\label{" + label + "}", "",
+             r"{\small " + e(f"Compared: {o['name']} (revision {ro}, {o['checks_count']} records) with {n['name']} "
+                             f"(revision {rn}, {n['checks_count']} records). Every value below is one the two "
+                             "calc notebooks printed; nothing is recomputed. A check is listed when its "
+                             f"utilisation moved by more than {c['threshold_utilisation']:g} or its verdict "
+                             "changed. The calculation sheets govern; this list is an aid to the check.")
+             + r"\par}", ""]
+    lines += _tex_table("Changed inputs", f"{_RAGGED}p{{0.34\\linewidth}}{_RAGGED}p{{0.29\\linewidth}}"
+                        f"{_RAGGED}p{{0.29\\linewidth}}",
+                        ["Input (job file)", f"Revision {ro}", f"Revision {rn}"],
+                        [[e(d["input"]), e(_cell(d["old"])), e(_cell(d["new"]))] for d in c["changed_inputs"]],
+                        "No input changed.")
+    moved = []
+    for d in c["moved_checks"]:
+        ch = d["change_utilisation"]
+        same = d["old_verdict"] == d["new_verdict"]
+        v = e(d["new_verdict"] if same else f"{d['old_verdict']} -> {d['new_verdict']}")
+        if d["new_verdict"] in ("NOT OK", "NOT CHECKED"):
+            v = r"\textcolor{failred}{\textbf{" + v + "}}"
+        moved.append([e(d["id"]), e(d["title"]), _tex_u(d["old_utilisation"]), _tex_u(d["new_utilisation"]),
+                      "--" if ch is None else f"{ch:+.3f}", v])
+    lines += [""] + _tex_table(f"Checks whose utilisation moved by more than {c['threshold_utilisation']:g}, or "
+                               "with another verdict",
+                               f"{_RAGGED}p{{0.22\\linewidth}}{_RAGGED}p{{0.33\\linewidth}}rrr"
+                               f"{_RAGGED}p{{0.14\\linewidth}}",
+                               ["Check", "Title", f"u {ro}", f"u {rn}", "change", "Verdict"], moved,
+                               "No check moved.")
+    for key, title, rev in (("added_checks", "Checks added", rn), ("removed_checks", "Checks removed", ro)):
+        rows = [[e(d["id"]), e(d["title"]), _tex_u(d["utilisation"]), e(d["verdict"])] for d in c[key]]
+        lines += [""] + _tex_table(title, f"{_RAGGED}p{{0.25\\linewidth}}{_RAGGED}p{{0.45\\linewidth}}r"
+                                   f"{_RAGGED}p{{0.14\\linewidth}}", ["Check", "Title", f"u {rev}", "Verdict"], rows,
+                                   f"No check {title.split()[-1]}.")
+    parts = c["governing_by_part"]
+    lines.append("")
+    if parts is None:
+        lines += [r"\subsection*{Governing check by part}",
+                  r"{\small\itshape " + e("Not available: a notebook was built before the summary by part carried "
+                                          "its grouping (rebuild it).") + r"\par}"]
+    else:
+        def g(x: dict | None) -> str:
+            return "--" if x is None else e(x["id"]) + r"\hfill " + f"{x['utilisation']:.3f}"
+        rows = [[e(f"{p['part']}: {p['title']}"), g(p["old"]), g(p["new"]),
+                 e("another check" if p["governing_changed"] else ("moved" if p["changed"] else "-"))]
+                for p in parts]
+        lines += _tex_table("Governing check by part", f"{_RAGGED}p{{0.30\\linewidth}}{_RAGGED}p{{0.25\\linewidth}}"
+                            f"{_RAGGED}p{{0.25\\linewidth}}{_RAGGED}p{{0.12\\linewidth}}",
+                            ["Part", f"Governing, {ro}", f"Governing, {rn}", ""], rows, "No parts.")
+    return "\n".join(lines) + "\n"
+
+
+__all__ = ["MOVE_THRESHOLD", "Revision", "changed_inputs", "changed_outputs", "compare_revisions", "comparison_latex",
+           "comparison_text", "flatten_inputs", "governing_by_part", "moved_checks", "output_fingerprint",
+           "read_revision"]

@@ -54,10 +54,23 @@ class PackageBuild:
     sidecar: Path
     report: Any
     status: str
+    #: the issued revision the changes are marked against ("" when none), the sheets that carry the bar
+    #: (as TeX resolved them), and why changes are not marked although a revision was issued
+    changed_since: str = ""
+    changed_sheets: tuple[int, ...] = ()
+    changes_note: str = ""
+
+    def changes_line(self) -> str:
+        """One line on the change marks, or ""."""
+        if self.changed_since:
+            return (f"sheets changed since issued revision {self.changed_since} (bar in the margin): "
+                    + (", ".join(str(n) for n in self.changed_sheets) or "none"))
+        return f"changes not marked: {self.changes_note}" if self.changes_note else ""
 
     def summary(self) -> str:
+        extra = self.changes_line()
         return (f"{self.report.summary()}\nexecuted notebook: {self.notebook}\nstatus: {self.status} "
-                f"(record {self.sidecar})")
+                f"(record {self.sidecar})" + (f"\n{extra}" if extra else ""))
 
 
 # ======================================================================== templates and metadata
@@ -394,6 +407,7 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
             staged = src.with_name(f".{src.stem}.build.ipynb")
             _write(nb, staged)
             nb_source = staged
+        issued, note = _previous_issue(nb_source, [out.parent, src.parent], out.name)
         with _headless():
             digest, _why = cells_inputs(json.loads(nb_source.read_text(encoding="utf-8")), run_dir)
             reuse, _why = reusable_outputs(previous, out, digest) if previous is not None else (None, "")
@@ -401,7 +415,7 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
                 kernel = KernelLaunch(run_dir)
             report = build_pdf(nb_source, out, execute=True, progress=progress, timeout=timeout,
                                executed_path=executed, kernel=kernel, inputs_digest=digest, reuse=reuse,
-                               seed=not fresh)
+                               seed=not fresh, previous=issued, changes_note=note)
         from ..signoff.ledger import write_sidecar
 
         nb_exec = _read(executed)
@@ -412,7 +426,38 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
         if staged is not None and staged.exists():
             staged.unlink()
         lock.release()
-    return PackageBuild(pdf=out, notebook=executed, sidecar=_sidecar(out), report=report, status=data["status"])
+    since = issued["revision"] if issued else ""
+    return PackageBuild(pdf=out, notebook=executed, sidecar=_sidecar(out), report=report, status=data["status"],
+                        changed_since=since, changed_sheets=changed_sheets(report.tex_path) if since else (),
+                        changes_note=note)
+
+
+def _previous_issue(nb_source: Path, folders: list[Path], name: str) -> tuple[dict[str, Any] | None, str]:
+    """The previous issued revision of the package being built (see :mod:`splicecalc.signoff.previous`),
+    as ``build_pdf(previous=...)`` takes it, and the note when it cannot be used."""
+    from ..signoff.previous import previous_issue
+
+    meta = _read(nb_source).metadata.get("splicecalc", {})
+    found, note = previous_issue(dict(meta), folders)
+    if found is None:
+        return None, note
+    try:
+        old = json.loads(found.notebook.read_text(encoding="utf-8"))
+    except (OSError, ValueError):
+        return None, f"the notebook of issued revision {found.revision} ({found.notebook.name}) cannot be read"
+    return {"revision": found.revision, "notebook": old, "name": found.pdf.name, "new_name": name}, ""
+
+
+def changed_sheets(tex_path: str | os.PathLike) -> tuple[int, ...]:
+    """The sheets the last XeLaTeX pass marked as changed (``\\calcchgsheets{5,9,10}`` in the .aux)."""
+    import re
+
+    try:
+        text = Path(tex_path).with_suffix(".aux").read_text(encoding="utf-8", errors="replace")
+    except OSError:
+        return ()
+    found = re.findall(r"\\calcchgsheets\{([0-9,]*)\}", text)
+    return tuple(int(x) for x in found[-1].split(",") if x) if found else ()
 
 
 # ======================================================================== demo
