@@ -448,6 +448,42 @@ def comparison_latex(c: dict[str, Any], *, heading: str = "", label: str = "calc
     return "\n".join(lines) + "\n"
 
 
+def write_comparison_pdf(c: dict[str, Any], new_nb: Any, out: Any) -> Any:
+    """Typeset :func:`comparison_latex` on the package's sheets (the title block of ``new_nb``, its
+    strip and fonts; :class:`~splicecalc.report.exporter.ComparisonExporter`, XeLaTeX locked down as
+    for a package) and write the PDF atomically to ``out``; an issued or signed file there is refused
+    (checked again just before the write). Returns the path."""
+    import copy
+    import tempfile
+    from pathlib import Path
+
+    import nbformat
+
+    from ..core.files import write_atomic
+    from ..report.exporter import ComparisonExporter
+    from ..signoff.ledger import protection_reason
+
+    out = Path(out)
+    meta = copy.deepcopy((new_nb.get("metadata") or {}).get("splicecalc") or {}) if isinstance(new_nb, dict) else {}
+    for key in ("signatures", "sign_off"):        # the comparison is not the signed package
+        meta.pop(key, None)
+    if str(meta.get("status", "")).upper() in ("PREPARED", "CHECKED", "APPROVED", "ISSUED"):
+        meta["status"] = "FOR CHECK"
+    nb = nbformat.v4.new_notebook(metadata={"splicecalc": meta})
+    o, n = c["old"], c["new"]
+    heading = f"Changes from revision {o.get('revision') or '-'} to revision {n.get('revision') or '-'}"
+    with tempfile.TemporaryDirectory(prefix="splicecalc-compare-") as tmp:
+        exporter = ComparisonExporter(build_directory=tmp)
+        resources = {"metadata": {"name": "comparison", "path": tmp},
+                     "comparison": comparison_latex(c, heading=heading)}
+        pdf, _ = exporter.from_notebook_node(nb, resources)
+    why = protection_reason(out)
+    if why:
+        raise InputError("--pdf", str(out), f"a new file name ({out.name} is {why}; it is never overwritten)")
+    out.parent.mkdir(parents=True, exist_ok=True)
+    return write_atomic(out, pdf)
+
+
 __all__ = ["MOVE_THRESHOLD", "Revision", "changed_inputs", "changed_outputs", "compare_revisions", "comparison_latex",
            "comparison_text", "flatten_inputs", "governing_by_part", "moved_checks", "output_fingerprint",
-           "read_revision"]
+           "read_revision", "write_comparison_pdf"]

@@ -63,8 +63,11 @@ def previous_issue(meta: dict[str, Any], folders: list[Path]) -> tuple[PreviousI
     if not candidates:
         return None, ""
     pos = {r.casefold(): i for i, r in enumerate(history)}
-    here = pos.get(rev.casefold(), len(history))
-    earlier = [(f, row) for f, row in candidates if pos.get(str(row["revision"]).casefold(), -1) < here]
+    if rev.casefold() in pos:           # the history orders the revisions: only those before this one
+        here = pos[rev.casefold()]
+        earlier = [(f, row) for f, row in candidates if pos.get(str(row["revision"]).casefold(), here) < here]
+    else:                               # no history to order by: the latest issue
+        earlier = candidates
     if not earlier:
         return None, ""
     folder, row = max(earlier, key=lambda fr: (pos.get(str(fr[1]["revision"]).casefold(), -1),
