@@ -421,8 +421,8 @@ def comparison_latex(c: dict[str, Any], *, heading: str = "", label: str = "calc
                       "--" if ch is None else f"{ch:+.3f}", v])
     lines += [""] + _tex_table(f"Checks whose utilisation moved by more than {c['threshold_utilisation']:g}, or "
                                "with another verdict",
-                               f"{_RAGGED}p{{0.22\\linewidth}}{_RAGGED}p{{0.33\\linewidth}}rrr"
-                               f"{_RAGGED}p{{0.14\\linewidth}}",
+                               f"{_RAGGED}p{{0.27\\linewidth}}{_RAGGED}p{{0.33\\linewidth}}rrr"
+                               f"{_RAGGED}p{{0.11\\linewidth}}",
                                ["Check", "Title", f"u {ro}", f"u {rn}", "change", "Verdict"], moved,
                                "No check moved.")
     for key, title, rev in (("added_checks", "Checks added", rn), ("removed_checks", "Checks removed", ro)):
