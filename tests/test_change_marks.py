@@ -179,7 +179,7 @@ def cycle(tmp_path_factory):
     p1 = build_demo(pkg, progress=False)
     assert p1.changed_since == "" and p1.changed_sheets == ()          # nothing issued before P1
     sign_package(p1.pdf, "prepared", ka)
-    sign_package(p1.pdf, "checked", kb)
+    sign_package(p1.pdf, "checked", kb, accept_not_checked="the three items are checked separately (test)")
     issue_package(p1.pdf, "for construction", kb)
     r = revise(p1.pdf, "P2", "fan unit heavier")
     text = r.job.read_text(encoding="utf-8")
