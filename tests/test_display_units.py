@@ -9,7 +9,7 @@ from __future__ import annotations
 import pytest
 
 from splicecalc.core.record import Calc
-from splicecalc.core.render import display_units, tex_clean
+from splicecalc.core.render import display_units, drop_zero_terms, tex_clean
 from splicecalc.core.units import displayed
 
 
@@ -27,9 +27,12 @@ def test_displayed_units_by_hand(value, unit, shown, want):
 
 
 @pytest.mark.parametrize("tex, want", [
-    (r"1199467.396\ \mathrm{mm}^{3}", r"1199.467\ \mathrm{cm}^{3}"),          # / 1e3, decimals kept
-    (r"12030641.514\ \mathrm{mm}^{4}", r"1203.064\ \mathrm{cm}^{4}"),         # / 1e4
-    (r"465949633201.973\ \mathrm{mm}^{6}", r"465949.633\ \mathrm{cm}^{6}"),   # / 1e6
+    # section properties: / 1e3, 1e4, 1e6, then 5 significant figures as section tables print them
+    (r"1199467.396\ \mathrm{mm}^{3}", r"1199.5\ \mathrm{cm}^{3}"),            # 1199.467 cm3
+    (r"12030641.514\ \mathrm{mm}^{4}", r"1203.1\ \mathrm{cm}^{4}"),           # 1203.064 cm4
+    (r"465949633201.973\ \mathrm{mm}^{6}", r"465950\ \mathrm{cm}^{6}"),       # 465949.633 cm6
+    (r"254999990.508\ \mathrm{mm}^{4}", r"25500\ \mathrm{cm}^{4}"),           # 457x152x60 UKB I_y from geometry
+    (r"81234.000\ \mathrm{mm}^{3}", r"81.234\ \mathrm{cm}^{3}"),              # never more decimals than given
     (r"1.022\ \mathrm{MN} \cdot \mathrm{m}", r"1022\ \mathrm{kN} \cdot \mathrm{m}"),  # x 1e3, no digits invented
     (r"210.000\ \mathrm{GPa}", r"210000\ \mathrm{MPa}"),                      # x 1e3
     (r"500.000\ \mathrm{N}", r"0.500\ \mathrm{kN}"),                          # / 1e3
@@ -52,6 +55,23 @@ def test_no_abs_and_no_double_signs():
     assert "1 + 1.000 - 2.500" in out and r"\sqrt { 1.000 }" in out
 
 
+def test_no_zero_terms_in_numbers():
+    # a term that prints as zero is left out of the numeric substitution; the formula keeps its name
+    out = tex_clean(r"F_{f_{Ed}} &= \frac{ M }{ z } + \operatorname{abs} \left( N \right)  = \frac{ 242.540\ "
+                    r"\mathrm{kN} \cdot \mathrm{m} }{ 441.300\ \mathrm{mm} } + \operatorname{abs} \left( 0.000\ "
+                    r"\mathrm{kN} \right) &= 549.603\ \mathrm{kN}")
+    assert r"\left| N \right|" in out and "0.000" not in out and r"441.300\ \mathrm{mm} } &=" in out
+    out = tex_clean(r"F_{x} &= \frac{ N }{ n } + M \cdot z = \frac{ 0.000\ \mathrm{kN} }{ 8 } + 2.000 \cdot 3.000 &= 6.000")
+    assert r"= 2.000 \cdot 3.000 &= 6.000" in out and r"\frac{ N }{ n } + M" in out
+    # (a)^2 + (0/b)^beta: the zero power goes; a product that is zero as a whole stays
+    assert drop_zero_terms(r"\left( 0.500 \right) ^{ 2 } + \left( \frac{ 0.000 }{ 62.699 } \right) ^{ 1.000 }") == \
+        r"\left( 0.500 \right) ^{ 2 }"
+    assert drop_zero_terms(r"0.464 \cdot \frac{ 0.000 }{ 6.000 }") == r"0.464 \cdot \frac{ 0.000 }{ 6.000 }"
+    assert drop_zero_terms(r"0.000 - 5.000") == "- 5.000"
+    assert drop_zero_terms(r"\frac{ 1.000 }{ 0.000 } + 2.000") == r"\frac{ 1.000 }{ 0.000 } + 2.000"  # not zero
+    assert drop_zero_terms(r"\frac{ N }{ n } + 0.000") == r"\frac{ N }{ n } + 0.000"      # a symbol: the formula
+
+
 def test_rendered_check_shows_cm3_and_kNm():
     from splicecalc.members import en1993_1_1 as f11
 
@@ -59,5 +79,5 @@ def test_rendered_check_shows_cm3_and_kNm():
     M = calc(f11.M_c_Rd, W_y=1471e3, f_y=355.0, gamma_M0=1.0)
     assert M == pytest.approx(1471e3 * 355.0)                 # EN 1993-1-1 Eq. 6.13 by hand, N mm
     tex = calc.latex[0]
-    assert r"1471.000\ \mathrm{cm}^{3}" in tex and r"522.205\ \mathrm{kN} \cdot \mathrm{m}" in tex
+    assert r"1471.0\ \mathrm{cm}^{3}" in tex and r"522.205\ \mathrm{kN} \cdot \mathrm{m}" in tex
     assert r"\mathrm{mm}^{3}" not in tex

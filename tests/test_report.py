@@ -414,3 +414,21 @@ def test_metadata_defaults_aliases_and_signature_marks():
     assert [s["role"] for s in meta["signoff"]] == ["Prepared", "Checked", "Approved"]
     with pytest.raises(ValueError, match="role"):
         calc_metadata({"splicecalc": {"signatures": [{"role": "boss"}]}})
+
+
+def test_check_titles_print_symbols_as_subscripts_never_raw_underscores():
+    # issue 13: "Gauge p_3 <= 140 mm" printed its underscore; code symbols in titles are math now, in the
+    # heading, in a rule row and in the summary, and a load name typed with an underscore stays as typed
+    from splicecalc.report.latexout import rule_row_latex, table_latex, title_tex
+
+    assert title_tex("End A: Gauge p_3 <= 140 mm") == "End A: Gauge $p_{3}$ $\\leq$ 140 mm"
+    assert title_tex("for F_f,Ed") == "for $F_{f,Ed}$"
+    assert title_tex("load fan_unit") == "load fan\\_unit"
+    p = {"id": "A.ep_gauge_max", "title": "End A: Gauge p_3 <= 140 mm", "clause": "EN 1993-1-8:2005, 3.5(1)",
+         "demand": 90.0, "resistance": 140.0, "unit": "mm", "utilisation": 0.64, "ok": True, "steps": []}
+    head = check_latex(p)
+    assert "\\texorpdfstring{End A: Gauge $p_{3}$ $\\leq$ 140 mm}" in head and "p\\_3" not in head.split("}{", 1)[0]
+    assert "$p_{3}$" in rule_row_latex(p)
+    summary = table_latex({"columns": ["Check", "E_d"], "rows": [["End A: Gauge p_3 <= 140 mm", "90"]],
+                           "align": "lr", "kind": "summary", "title": ""})
+    assert "$p_{3}$" in summary and "p\\_3" not in summary

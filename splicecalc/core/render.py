@@ -84,22 +84,178 @@ def _shift(number: str, power: int) -> str:
     return f"{d:.{places}f}"
 
 
+#: significant figures of a section property shown in cm3, cm4 or cm6 (as section tables print them:
+#: 25500 cm4, 1287.3 cm3; three decimals of a cm4 only repeat the float's last digits)
+SECTION_SIG_FIGS = 5
+
+
+def _significant(number: str, figures: int) -> str:
+    """``number`` with at most ``figures`` significant figures before rounding off decimals only
+    (integer digits are never dropped), keeping no more decimals than it had."""
+    from decimal import ROUND_HALF_UP, Decimal
+
+    whole = number.lstrip("-").split(".")[0].lstrip("0")
+    places = len(number.split(".")[1]) if "." in number else 0
+    keep = max(0, min(places, figures - len(whole)))
+    return f"{Decimal(number).quantize(Decimal(1).scaleb(-keep), rounding=ROUND_HALF_UP):f}"
+
+
 def display_units(latex: str) -> str:
-    """Numbers with units in the rendered text put in the units of :data:`TEX_DISPLAY_UNITS`."""
+    """Numbers with units in the rendered text put in the units of :data:`TEX_DISPLAY_UNITS`; section
+    properties (cm3, cm4, cm6) to :data:`SECTION_SIG_FIGS` significant figures."""
     def repl(m: re.Match) -> str:
         unit, power = TEX_DISPLAY_UNITS[m.group(2)]
-        return f"{_shift(m.group(1), power)}\\ {unit}"
+        number = _shift(m.group(1), power)
+        if unit.startswith("\\mathrm{cm}"):
+            number = _significant(number, SECTION_SIG_FIGS)
+        return f"{number}\\ {unit}"
     return _UNIT_RE.sub(repl, latex)
+
+
+# ----------------------------------------------------------------------- zero terms
+#: what changes the depth of a LaTeX math text: braces and \left / \right (an escape is skipped whole)
+_DEPTH_RE = re.compile(r"\\left(?![A-Za-z])|\\right(?![A-Za-z])|\\[A-Za-z]+|\\.|[{}]", re.S)
+#: a number shown as zero (``0.000``, ``-0.0``, ``0``)
+_ZERO_NUMBER = re.compile(r"^-?0(?:\.0+)?$")
+#: a number with its unit (``0.000\ \mathrm{kN}``, ``0.000\ \mathrm{mm}^{2}``)
+_NUMBER_UNIT = re.compile(r"^(-?\d+(?:\.\d+)?)(?:\\ \\mathrm\{[^{}]*\}(?:\^\{\s*\d+\s*\})?)?$")
+#: commands a numeric substitution holds besides numbers and units; any other command or a letter
+#: outside ``\mathrm{...}`` / ``\operatorname{...}`` makes a piece symbolic
+_NUMERIC_CMDS = {"\\left", "\\right", "\\frac", "\\cdot", "\\sqrt", "\\times", "\\ ", "\\,", "\\;", "\\:", "\\|"}
+
+
+def _split_depth0(text: str, seps: tuple[str, ...]) -> list[tuple[str, str]]:
+    """``text`` split at any of ``seps`` outside braces and ``\\left ... \\right``: ``[(sep before, part)]``
+    (the first part's separator is "")."""
+    out: list[tuple[str, str]] = []
+    depth, start, before, i = 0, 0, "", 0
+    while i < len(text):
+        if depth == 0:
+            hit = next((s for s in seps if text.startswith(s, i)), None)
+            if hit is not None:
+                out.append((before, text[start:i]))
+                before, i = hit, i + len(hit)
+                start = i
+                continue
+        m = _DEPTH_RE.match(text, i)
+        if m is None:
+            i += 1
+            continue
+        t = m.group()
+        depth += 1 if t in ("{", "\\left") else -1 if t in ("}", "\\right") else 0
+        i = m.end()
+    out.append((before, text[start:]))
+    return out
+
+
+def _is_numeric(piece: str) -> bool:
+    """A substituted piece: numbers, units and operators only (no symbol left)."""
+    body = re.sub(r"\\(?:mathrm|operatorname)\{[^{}]*\}", "", piece)
+    if any(c not in _NUMERIC_CMDS for c in re.findall(r"\\[A-Za-z]+|\\.", body)):
+        return False
+    return not re.search(r"[A-Za-z]", re.sub(r"\\[A-Za-z]+|\\.", "", body))
+
+
+def _is_zero(term: str) -> bool:
+    """A term that prints as zero: a zero number (with its unit), a product with a zero factor, a
+    fraction with a zero numerator, ``|0|`` or ``(0)``, or such a bracket to a positive power."""
+    t = term.strip()
+    m = re.match(r"^(.*\\right[)|])\s*\^\{\s*(\d+(?:\.\d+)?)\s*\}$", t, re.S)
+    if m and float(m.group(2)) > 0:
+        t = m.group(1).strip()
+    factors = _split_depth0(t, (" \\cdot ",))
+    if len(factors) > 1:
+        return any(_is_zero(f) for _, f in factors)
+    if t.startswith("\\frac{"):
+        num, end = _brace_group(t, len("\\frac"))
+        den, end = _brace_group(t, end)
+        if num is not None and den is not None and end == len(t):
+            return _is_zero_sum(num)
+    for open_, close in (("\\left(", "\\right)"), ("\\left|", "\\right|")):
+        if t.startswith(open_) and t.endswith(close) and _closes_at_end(t):
+            return _is_zero_sum(t[len(open_):-len(close)])
+    m = _NUMBER_UNIT.match(t)
+    return bool(m and _ZERO_NUMBER.match(m.group(1)))
+
+
+def _brace_group(t: str, i: int) -> tuple[str | None, int]:
+    """The text of the brace group opening at ``t[i]`` and the index after it, or ``(None, i)``."""
+    if not t.startswith("{", i):
+        return None, i
+    depth = 0
+    for m in _DEPTH_RE.finditer(t, i):
+        g = m.group()
+        depth += 1 if g == "{" else -1 if g == "}" else 0
+        if depth == 0:
+            return t[i + 1:m.start()], m.end()
+    return None, i
+
+
+def _closes_at_end(t: str) -> bool:
+    """True when the bracket opening ``t`` closes at its very end (one group, not ``(a) (b)``)."""
+    depth = 0
+    for m in _DEPTH_RE.finditer(t):
+        g = m.group()
+        depth += 1 if g in ("{", "\\left") else -1 if g in ("}", "\\right") else 0
+        if depth == 0 and m.start() < len(t) - len("\\right") - 1:
+            return False
+    return depth == 0
+
+
+def _is_zero_sum(expr: str) -> bool:
+    terms = _split_depth0(expr.strip(), (" + ", " - "))
+    return all(_is_zero(t) for _, t in terms if t.strip())
+
+
+def drop_zero_terms(piece: str) -> str:
+    """A numeric substitution without the terms that print as zero (``+ |0.000 kN|``,
+    ``0.000 kN / 10 +``): the formula above still names them. Kept whole when every term is zero or
+    the piece holds a symbol."""
+    body = piece.lstrip()
+    lead = piece[:len(piece) - len(body)]
+    if body.startswith("="):                       # a row continuing with ``&= ...``
+        rest = body[1:].lstrip()
+        lead, body = lead + body[:len(body) - len(rest)], rest
+    if not _is_numeric(body):
+        return piece
+    terms = _split_depth0(body, (" + ", " - "))
+    kept = [(op, t) for op, t in terms if not _is_zero(t)]
+    if len(kept) == len(terms) or not kept:
+        return piece
+    first_op, first = kept[0]
+    text = ("- " if first_op == " - " else "") + first.lstrip()
+    text += "".join(op + t for op, t in kept[1:])
+    return lead + text.rstrip() + body[len(body.rstrip()):]
+
+
+def _drop_zero_terms_latex(latex: str) -> str:
+    """:func:`drop_zero_terms` on every right-hand piece of a rendered block (rows at ``\\\\``, cells
+    at ``&``, pieces at `` = `` outside braces); the left-hand side and the formula are untouched."""
+    rows = _split_depth0(latex, ("\\\\",))
+    out = []
+    for sep, row in rows:
+        cells = _split_depth0(row, ("&",))
+        new_cells = []
+        for k, (csep, cell) in enumerate(cells):
+            if k == 0 or "\\text" in cell:
+                new_cells.append(csep + cell)
+                continue
+            pieces = _split_depth0(cell, (" = ",))
+            new_cells.append(csep + "".join(psep + drop_zero_terms(p) for psep, p in pieces))
+        out.append(sep + "".join(new_cells))
+    return "".join(out)
 
 
 def tex_clean(latex: str) -> str:
     """Tidy what handcalcs writes: macros LaTeX does not define (:data:`_UNDEFINED_GREEK`),
-    ``abs(x)`` as ``|x|``, numbers in the units of :data:`TEX_DISPLAY_UNITS`, and a double sign from substituting a negative number
-    (``1 - -1.000`` -> ``1 + 1.000``, ``1 + -1.000`` -> ``1 - 1.000``)."""
+    ``abs(x)`` as ``|x|``, numbers in the units of :data:`TEX_DISPLAY_UNITS`, a double sign from substituting a
+    negative number (``1 - -1.000`` -> ``1 + 1.000``, ``1 + -1.000`` -> ``1 - 1.000``) and no term that prints
+    as zero in a numeric substitution (:func:`drop_zero_terms`)."""
     latex = _UNDEFINED_GREEK.sub(lambda m: m.group(1), latex)
     latex = display_units(_abs_bars(latex))
     latex = _UNARY_DOUBLE.sub(r"\1", latex)
-    return _DOUBLE_SIGN.sub(lambda m: "+ " if m.group(1) == "-" else "- ", latex)
+    latex = _DOUBLE_SIGN.sub(lambda m: "+ " if m.group(1) == "-" else "- ", latex)
+    return _drop_zero_terms_latex(latex)
 
 
 @lru_cache(maxsize=None)

@@ -69,6 +69,30 @@ def prose_tex(text: str) -> str:
     return "".join(out)
 
 
+#: a code symbol in a check title (``p_3``, ``h_p``, ``F_f,Ed``, ``gamma_M0``): a base of one or two
+#: letters or a Greek name; a longer word with an underscore (a load name typed so) stays as typed
+_TITLE_SYMBOL_RE = re.compile(r"\b(" + "|".join(sorted(_GREEK, key=len, reverse=True))
+                              + r"|[A-Za-z]{1,2})_([A-Za-z0-9]+(?:,[A-Za-z0-9]+)*)\b")
+
+
+def title_tex(title: str, heading: bool = False) -> str:
+    """A check title as LaTeX text: escaped, code symbols set as math with their subscripts
+    (``Gauge p_3 <= 140 mm`` -> ``Gauge $p_{3}$ $\\leq$ 140 mm``), never a raw underscore. For a
+    ``heading`` the plain title goes to the PDF bookmarks (``\\texorpdfstring``)."""
+    t = _clean(str(title))
+    out, pos = [], 0
+    for m in _TITLE_SYMBOL_RE.finditer(t):
+        out.append(escape_tex(t[pos:m.start()].replace("<=", "≤").replace(">=", "≥")))
+        out.append(_symbol(m))
+        pos = m.end()
+    out.append(escape_tex(t[pos:].replace("<=", "≤").replace(">=", "≥")))
+    tex = "".join(out)
+    if heading and tex != escape_tex(t):
+        plain = escape_tex(t)
+        return f"\\texorpdfstring{{{tex}}}{{{plain}}}"
+    return tex
+
+
 def cell_tex(cell: str) -> str:
     """Table cell: ``$...$`` in the small math syntax is kept as math, anything else is escaped text."""
     c = _clean(str(cell)).strip()
@@ -111,7 +135,7 @@ def rule_row_latex(p: dict[str, Any]) -> str:
     u_txt = r"$\infty$" if u is None else f"{u:.2f}"
     verdict = "\\calcok" if p.get("ok") else "\\calcfail"
     start = f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}\\calcrevmark{{{anchor_name(str(p.get('id', '')))}}}"
-    return (f"\\calcrule{{{start}{escape_tex(p.get('label') or p.get('title', ''))}}}{{{fmt_number(p.get('demand'))}{ut}}}"
+    return (f"\\calcrule{{{start}{title_tex(p.get('label') or p.get('title', ''))}}}{{{fmt_number(p.get('demand'))}{ut}}}"
             f"{{{fmt_number(p.get('resistance'))}{ut}}}{{{u_txt}}}{{{verdict}}}{{{escape_tex(p.get('clause', ''))}}}"
             f"\\calcmark{{{anchor_name(str(p.get('id', '')), end=True)}}}\n")
 
@@ -120,7 +144,7 @@ def check_latex(p: dict[str, Any]) -> str:
     """One check: heading with clause, steps, verdict line (a row of a rule table for ``layout`` "row")."""
     if p.get("layout") == "row" and p.get("status") != "not checked":
         return rule_row_latex(p)
-    out = [f"\\calccheck{{{escape_tex(p.get('title', ''))}}}{{{escape_tex(p.get('clause', ''))}}}"
+    out = [f"\\calccheck{{{title_tex(p.get('title', ''), heading=True)}}}{{{escape_tex(p.get('clause', ''))}}}"
            f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}\\calcrevmark{{{anchor_name(str(p.get('id', '')))}}}"]
     if p.get("guidance"):
         out.append("\\calcsteptext{" + prose_tex("Method from: " + p["guidance"]) + "}")
@@ -203,8 +227,10 @@ def table_latex(p: dict[str, Any]) -> str:
     lines += ["\\toprule", head, "\\midrule", "\\endhead",
               f"\\midrule\\multicolumn{{{len(cols)}}}{{r@{{}}}}{{\\footnotesize\\itshape continued}} \\\\",
               "\\endfoot", "\\bottomrule", "\\endlastfoot"]
+    # a summary's check titles (and a parts table's part and governing check) are record titles
+    titles = {"summary": 1, "parts": 2}.get(kind, 0)
     for row in p["rows"]:
-        cells = [cell_tex(c) for c in row]
+        cells = [title_tex(c) if j < titles else cell_tex(c) for j, c in enumerate(row)]
         if kind in ("summary", "parts") and row and row[-1].strip().upper() != "OK":
             cells[-1] = f"\\textbf{{{cells[-1]}}}"
         lines.append(" & ".join(cells) + " \\\\")
