@@ -135,6 +135,42 @@ def test_load_height_udl_close_to_ncci_three_factor_formula(zg_sign):
     assert num == pytest.approx(ref, rel=0.02)
 
 
+def _three_factor(p: Props, L: float, zg: float, C1: float = 1.127, C2: float = 0.454) -> float:
+    """NCCI three-factor formula typed here (UDL on a simple span, k = k_w = 1: C1 = 1.127, C2 = 0.454,
+    published NCCI tables, from memory)."""
+    a = pi**2 * E * p.Iz / L**2
+    return C1 * a * (sqrt(p.Iw / p.Iz + L**2 * G * p.It / (pi**2 * E * p.Iz) + (C2 * zg)**2) - C2 * zg)
+
+
+def test_line_load_at_its_own_height_matches_the_published_load_height_ratios():
+    # issue 13: a line load at a level of its own (line_loads). Top flange lower and bottom flange higher
+    # than at the shear centre by the ratios of the three-factor formula (C1 = 1.127, C2 = 0.454 from
+    # memory; about 0.73 and 1.36 for this beam and span), within 1.5 %
+    L, h, q = 6000.0, UKB457.h, 12.0
+    at = {lvl: M_cr_numerical(UKB457, L, udl(L, q), line_loads=[(q, z)])
+          for lvl, z in (("top", h / 2), ("centroid", 0.0), ("bottom", -h / 2))}
+    ref = {lvl: _three_factor(UKB457, L, z) for lvl, z in (("top", h / 2), ("centroid", 0.0), ("bottom", -h / 2))}
+    assert at["top"] < at["centroid"] < at["bottom"]
+    assert at["top"] / at["centroid"] == pytest.approx(ref["top"] / ref["centroid"], rel=0.015)
+    assert at["bottom"] / at["centroid"] == pytest.approx(ref["bottom"] / ref["centroid"], rel=0.015)
+    assert 0.70 < ref["top"] / ref["centroid"] < 0.76 and 1.30 < ref["bottom"] / ref["centroid"] < 1.42
+    # the same load given as q at z_g, and a load at its own height, are one and the same term
+    assert at["top"] == pytest.approx(M_cr_numerical(UKB457, L, udl(L, q), q_N_per_mm=q, z_g_mm=h / 2), rel=1e-12)
+
+
+def test_line_loads_at_two_heights_add_their_load_height_terms():
+    # half the load on the top flange and half hung from the bottom flange: the two height terms cancel
+    # (sum of q z_g = 0), so M_cr is that of the whole load at the shear centre (energy method, by hand)
+    L, h, q = 6000.0, UKB457.h, 12.0
+    split = M_cr_numerical(UKB457, L, udl(L, q), line_loads=[(q / 2, h / 2), (q / 2, -h / 2)])
+    assert split == pytest.approx(M_cr_numerical(UKB457, L, udl(L, q)), rel=1e-9)
+    # a partial line load (callable) on the bottom flange raises M_cr above the same load at the centroid
+    part = lambda x: np.where((np.asarray(x) > 1000.0) & (np.asarray(x) < 3000.0), q, 0.0)   # noqa: E731
+    assert M_cr_numerical(UKB457, L, udl(L, q), line_loads=[(part, -h / 2)]) > M_cr_numerical(UKB457, L, udl(L, q))
+    with pytest.raises(InputError):
+        M_cr_numerical(UKB457, L, udl(L, q), line_loads=[(q,)])
+
+
 def test_moment_input_forms_agree():
     L = 5000.0
     x = np.linspace(0.0, L, 401)

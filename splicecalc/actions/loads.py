@@ -13,7 +13,7 @@ action of a load is named after its type (``"imposed B"``, ``"snow"``,
 ``"wind"``), so all category-B imposed loads lead together; give ``group=`` to
 treat a load as a separate independent action (e.g. ``group="plant"``).
 
-Public API: :data:`ACTIONS`, :data:`CATEGORIES`, :data:`APPLIED_TO`, :class:`UDL`, :class:`PointLoad`,
+Public API: :data:`ACTIONS`, :data:`CATEGORIES`, :data:`APPLIED_TO`, :data:`UDL_APPLIED_TO`, :class:`UDL`, :class:`PointLoad`,
 :data:`Load`, :func:`check_loads_on_span`, :func:`self_weight_udl`, :data:`g_n`.
 """
 
@@ -68,6 +68,9 @@ class UDL:
     w: characteristic (or factored) line load, N/mm (= kN/m), > 0.
     x_start, x_end: extent from the left support A, mm; ``x_end=None`` means
         "to the right support" (full span when ``x_start=0``).
+    applied_to: the height it acts at for lateral-torsional buckling (:data:`UDL_APPLIED_TO`):
+        ``"flange"`` (default: the job's load level), ``"top flange"``, ``"bottom flange"`` (a
+        ceiling or services hung below) or ``"shear centre"``.
     action: one of :data:`ACTIONS`; category: A-H for imposed loads only.
     group: the variable action this load belongs to (see module docstring).
     """
@@ -79,11 +82,13 @@ class UDL:
     x_end: float | None = None
     category: str | None = None
     group: str = ""
+    applied_to: str = "flange"
 
     def __post_init__(self) -> None:
         f = f"load {self.name!r}" if isinstance(self.name, str) else "load"
         _check_name(self.name, f"{f}.name")
         action, cat = _check_action(self.action, self.category, f)
+        require_choice(f"{f}.applied_to", self.applied_to, UDL_APPLIED_TO)
         w = require_positive(f"{f}.w", self.w, "N/mm")
         xs = require_non_negative(f"{f}.x_start", self.x_start, "mm")
         xe = None
@@ -129,7 +134,7 @@ class UDL:
         """JSON-ready dict; keys carry units (w in kN/m = N/mm, positions in mm)."""
         return {"name": self.name, "type": "udl", "action": self.action, "category": self.category,
                 "group": self.action_name, "w_kN_per_m": self.w, "x_start_mm": self.x_start,
-                "x_end_mm": self.x_end}
+                "x_end_mm": self.x_end, "applied_to": self.applied_to}
 
     def describe(self) -> str:
         ext = "full span" if self.x_start == 0.0 and self.x_end is None else \
@@ -141,6 +146,9 @@ class UDL:
 #: section 6): "flange" = the flange of the job's load level, or "top flange" / "bottom flange";
 #: or through a connection to the web (a secondary beam's end plate or fin plate)
 APPLIED_TO: tuple[str, ...] = ("flange", "top flange", "bottom flange", "web")
+#: the height a line load acts at for lateral-torsional buckling: on the flange of the job's load level,
+#: on the top or bottom flange (its own level), or at the shear centre (e.g. through the web)
+UDL_APPLIED_TO: tuple[str, ...] = ("flange", "top flange", "bottom flange", "shear centre")
 
 
 @dataclass(frozen=True)

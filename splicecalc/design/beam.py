@@ -450,21 +450,24 @@ def _segment_M_max(ctx: _Context, case: _MassCase, i: int, x0: float, x1: float)
     return (m0, x0) if m0 >= m1 else (m1, x1)
 
 
-def _q_fn(combo: Combination, x0: float) -> Callable[[np.ndarray], np.ndarray] | float:
-    """Factored line load of the combination (N/mm), excluding the self-weight (which acts at
-    the shear centre), as a function of the local segment coordinate."""
-    parts = [(ld.w, ld.x_start, ld.x_end) for ld in combo.loads
-             if isinstance(ld, UDL) and ld.name != SELF_WEIGHT]
-    if not parts:
-        return 0.0
+def _line_loads(combo: Combination, x0: float, height: Callable[[str], float]) -> list[tuple[Any, float]]:
+    """Factored line loads of the combination (N/mm) as (q(x), z_g) pairs, one per load height
+    (``height(applied_to)``, mm above the shear centre), as functions of the local segment coordinate;
+    the self-weight acts at the shear centre and is left out."""
+    by_z: dict[float, list[tuple[float, float, float | None]]] = {}
+    for ld in combo.loads:
+        if isinstance(ld, UDL) and ld.name != SELF_WEIGHT:
+            by_z.setdefault(height(ld.applied_to), []).append((ld.w, ld.x_start, ld.x_end))
 
-    def q(x: np.ndarray) -> np.ndarray:
-        X = x0 + np.asarray(x, dtype=float)
-        out = np.zeros_like(X)
-        for w, a, b in parts:
-            out = out + w * ((X >= a) & (X <= (math.inf if b is None else b)))
-        return out
-    return q
+    def q_of(parts: list[tuple[float, float, float | None]]) -> Callable[[np.ndarray], np.ndarray]:
+        def q(x: np.ndarray) -> np.ndarray:
+            X = x0 + np.asarray(x, dtype=float)
+            out = np.zeros_like(X)
+            for w, a, b in parts:
+                out = out + w * ((X >= a) & (X <= (math.inf if b is None else b)))
+            return out
+        return q
+    return [(q_of(parts), z) for z, parts in by_z.items()]
 
 
 def _M_fn(beam: SimpleBeam, x0: float, L: float) -> Callable[[np.ndarray], np.ndarray]:
@@ -481,18 +484,24 @@ def _ltb_one(ctx: _Context, section: Section, case: _MassCase, i: int, k: int, x
     L_seg = x1 - x0
     M_Ed, x_M = _segment_M_max(ctx, case, i, x0, x1)
     z_g = ctx.z_g(section)
-    # each point load at its own height: a load hung from the bottom flange (applied_to) is below the
-    # shear centre (stabilising), one through a web connection at it; the others at the job's level
-    own = {"top flange": section.h / 2.0, "bottom flange": -section.h / 2.0, "web": 0.0}
+    # each load at its own height: a load hung from the bottom flange (applied_to) is below the shear
+    # centre (stabilising), a point load through a web connection or a line load at the shear centre at
+    # it; the others at the job's level
+    own = {"top flange": section.h / 2.0, "bottom flange": -section.h / 2.0, "web": 0.0, "shear centre": 0.0}
     pls = [(ld.x - x0, ld.P, own.get(ld.applied_to, z_g)) for ld in combo.loads
            if isinstance(ld, PointLoad) and x0 < ld.x < x1]
+    lines = _line_loads(combo, x0, lambda where: own.get(where, z_g))
+    def in_segment(ld: Any) -> bool:
+        if isinstance(ld, PointLoad):
+            return x0 < ld.x < x1
+        a, b = ld.extent(ctx.L)
+        return ld.name != SELF_WEIGHT and a < x1 and b > x0
     levels = sorted({f"{ld.name} at the {ld.applied_to}" for ld in combo.loads
-                     if isinstance(ld, PointLoad) and x0 < ld.x < x1 and ld.applied_to in own})
+                     if ld.applied_to in own and in_segment(ld)})
     if with_cross_check:
         _closed_form_cross_check(ctx, section, beam, combo, x0, x1, M_Ed, z_g, calc)
     rec = check_ltb(section, ctx.grade, M_Ed, None, ctx.na, calc, L_mm=L_seg, M=_M_fn(beam, x0, ctx.L),
-                    q_N_per_mm=_q_fn(combo, x0), point_loads=pls, z_g_mm=z_g, location_mm=x_M,
-                    segment=str(k))
+                    line_loads=lines, point_loads=pls, z_g_mm=z_g, location_mm=x_M, segment=str(k))
     where = f"segment {k}, x = {x0 / 1e3:.3g} to {x1 / 1e3:.3g} m"
     return replace(rec, title=f"Lateral-torsional buckling, {where}, {section.designation}",
                    note=f"{rec.note}; numerical M_cr, loads at the {ctx.beam.load_level} "
@@ -514,7 +523,10 @@ def _closed_form_cross_check(ctx: _Context, section: Section, beam: SimpleBeam, 
     """
     L_seg = x1 - x0
     one_segment = not ctx.beam.restraints
-    only_full_udl = all(isinstance(ld, UDL) and ld.is_full(ctx.L) for ld in combo.loads)
+    # the published case has every load at one height: a line load at a level of its own does not fit it
+    only_full_udl = all(isinstance(ld, UDL) and ld.is_full(ctx.L) and (ld.applied_to == "flange"
+                                                                       or ld.name == SELF_WEIGHT)
+                        for ld in combo.loads)
     lead = "Cross-check only (the numerical $M_{cr}$ below governs): closed-form $M_{cr}$ with "
     if one_segment and only_full_udl:
         C_1, C_2 = C1_C2_PINNED["udl"]

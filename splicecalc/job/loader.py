@@ -9,8 +9,9 @@ Layout (every quantity a string with its unit; positions from support A)::
                 psi_table ("UK NA" | "EN recommended"), imposed ("single" | "separate"),
                 min_frequency (Hz, a plain number, floor beams; default 4)
     [[load]]    name, action (permanent | imposed | snow | wind), category (imposed: A-H),
-                group, and either udl (+ optional from, to) or point + at (+ optional
-                bearing_length, applied_to = "flange" | "top flange" | "bottom flange" | "web")
+                group, and either udl (+ optional from, to, applied_to = "flange" | "top flange" |
+                "bottom flange" | "shear centre") or point + at (+ optional bearing_length,
+                applied_to = "flange" | "top flange" | "bottom flange" | "web")
     [splices]   handed to splicecalc.joints.splice.spec.parse_splices
     [[support]] each handed to splicecalc.joints.connections.spec.parse_support
 
@@ -28,7 +29,7 @@ import tomllib
 from pathlib import Path
 from typing import Any
 
-from ..actions.loads import ACTIONS, APPLIED_TO, CATEGORIES, PointLoad, UDL
+from ..actions.loads import ACTIONS, APPLIED_TO, CATEGORIES, UDL_APPLIED_TO, PointLoad, UDL
 from ..core.errors import InputError, require_choice
 from ..core.files import write_atomic
 from ..core.units import parse_quantity
@@ -227,9 +228,14 @@ def parse_load(table: Any, index: int, span: float) -> UDL | PointLoad:
         raise InputError(key, name, "exactly one of 'udl' or 'point'")
     span_txt = f"{span / 1000.0:.12g} m"
     if has_udl:
-        for k in ("at", "bearing_length", "applied_to"):
+        for k in ("at", "bearing_length"):
             if k in t:
                 raise InputError(f"{key}.{k}", t[k], f"no '{k}' for a UDL (it belongs to a point load)")
+        level = t.get("applied_to", "flange")
+        if level not in UDL_APPLIED_TO:
+            raise InputError(f"{key}.applied_to", level, "where the line load acts: " + " | ".join(
+                f"'{v}'" for v in UDL_APPLIED_TO) + " ('flange' = the beam's load_level; a ceiling hung below: "
+                "'bottom flange')")
         w = _line_load(t, key)
         if not w > 0.0:
             raise InputError(f"{key}.udl", t["udl"], "a line load > 0 (loads act downwards)")
@@ -243,7 +249,8 @@ def parse_load(table: Any, index: int, span: float) -> UDL | PointLoad:
             if x1 <= x0:
                 raise InputError(f"{key}.to", t["to"], f"a position beyond from = {t.get('from', '0 m')}")
             x1 = min(x1, span)
-        return UDL(name=name, action=action, w=w, x_start=x0, x_end=x1, category=cat, group=group)
+        return UDL(name=name, action=action, w=w, x_start=x0, x_end=x1, category=cat, group=group,
+                   applied_to=level)
     for k in ("from", "to"):
         if k in t:
             raise InputError(f"{key}.{k}", t[k], f"no '{k}' for a point load (use 'at')")

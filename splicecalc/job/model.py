@@ -385,6 +385,8 @@ def load_to_dict(ld: Load) -> dict[str, Any]:
             d["from"] = _q(ld.x_start, "mm", "m")
         if ld.x_end is not None:
             d["to"] = _q(ld.x_end, "mm", "m")
+        if ld.applied_to != "flange":
+            d["applied_to"] = ld.applied_to
     else:
         d["point"] = _q(ld.P, "N", "kN")
         d["at"] = _q(ld.x, "mm", "m")

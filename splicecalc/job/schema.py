@@ -78,8 +78,10 @@ REFERENCE: dict[str, dict[str, tuple[str, str]]] = {
         "point": ("force", "point load: kN, or a mass in t / kg (weight with g = 9.81 m/s2)"),
         "at": ("length", "position of a point load from support A (required with point)"),
         "bearing_length": ("length", "stiff bearing length of a point load (web under the load)"),
-        "applied_to": ("text", "where a point load enters the beam and acts for lateral-torsional buckling: "
-                               "'flange' (the job's load level) | 'top flange' | 'bottom flange' (e.g. a hoist) | 'web'"),
+        "applied_to": ("text", "where the load acts for lateral-torsional buckling (its height) and, for a point "
+                               "load, enters the beam: 'flange' (the beam's load_level) | 'top flange' | 'bottom "
+                               "flange' (e.g. a hoist, a hung ceiling) | 'web' (point load through a web "
+                               "connection) | 'shear centre' (line load)"),
     },
     "splices": {
         "pieces": ("integer", "number of pieces the beam is delivered in"),

@@ -562,14 +562,16 @@ def ltb_curve_rolled(h: float, b: float) -> str:
 def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, na: NationalAnnex = UK_NA,
               calc: Calc | None = None, *, C_1: float | None = None, k_c: float | None = None,
               L_mm: float | None = None, M: Any = None, q_N_per_mm: Any = 0.0, point_loads: Sequence = (),
-              z_g_mm: float = 0.0, location_mm: float | None = None, segment: str = "") -> CheckRecord:
+              z_g_mm: float = 0.0, line_loads: Sequence = (), location_mm: float | None = None,
+              segment: str = "") -> CheckRecord:
     """Lateral-torsional buckling of one segment between lateral restraints, 6.3.2.2 and 6.3.2.3 (UK NA).
 
     ``M_Ed`` (N*mm) = largest |M| in the segment. ``M_cr`` (N*mm) for the same
     moment diagram; when None it is computed by :func:`~splicecalc.members.mcr.mcr_numerical`
     from ``L_mm`` (segment length), ``M`` (moment diagram: callable M(x_mm),
     constant or (x, M) arrays, x from the segment start), ``q_N_per_mm``,
-    ``point_loads`` and ``z_g_mm`` (load height above the shear centre).
+    ``point_loads`` and ``z_g_mm`` (load height above the shear centre), ``line_loads`` (line
+    loads at heights of their own: (q, z_g_mm) pairs).
     ``k_c`` (Table 6.6) or ``C_1`` (k_c = 1/sqrt(C_1), UK NA NA.2.18) set the
     f-modification; with neither, C_1 is computed numerically when ``M`` is
     given, else k_c = 1 (no modification, conservative). Rolled sections only
@@ -596,7 +598,8 @@ def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, 
         if L_mm is None or M is None:
             raise InputError("M_cr", None, "a positive M_cr in N*mm, or L_mm and the moment diagram M to compute it")
         require_positive("L_mm", L_mm, "mm")
-        res = mcr_numerical(section, L_mm, M, q_N_per_mm=q_N_per_mm, point_loads=point_loads, z_g_mm=z_g_mm)
+        res = mcr_numerical(section, L_mm, M, q_N_per_mm=q_N_per_mm, point_loads=point_loads, z_g_mm=z_g_mm,
+                            line_loads=line_loads)
         Mcr = res.M_cr
         mcr_text = (f"$M_{{cr}}$ = {Mcr / 1e6:.1f} kNm: thin-walled beam finite elements with warping "
                     f"({res.n_elements} elements), segment length {float(L_mm) / 1e3:.3g} m with fork supports, "

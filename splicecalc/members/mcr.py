@@ -196,9 +196,28 @@ def _validate_point_loads(point_loads: Sequence, L: float, z_g: float) -> list[t
     return out
 
 
+def _validate_line_loads(line_loads: Sequence) -> list[tuple[Callable[[np.ndarray], np.ndarray], float]]:
+    """``line_loads``: (q, z_g_mm) pairs, q constant or callable q(x_mm) (N/mm) -> [(q function, z_g)]."""
+    out = []
+    try:
+        items = list(line_loads or ())
+    except TypeError:
+        raise InputError("line_loads", line_loads, "a sequence of (q_N_per_mm, z_g_mm) pairs") from None
+    for i, item in enumerate(items):
+        try:
+            q, z = item
+        except (TypeError, ValueError):
+            raise InputError(f"line_loads[{i}]", item, "a pair (q_N_per_mm, z_g_mm)") from None
+        zg = require_finite(f"line_loads[{i}].z_g_mm", z)
+        fn = _as_load_fn(q)
+        if fn is not None and zg != 0.0:
+            out.append((fn, zg))
+    return out
+
+
 def mcr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, point_loads: Sequence = (),
-                  z_g_mm: float = 0.0, n_elements: int = DEFAULT_N_ELEMENTS, E: float = E_MPa,
-                  G: float = G_MPa) -> McrResult:
+                  z_g_mm: float = 0.0, line_loads: Sequence = (), n_elements: int = DEFAULT_N_ELEMENTS,
+                  E: float = E_MPa, G: float = G_MPa) -> McrResult:
     """Elastic critical moment of a fork-supported segment by thin-walled beam finite elements.
 
     ``section`` needs ``Iz`` (mm4), ``It`` (mm4), ``Iw`` (mm6). ``L_mm`` is the
@@ -209,8 +228,11 @@ def mcr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, p
     ``point_loads`` ((x_mm, P_N) or (x_mm, P_N, z_g_mm)) are the transverse
     loads in the segment, gravity positive; they enter only through their
     height ``z_g_mm`` above the shear centre (positive up: top-flange gravity
-    loads lower M_cr). Returns :class:`McrResult`; ``alpha_cr`` is ``inf``
-    when the loading cannot cause lateral-torsional buckling.
+    loads lower M_cr). ``line_loads`` are further line loads each at its own
+    height: (q, z_g_mm) pairs, q constant or callable (a load hung from the
+    bottom flange beside one on the top flange); the load-height term is
+    1/2 int((q z_g + sum q_i z_i) phi^2) dx. Returns :class:`McrResult`;
+    ``alpha_cr`` is ``inf`` when the loading cannot cause lateral-torsional buckling.
     """
     L = require_positive("L_mm", L_mm, "mm")
     if isinstance(n_elements, bool) or not isinstance(n_elements, (int, np.integer)):
@@ -222,6 +244,7 @@ def mcr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, p
     EIw = E * require_positive("section.Iw", getattr(section, "Iw", None), "mm6")
     Mfn = _as_moment_fn(M, L)
     qfn = _as_load_fn(q_N_per_mm)
+    lines = ([(qfn, zg)] if qfn is not None and zg != 0.0 else []) + _validate_line_loads(line_loads)
     pls = _validate_point_loads(point_loads, L, zg)
 
     Le = L / ne
@@ -252,11 +275,14 @@ def mcr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, p
         return McrResult(float("inf"), float("inf"), 0.0, 0.0, ne)
     Ce = np.einsum("g,eg,ga,gb->eab", w, Mg, d2N, N)          # v rows, phi columns
     De = None
-    if qfn is not None and zg != 0.0:
-        qg = qfn(xg)
-        if not np.all(np.isfinite(qg)):
-            raise InputError("q_N_per_mm", "non-finite values", "a finite line load")
-        De = zg * np.einsum("g,eg,ga,gb->eab", w, qg, N, N)
+    if lines:
+        qz = np.zeros_like(xg)                              # sum of q z_g at the Gauss points
+        for fn, z in lines:
+            qg = fn(xg)
+            if not np.all(np.isfinite(qg)):
+                raise InputError("q_N_per_mm", "non-finite values", "a finite line load")
+            qz = qz + z * qg
+        De = np.einsum("g,eg,ga,gb->eab", w, qz, N, N)
 
     ndof = 4 * (ne + 1)
     KE = np.zeros((ndof, ndof))
@@ -297,11 +323,11 @@ def mcr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, p
 
 
 def M_cr_numerical(section: Any, L_mm: float, M: Any, *, q_N_per_mm: Any = 0.0, point_loads: Sequence = (),
-                   z_g_mm: float = 0.0, n_elements: int = DEFAULT_N_ELEMENTS, E: float = E_MPa,
-                   G: float = G_MPa) -> float:
+                   z_g_mm: float = 0.0, line_loads: Sequence = (), n_elements: int = DEFAULT_N_ELEMENTS,
+                   E: float = E_MPa, G: float = G_MPa) -> float:
     """M_cr (N*mm) referred to the largest |M| in the segment; see :func:`mcr_numerical` for the arguments."""
     return mcr_numerical(section, L_mm, M, q_N_per_mm=q_N_per_mm, point_loads=point_loads, z_g_mm=z_g_mm,
-                         n_elements=n_elements, E=E, G=G).M_cr
+                         line_loads=line_loads, n_elements=n_elements, E=E, G=G).M_cr
 
 
 def C_1_numerical(section: Any, L_mm: float, M: Any, *, n_elements: int = DEFAULT_N_ELEMENTS,

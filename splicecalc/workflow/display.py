@@ -232,6 +232,8 @@ def job_tables(job: Any) -> list[TableOutput]:
         if isinstance(ld, UDL):
             extent = "full span" if ld.x_start == 0.0 and ld.x_end is None else \
                 f"{ld.x_start / 1000:g} to {(ld.x_end if ld.x_end is not None else job.beam.span) / 1000:g} m"
+            if ld.applied_to != "flange":     # a line load at a level of its own (else the beam's load level)
+                extent += f", at the {ld.applied_to}"
             lrows.append([ld.name, ld.action, cat, "line load", f"{ld.w:g}", _u("kN/m"), extent])
         else:
             on = "the flange" if ld.applied_to == "flange" else f"the {ld.applied_to}"
