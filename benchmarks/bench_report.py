@@ -4,25 +4,32 @@
 
 Routes, each a fresh process timed from outside (interpreter start, imports, every write):
 
-* **ours, fresh**   - ``splicecalc build JOB.toml -o demo.pdf`` with no earlier build in the folder
-  (what the CLI runs: ``workflow.package.build_package``, in a child Python that prints its timings);
-* **ours, rebuild** - the same build again, unchanged job: the XeLaTeX passes are seeded with the
-  previous build's .aux/.toc/.out (report.compile), as after signing or a revision that keeps the pages;
+* **ours, fresh**   - ``splicecalc build JOB.toml -o demo.pdf --fresh`` with no earlier build in the
+  folder (no PDF, executed notebook, build record or ``.build/`` seed: nothing from a previous build
+  of the job), in a child Python set up as the ``splicecalc`` command sets up its process
+  (``cli.main.lean_process``) that runs ``workflow.package.build_package`` and prints its timings;
+* **ours, rebuild** - the same build again, unchanged job: the executed notebook is up to date, so
+  no cell runs (report.uptodate: "cells up to date, not executed"), and the XeLaTeX passes are
+  seeded with the previous build's .aux/.toc/.out (report.compile), as after signing or a revision
+  that keeps the pages;
 * **stock**         - ``jupyter nbconvert --to Calc_package_PDF --execute`` of the same notebook (the one our
   build writes from the job, its job file beside it, the kernel headless like ours): nbconvert's own
   command line and ExecutePreprocessor with our exporter (entry point ``Calc_package_PDF``), so the same
   LaTeX, with XeLaTeX passes from nothing (no seed: the CLI keeps no build folder) and none of our
-  build's own arrangements (kernel launched first, nothing else). ``--to pdf`` (nbconvert's own
-  template) cannot typeset this notebook any more: its check tables are ``text/latex`` using macros
-  of our template. ``--stock-exporter pdf`` tries it all the same (needs ``ulem.sty``, Debian:
-  texlive-plain-generic).
+  build's own arrangements (kernel launched first, pandoc started beside the cells, nothing else).
+  ``--to pdf`` (nbconvert's own template) cannot typeset this notebook any more: its check tables are
+  ``text/latex`` using macros of our template. ``--stock-exporter pdf`` tries it all the same (needs
+  ``ulem.sty``, Debian: texlive-plain-generic).
 
 Each round runs ours-fresh, stock, ours-rebuild in turn, so the machine's load is shared; the ratios
 are taken within a round (ours / stock) and the medians printed, for the wall time and for the CPU
 time of each process tree (user + system of the process and every process it waited for: kernel,
-XeLaTeX, pandoc), which a machine shared with other work disturbs much less than the wall time. Our builds are split into kernel
+XeLaTeX, pandoc), which a machine shared with other work disturbs much less than the wall time. The
+1-minute load average before each round is printed beside it. Our builds are split into kernel
 start, cells, XeLaTeX passes and ours (the wall time less those three: process start, imports,
 job reading, nbconvert/pandoc export, writes). Goals (issue 14): fresh <= 0.7, rebuild <= 0.4.
+Nothing is cached between builds but the executed notebook and the XeLaTeX seed, both beside the
+PDF and both removed before each fresh build.
 """
 
 from __future__ import annotations
@@ -43,10 +50,13 @@ ROOT = Path(__file__).resolve().parents[1]
 
 _OURS = """
 import json, sys
+from splicecalc.cli.main import lean_process
+lean_process()                                  # as the splicecalc command does
 from splicecalc.workflow.package import build_package
-r = build_package(sys.argv[1], sys.argv[2], progress=False).report
+r = build_package(sys.argv[1], sys.argv[2], progress=False, fresh=sys.argv[3] == "fresh").report
 print(json.dumps(dict(kernel_start_s=r.kernel_start_s, cells_s=r.cells_s, latex_s=r.latex_s,
-                      latex_passes=r.latex_passes, seeded=r.latex_seeded, pages=r.pages)))
+                      latex_passes=r.latex_passes, seeded=r.latex_seeded, pages=r.pages,
+                      reused=bool(r.cells_reused))))
 """
 
 
@@ -62,7 +72,8 @@ def ours(job: Path, pdf: Path, fresh: bool) -> dict:
         for p in (pdf, pdf.with_suffix(".ipynb"), Path(str(pdf) + ".json")):
             p.unlink(missing_ok=True)
     c0, t0 = _cpu(), time.perf_counter()
-    proc = subprocess.run([sys.executable, "-c", _OURS, str(job), str(pdf)], capture_output=True, text=True)
+    proc = subprocess.run([sys.executable, "-c", _OURS, str(job), str(pdf), "fresh" if fresh else "again"],
+                          capture_output=True, text=True)
     wall, cpu = time.perf_counter() - t0, _cpu() - c0
     if proc.returncode != 0:
         raise SystemExit(f"splicecalc build failed:\n{proc.stderr[-2000:]}")
@@ -90,7 +101,8 @@ def stock(notebook: Path, exporter: str = "Calc_package_PDF") -> dict:
 def _fmt(r: dict) -> str:
     return (f"{r['wall_s']:5.1f} s, CPU {r['cpu_s']:5.1f} s  (kernel {r['kernel_start_s']:.1f}, cells {r['cells_s']:.1f}, "
             f"XeLaTeX {r['latex_passes']} pass{'es' if r['latex_passes'] != 1 else ''} {r['latex_s']:.1f}"
-            f"{' seeded' if r['seeded'] else ''}, ours {r['ours_s']:.1f}; {r['pages']} sheets)")
+            f"{' seeded' if r['seeded'] else ''}, ours {r['ours_s']:.1f}; {r['pages']} sheets"
+            f"{'; cells up to date, not executed' if r.get('reused') else ''})")
 
 
 def _range(xs: list[float], fmt: str = "{:.2f}") -> str:
@@ -118,12 +130,14 @@ def main() -> int:
     notebook = notebook_for_job(job, work / "stock.ipynb")     # the notebook our build runs, for the stock route
 
     rows: list[tuple[dict, dict | None, dict]] = []
+    loads: list[float] = []
     for i in range(1, args.rounds + 1):
+        loads.append(os.getloadavg()[0])
         fresh = ours(pdf.parent / job.name, pdf, fresh=True)
         base = None if args.no_stock else stock(notebook, args.stock_exporter)
         again = ours(pdf.parent / job.name, pdf, fresh=False)
         rows.append((fresh, base, again))
-        print(f"round {i}: ours fresh   {_fmt(fresh)}")
+        print(f"round {i} (load {loads[-1]:.1f}): ours fresh   {_fmt(fresh)}")
         if base is not None:
             print(f"         stock         {base['wall_s']:5.1f} s, CPU {base['cpu_s']:5.1f} s  "
                   f"({base['pages']} pages, nbconvert --to {args.stock_exporter} --execute)")
@@ -132,7 +146,8 @@ def main() -> int:
             print(f"         ratio fresh {fresh['wall_s'] / base['wall_s']:.2f} (CPU "
                   f"{fresh['cpu_s'] / base['cpu_s']:.2f}), rebuild {again['wall_s'] / base['wall_s']:.2f} "
                   f"(CPU {again['cpu_s'] / base['cpu_s']:.2f})")
-    print(f"\nmedians over {args.rounds} rounds")
+    print(f"\nmedians over {args.rounds} rounds (1-minute load before the rounds: "
+          f"{', '.join(f'{x:.1f}' for x in loads)})")
     for name, k in (("ours fresh", 0), ("ours rebuild", 2)):
         rs = [r[k] for r in rows]
         print(f"  {name:<13} wall {_range([r['wall_s'] for r in rs], '{:.1f}')} s, CPU "

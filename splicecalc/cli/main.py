@@ -185,6 +185,22 @@ def _is_unreadable_file(e: BaseException) -> bool:
         "nbformat", "jsonschema", "fastjsonschema", "pypdf", "pyhanko", "asn1crypto")
 
 
+#: optional modules that a library the CLI loads imports if they are installed, that no command uses,
+#: and whose import is costly: jsonschema (loaded by nbformat) imports ``rfc3987_syntax`` for its
+#: "iri" format check, which builds a grammar for ~2 s; nbformat's schemas have no "format" check.
+#: The ``splicecalc`` process marks them absent (Python's documented ``sys.modules[name] = None``),
+#: as the library already allows (it catches the ImportError); a program that imports splicecalc
+#: keeps its own modules as they are.
+UNUSED_OPTIONAL_MODULES = ("rfc3987_syntax",)
+
+
+def lean_process() -> None:
+    """Mark :data:`UNUSED_OPTIONAL_MODULES` absent in this process (the ``splicecalc`` command's own)."""
+    for name in UNUSED_OPTIONAL_MODULES:
+        if name not in sys.modules:
+            sys.modules[name] = None   # type: ignore[assignment]  # import raises ModuleNotFoundError
+
+
 def main(argv: list[str] | None = None) -> int:
     """Run one command. Every failure is one line on stderr, never a traceback:
     2 bad input (InputError, a calculation that cannot be made from the inputs, a file that
@@ -195,6 +211,7 @@ def main(argv: list[str] | None = None) -> int:
 
     from ..core.errors import file_error_message
 
+    lean_process()
     parser = build_parser()
     args = parser.parse_args(argv)
     try:

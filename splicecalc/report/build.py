@@ -26,6 +26,7 @@ from .errors import CalcBuildError, ProtectedPDFError
 from .kernel import KernelLaunch
 from .latexfix import BadBox
 from .metadata import calc_metadata
+from .pandocwork import PandocWork
 
 #: overfull boxes up to this width are typographic noise; wider ones are layout faults
 OVERFULL_LIMIT_PT = 5.0
@@ -138,7 +139,6 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
     import nbformat
 
     from .execute import execute_notebook
-    from .exporter import CalcPackageExporter
 
     nb = nbformat.read(nb_path, as_version=4)
     calc_metadata(nb.metadata, default_title=nb_path.stem)   # bad metadata fails before any cell runs
@@ -154,15 +154,36 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
     timings: dict[str, float] = {}
     execution_s = 0.0
     reused = ""
-    if execute and reuse is not None and inputs_digest:
-        from .uptodate import with_outputs
+    # pandoc's conversions start now, beside the kernel's cells (report.pandocwork); same text
+    pandoc = PandocWork(nb_path.parent)
+    try:
+        if execute and reuse is not None and inputs_digest:
+            from .uptodate import with_outputs
 
-        nb = with_outputs(nb, reuse)
-        reused = inputs_digest              # said in one line by BuildReport.reuse_line / summary
-    elif execute:
-        nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings,
-                              kernel=kernel)
-        execution_s = timings.get("kernel_start_s", 0.0) + timings.get("cells_s", 0.0)
+            nb = with_outputs(nb, reuse)
+            reused = inputs_digest              # said in one line by BuildReport.reuse_line / summary
+            pandoc.start_notebook(nb)
+        elif execute:
+            for cell in nb.cells:
+                if cell.cell_type == "markdown":
+                    pandoc.start_cell(cell)
+            nb = execute_notebook(nb, cwd=nb_path.parent, timeout=timeout, progress=progress, timings=timings,
+                                  kernel=kernel, on_cell_done=pandoc.start_cell)
+            execution_s = timings.get("kernel_start_s", 0.0) + timings.get("cells_s", 0.0)
+        else:
+            pandoc.start_notebook(nb)
+        return _export(nb, nb_path, out, work, execute, executed_path, inputs_digest, seed, progress, pandoc,
+                       t0, timings, execution_s, reused, overfull_limit_pt)
+    finally:
+        pandoc.close()
+
+
+def _export(nb: Any, nb_path: Path, out: Path, work: Path, execute: bool, executed_path: str | Path | None,
+            inputs_digest: str | None, seed: bool, progress: bool, pandoc: PandocWork, t0: float,
+            timings: dict[str, float], execution_s: float, reused: str, overfull_limit_pt: float) -> BuildReport:
+    """The second half of :func:`build_pdf`: the executed notebook saved, the LaTeX, XeLaTeX, the PDF."""
+    from .exporter import CalcPackageExporter
+
     if execute and inputs_digest:
         from .uptodate import INPUTS_KEY
 
@@ -174,7 +195,8 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
     seed_dir = out.parent / ".build" / f"{out.stem}.seed"
     if not seed:
         shutil.rmtree(seed_dir, ignore_errors=True)
-    exporter = CalcPackageExporter(progress=progress, build_directory=str(work), seed_directory=str(seed_dir))
+    exporter = CalcPackageExporter(progress=progress, build_directory=str(work), seed_directory=str(seed_dir),
+                                   pandoc_work=pandoc)
     resources: dict[str, Any] = {"metadata": {"name": nb_path.stem, "path": str(nb_path.parent)}}
     if previous:
         resources["previous"] = previous

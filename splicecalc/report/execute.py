@@ -30,8 +30,9 @@ class _Progress:
     """nbclient hooks (``on_notebook_start``, ``on_cell_start``, ``on_cell_executed``): a tqdm bar over the
     code cells, the index of the running cell, and when the kernel was ready."""
 
-    def __init__(self, nb: NotebookNode, show: bool) -> None:
+    def __init__(self, nb: NotebookNode, show: bool, on_cell_done: Any = None) -> None:
         self._n = sum(c.cell_type == "code" for c in nb.cells)
+        self._on_cell_done = on_cell_done
         self._show = show
         self._bar: Any = None
         #: index of the cell running (or last run)
@@ -52,6 +53,8 @@ class _Progress:
     def cell_executed(self, cell: NotebookNode, **_: Any) -> None:
         if self._bar is not None and cell.cell_type == "code":
             self._bar.update(1)
+        if self._on_cell_done is not None:
+            self._on_cell_done(cell)
 
     def close(self) -> None:
         if self._bar is not None:
@@ -72,7 +75,7 @@ def _error_of(cell: NotebookNode) -> tuple[str, str]:
 
 def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = None, timeout: float = 300.0,
                      progress: bool = True, timings: dict[str, float] | None = None,
-                     kernel: KernelLaunch | None = None) -> NotebookNode:
+                     kernel: KernelLaunch | None = None, on_cell_done: Any = None) -> NotebookNode:
     """Execute every code cell of ``nb`` (a path or a NotebookNode) and return the executed notebook.
 
     ``cwd`` is the kernel's working folder (default: the notebook's folder or
@@ -84,7 +87,8 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
     folder); by default a new one is started. Either way it is shut down at the end
     (nbclient's ``shutdown_kernel="immediate"``: every output is in by then), and
     ``kernel_start_s`` counts from its launch. The kernel runs headless
-    (:data:`~splicecalc.report.headless.HEADLESS_ENV`).
+    (:data:`~splicecalc.report.headless.HEADLESS_ENV`). ``on_cell_done(cell)``: called with each
+    cell as it finishes, outputs in (nbclient's ``on_cell_executed`` hook).
     """
     require_positive("timeout", timeout, "s")
     if isinstance(nb, (str, Path)):
@@ -103,7 +107,7 @@ def execute_notebook(nb: str | Path | NotebookNode, cwd: str | Path | None = Non
     if kernel is not None and (not isinstance(kernel, KernelLaunch) or kernel.used):
         raise InputError("kernel", kernel, "a KernelLaunch that has not run a notebook yet")
 
-    hooks = _Progress(node, progress)
+    hooks = _Progress(node, progress, on_cell_done)
     client = NotebookClient(node, kernel_manager_class=ThisPythonKernelManager, timeout=int(timeout),
                             kernel_name=KERNEL_NAME, resources={"metadata": {"path": str(cwd)}},
                             allow_errors=False, record_timing=False, shutdown_kernel="immediate",

@@ -20,7 +20,7 @@ from typing import Any
 
 from nbconvert.exporters import LatexExporter, PDFExporter
 from nbconvert.preprocessors import Preprocessor
-from traitlets import Bool, Unicode, default
+from traitlets import Any as AnyTrait, Bool, Unicode, default
 from traitlets.config import Config
 
 from .compile import require_tool, run_xelatex, save_seed
@@ -125,6 +125,9 @@ class CalcPackageExporter(PDFExporter):
     #: the previous build's .aux/.toc/.out, kept per output name (empty: every build starts from nothing)
     seed_directory = Unicode("", help="Folder keeping the previous build's .aux, .toc and .out to seed "
                                       "the next one (see splicecalc.report.compile)").tag(config=True)
+    #: pandoc conversions a build started early (:class:`~splicecalc.report.pandocwork.PandocWork`);
+    #: None: nbconvert's ``convert_pandoc`` as it stands
+    pandoc_work = AnyTrait(None, allow_none=True, help="convert_pandoc with conversions started early")
     exclude_input = Bool(True, help="Hide code cell inputs").tag(config=True)
     exclude_input_prompt = Bool(True).tag(config=True)
     exclude_output_prompt = Bool(True).tag(config=True)
@@ -168,6 +171,15 @@ class CalcPackageExporter(PDFExporter):
         # nbconvert's escape_latex, which leaves control characters and long runs as they are)
         yield ("escape_latex", escape_tex)
         yield ("calc_verbatim", verbatim_text)
+        yield ("convert_pandoc", self._convert_pandoc)
+
+    def _convert_pandoc(self, source: str, from_format: str, to_format: str, extra_args: Any = None) -> str:
+        """nbconvert's ``convert_pandoc``, answered from :attr:`pandoc_work` when a build started it early."""
+        if self.pandoc_work is not None:
+            return self.pandoc_work(source, from_format, to_format, extra_args)
+        from nbconvert.filters import convert_pandoc
+
+        return convert_pandoc(source, from_format, to_format, extra_args)
 
     # ------------------------------------------------------------------ LaTeX
     def to_latex(self, nb: Any, resources: dict | None = None, **kw: Any) -> tuple[str, dict]:
