@@ -173,14 +173,15 @@ def build_pdf(notebook_path: str | Path, pdf_path: str | Path, execute: bool = T
         else:
             pandoc.start_notebook(nb)
         return _export(nb, nb_path, out, work, execute, executed_path, inputs_digest, seed, progress, pandoc,
-                       t0, timings, execution_s, reused, overfull_limit_pt)
+                       t0, timings, execution_s, reused, overfull_limit_pt, previous, changes_note)
     finally:
         pandoc.close()
 
 
 def _export(nb: Any, nb_path: Path, out: Path, work: Path, execute: bool, executed_path: str | Path | None,
             inputs_digest: str | None, seed: bool, progress: bool, pandoc: PandocWork, t0: float,
-            timings: dict[str, float], execution_s: float, reused: str, overfull_limit_pt: float) -> BuildReport:
+            timings: dict[str, float], execution_s: float, reused: str, overfull_limit_pt: float,
+            previous: dict[str, Any] | None, changes_note: str) -> BuildReport:
     """The second half of :func:`build_pdf`: the executed notebook saved, the LaTeX, XeLaTeX, the PDF."""
     from .exporter import CalcPackageExporter
 
