@@ -214,7 +214,7 @@ def draw_beam_diagrams(data: dict[str, Any]) -> Any:
     nax = 3 if defl is not None else 2
     # fixed margins (inches) rather than a layout engine: the panels are always the same kind, and a
     # constrained layout costs two extra text-layout passes per figure (the PDF is saved with a tight box)
-    height = 2.1 * nax + (1.6 if loads is not None else 0.4)
+    height = 1.45 * nax + (1.45 if loads is not None else 0.4)
     fig = Figure(figsize=(A4_TEXT_WIDTH_IN, height))
     fig.subplots_adjust(left=0.72 / A4_TEXT_WIDTH_IN, right=1.0 - 0.12 / A4_TEXT_WIDTH_IN,
                         bottom=0.45 / height, top=1.0 - (0.42 if title else 0.12) / height, hspace=0.28)
