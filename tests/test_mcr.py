@@ -209,3 +209,21 @@ def test_with_catalogue_section():
     s = get_section("457x191x67 UKB")
     # catalogue properties from geometry vs the published table (from memory): M_cr within 1 %
     assert M_cr_numerical(s, 4000.0, 1e6) == pytest.approx(tg_uniform(UKB457, 4000.0), rel=0.01)
+
+
+def test_generalized_eigenvalue_agrees_with_scipy():
+    # the numpy route (Cholesky, then the symmetric eigenproblem) against scipy.linalg.eigh(A, B), a general-
+    # purpose reference library: stiffness-like matrices whose entries span 14 orders (E I_w against G I_t)
+    import scipy.linalg
+
+    from splicecalc.members.mcr import _largest_generalized_eigenvalue
+
+    rng = np.random.default_rng(7)
+    for n in (4, 16, 64):
+        Q = rng.standard_normal((n, n))
+        scale = np.diag(10.0 ** rng.uniform(3, 17, n) ** 0.5)
+        B = scale @ (Q @ Q.T + n * np.eye(n)) @ scale
+        A = rng.standard_normal((n, n))
+        A = scale @ (A + A.T) @ scale
+        ref = scipy.linalg.eigh(A, B, eigvals_only=True)[-1]
+        assert _largest_generalized_eigenvalue(A, B) == pytest.approx(ref, rel=1e-9)

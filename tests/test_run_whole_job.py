@@ -115,3 +115,18 @@ def test_exit_2_on_bad_input_one_line(tmp_path):
     assert len(p.stderr.strip().splitlines()) == 1 and "Traceback" not in p.stderr
     p = cli("run", str(tmp_path / "missing.toml"))
     assert p.returncode == 2 and "Traceback" not in p.stderr
+
+
+def test_run_loads_no_renderer_no_scipy():
+    # what keeps `splicecalc run` quick (benchmarks/bench_run.py): the plain-float path never imports the
+    # renderer (handcalcs, innerscope), scipy (the M_cr eigenproblem is solved with numpy) or numpy.ma
+    # (np.unique pulls it in; core.numeric.sorted_unique does not). A structural check, not a timing.
+    code = ("import sys, io, contextlib\n"
+            "from splicecalc.cli.main import main\n"
+            f"sys.argv = ['splicecalc', 'run', {str(DEMO)!r}, '--json']\n"
+            "with contextlib.redirect_stdout(io.StringIO()):\n"
+            "    try:\n        main()\n    except SystemExit:\n        pass\n"
+            "print(sorted(m for m in ('handcalcs', 'innerscope', 'scipy', 'numpy.ma', 'matplotlib') if m in sys.modules))")
+    p = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, timeout=300)
+    assert p.returncode == 0, p.stderr
+    assert p.stdout.strip() == "[]"

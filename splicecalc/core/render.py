@@ -20,9 +20,6 @@ import textwrap
 from functools import lru_cache
 from typing import Any, Callable
 
-import innerscope
-from handcalcs.handcalcs import LatexRenderer
-
 from .units import TEX_DISPLAY_UNITS, is_quantity, to_float, to_quantity
 
 
@@ -337,6 +334,8 @@ def render(fn: Callable, precision: int = 3, **kwargs: Any) -> tuple[str, float]
 @lru_cache(maxsize=None)
 def _scoped(fn: Callable) -> Any:
     """innerscope's wrapper of ``fn`` (made once: building it rewrites the function's code, ~1 ms)."""
+    import innerscope     # here, not at the top: plain-float runs (`splicecalc run`) never render
+
     return innerscope.scoped_function(fn)
 
 
@@ -344,6 +343,8 @@ def _render_uncached(fn: Callable, precision: int, kwargs: dict[str, Any]) -> tu
     qargs = quantity_args(fn, kwargs)
     scope = _scoped(fn)(**qargs)
     line_args = {"override": "", "precision": precision, "sci_not": None}
+    from handcalcs.handcalcs import LatexRenderer   # imported on the first render only
+
     latex = LatexRenderer(_body_source(fn), scope, line_args).render()
     latex = tex_clean("".join(latex.replace("\\[", "", 1).rsplit("\\]", 1)).strip())
     result = scope.return_value

@@ -40,6 +40,7 @@ from ...actions.combinations import sls_variable_characteristic
 from ...actions.psi import PSI_UK_NA
 from ...analysis import SimpleBeam
 from ...core.record import Calc, CheckRecord, not_checked
+from ...core.numeric import sorted_unique
 from ...materials.partial_factors import NationalAnnex
 from ...members import compression as fc
 from ..plates import N_b_Rd, chi as chi_flex
@@ -482,7 +483,7 @@ def beam_member_checks(sec: Any, bl: ExistingBeamLoads, mat_at: Callable[[float]
         pts = [(ld.x - x0, ld.P, z_conn if ld.name.startswith("new beam") else z_own)
                for ld in cc.loads if isinstance(ld, PointLoad) and x0 <= ld.x <= x1]
         # the segment's moment diagram as samples (exact at the point loads, linear between 1/128 steps)
-        xs = np.unique(np.concatenate((np.linspace(x0, x1, 129), [p[0] + x0 for p in pts])))
+        xs = sorted_unique(np.concatenate((np.linspace(x0, x1, 129), [p[0] + x0 for p in pts])))
         Mdiag = (xs - x0, np.asarray(b.M(xs), dtype=float))
         res = mcr_numerical(sec, Ls, Mdiag, q_N_per_mm=q, point_loads=pts, z_g_mm=z_own)
         C1 = C_1_numerical(sec, Ls, Mdiag)
