@@ -432,3 +432,15 @@ def test_check_titles_print_symbols_as_subscripts_never_raw_underscores():
     summary = table_latex({"columns": ["Check", "E_d"], "rows": [["End A: Gauge p_3 <= 140 mm", "90"]],
                            "align": "lr", "kind": "summary", "title": ""})
     assert "$p_{3}$" in summary and "p\\_3" not in summary
+
+
+def test_prose_symbols_in_markdown_outputs_and_table_notes_are_subscripts():
+    # pandoc writes f_y of a note or caution as f\_y; the template's calc_symbols filter sets it as math
+    from splicecalc.report.latexout import prose_symbols_tex, table_latex
+
+    out = prose_symbols_tex(r"historic steel (f\_y = 235 MPa, f\_u = 430 MPa), |M|/M\_c,Rd and gamma\_Q")
+    assert out == r"historic steel ($f_{y}$ = 235 MPa, $f_{u}$ = 430 MPa), |M|/$M_{c,Rd}$ and $\gamma_{Q}$"
+    kept = r"\texttt{load\_level}, ltb\_2, floor\_frequency, \textbf{x}\_1"      # words and commands as written
+    assert prose_symbols_tex(kept) == kept
+    t = table_latex({"columns": ["a"], "rows": [["1"]], "align": "l", "title": "", "notes": "every part at gamma_Q"})
+    assert "$\\gamma_{Q}$" in t and "gamma\\_Q" not in t

@@ -231,8 +231,8 @@ def draw_beam_diagrams(data: dict[str, Any]) -> Any:
     ax.fill_between(sh["x_m"], sh["V_kN"], 0.0, color="tab:blue", alpha=0.15, lw=0)
     ax.plot(sh["x_m"], sh["V_kN"], color="tab:blue", lw=1.2)
     _style_axis(ax, L_m, "V (kN)")
-    ax.annotate(f"R_A = {sh['R_A_kN']:.1f} kN", (0.0, 0.0), xytext=(8, -12), textcoords="offset points", fontsize=7)
-    ax.annotate(f"R_B = {sh['R_B_kN']:.1f} kN", (L_m, 0.0), xytext=(-8, 6), textcoords="offset points",
+    ax.annotate(f"RA = {sh['R_A_kN']:.1f} kN", (0.0, 0.0), xytext=(8, -12), textcoords="offset points", fontsize=7)
+    ax.annotate(f"RB = {sh['R_B_kN']:.1f} kN", (L_m, 0.0), xytext=(-8, 6), textcoords="offset points",
                 ha="right", fontsize=7)
     mx = sh["max"]
     _mark(ax, mx["x_m"], mx["value_kN"], f"|V| max = {mx['abs_kN']:.1f} kN at x = {mx['x_m']:.2f} m", "tab:blue", L_m)

@@ -220,6 +220,13 @@ class BeamAnalysis:
 
 
 # ======================================================================== results
+def short_title(title: str, designation: str) -> str:
+    """A check title without the section it names at its end (``..., 457x152x60 UKB``): for a sentence or
+    a table that already names the section; words, never a check id."""
+    suffix = f", {designation}"
+    return title[:-len(suffix)] if designation and title.endswith(suffix) else title
+
+
 @dataclass(frozen=True)
 class Candidate:
     """One section tried by the search: pass/fail and the check that governs it.
@@ -917,7 +924,8 @@ def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None,
         run = _check_section_all(ctx, section, render=render)
         cand = _candidate(section, run, "full")
         msg = (f"{section.designation} {job.beam.grade}: " +
-               ("all checks pass" if cand.ok else f"fails {cand.governing} (u = {cand.utilisation:.3f})"))
+               ("all checks pass" if cand.ok else
+                f"fails {short_title(cand.title, section.designation)} (u = {cand.utilisation:.3f})"))
         return _result(ctx, section, run, (cand,), (), msg)
 
     secs = search_candidates(job)
@@ -995,7 +1003,8 @@ def design_beam(job: Job, render: bool = False, *, psi: PsiTable | None = None,
     gov = run.worst()
     assert gov is not None
     msg = (f"Lightest passing section of {fams}{depth}: {section.designation} {job.beam.grade} "
-           f"({section.mass_nominal:g} kg/m), governed by {gov.id} (u = {gov.utilisation:.3f})")
+           f"({section.mass_nominal:g} kg/m), governed by {short_title(gov.title, section.designation)} "
+           f"(u = {gov.utilisation:.3f})")
     if passed:
         msg += (f"; passed over (pass the member checks, but their splices or end connections cannot be "
                 f"designed, or fail a check): "

@@ -93,6 +93,19 @@ def title_tex(title: str, heading: bool = False) -> str:
     return tex
 
 
+#: a code symbol as pandoc writes it in LaTeX text (``f\\_y``, ``M\\_c,Rd``, ``gamma\\_Q``): a base of one or
+#: two letters or a Greek name at the start of a word; a longer word with an underscore stays as written
+_PANDOC_SYMBOL_RE = re.compile(r"(?<![A-Za-z\\])(" + "|".join(sorted(_GREEK, key=len, reverse=True))
+                               + r"|[A-Za-z]{1,2})\\_([A-Za-z0-9]+(?:,[A-Za-z0-9]+)*)(?![A-Za-z0-9])")
+
+
+def prose_symbols_tex(latex: str) -> str:
+    """Code symbols in the LaTeX pandoc made of a markdown output (notes, cautions, method text) set as
+    math with their subscripts (``f\\_y`` -> ``$f_{y}$``): never a raw underscore on a sheet. Only
+    letters, digits and commas go into the math (see :func:`_symbol`)."""
+    return _PANDOC_SYMBOL_RE.sub(_symbol, latex)
+
+
 def cell_tex(cell: str) -> str:
     """Table cell: ``$...$`` in the small math syntax is kept as math, anything else is escaped text."""
     c = _clean(str(cell)).strip()
@@ -236,7 +249,7 @@ def table_latex(p: dict[str, Any]) -> str:
         lines.append(" & ".join(cells) + " \\\\")
     lines.append("\\end{calctable}")
     if p.get("notes"):
-        lines.append(f"\\calctablenote{{{escape_tex(p['notes'])}}}")
+        lines.append(f"\\calctablenote{{{title_tex(p['notes'])}}}")   # symbols as subscripts
     if kind == "parts" and isinstance(p.get("acceptance"), dict):
         lines.append(acceptance_latex(p["acceptance"]))
     return "\n".join(lines) + "\n"

@@ -259,7 +259,7 @@ def job_tables(job: Any) -> list[TableOutput]:
                   ["Flange cover plates", s.flange_plates], ["Plate grade", s.plate_grade],
                   ["Clearance to supports, point loads, restraints", f"{s.clearance:g} mm"],
                   ["Gap between beam ends", f"{s.gap:g} mm"],
-                  ["Minimum design moment", f"{s.min_design_moment:g} x M_c,Rd"]]
+                  ["Minimum design moment", f"{s.min_design_moment:g} x Mc,Rd of the beam"]]
         if s.category in ("B", "C"):
             srows.append(["Slip surface class", s.friction_class])
         out.append(TableOutput(["Splice option", "Value"], srows, title="Splices", align="ll"))
@@ -447,16 +447,18 @@ def show_member(result: CalcResult) -> None:
     show_section(d.section, result.job.beam.grade)
     show_text(("**Result.** " if d.ok else "**Result (FAILS).** ") + d.message + ".")
     if len(d.candidates) > 1:
+        from ..design.beam import short_title
+
         lighter = list(d.lighter_failures)[-6:]
-        rows = [[c.designation, f"{c.mass_kg_per_m:g}", "fails", c.governing, fmt_utilisation(c.utilisation)]
-                for c in lighter]
+        rows = [[c.designation, f"{c.mass_kg_per_m:g}", "fails", short_title(c.title, c.designation),
+                 fmt_utilisation(c.utilisation)] for c in lighter]
         rows += [[p.designation, f"{p.mass_kg_per_m:g}", "passed over", f"joints: see note {k}", "-"]
                  for k, p in enumerate(d.passed_over, start=1)]
         rows.append([d.section.designation, f"{d.section.mass_nominal:g}", "chosen" if d.ok else "fails",
-                     (d.governing_record.id if d.governing_record else "-"),
+                     (short_title(d.governing_record.title, d.section.designation) if d.governing_record else "-"),
                      fmt_utilisation(d.governing_record.utilisation) if d.governing_record else "-"])
-        rows += [[c.designation, f"{c.mass_kg_per_m:g}", "passes", c.governing, fmt_utilisation(c.utilisation)]
-                 for c in d.alternatives]
+        rows += [[c.designation, f"{c.mass_kg_per_m:g}", "passes", short_title(c.title, c.designation),
+                  fmt_utilisation(c.utilisation)] for c in d.alternatives]
         show_table(["Section", "kg/m", "Verdict", "Governing check", "Util."], rows, align="lrlll",
                    title="Section search (the heaviest lighter sections tried, the chosen one, the next passing)",
                    notes="Each section with its worst check. A section stopped by the first checks (bending, "
@@ -552,10 +554,10 @@ def _splice_forces_table(part: Any) -> None:
             ["Shear force", "$V_{Ed}$", f"{abs(fo.V_Ed) / 1e3:.1f}", _u("kN")],
             ["Axial force (tension +)", "$N_{Ed}$", f"{fo.N_Ed / 1e3:.1f}", _u("kN")],
             ["Splice design moment (joint line)", "$M_{j,Ed}$", f"{fo.M_j_Ed / 1e6:.1f}", _u("kNm")],
-            [f"Moment at the outermost flange row, a_f = {fo.a_f:g} mm", "$M_{f,Ed}$", f"{fo.M_f_Ed / 1e6:.1f}",
+            [f"Moment at the outermost flange row, {fo.a_f:g} mm from the joint", "$M_{f,Ed}$", f"{fo.M_f_Ed / 1e6:.1f}",
              _u("kNm")],
             ["Flange force (beam flange and flange bolts)", "$F_{f,Ed}$", f"{fo.F_f_Ed / 1e3:.1f}", _u("kN")],
-            [f"Moment at the outermost web column, a_w = {fo.a_w:g} mm", "$M_{a,Ed}$", f"{fo.M_w_a_Ed / 1e6:.1f}",
+            [f"Moment at the outermost web column, {fo.a_w:g} mm from the joint", "$M_{a,Ed}$", f"{fo.M_w_a_Ed / 1e6:.1f}",
              _u("kNm")],
             ["Web share of that moment", "$M_{w,Ed}$", f"{fo.M_w_Ed / 1e6:.1f}", _u("kNm")],
             ["Moment on the web bolt group", "$M_{g,Ed}$", f"{fo.M_g_Ed / 1e6:.2f}", _u("kNm")],

@@ -134,7 +134,7 @@ def draw_connection_data(data: dict[str, Any]) -> Any:
     if bo["rows"] > 1:
         dim_v(xd, rows[0], rows[-1], f"{bo['rows'] - 1} x p1 {bo['p1_mm']:g}")
     dim_v(xd, rows[-1], yp1, f"{bo['e1_mm']:g}")
-    dim_v(xd + 95, yp0, yp1, f"h_p {hp:g}")
+    dim_v(xd + 95, yp0, yp1, f"plate {hp:g}")
     if dn:
         dim_h(12.0, x0, x0 + c, f"notch {c:g}", below=False)
         dim_v(x0 + c + 8, 0.0, -dn, f"{dn:g}")
@@ -173,7 +173,7 @@ def draw_connection_data(data: dict[str, Any]) -> Any:
             for s in (-1, 1):
                 ax.add_patch(Circle((xc + s * bo["p3_mm"] / 2, y), bo["d0_mm"] / 2, facecolor="white",
                                     edgecolor="black", linewidth=0.6))
-        dim_h(yp1 - 14, xc - bp / 2, xc + bp / 2, f"b_p {bp:g}")
+        dim_h(yp1 - 14, xc - bp / 2, xc + bp / 2, f"plate {bp:g}")
         dim_h(yp1 - 34, xc - bo["p3_mm"] / 2, xc + bo["p3_mm"] / 2, f"gauge p3 {bo['p3_mm']:g}")
         dim_h(yp0 + 14, xc + bo["p3_mm"] / 2, xc + bp / 2, f"e2 {bo['e2_mm']:g}", below=False)
         ax.text(xc - max(bb, bp) / 2, y_top + 4, "VIEW ON THE END PLATE", ha="left", va="bottom", fontsize=7,
