@@ -161,3 +161,27 @@ def test_cli_says_when_cells_were_not_executed(tmp_path):
     assert [ln for ln in second.stdout.splitlines() if ln.startswith("cells up to date, not executed (inputs digest ")]
     third = subprocess.run(cmd + ["--fresh"], cwd=tmp_path, capture_output=True, text=True, timeout=600)
     assert third.returncode == first.returncode and "cells up to date" not in third.stdout
+
+
+def test_a_visibly_changed_job_launches_the_kernel_first(tmp_path):
+    """Only a hint for when to launch the kernel: a job whose inputs differ from those the previous
+    notebook printed will run its cells; an unchanged or re-spaced one may not."""
+    from splicecalc.signoff.digest import JOB_MIME
+    from splicecalc.job import load_job
+    from splicecalc.workflow.package import _job_changed
+
+    job = _job(tmp_path)
+    printed = {"cells": [{"cell_type": "code", "source": "", "outputs": [
+        {"output_type": "display_data", "data": {JOB_MIME: load_job(job).to_canonical_dict()}}]}]}
+    assert not _job_changed(printed, job)
+    job.write_text(job.read_text(encoding="utf-8") + "\n# a comment\n", encoding="utf-8")
+    assert not _job_changed(printed, job)
+    doc = tomllib.loads(job.read_text(encoding="utf-8"))
+    doc["beam"]["span"] = "7.5 m" if doc["beam"]["span"] != "7.5 m" else "7.4 m"
+    from splicecalc.job import dumps_toml
+
+    job.write_text(dumps_toml(doc), encoding="utf-8")
+    assert _job_changed(printed, job)
+    job.write_text("not toml [", encoding="utf-8")
+    assert not _job_changed(printed, job)                       # the build reports it in its place
+    assert not _job_changed({"cells": []}, _job(tmp_path))      # nothing printed: unsure

@@ -332,6 +332,22 @@ def _previous_executed(path: Path) -> dict | None:
     return nb if isinstance(nb, dict) and stored_inputs(nb) else None
 
 
+def _job_changed(previous: dict, src: Path) -> bool:
+    """True when the job file ``src`` (a .toml) now reads differently from the inputs the previous
+    executed notebook printed: its cells will run, so the kernel can be launched at once. Only a hint
+    for when to launch it (the reuse decision is the digest's); False when unsure."""
+    if src.suffix != ".toml":
+        return False
+    from ..job import load_job
+    from ..signoff.digest import canonical_json, job_inputs
+
+    try:
+        printed = job_inputs(previous)
+        return bool(printed) and canonical_json(load_job(src).to_canonical_dict()) != canonical_json(printed)
+    except (InputError, ValueError, TypeError, AttributeError):
+        return False                     # the build reports a bad job file itself, in its place
+
+
 def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = None, *, progress: bool = True,
                   timeout: float = 600.0, fresh: bool = False) -> PackageBuild:
     """Build the calc package of ``source`` (a notebook, or a ``.toml`` job file) into ``pdf``.
@@ -385,7 +401,8 @@ def build_package(source: str | os.PathLike, pdf: str | os.PathLike | None = Non
         raise SignedPDFError(str(out), why)
     # read before the notebook below overwrites it: the previous build's outputs, if it left a digest
     previous = None if fresh else _previous_executed(executed)
-    kernel = None if previous is not None else KernelLaunch(run_dir)   # no candidate: boot it first
+    # no candidate, or a job whose inputs visibly changed since it: boot the kernel first
+    kernel = KernelLaunch(run_dir) if previous is None or _job_changed(previous, src) else None
     staged: Path | None = None
     try:
         from ..report.build import build_pdf
