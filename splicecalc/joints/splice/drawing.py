@@ -123,15 +123,16 @@ def draw_splice_data(data: dict[str, Any]) -> Any:
     x_first = gap / 2 + g.e1_w
     top_b = hw / 2 - g.e_v
     _dim(ax, -gap / 2, -h / 2 - g.t_po - 25, gap / 2, -h / 2 - g.t_po - 25, f"gap {gap:g}")
+    # dimensions in rows of their own where short ones sit side by side (their texts are wider than them)
     _dim(ax, gap / 2, -hw / 2 - 12, x_first, -hw / 2 - 12, f"e1 {g.e1_w:g}")
     if g.n_c > 1:
-        _dim(ax, x_first, -hw / 2 - 12, x_first + g.g_w, -hw / 2 - 12, f"{g.g_w:g}")
+        _dim(ax, x_first, -hw / 2 - 34, x_first + g.g_w, -hw / 2 - 34, f"{g.g_w:g}")
     if g.n_r > 1:
         _dim(ax, Lw / 2 + 15, top_b, Lw / 2 + 15, top_b - g.p_w, f"p {g.p_w:g}", vertical=True)
-    _dim(ax, Lw / 2 + 15, hw / 2, Lw / 2 + 15, top_b, f"ev {g.e_v:g}", vertical=True)
+    _dim(ax, Lw / 2 + 40, hw / 2, Lw / 2 + 40, top_b, f"ev {g.e_v:g}", vertical=True)
     _dim(ax, -Lw / 2 - 40, -hw / 2, -Lw / 2 - 40, hw / 2, f"{hw:g}", vertical=True)
     _dim(ax, -Lf / 2, h / 2 + g.t_po + 20, Lf / 2, h / 2 + g.t_po + 20, f"flange plate {Lf:g}")
-    _dim(ax, -Lw / 2, -hw / 2 + 12, Lw / 2, -hw / 2 + 12, f"web plates {Lw:g}")
+    _dim(ax, -Lw / 2, hw / 2 + 12, Lw / 2, hw / 2 + 12, f"web plates {Lw:g}")    # above the plate, clear of bolts
     ax.set_aspect("equal")
     ax.set_xlim(-ext, ext)
     ax.set_ylim(-h / 2 - g.t_po - 60, h / 2 + g.t_po + 60)
@@ -156,14 +157,14 @@ def draw_splice_data(data: dict[str, Any]) -> Any:
     xr = gap / 2 + g.e1_f
     _dim(ax, gap / 2, -b / 2 - 12, xr, -b / 2 - 12, f"e1 {g.e1_f:g}")
     if lay.flange.rows > 1:
-        _dim(ax, xr, -b / 2 - 12, xr + g.p1_f, -b / 2 - 12, f"p1 {g.p1_f:g}")
+        _dim(ax, xr, -b / 2 - 30, xr + g.p1_f, -b / 2 - 30, f"p1 {g.p1_f:g}")
     xd = Lf / 2 + 15
     _dim(ax, xd, -g.g_f / 2, xd, g.g_f / 2, f"gauge {g.g_f:g}", vertical=True)
-    _dim(ax, xd + 35, max(ys), xd + 35, g.b_po / 2, f"e2 {g.e2_po:g}", vertical=True)
+    _dim(ax, xd + 40, max(ys), xd + 40, g.b_po / 2, f"e2 {g.e2_po:g}", vertical=True)
     _dim(ax, -Lf / 2 - 30, -b / 2, -Lf / 2 - 30, b / 2, f"b {b:g}", vertical=True)
     ax.set_aspect("equal")
     ax.set_xlim(-ext, ext)
-    ax.set_ylim(-b / 2 - 40, b / 2 + 30)
+    ax.set_ylim(-b / 2 - 45, b / 2 + 30)
     inner = f" + 2 inner {g.b_pi:g} x {g.t_pi:g}" if g.t_pi > 0 else ""
     ax.set_title(f"Plan on top flange: outer plate {g.b_po:g} x {g.t_po:g} x {Lf:g}{inner};\n"
                  f"{lay.bolt_size} {lay.bolt_class} bolts in {d_hole:g} mm holes", fontsize=8)
@@ -175,7 +176,7 @@ def draw_splice_data(data: dict[str, Any]) -> Any:
 
     e_w = 2 * ext
     e1_h = h + 2 * g.t_po + 120.0
-    e2_h = b + 70.0
+    e2_h = b + 75.0
     gap_mm, foot_mm, head_mm = 10.0, 7.0, 16.0
     sc = fit_scale(2 * e_w + gap_mm * 10, max(e1_h, e2_h), room_h=150.0)
     H = max(e1_h, e2_h) / sc + foot_mm + head_mm
