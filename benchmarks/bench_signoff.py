@@ -12,7 +12,13 @@ not timed). Each timed run starts from a fresh copy of the unsigned package:
   certificate path and coverage, our quick rule for what later updates changed), against
   the named alternative ``thorough=True`` (pyHanko's full difference analysis as well).
 
-Imports are warmed first (the one-off import of pyHanko, about 0.7 s, is printed apart).
+Imports are warmed first (the one-off import of pyHanko is printed apart): those are the
+in-process figures. Then the same from the command line, each in a NEW process
+(``python -m splicecalc.cli.main sign|verify``, the passphrase from the environment), which is
+what a user waits for: interpreter start, imports (pyHanko imports its HTTP client aiohttp for
+time stamps, ~0.1 s, whether or not it is used), reading the key (PBKDF of the .p12) and the work.
+The sources are byte-compiled first (``compileall``: with PYTHONDONTWRITEBYTECODE set, as in the
+development shell, nothing would be cached otherwise and every run would compile pyHanko anew).
 Targets (issue 10): signing < 1 s, verifying < 1 s.
 """
 
@@ -29,7 +35,49 @@ from pathlib import Path
 NAME = "demo_workshop_gallery"
 
 
+def _compile() -> None:
+    import compileall
+    import sysconfig
+
+    for d in (Path(__file__).resolve().parents[1] / "splicecalc", Path(sysconfig.get_paths()["purelib"])):
+        compileall.compile_dir(str(d), quiet=1, workers=1)
+
+
+def _cli_times(built: Path, tdp: Path, keyfiles: tuple[Path, Path], pw: bytes, rounds: int = 5):
+    """Wall times of `splicecalc sign` (prepared, then checked) and `splicecalc verify`, each a new process."""
+    import subprocess
+
+    env = dict(os.environ, SPLICECALC_PASSPHRASE=pw.decode())
+    env.pop("PYTHONDONTWRITEBYTECODE", None)
+    cli = [sys.executable, "-m", "splicecalc.cli.main"]
+    start = [sys.executable, "-c", "pass"]
+    sign_t, verify_t, bare_t = [], [], []
+    for i in range(rounds):
+        d = tdp / f"cli{i}"
+        d.mkdir()
+        for f in built.iterdir():
+            if f.is_file() and not f.name.startswith("."):
+                shutil.copy2(f, d / f.name)
+        pdf = str(d / f"{NAME}.pdf")
+        for role, key, extra in (("prepared", keyfiles[0], []),
+                                 ("checked", keyfiles[1], ["--accept-not-checked", "covered by calc S2 (benchmark)"])):
+            t = time.perf_counter()
+            r = subprocess.run([*cli, "sign", pdf, "--role", role, "--key", str(key), *extra], env=env,
+                               capture_output=True, text=True)
+            sign_t.append(time.perf_counter() - t)
+            assert r.returncode == 0, r.stderr
+        t = time.perf_counter()
+        r = subprocess.run([*cli, "verify", pdf], env=env, capture_output=True, text=True)
+        verify_t.append(time.perf_counter() - t)
+        assert r.returncode == 0, r.stdout + r.stderr
+        t = time.perf_counter()
+        subprocess.run(start, env=env)
+        bare_t.append(time.perf_counter() - t)
+    return sign_t, verify_t, bare_t
+
+
 def main(argv: list[str]) -> int:
+    _compile()
     t0 = time.perf_counter()
     import pyhanko.sign.signers  # noqa: F401
     import pyhanko.sign.validation  # noqa: F401
@@ -74,6 +122,7 @@ def main(argv: list[str]) -> int:
             sign_t += [t2 - t1, t3 - t2]
             verify_t.append(t4 - t3)
             thorough_t.append(t5 - t4)
+        cli_sign, cli_verify, bare = _cli_times(built, tdp, (a.path, b.path), pw)
         from pyhanko.pdf_utils.reader import PdfFileReader
 
         with open(built / f"{NAME}.pdf", "rb") as fh:
@@ -84,7 +133,11 @@ def main(argv: list[str]) -> int:
     print(f"verify (PDF + notebook)    : median {ms(verify_t):7.1f} ms  (target < 1000 ms)")
     print(f"  alternative: pyHanko full difference analysis: median {ms(thorough_t):7.1f} ms "
           f"({statistics.median(thorough_t) / statistics.median(verify_t):.1f}x the quick rule)")
-    return 0 if max(statistics.median(sign_t), statistics.median(verify_t)) < 1.0 else 1
+    print(f"new process, `splicecalc sign` : median {ms(cli_sign):7.1f} ms  (target < 1000 ms; "
+          f"python -c pass: {ms(bare):.0f} ms)")
+    print(f"new process, `splicecalc verify`: median {ms(cli_verify):7.1f} ms  (target < 1000 ms)")
+    worst = max(statistics.median(x) for x in (sign_t, verify_t, cli_sign, cli_verify))
+    return 0 if worst < 1.0 else 1
 
 
 if __name__ == "__main__":

@@ -146,10 +146,10 @@ def generate() -> list[Case]:
             ("beam.end_distance", ("beam", "end_distance"), "100 m"),
             ("beam.max_depth", ("beam", "max_depth"), "20 mm"), ("beam.deflection_limit", ("beam", "deflection_limit"), 5),
             ("beam.deflection_limit", ("beam", "deflection_limit"), float("nan")),
-            ("load[1].udl", ("load", 0, "udl"), "1e40 kN/m"), ("load[1].name", ("load", 0, "name"), "x" * 10_000),
+            ("load[1].udl", ("load", 0, "udl"), "1e40 kN/m"), ("load[1].name", ("load", 0, "name"), "x" * 20_001),  # core.text.TEXT_HARD_MAX
             ("load[1].action", ("load", 0, "action"), "earthquake"), ("beam.grade", ("beam", "grade"), "S999"),
             ("beam.section", ("beam", "section"), "999x999x999 UKB"), ("beam.families", ("beam", "families"), ["ZZZ"]),
-            ("project.title", ("project", "title"), "T" * 10_000), ("project.number", ("project", "number"), ["a"]),
+            ("project.title", ("project", "title"), "T" * 20_001), ("project.number", ("project", "number"), ["a"]),
             ("beam.load_level", ("beam", "load_level"), "sideways"), ("beam.combination", ("beam", "combination"), "6.99"),
         ]:
             cases.append(Case(f"{stem}: {field} = {str(bad)[:20]}", "error", field, doc=_set(doc, path, bad)))

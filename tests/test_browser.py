@@ -279,7 +279,7 @@ def test_job_form_in_jupyterlab(lab, page, artefacts):
     before = nb_file.read_bytes()
     r = subprocess.run([sys.executable, "-m", "splicecalc.cli.main", "build", "pkg/beam_splice.ipynb", "--quiet"],
                        cwd=root, capture_output=True, text=True, timeout=900)
-    assert r.returncode == 0, r.stderr[-3000:]
+    assert r.returncode in (0, 3), r.stderr[-3000:]        # 3: built, with NOT CHECKED items (as `run`)
     assert nb_file.read_bytes() == before and (pkg / "beam_splice.pdf").is_file()
 
     _run_all(page)

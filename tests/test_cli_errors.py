@@ -53,7 +53,7 @@ BAD_COMMANDS = [
     ["revise", "{d}/missing.ipynb", "--revision", "P2", "--description", "x"],
     ["issue", "{d}/bad.pdf"], ["issue", "{d}/missing.pdf"],
     ["verify", "{d}/missing.pdf"], ["verify", "{d}/bad.ipynb"],
-    ["review", "list", "{d}/missing.toml"], ["new", "beam_splice", "{d}/q", "--title", "x" * 10_000],
+    ["review", "list", "{d}/missing.toml"], ["new", "beam_splice", "{d}/q", "--title", "x" * 20_001],
 ]
 
 

@@ -105,7 +105,8 @@ def test_new_build_verify_in_a_fresh_environment(installed):
                   "HL-7", "--title", "Beam B1"], work, env))
     assert (work / "pkg" / "beam_splice.ipynb").is_file() and (work / "pkg" / "job.toml").is_file()
     source = (work / "pkg" / "beam_splice.ipynb").read_bytes()
-    r = _ok(_run([cli, "build", "pkg/beam_splice.ipynb", "--quiet"], work, env))
+    r = _run([cli, "build", "pkg/beam_splice.ipynb", "--quiet"], work, env)
+    assert r.returncode in (0, 3), r.stderr[-3000:]     # 3: built, some checks NOT CHECKED (exit codes of `run`)
     # the notebook built (perhaps open in Jupyter) is never rewritten; the executed copy has its own name
     assert (work / "pkg" / "beam_splice.ipynb").read_bytes() == source
     assert (work / "pkg" / "beam_splice.executed.ipynb").is_file()

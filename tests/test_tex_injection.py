@@ -66,8 +66,10 @@ _DANGEROUS = re.compile(r"\\(input|write|immediate|VerbatimInput|catcode|def|csn
 
 
 @pytest.mark.parametrize("text", CORPUS + list(CLEANED) + NO_GLYPH + ["W" * 10_000])
-def test_escaped_text_holds_no_control_word_of_the_input(text):
-    out = escape_tex(text)
+@pytest.mark.parametrize("full", [False, True])
+def test_escaped_text_holds_no_control_word_of_the_input(text, full):
+    # a source line ends every LINE_CHUNKS break points with a comment ("%" + newline: no space, nothing printed)
+    out = escape_tex(text, full=full).replace("%\n", "")
     # every backslash in the output starts one of our own fixed macros
     for m in re.finditer(r"\\([A-Za-z]+|.)", out):
         assert m.group(1) in {"textbackslash", "textasciitilde", "textasciicircum", "textless", "textgreater",
@@ -87,9 +89,33 @@ def test_escaped_text_holds_no_control_word_of_the_input(text):
 
 
 def test_long_runs_get_break_points():
-    out = escape_tex("W" * 10_000)
-    assert out.count(r"\hspace{0pt}") >= 800
-    assert escape_tex("W" * 10_000, breaks=False) == "W" * 10_000
+    # printed in full (the package's "Texts in full", review threads): a break point between any two characters,
+    # and a new source line now and then (TeX reads at most 200 000 characters a line)
+    out = escape_tex("W" * 10_000, full=True)
+    assert out.count(r"\hspace{0pt}") == 9_999
+    assert max(len(line) for line in out.split("\n")) < 2_000
+    assert out.replace(r"\hspace{0pt}", "").replace("%\n", "") == "W" * 10_000
+    # elsewhere an unbroken run of more than RUN_MAX characters is shortened, with the marker
+    short = escape_tex("W" * 10_000).replace(r"\hspace{0pt}", "").replace("%\n", "")
+    assert short == "W" * 200 + " {[}... 9800 more characters: in full under Texts in full{]}"
+    assert escape_tex("W" * 300, breaks=False, full=True) == "W" * 300
+    # one-line places (the running strip): the short marker, the whole at most the limit
+    assert escape_tex("abc " * 30, limit=20, one_line=True) == "abc abc abc ab {[}...{]}"
+
+
+def test_long_review_comment_wraps_and_prints_in_full():
+    """Audit: a 4000-character unbroken review comment ran past the margin; it now breaks between any
+    characters and prints in full (the register is the checking conversation, never shortened)."""
+    from splicecalc.report.latexout import review_latex
+
+    text = "Q" * 4000
+    tex = review_latex({"register": "job.review.jsonl", "counts": {"open": 1}, "digest": "ab" * 32,
+                        "comments": [{"id": "R1", "state": "open", "target_label": "package", "revision": "P1",
+                                      "thread": [{"kind": "comment", "by": "B. Checker", "date": "2026-12-05",
+                                                  "text": text}]}]})
+    assert tex.count(r"\hspace{0pt}") >= 3999
+    assert text in tex.replace(r"\hspace{0pt}", "").replace("%\n", "")
+    assert "does not prove who wrote" in tex      # names in the register are as typed (audit 4c)
 
 
 @pytest.mark.parametrize("body, ok", [
@@ -245,28 +271,91 @@ def test_injection_corpus_prints_as_typed_in_the_package(tmp_path):
     assert flat.count("D" * 12) >= 25        # the long run wraps in the revision table (columns interleave)
 
 
-def test_ten_kilobyte_texts_are_refused_before_any_work():
-    """A 10 kB string in a title-block field, a load name or group or a designation is refused when
-    the job is read (one line naming the field and the limit), never half-printed."""
+#: every text field of a job (the project's title-block fields, each load's name and group, each measured
+#: existing member's designation)
+_PROJECT_FIELDS = ("number", "title", "prepared_by", "checked_by", "client", "location", "date", "revision")
+
+
+def _text_paths(doc: dict) -> list[tuple]:
+    paths = [("project", k) for k in _PROJECT_FIELDS]
+    for i, ld in enumerate(doc["load"]):
+        paths.append(("load", i, "name"))
+        if ld["action"] != "permanent":
+            paths.append(("load", i, "group"))
+    paths += [("support", i, "existing_member", "designation") for i in range(len(doc["support"]))]
+    return paths
+
+
+def _set_path(doc: dict, path: tuple, value: str) -> None:
+    cur = doc
+    for p in path[:-1]:
+        cur = cur[p]
+    cur[path[-1]] = value
+
+
+def _ten_kb(i: int) -> str:
+    """A 10 kB string (~10 000 characters) without a space, distinct per field, made of TeX injections."""
+    body = "\\input{/etc/hostname}$x^^5c$\\write18{id}%&#_~" * 230
+    return f"F{i:02d}Q" + body[:10_000 - 5]
+
+
+def test_texts_beyond_the_hard_limit_are_refused_in_one_line():
+    """A text of more than core.text.TEXT_HARD_MAX characters (20 000) in any text field is refused when the
+    job is read (one line naming the field and the limit); 10 kB is accepted (it prints, see below)."""
+    import copy
+
     from splicecalc.core.errors import InputError
+    from splicecalc.core.text import TEXT_HARD_MAX
     from splicecalc.job.loader import job_from_dict
 
     base = tomllib.loads((ROOT / "examples" / "demo_workshop_gallery.toml").read_text(encoding="utf-8"))
-    long = "\\input{/etc/hostname}" * 500
-    paths = [("project", k) for k in ("number", "title", "prepared_by", "checked_by", "client", "location",
-                                      "date", "revision")]
-    paths += [("load", 0, "name"), ("load", 1, "group"), ("support", 0, "existing_member", "designation")]
-    import copy
-
-    for path in paths:
+    for path in _text_paths(base):
         doc = copy.deepcopy(base)
-        cur = doc
-        for p in path[:-1]:
-            cur = cur[p]
-        cur[path[-1]] = long
+        _set_path(doc, path, "W" * (TEXT_HARD_MAX + 1))
         with pytest.raises(InputError) as exc:
             job_from_dict(doc)
-        assert "characters" in str(exc.value) and "\n" not in str(exc.value)
+        assert "20000 characters" in str(exc.value) and "\n" not in str(exc.value)
+        doc = copy.deepcopy(base)
+        _set_path(doc, path, _ten_kb(0))
+        job_from_dict(doc)                      # 10 kB: accepted
+
+
+@pytest.mark.pdf
+def test_ten_kilobyte_texts_in_every_field_print_shortened_and_once_in_full(tmp_path):
+    """Issue 10: a 10 kB string in every text field of a job: the build does not fail, no file content
+    is printed, constrained places show a shortened form with the marker and the package prints each
+    text once in full ("Texts in full"), read back with poppler's pdftotext (outside the project)."""
+    if shutil.which("xelatex") is None or shutil.which("pdftotext") is None:
+        pytest.skip("XeLaTeX or poppler not installed")
+    from splicecalc.job.loader import dumps_toml
+    from splicecalc.workflow.package import build_package, new_package
+
+    doc = tomllib.loads((ROOT / "examples" / "demo_workshop_gallery.toml").read_text(encoding="utf-8"))
+    texts = {}
+    for i, path in enumerate(_text_paths(doc)):
+        texts[path] = _ten_kb(i)
+        _set_path(doc, path, texts[path])
+    job = tmp_path / "job.toml"
+    job.write_text(dumps_toml(doc), encoding="utf-8")
+    made = new_package("beam_splice", tmp_path / "pkg", job=job)
+    marker = Path("/tmp/splicecalc-injected")
+    marker.unlink(missing_ok=True)
+    out = build_package(made.notebook, tmp_path / "pkg" / "calc.pdf", progress=False)
+    pdf = Path(getattr(out, "pdf", tmp_path / "pkg" / "calc.pdf"))
+    # the body of each sheet (the running strip above 22 mm and the footer below 282 mm cropped: A4 at 72 dpi)
+    body = subprocess.run(["pdftotext", "-x", "0", "-y", "66", "-W", "595", "-H", "734", str(pdf), "-"],
+                          capture_output=True, text=True, check=True).stdout
+    whole = subprocess.run(["pdftotext", str(pdf), "-"], capture_output=True, text=True, check=True).stdout
+    flat = _squash(body)
+    assert "Textsinfull" in flat
+    for path, t in texts.items():
+        assert flat.count(_squash(t)) == 1, f"{path}: not printed once in full"
+    assert "morecharacters:infullunderTextsinfull" in _squash(whole)      # the marker where room is short
+    assert not marker.exists()
+    assert not any(m in whole for m in SECRET_MARKERS)
+    hostname = Path("/etc/hostname").read_text().strip() if Path("/etc/hostname").exists() else ""
+    if hostname and len(hostname) > 6:
+        assert hostname not in whole
 
 
 def test_metadata_texts_are_bounded():
@@ -274,9 +363,9 @@ def test_metadata_texts_are_bounded():
     from splicecalc.report.metadata import calc_metadata
 
     with pytest.raises(InputError, match="metadata.splicecalc.title"):
-        calc_metadata({"splicecalc": {"title": "T" * 10_000}})
+        calc_metadata({"splicecalc": {"title": "T" * 20_001}})
     with pytest.raises(InputError, match="revisions"):
-        calc_metadata({"splicecalc": {"revisions": [{"rev": "P1", "description": "D" * 10_000}]}})
+        calc_metadata({"splicecalc": {"revisions": [{"rev": "P1", "description": "D" * 20_001}]}})
 
 
 def test_markdown_outputs_carry_no_html_from_job_text():

@@ -5,8 +5,9 @@ Design:     run
 Package:    new, build, demo
 Sign-off:   keys, sign, verify, revise, issue
 
-User errors (bad input) print one line to stderr and exit 2; build exits 1 when
-a check fails; verify exits 0 valid, 1 changed or invalid, 3 unsigned.
+User errors (bad input) print one line to stderr and exit 2; run and build exit 1
+when a check fails and 3 when nothing fails but some checks are NOT CHECKED;
+verify exits 0 valid, 1 changed or invalid, 3 unsigned.
 """
 
 from __future__ import annotations

@@ -78,7 +78,8 @@ def _print_build(b: Any, quiet: bool) -> None:
 
 
 def _failing_checks(notebook: Any) -> int:
-    """Print the failing checks of the executed notebook; 1 when there are any, else 0."""
+    """Print the failing and NOT CHECKED checks of the executed notebook. The exit code is `run`'s:
+    1 when a check fails, else 3 when some are NOT CHECKED, else 0 (the package is built in every case)."""
     from ..signoff.notebook import failing_checks, not_checked, read_notebook
 
     nb = read_notebook(notebook)
@@ -89,7 +90,7 @@ def _failing_checks(notebook: Any) -> int:
             print(f"  NOT CHECKED  {g}", file=sys.stderr)
     failing = failing_checks(nb)
     if not failing:
-        return 0
+        return 3 if gaps else 0
     print(f"splicecalc: {len(failing)} check(s) FAIL - the package is built but must not be relied on:",
           file=sys.stderr)
     for f in failing:
@@ -152,7 +153,10 @@ def add_parsers(sub: Any) -> None:
     p = sub.add_parser("build", help="execute a calc notebook (or a job file) and print its PDF package",
                        description="Execute headless and write PDF, executed notebook (for sign/verify) and "
                                    "the PDF's build record. A .toml job file is built with the "
-                                   f"{DEFAULT_TEMPLATE} template. An issued or signed PDF is never overwritten.")
+                                   f"{DEFAULT_TEMPLATE} template. An issued or signed PDF is never overwritten. "
+                                   "Exit codes as `splicecalc run`: 0 every check within capacity; 1 a check "
+                                   "exceeds it (listed); 2 bad input; 3 nothing exceeds capacity but some checks "
+                                   "are NOT CHECKED (listed). The package is written in cases 0, 1 and 3.")
     p.add_argument("source", metavar="NOTEBOOK_OR_JOB", help=".ipynb calc notebook or .toml job file")
     p.add_argument("-o", "--output", metavar="PDF", help="PDF to write (default: the source name with .pdf)")
     p.add_argument("--quiet", action="store_true", help="no progress bars or timings")
@@ -164,7 +168,8 @@ def add_parsers(sub: Any) -> None:
     p.set_defaults(func=cmd_build)
 
     p = sub.add_parser("demo", help="build the demo calc package (an invented job) end to end",
-                       description="Copy the demo job (examples/demo_*.toml) into DIR and build its package there.")
+                       description="Copy the demo job (examples/demo_*.toml) into DIR and build its package there. "
+                                   "Exit codes as `build` (the demo has NOT CHECKED items: 3).")
     p.add_argument("--out", default="out", metavar="DIR", help="output folder (default: out)")
     p.add_argument("--quiet", action="store_true", help="no progress bars or timings")
     p.add_argument("--fresh", action="store_true", help="execute every cell even if the last demo build is up to date")

@@ -40,7 +40,8 @@ def add_parser(subparsers: Any) -> argparse.ArgumentParser:
                     "(EN 1990 combinations, EN 1993-1-1 / 1-5), where it is cut, each splice and each end "
                     "connection (EN 1993-1-8) and the existing members. Exit 0: every check within "
                     "capacity; 1: a check exceeds it; 2: bad input; 3: nothing exceeds capacity but some "
-                    "checks are NOT CHECKED (listed: each needs information or a separate check).")
+                    "checks are NOT CHECKED (listed: each needs information or a separate check). `build` "
+                    "exits the same way.")
     p.add_argument("job", metavar="JOB.toml", help="job file")
     p.add_argument("--json", action="store_true", help="print the whole job and every check record as JSON")
     p.set_defaults(func=run_command)

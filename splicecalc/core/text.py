@@ -45,10 +45,12 @@ _UNICODE = {"≤": r"$\leq$", "≥": r"$\geq$", "×": r"$\times$", "·": r"$\cdo
             "γ": r"$\gamma$", "ε": r"$\varepsilon$", "ρ": r"$\rho$", "χ": r"$\chi$", "λ": r"$\lambda$"}
 #: a run of this many characters without a space gets break points
 LONG_RUN = 24
-#: ... one every this many characters
-BREAK_EVERY = 12
+#: ... between every character (a narrow column, 12 mm of a revision code, must wrap too)
+BREAK_EVERY = 1
 #: what is put between two characters of a long run: a line may break there, nothing is printed
 BREAK_POINT = r"\hspace{0pt}"
+#: ... and a new source line after this many break points
+LINE_CHUNKS = 80
 _RUN_RE = re.compile(r"\S{%d,}" % LONG_RUN)
 
 
@@ -82,19 +84,82 @@ def _escape_run(run: str) -> str:
     return _LIGATURE_RE.sub("{}", s)
 
 
-def escape_tex(text: Any, *, breaks: bool = True) -> str:
+#: longest text of any text field of a job file or of the notebook's title block (characters). Longer is
+#: refused when the job is read, in one line. Why 20 000: five times the longest remark seen in a checking
+#: conversation, and still a few sheets when printed in full; past that a text is a document of its own
+#: (attach it, refer to it). The limit keeps a build's TeX and PDF small and fast whatever a field holds.
+TEXT_HARD_MAX = 20_000
+#: a text longer than this may be shortened where room is short (title strip, table cells, headings,
+#: figure labels) and is then printed in full once, in the package's "Texts in full" list
+TEXT_SHORT = 200
+FULL_TEXT_TITLE = "Texts in full"
+
+
+#: the marker of a shortened text in a one-line place (the running strip): the text is on the cover or
+#: in "Texts in full"
+SHORT_MARK = " [...]"
+
+
+def shorten(text: Any, limit: int = TEXT_SHORT, *, mark: str | None = None) -> str:
+    """``text`` (cleaned) cut to ``limit`` characters with a marker saying so and where it is in full
+    (``mark``: a marker of one's own, such as :data:`SHORT_MARK`, the whole result then at most ``limit``).
+
+    Used where room is short; :func:`long_texts` lists what the package prints in full."""
+    s = _clean("" if text is None else str(text))
+    if len(s) <= limit:
+        return s
+    if mark is not None:
+        return s[:max(1, limit - len(mark))].rstrip() + mark
+    return f"{s[:limit].rstrip()} [... {len(s) - limit} more characters: in full under {FULL_TEXT_TITLE}]"
+
+
+def long_texts(tree: Any, prefix: str = "", limit: int = TEXT_SHORT) -> list[tuple[str, str]]:
+    """``(field, text)`` of every string longer than ``limit`` in a JSON-like tree (the job inputs, the
+    title block), fields named as in the job file (``load[2].name``)."""
+    out: list[tuple[str, str]] = []
+    if isinstance(tree, str):
+        if len(tree) > limit:
+            out.append((prefix or "text", tree))
+    elif isinstance(tree, dict):
+        for k, v in tree.items():
+            out += long_texts(v, f"{prefix}.{k}" if prefix else str(k), limit)
+    elif isinstance(tree, (list, tuple)):
+        for i, v in enumerate(tree):
+            out += long_texts(v, f"{prefix}[{i + 1}]", limit)
+    return out
+
+
+#: an unbroken run (no space) longer than this is a job text pasted into our own prose or a table (a load
+#: name in a combination's description ...): shortened there with the marker, printed in full once
+RUN_MAX = TEXT_SHORT
+_HUGE_RUN_RE = re.compile(r"\S{%d,}" % (RUN_MAX + 1))
+
+
+def escape_tex(text: Any, *, breaks: bool = True, limit: int | None = None, full: bool = False,
+               one_line: bool = False) -> str:
     """Any text -> LaTeX for text mode that prints exactly those characters.
 
-    ``breaks``: put invisible break points into runs of more than :data:`LONG_RUN`
-    characters without a space (off for PDF metadata strings such as the title).
+    ``breaks``: put invisible break points between the characters of runs of more than
+    :data:`LONG_RUN` characters without a space (off for PDF metadata strings such as the title).
+    ``limit``: where room is short, texts longer than this are cut with a marker (:func:`shorten`).
+    Unbroken runs longer than :data:`RUN_MAX` are cut the same way unless ``full`` (the package's
+    "Texts in full", where each such text is printed once as it is). ``one_line``: the short marker
+    :data:`SHORT_MARK` (the running strip).
     """
     s = _clean("" if text is None else str(text))
+    if limit is not None and len(s) > limit:
+        s = shorten(s, limit, mark=SHORT_MARK if one_line else None)
+    if not full and len(s) > RUN_MAX and _HUGE_RUN_RE.search(s):
+        s = _HUGE_RUN_RE.sub(lambda m: shorten(m.group(0), RUN_MAX), s)
     if breaks and _RUN_RE.search(s):
         parts = []
         for piece in re.split(r"(\s+)", s):
             if len(piece) >= LONG_RUN and not piece.isspace():
                 chunks = [piece[i:i + BREAK_EVERY] for i in range(0, len(piece), BREAK_EVERY)]
-                parts.append(BREAK_POINT.join(_escape_run(c) for c in chunks))
+                # a source line every LINE_CHUNKS break points ("%" ends it without a space): TeX reads a
+                # line of at most buf_size (200 000) characters, a 20 kB text escaped is more than that
+                parts.append("".join(BREAK_POINT + ("%\n" if i % LINE_CHUNKS == 0 else "") + _escape_run(c)
+                                     if i else _escape_run(c) for i, c in enumerate(chunks)))
             else:
                 parts.append(_escape_run(piece))
         s = "".join(parts)
@@ -225,10 +290,19 @@ def markdown_safe(text: Any) -> str:
     not become markup there. pandoc reads the entities back as the characters, so the PDF
     prints them as typed (and reads markdown outputs without raw HTML anyway)."""
     s = "" if text is None else str(text)
+    s = _LONG_WORD_RE.sub(lambda m: shorten(m.group(0), MARKDOWN_RUN), s)
     return s.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;")
 
 
+#: markdown outputs are typeset by pandoc, which puts no break points into words: an unbroken run longer
+#: than this is shortened there (with the marker; the text is in full in the package's "Texts in full")
+MARKDOWN_RUN = 60
+_LONG_WORD_RE = re.compile(r"[^\s]{%d,}" % (MARKDOWN_RUN + 1))
+
+
 F = TypeVar("F", bound=Callable[..., Any])
+#: longest text on a figure (a label, a title): longer is shortened with the marker
+FIGURE_TEXT = 80
 
 
 def plain_text_figures(func: F) -> F:
@@ -239,12 +313,18 @@ def plain_text_figures(func: F) -> F:
     @functools.wraps(func)
     def wrapper(*args: Any, **kwargs: Any) -> Any:
         import matplotlib
+        import matplotlib.text
 
         with matplotlib.rc_context({"text.parse_math": False, "text.usetex": False}):
-            return func(*args, **kwargs)
+            fig = func(*args, **kwargs)
+            # a label of thousands of characters would make the figure as wide: shortened, with the marker
+            for t in (fig.findobj(matplotlib.text.Text) if hasattr(fig, "findobj") else ()):
+                if len(t.get_text()) > FIGURE_TEXT:
+                    t.set_text(shorten(t.get_text(), FIGURE_TEXT))
+            return fig
 
     return wrapper  # type: ignore[return-value]
 
 
-__all__ = ["escape_tex", "markdown_safe", "safe_math", "text_with_math", "plain_text_figures",
+__all__ = ["escape_tex", "markdown_safe", "shorten", "long_texts", "TEXT_HARD_MAX", "TEXT_SHORT", "safe_math", "text_with_math", "plain_text_figures",
            "SAFE_MATH_WORDS", "LONG_RUN"]

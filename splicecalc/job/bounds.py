@@ -25,6 +25,7 @@ from dataclasses import dataclass
 from typing import Any, Iterator
 
 from ..core.errors import InputError
+from ..core.text import TEXT_HARD_MAX
 from ..core.units import convert, parse_quantity
 
 
@@ -150,13 +151,12 @@ BOUNDS: tuple[Bound, ...] = (
           "rolled I sections of buildings (0 for a built-up section)", "'10.2 mm'"),
 )
 
-#: longest text of a title-block field, a load name or group, a designation (characters); the title
-#: block, the running footer and the table rows have room for this much
-TEXT_MAX = {"project": 200, "load.name": 80, "load.group": 80, "designation": 80}
-#: title-block fields printed in the running strip and footer of every sheet: each has room for one
-#: line there (a longer title wrapped the strip onto the sheet's first heading); the rest, 200
-PROJECT_TEXT_MAX = {"number": 40, "revision": 20, "date": 30, "title": 100, "client": 80, "location": 80,
-                    "prepared_by": 80, "checked_by": 80, "approved_by": 80}
+#: longest text of any text field of a job file (characters): ``core.text.TEXT_HARD_MAX`` (20 000, the reason
+#: is there). Within it every text prints: where room is short (title strip, table cells, headings,
+#: figure labels) shortened with a marker, and in full once under "Texts in full" at the end of the package.
+TEXT_MAX = {"project": TEXT_HARD_MAX, "load.name": TEXT_HARD_MAX, "load.group": TEXT_HARD_MAX,
+            "designation": TEXT_HARD_MAX}
+PROJECT_TEXT_MAX: dict[str, int] = {}
 
 
 def _fmt(x: float) -> str:
@@ -223,8 +223,8 @@ def check_text_lengths(doc: dict) -> None:
     def one(field: str, v: Any, limit: int, where: str) -> None:
         if isinstance(v, str) and len(v) > limit:
             raise InputError(field, v[:40] + "...", f"at most {limit} characters ({len(v)} given): "
-                             f"{where} has room for that much", "Shorten it; put longer remarks in the drawings "
-                             "or the notebook's markdown")
+                             "a text of a job file, printed in full in the package", "Shorten it; attach a longer "
+                             "document to the package and refer to it")
     proj = doc.get("project")
     if isinstance(proj, dict):
         for k, v in proj.items():

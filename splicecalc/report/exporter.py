@@ -28,7 +28,8 @@ from .display import DISPLAY_PRIORITY
 from .errors import CalcBuildError
 from .figures import fill_figures
 from .latexfix import break_handcalcs
-from .latexout import check_latex, escape_tex, prose_symbols_tex, review_latex, table_latex, verbatim_text
+from .latexout import (check_latex, escape_tex, full_texts_latex, prose_symbols_tex, review_latex, table_latex,
+                       verbatim_text)
 from .liveonly import LiveOnlyOutputsPreprocessor, StaleInputsPreprocessor
 from .metadata import calc_metadata
 
@@ -168,6 +169,7 @@ class CalcPackageExporter(PDFExporter):
         yield ("calc_table_latex", table_latex)
         yield ("calc_review_latex", review_latex)
         yield ("calc_symbols", prose_symbols_tex)
+        yield ("calc_full_texts", full_texts_latex)
         # user text in the title block, cover and sign-off: the one escaping function (replaces
         # nbconvert's escape_latex, which leaves control characters and long runs as they are)
         yield ("escape_latex", escape_tex)

@@ -16,7 +16,8 @@ import re
 from typing import Any
 
 from ..review.markups import anchor_name
-from ..core.text import _INLINE_MATH_RE, _clean, escape_tex as _escape_tex, safe_math
+from ..core.text import (FULL_TEXT_TITLE, TEXT_SHORT, _INLINE_MATH_RE, _clean, escape_tex as _escape_tex, long_texts,
+                         safe_math, shorten)
 from .display import UNIT_TEX, fmt_number
 
 #: the one escaping function for user text (job files, metadata, form, command line)
@@ -111,7 +112,42 @@ def cell_tex(cell: str) -> str:
     c = _clean(str(cell)).strip()
     if len(c) >= 2 and c.startswith("$") and c.endswith("$") and safe_math(c[1:-1]):
         return c
-    return escape_tex(c)
+    # a row cannot break across sheets: a long text is shortened here and printed in full under "Texts in full"
+    return escape_tex(c, limit=TEXT_SHORT)
+
+
+def full_texts_latex(nb: Any) -> str:
+    """The package's "Texts in full": every job-file or title-block text longer than
+    :data:`core.text.TEXT_SHORT` (shortened with a marker where room is short), printed once in full
+    as paragraphs (they break across sheets), each under its field name. Empty when there is none."""
+    from ..signoff.digest import JOB_MIME
+
+    found: list[tuple[str, str]] = []
+    meta = nb.get("metadata", {}).get("splicecalc", {}) if hasattr(nb, "get") else {}
+    if isinstance(meta, dict):
+        found += long_texts({k: v for k, v in meta.items() if k not in ("sign_off", "signatures")},
+                            "title block")
+    for cell in nb.get("cells", []) if hasattr(nb, "get") else []:
+        for out in cell.get("outputs", []) or []:
+            data = out.get("data", {}) or {}
+            if JOB_MIME in data:
+                found += long_texts(data[JOB_MIME], "job")
+    fields: dict[str, list[str]] = {}          # each text once, under every field that holds it
+    for field, text in found:
+        fields.setdefault(text, []).append(field)
+    # a text held inside a longer one (the title block's project line joins the client and the location)
+    # is printed once, in the longer one
+    for text in sorted(fields, key=len):
+        home = next((t for t in fields if len(t) > len(text) and text in t), None)
+        if home is not None:
+            fields[home] += fields.pop(text)
+    rows = [f"\\calcfulltext{{{escape_tex('; '.join(names))}}}{{{escape_tex(text, full=True)}}}" for text, names in fields.items()]
+    if not rows:
+        return ""
+    return (f"\\section*{{{escape_tex(FULL_TEXT_TITLE)}}}\\addcontentsline{{toc}}{{section}}{{{escape_tex(FULL_TEXT_TITLE)}}}\n"
+            "{\\small Texts of the job file and the title block longer than "
+            f"{TEXT_SHORT} characters, shortened where room is short (marked there), are printed here in full.}}\n"
+            + "\n".join(rows) + "\n")
 
 
 #: control words never taken as rendered math, whoever wrote the step (files, shell, catcodes, definitions)
@@ -157,7 +193,8 @@ def check_latex(p: dict[str, Any]) -> str:
     """One check: heading with clause, steps, verdict line (a row of a rule table for ``layout`` "row")."""
     if p.get("layout") == "row" and p.get("status") != "not checked":
         return rule_row_latex(p)
-    out = [f"\\calccheck{{{title_tex(p.get('title', ''), heading=True)}}}{{{escape_tex(p.get('clause', ''))}}}"
+    out = [f"\\calccheck{{{title_tex(shorten(p.get('title', ''), TEXT_SHORT), heading=True)}}}"
+           f"{{{escape_tex(p.get('clause', ''), limit=TEXT_SHORT)}}}"
            f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}\\calcrevmark{{{anchor_name(str(p.get('id', '')))}}}"]
     if p.get("guidance"):
         out.append("\\calcsteptext{" + prose_tex("Method from: " + p["guidance"]) + "}")
@@ -290,7 +327,8 @@ def review_latex(p: dict[str, Any]) -> str:
     n = p.get("counts", {})
     out.append(f"\\calcsteptext{{Register {escape_tex(p.get('register', ''))}: {_count(n.get('open'))} open, "
                f"{_count(n.get('answered'))} answered, {_count(n.get('closed'))} closed. Digest "
-               f"\\texttt{{{escape_tex(str(p.get('digest', ''))[:16])}}}.}}")
+               f"\\texttt{{{escape_tex(str(p.get('digest', ''))[:16])}}}. Names are as typed with "
+               f"\\texttt{{--by}}: the register does not prove who wrote an entry.}}")
     for c in p.get("comments", []):
         flag = {"moved": " \\textcolor{failred}{(check changed since the comment)}",
                 "gone": " \\textcolor{failred}{(check no longer in the package)}"}.get(c.get("flag") or "", "")
@@ -298,6 +336,6 @@ def review_latex(p: dict[str, Any]) -> str:
                    f"{{{escape_tex(c.get('target_label', ''))}{flag}}}{{{escape_tex(c.get('revision', ''))}}}")
         for e in c.get("thread", []):
             lead = {"comment": "", "reply": "reply: ", "close": "closed: "}.get(e.get("kind"), "")
-            out.append(f"\\calcrevline{{{escape_tex(e.get('by', ''))}, {escape_tex(str(e.get('date', ''))[:10])}}}"
-                       f"{{{lead}{escape_tex(e.get('text', ''))}}}")
+            out.append(f"\\calcrevline{{{escape_tex(e.get('by', ''), limit=80)}, {escape_tex(str(e.get('date', ''))[:10])}}}"
+                       f"{{{lead}{escape_tex(e.get('text', ''), full=True)}}}")
     return "\n".join(out) + "\n"

@@ -32,12 +32,14 @@ import datetime as _dt
 from typing import Any
 
 from ..core.errors import InputError, require_choice
+from ..core.text import TEXT_HARD_MAX
 
 STATUSES = ("DRAFT", "PRELIMINARY", "FOR CHECK", "PREPARED", "CHECKED", "APPROVED", "ISSUED", "SUPERSEDED")
 ROLES = ("prepared", "checked", "approved")
-#: longest title-block text (same as a job file's [project] fields) and revision description
-TITLE_BLOCK_MAX = 200
-DESCRIPTION_MAX = 2000
+#: longest title-block text and revision description: the job file's limit (``core.text.TEXT_HARD_MAX``);
+#: the sheet shortens long ones where room is short and prints them in full under "Texts in full"
+TITLE_BLOCK_MAX = TEXT_HARD_MAX
+DESCRIPTION_MAX = TEXT_HARD_MAX
 _TEXT_KEYS = ("project", "job_number", "title", "revision", "status", "prepared_by", "checked_by",
               "approved_by", "date", "basis")
 
@@ -56,8 +58,7 @@ def calc_metadata(nb_metadata: dict[str, Any], default_title: str = "Calculation
             raise InputError(f"metadata.splicecalc.{key}", raw[key], "a text string")
         if key in raw and len(raw[key]) > TITLE_BLOCK_MAX:
             raise InputError(f"metadata.splicecalc.{key}", raw[key][:40] + "...",
-                             f"at most {TITLE_BLOCK_MAX} characters ({len(raw[key])} given): the title block and "
-                             "the running header have room for that much", "Shorten it")
+                             f"at most {TITLE_BLOCK_MAX} characters ({len(raw[key])} given)", "Shorten it")
     for i, r in enumerate(raw.get("revisions") or []):
         if isinstance(r, dict):
             for k, v in r.items():

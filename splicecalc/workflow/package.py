@@ -138,8 +138,8 @@ def new_package(template: str, folder: str | os.PathLike, *, project: str = "", 
         if not isinstance(v, str):
             raise InputError(field, v, "a text")
         if len(v) > TITLE_BLOCK_MAX:
-            raise InputError(field, v[:40] + "...", f"at most {TITLE_BLOCK_MAX} characters ({len(v)} given): the "
-                             "title block has room for that much", "Shorten it")
+            raise InputError(field, v[:40] + "...", f"at most {TITLE_BLOCK_MAX} characters ({len(v)} given)",
+                             "Shorten it; attach a longer document to the package and refer to it")
     dest = Path(folder)
     nb_path = dest / f"{name}.ipynb"
     if nb_path.exists():
