@@ -421,3 +421,32 @@ def test_sheet_beyond_the_package_and_a_mark_up_of_another_job_are_refused(built
     notpdf.write_text("root:x:0:0:root:/root:/bin/bash\n", encoding="utf-8")
     r = cli("review", "import", str(built.pdf), str(notpdf), "--by", "B. Checker")
     assert r.returncode == 2 and r.stderr.count("\n") == 1 and "Traceback" not in r.stderr, r.stderr
+
+
+def test_signed_closure_is_verified_and_an_edited_one_is_not(tmp_path, signers):
+    """Audit: `review --by` names are self-asserted. A closure signed with the closer's key (cryptography,
+    the key of `splicecalc keys`) is shown as signed, trusted or not; an edit of it shows as INVALID."""
+    from splicecalc.report.latexout import review_latex
+    from splicecalc.review.register import Register
+    from splicecalc.signoff import keys
+
+    reg = Register(tmp_path / "job.review.jsonl")
+    c = reg.add(by="B. Checker", text="Check the cover plate bolts.", target={"kind": "package"})
+    d = reg.add(by="B. Checker", text="Second query.", target={"kind": "package"})
+    with pytest.raises(InputError, match="signing key"):
+        reg.close(c.id, by="A. Preparer", key=signers["b"])          # a name other than the key's
+    reg.close(d.id, by="B. Checker", note="closed by name only")
+    reg.close(c.id, key=signers["b"], note="answered in rev. P1")
+    e = reg.comment(c.id).thread[-1]
+    assert (e.by, e.signed) == ("B. Checker", "untrusted")
+    assert reg.comment(d.id).thread[-1].signed == ""
+    keys.export_cert(signers["b"], tmp_path / "b.pem")
+    keys.trust_cert(tmp_path / "b.pem")
+    assert reg.comment(c.id).thread[-1].signed == "trusted"
+    tex = review_latex({"register": reg.path.name, "counts": reg.counts(), "digest": reg.digest(),
+                        "comments": [x.to_dict() for x in reg.comments()]})
+    assert "signed (trusted)" in tex and "does not prove who wrote" in tex
+    # the last line edited (the hash chain cannot see an edit of the last event; its signature does)
+    raw = reg.path.read_bytes()
+    reg.path.write_bytes(raw.replace(b"answered in rev. P1", b"answered in rev. P9"))
+    assert reg.comment(c.id).thread[-1].signed == "invalid"

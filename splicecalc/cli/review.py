@@ -25,7 +25,9 @@ def _fmt(c, flag: str = "") -> str:
     for e in c.thread:
         lead = {"comment": "", "reply": "reply ", "close": "closed "}[e.kind]
         body = textwrap.fill(e.text or "(no note)", width=88, initial_indent="        ", subsequent_indent="        ")
-        lines.append(f"      {lead}{e.by}, {e.date[:10]}:")
+        signed = {"trusted": " (signed, trusted)", "untrusted": " (signed, signer not in the trust list)",
+                  "invalid": " (signature INVALID)"}.get(getattr(e, "signed", ""), "")
+        lines.append(f"      {lead}{e.by}, {e.date[:10]}{signed}:")
         lines.append(body)
     return "\n".join(lines)
 
@@ -49,8 +51,18 @@ def _cmd_reply(args: argparse.Namespace) -> int:
 def _cmd_close(args: argparse.Namespace) -> int:
     from ..review import locate
 
-    c = locate(args.package).register.close(args.id, by=args.by, note=args.note or "")
-    print(f"{c.id} closed by {args.by}")
+    from ..core.errors import InputError
+
+    key = None
+    if args.key:
+        from ..signoff.keys import load_key, passphrase
+
+        key = load_key(args.key, passphrase())
+    elif not args.by:
+        raise InputError("--by", "", "your name (or --key YOUR.p12 to sign the closure)")
+    c = locate(args.package).register.close(args.id, by=args.by or "", note=args.note or "", key=key)
+    last = c.thread[-1]
+    print(f"{c.id} closed by {last.by}" + (f" (signed, {last.signed})" if last.signed else " (name as typed)"))
     return 0
 
 
@@ -102,10 +114,15 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     s.add_argument("text")
     s.set_defaults(func=_cmd_reply)
 
-    s = rs.add_parser("close", help="close a comment (its author or the approver)")
+    s = rs.add_parser("close", help="close a comment (its author or the approver)",
+                      description="Close a comment. With --key the closure is signed with your key (the thread then "
+                                  "shows it as signed: trusted or not, as for package signatures); with --by only, "
+                                  "the name is as typed and proves nothing.")
     s.add_argument("package")
     s.add_argument("id")
-    s.add_argument("--by", required=True)
+    s.add_argument("--by", help="your name (needed without --key; with --key, the key's name)")
+    s.add_argument("--key", metavar="FILE.p12", help="sign the closure with your key (passphrase: "
+                   "$SPLICECALC_PASSPHRASE or a prompt)")
     s.add_argument("--note", help="closing note")
     s.set_defaults(func=_cmd_close)
 

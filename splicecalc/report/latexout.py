@@ -328,7 +328,8 @@ def review_latex(p: dict[str, Any]) -> str:
     out.append(f"\\calcsteptext{{Register {escape_tex(p.get('register', ''))}: {_count(n.get('open'))} open, "
                f"{_count(n.get('answered'))} answered, {_count(n.get('closed'))} closed. Digest "
                f"\\texttt{{{escape_tex(str(p.get('digest', ''))[:16])}}}. Names are as typed with "
-               f"\\texttt{{--by}}: the register does not prove who wrote an entry.}}")
+               f"\\texttt{{--by}}: the register does not prove who wrote an entry, except a closure marked "
+               f"signed (\\texttt{{review close --key}}).}}")
     for c in p.get("comments", []):
         flag = {"moved": " \\textcolor{failred}{(check changed since the comment)}",
                 "gone": " \\textcolor{failred}{(check no longer in the package)}"}.get(c.get("flag") or "", "")
@@ -336,6 +337,8 @@ def review_latex(p: dict[str, Any]) -> str:
                    f"{{{escape_tex(c.get('target_label', ''))}{flag}}}{{{escape_tex(c.get('revision', ''))}}}")
         for e in c.get("thread", []):
             lead = {"comment": "", "reply": "reply: ", "close": "closed: "}.get(e.get("kind"), "")
-            out.append(f"\\calcrevline{{{escape_tex(e.get('by', ''), limit=80)}, {escape_tex(str(e.get('date', ''))[:10])}}}"
+            mark = {"trusted": ", signed (trusted)", "untrusted": ", signed (signer not in the trust list)",
+                    "invalid": ", \\textcolor{failred}{signature INVALID}"}.get(str(e.get("signed") or ""), "")
+            out.append(f"\\calcrevline{{{escape_tex(e.get('by', ''), limit=80)}, {escape_tex(str(e.get('date', ''))[:10])}{mark}}}"
                        f"{{{lead}{escape_tex(e.get('text', ''), full=True)}}}")
     return "\n".join(out) + "\n"

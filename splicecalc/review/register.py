@@ -61,6 +61,9 @@ class Entry:
     by: str
     date: str
     text: str
+    #: a closure signed with the closer's key (``review close --key``): "trusted", "untrusted" (valid, signer
+    #: not in the trust list) or "invalid"; "" for an entry whose name is only as typed (``--by``)
+    signed: str = ""
 
 
 @dataclass
@@ -214,7 +217,8 @@ class Register:
                 c.thread.append(Entry("reply", ev["by"], ev["date"], ev["text"]))
                 c.state = "open" if ev["by"] == c.by else "answered"
             else:
-                c.thread.append(Entry("close", ev["by"], ev["date"], ev.get("note", "")))
+                c.thread.append(Entry("close", ev["by"], ev["date"], ev.get("note", ""),
+                                      close_signature_state(ev) if "sig" in ev else ""))
                 c.state = "closed"
         return list(by_id.values())
 
@@ -320,7 +324,14 @@ class Register:
             self._append({"event": "reply", "id": cid, "by": by, "date": _now(), "text": text})
         return self.comment(cid)
 
-    def close(self, cid: str, *, by: str, note: str = "") -> Comment:
+    def close(self, cid: str, *, by: str = "", note: str = "", key: Any = None) -> Comment:
+        """Close a comment. With ``key`` (a ``signoff.keys.KeyPair``) the closure is signed by the closer:
+        the signature covers the event and the digest of the register before it, and the thread shows
+        it as verified; without, the name is as typed."""
+        if key is not None:
+            by = by or key.name
+            if _name(by).casefold() != key.name.strip().casefold():
+                raise InputError("--by", by, f"the name of the signing key ({key.name}) or no --by")
         by = _name(by)
         note = _clean_text("--note", note, required=False)
         with self._locked():
@@ -333,8 +344,49 @@ class Register:
                 who = c.by + (f" or the approver ({self.approver})" if self.approver else "")
                 raise InputError("--by", by, f"the comment's author ({who})",
                                  "Only the author of a comment, or the package's approver, closes it")
-            self._append({"event": "close", "id": cid, "by": by, "date": _now(), "note": note})
+            ev = {"event": "close", "id": cid, "by": by, "date": _now(), "note": note}
+            if key is not None:
+                ev["sig"] = _sign_close(ev, hashlib.sha256(self._raw()).hexdigest(), key)
+            self._append(ev)
         return self.comment(cid)
+
+
+# ---------------------------------------------------------------------------- signed closures
+def _close_message(ev: dict[str, Any], prev: str) -> bytes:
+    """What a closure's signature covers: the event's words and the digest of the register before it."""
+    msg = {"kind": "splicecalc review close", "id": ev.get("id"), "by": ev.get("by"), "date": ev.get("date"),
+           "note": ev.get("note", ""), "prev": prev}
+    return json.dumps(msg, sort_keys=True, separators=(",", ":"), ensure_ascii=False).encode("utf-8")
+
+
+def _sign_close(ev: dict[str, Any], prev: str, key: Any) -> dict[str, str]:
+    import base64
+
+    from ..signoff.keys import cert_pem
+    from ..signoff.notebook import _sign_bytes
+
+    value, alg = _sign_bytes(key.key, _close_message(ev, prev))
+    return {"alg": alg, "cert": cert_pem(key.cert), "value": base64.b64encode(value).decode("ascii")}
+
+
+def close_signature_state(ev: dict[str, Any]) -> str:
+    """"trusted", "untrusted" or "invalid" for a signed closure event (``cryptography`` verifies it; the
+    certificate must carry the closer's name; trust as for package signatures, ``signoff.keys``)."""
+    import base64
+
+    from ..signoff import keys
+    from ..signoff.notebook import _verify_bytes
+
+    sig = ev.get("sig")
+    try:
+        cert = keys.load_cert(sig["cert"])
+        ok = _verify_bytes(cert, base64.b64decode(sig["value"], validate=True), _close_message(ev, ev.get("prev", "")),
+                           str(sig["alg"]))
+    except (InputError, KeyError, TypeError, ValueError):
+        return "invalid"
+    if not ok or keys.cert_name(cert).strip().casefold() != str(ev.get("by", "")).strip().casefold():
+        return "invalid"
+    return "trusted" if keys.is_trusted(cert, keys.trusted_certs()) else "untrusted"
 
 
 # ---------------------------------------------------------------------------- checks moved
