@@ -7,13 +7,14 @@ documented in texmf.cnf; poppler's pdftotext as the outside judge of what a PDF 
 
 from __future__ import annotations
 
+import re
 import shutil
 import subprocess
 from pathlib import Path
 
 import pytest
 
-from splicecalc.report.compile import run_xelatex, save_seed
+from splicecalc.report.compile import predicted_toc, run_xelatex, save_seed
 from splicecalc.report.errors import CalcBuildError
 
 pytestmark = [pytest.mark.pdf,
@@ -38,11 +39,11 @@ def _sections(n: int, paragraphs: int = 6) -> str:
                      for i in range(1, n + 1))
 
 
-def _build(folder: Path, tex: str, seed: Path | None = None):
+def _build(folder: Path, tex: str, seed: Path | None = None, predict_toc: bool = True):
     folder.mkdir(parents=True, exist_ok=True)
     path = folder / "calc.tex"
     path.write_text(tex, encoding="utf-8")
-    run = run_xelatex(path, progress=False, seed_dir=seed)
+    run = run_xelatex(path, progress=False, seed_dir=seed, predict_toc=predict_toc)
     if seed is not None:
         save_seed(seed, path, run.pages)
     text = subprocess.run(["pdftotext", "-layout", str(run.pdf_path), "-"], capture_output=True, text=True,
@@ -51,20 +52,53 @@ def _build(folder: Path, tex: str, seed: Path | None = None):
 
 
 def test_a_fresh_build_runs_until_the_aux_files_settle(tmp_path):
-    run, text = _build(tmp_path / "a", DOC % _sections(12))
+    run, text = _build(tmp_path / "a", DOC % _sections(12), predict_toc=False)
     assert run.passes == 3 and not run.seeded            # aux, then contents shift the pages, then settled
+    assert not run.toc_predicted
     assert f"Sheet 1 of {run.pages}" in text and run.pages > 3
     assert "Check 12" in text and "??" not in text        # every reference resolved
+
+
+def test_the_predicted_contents_list_is_the_one_xelatex_writes(tmp_path):
+    # the outside reference: the .toc XeLaTeX itself wrote, its page numbers set to 0
+    tex = DOC % ("\\section*{Foreword}\\addcontentsline{toc}{section}{Foreword}\n"
+                 "\\section[Short]{A long title}\\subsection{Sub one}\\subsection*{Not listed}\n"
+                 "% \\section{commented out}\n\\subsubsection{Deep}\n" + _sections(3))
+    run, _ = _build(tmp_path / "a", tex, predict_toc=False)
+    written = run.pdf_path.with_suffix(".toc").read_text(encoding="utf-8")
+    expected = [re.sub(r"\}\{\d+\}\{([a-z*]*\.[\d.]+)?\}%$", "}{0}{}%", line) for line in written.splitlines()]
+    got = [re.sub(r"\}\{0\}\{([a-z*]*\.[\d.]+)?\}%$", "}{0}{}%", line) for line in predicted_toc(tex).splitlines()]
+    assert got == expected and len(got) == 7
+    assert "\\numberline {1.1}Sub one" in predicted_toc(tex) and "Not listed" not in predicted_toc(tex)
+
+
+def test_a_fresh_build_with_the_predicted_contents_takes_two_passes_and_shows_the_same(tmp_path):
+    tex = DOC % _sections(12)
+    run, text = _build(tmp_path / "a", tex)
+    plain, plain_text = _build(tmp_path / "b", tex, predict_toc=False)
+    assert run.toc_predicted and run.passes == 2 and plain.passes == 3
+    assert text == plain_text and "??" not in text
+
+
+def test_a_wrong_prediction_costs_a_pass_never_a_wrong_page(tmp_path):
+    # sections the prediction cannot see (made by a macro of the preamble): the contents list
+    # grows on the second pass, the pages move, the passes go on until nothing changes
+    tex = DOC.replace("\\begin{document}", "\\newcommand\\hiddensec[1]{\\section{#1}}\n\\begin{document}") % (
+        "\n".join(f"\\hiddensec{{Hidden {i}}}" for i in range(60)) + "\n" + _sections(12))
+    run, text = _build(tmp_path / "a", tex)
+    plain, plain_text = _build(tmp_path / "b", tex, predict_toc=False)
+    assert run.toc_predicted and run.passes >= 3
+    assert text == plain_text and "??" not in text and "Hidden 59" in text
 
 
 def test_a_seeded_rebuild_needs_one_pass_and_shows_the_same_text(tmp_path):
     seed = tmp_path / "seed"
     tex = DOC % _sections(12)
     fresh, fresh_text = _build(tmp_path / "one", tex, seed)
-    assert fresh.passes == 3 and not fresh.seeded
+    assert fresh.passes == 2 and not fresh.seeded
     again, again_text = _build(tmp_path / "two", tex, seed)
     assert again.seeded and again.passes == 1
-    plain, plain_text = _build(tmp_path / "three", tex)        # three passes from nothing, no seed
+    plain, plain_text = _build(tmp_path / "three", tex, predict_toc=False)   # three from nothing, no seed
     assert plain.passes == 3
     assert again_text == plain_text == fresh_text
 
@@ -86,6 +120,7 @@ def test_a_seed_with_another_page_count_falls_back_to_full_passes(tmp_path):
     longer, text = _build(tmp_path / "two", longer_tex, seed)
     assert longer.pages > short.pages
     assert not longer.seeded and longer.seed_dropped and longer.passes >= 3   # the seeded pass, then 2-3 fresh
+    assert longer.toc_predicted
     _, plain_text = _build(tmp_path / "three", longer_tex)
     assert text == plain_text and f"Sheet 1 of {longer.pages}" in text
 

@@ -1,10 +1,14 @@
-"""Run XeLaTeX as many passes as a calc package needs, and no more, with TeX locked down.
+r"""Run XeLaTeX as many passes as a calc package needs, and no more, with TeX locked down.
 
 Passes: XeLaTeX is run again only while the files it writes for the next pass (the
 ``.aux`` with the labels and "Sheet N of M", the ``.toc``, hyperref's ``.out``) change,
 as latexmk decides: their SHA-256 before and after a pass are compared, and a pass
 that reads exactly what it writes is the last one.
-A fresh build takes two or three passes. A rebuild is *seeded* with the previous
+A fresh build takes two passes: before the first, the contents list is predicted from the
+source (:func:`predicted_toc`, page numbers 0) so that it already has its final length, and
+titled tables take their final column widths on the first pass (``\calctitlespan`` in the
+template), so the second pass reads what it writes; a third pass follows whenever it does not.
+A rebuild is *seeded* with the previous
 build's files (kept in ``seed_dir``, one folder per output name): when the page
 structure is unchanged (a rebuild after signing or revising) the first pass reads
 what it writes and is the only one. When the page count differs from the seed's,
@@ -85,6 +89,8 @@ class LatexRun:
     seeded: bool = False
     #: a seed was offered but dropped (page count changed, or the seeded pass failed)
     seed_dropped: bool = False
+    #: the first pass read a contents list predicted from the source (:func:`predicted_toc`)
+    toc_predicted: bool = False
 
 
 def _hashes(tex_path: Path) -> dict[str, str]:
@@ -106,6 +112,125 @@ def _pages(log_text: str) -> int:
 def _clear(tex_path: Path) -> None:
     for sfx in AUX_SUFFIXES:
         tex_path.with_suffix(sfx).unlink(missing_ok=True)
+
+
+#: commands that put a line in the contents list: (level, index of the title argument) for
+#: this template's own macros (``\calccheck{title}{clause}`` and ``\calcrulehead{title}{note}`` are
+#: subsections); LaTeX's own sectioning commands are read below
+_TOC_MACROS = {"calccheck": ("subsection", 0, 2), "calcrulehead": ("subsection", 0, 2)}
+_LEVELS = ("section", "subsection", "subsubsection")
+_TOC_COMMAND = None
+
+
+def _group(text: str, i: int, open_: str, close: str) -> tuple[str, int] | None:
+    """The balanced ``open_ ... close`` group starting at ``text[i]`` (spaces skipped): (inside, index after)."""
+    while i < len(text) and text[i] in " \t\n":
+        i += 1
+    if i >= len(text) or text[i] != open_:
+        return None
+    depth, j = 0, i
+    while j < len(text):
+        c = text[j]
+        if c == "\\":
+            j += 2
+            continue
+        if c == open_:
+            depth += 1
+        elif c == close:
+            depth -= 1
+            if depth == 0:
+                return text[i + 1:j], j + 1
+        j += 1
+    return None
+
+
+def predicted_toc(tex: str) -> str:
+    r"""The contents file (``.toc``) a document will write, with every page number 0, read from its source.
+
+    Written before a fresh build's first pass, so that the contents list already has its final
+    number of lines on that pass: the sheets after it do not move on the second pass, and the second
+    pass reads what it writes (two passes instead of three). Only the length of the list matters;
+    a wrong prediction costs a pass, never a wrong page number (the passes go on until nothing changes).
+    Read: ``\section``, ``\subsection``, ``\subsubsection`` (starred ones are not listed; the optional
+    short title is), this template's ``\calccheck`` and ``\calcrulehead``, ``\addcontentsline{toc}``
+    and ``\addtocontents{toc}``, after ``\begin{document}``, comments skipped.
+    """
+    import re
+
+    global _TOC_COMMAND
+    if _TOC_COMMAND is None:
+        names = "|".join((*_LEVELS, *_TOC_MACROS, "addcontentsline", "addtocontents"))
+        _TOC_COMMAND = re.compile(r"\\(" + names + r")(?![A-Za-z@])(\*?)")
+    start = tex.find("\\begin{document}")
+    body = tex[start:] if start >= 0 else tex
+    body = re.sub(r"(?<!\\)%[^\n]*", "", body)          # comments (an escaped \% stays)
+    numbers = [0, 0, 0]
+    lines = []
+    for m in _TOC_COMMAND.finditer(body):
+        name, star, pos = m.group(1), m.group(2), m.end()
+        if name in ("addcontentsline", "addtocontents"):
+            args = []
+            for _ in range(3 if name == "addcontentsline" else 2):
+                g = _group(body, pos, "{", "}")
+                if g is None:
+                    break
+                args.append(g[0])
+                pos = g[1]
+            if len(args) < 2 or args[0].strip() != "toc":
+                continue
+            if name == "addtocontents":
+                lines.append(args[1].replace("\\protect", "").strip())
+            elif len(args) == 3:
+                lines.append(f"\\contentsline {{{args[1].strip()}}}{{{args[2]}}}{{0}}{{}}%")
+            continue
+        if name in _TOC_MACROS:
+            level, idx, nargs = _TOC_MACROS[name]
+            args = []
+            for _ in range(nargs):
+                g = _group(body, pos, "{", "}")
+                if g is None:
+                    break
+                args.append(g[0])
+                pos = g[1]
+            if len(args) <= idx:
+                continue
+            title = args[idx]
+        else:
+            if star:
+                continue
+            level = name
+            short = _group(body, pos, "[", "]")
+            if short is not None:
+                title, pos = short
+                if _group(body, pos, "{", "}") is None:
+                    continue
+            else:
+                g = _group(body, pos, "{", "}")
+                if g is None:
+                    continue
+                title = g[0]
+        title = " ".join(title.split())         # one line each, as TeX writes them
+        k = _LEVELS.index(level)
+        numbers[k] += 1
+        numbers[k + 1:] = [0] * (len(numbers) - k - 1)
+        num = ".".join(str(n) for n in numbers[:k + 1])
+        lines.append(f"\\contentsline {{{level}}}{{\\numberline {{{num}}}{title}}}{{0}}{{{level}.{num}}}%")
+    return "".join(line + "\n" for line in lines)
+
+
+def _predict_toc(tex_path: Path) -> bool:
+    """Write :func:`predicted_toc` beside ``tex_path`` when it starts from nothing (no .aux, no .toc)."""
+    toc = tex_path.with_suffix(".toc")
+    if toc.exists() or tex_path.with_suffix(".aux").exists():
+        return False
+    try:
+        text = predicted_toc(tex_path.read_text(encoding="utf-8", errors="replace"))
+        if text:
+            toc.write_text(text, encoding="utf-8")
+    except OSError:
+        toc.unlink(missing_ok=True)
+        return False
+    return bool(text)
 
 
 def _read_seed(seed_dir: Path | None, tex_path: Path) -> int | None:
@@ -152,11 +277,13 @@ def save_seed(seed_dir: Path, tex_path: Path, pages: int) -> None:
 
 
 def run_xelatex(tex_path: Path, progress: bool = True, timeout_s: float = 300.0,
-                seed_dir: Path | None = None) -> LatexRun:
+                seed_dir: Path | None = None, predict_toc: bool = True) -> LatexRun:
     """Compile ``tex_path`` with xelatex in its own folder; raise :class:`CalcBuildError` on error.
 
     ``seed_dir``: a folder kept from the previous build of the same output (read if it holds
     a seed, see the module docstring); this function does not write it (:func:`save_seed`).
+    ``predict_toc=False``: no predicted contents list before a first pass from nothing (the plain
+    passes, for comparison).
     """
     exe = require_tool("xelatex")
     driver = require_tool(XDV_DRIVER[0])
@@ -172,11 +299,12 @@ def run_xelatex(tex_path: Path, progress: bool = True, timeout_s: float = 300.0,
         stale.unlink(missing_ok=True)
     seed_pages = _read_seed(seed_dir, tex_path)
     seeded, dropped = seed_pages is not None, False
+    predicted = False if seeded or not predict_toc else _predict_toc(tex_path)
     bar = None
     if progress:
         from tqdm import tqdm
 
-        bar = tqdm(total=1 if seeded else 3, desc="LaTeX passes", unit="pass", file=sys.stderr, leave=False)
+        bar = tqdm(total=1 if seeded else 2, desc="LaTeX passes", unit="pass", file=sys.stderr, leave=False)
     t0 = time.perf_counter()
     times: list[float] = []
     log_text = ""
@@ -204,6 +332,7 @@ def run_xelatex(tex_path: Path, progress: bool = True, timeout_s: float = 300.0,
                 # the seed does not fit this document: start from nothing
                 seeded, dropped, n = False, True, 0
                 _clear(tex_path)
+                predicted = predict_toc and _predict_toc(tex_path)
                 continue
             if failed:
                 err = first_error(log_text) or proc.stdout.decode(errors="replace")[-400:].strip()
@@ -213,7 +342,8 @@ def run_xelatex(tex_path: Path, progress: bool = True, timeout_s: float = 300.0,
                     err += (f"; XeLaTeX could not write in {workdir}: the disk may be full or the folder not "
                             "writable (free some space, or build to another folder with -o)")
                 raise CalcBuildError(f"xelatex failed on pass {len(times)}: {err} (log: {log_path})")
-            if (before and _hashes(tex_path) == before) or n >= MAX_PASSES:
+            # a pass that read only a predicted contents list (no .aux) is never the last one
+            if (before and _hashes(tex_path) == before and (seeded or n > 1)) or n >= MAX_PASSES:
                 break
         t = time.perf_counter()
         proc = subprocess.run([driver, *XDV_DRIVER[1:], "-o", pdf_path.name, xdv_path.name], cwd=workdir, env=env,
@@ -230,4 +360,5 @@ def run_xelatex(tex_path: Path, progress: bool = True, timeout_s: float = 300.0,
     return LatexRun(pdf_path=pdf_path, log_path=log_path, passes=len(times),
                     seconds=time.perf_counter() - t0, pass_seconds=times,
                     overfull=overfull_boxes(log_text),
-                    missing_chars=missing_characters(log_text), pages=_pages(log_text), seeded=seeded, seed_dropped=dropped)
+                    missing_chars=missing_characters(log_text), pages=_pages(log_text), seeded=seeded, seed_dropped=dropped,
+                    toc_predicted=predicted)

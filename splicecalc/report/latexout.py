@@ -284,6 +284,8 @@ def table_latex(p: dict[str, Any]) -> str:
         if kind in ("summary", "parts") and row and row[-1].strip().upper() != "OK":
             cells[-1] = f"\\textbf{{{cells[-1]}}}"
         lines.append(" & ".join(cells) + " \\\\")
+    if p.get("title"):
+        lines.append(f"\\calctitlespan{{{len(cols)}}}")   # the title's width, once the columns are known
     lines.append("\\end{calctable}")
     if p.get("notes"):
         lines.append(f"\\calctablenote{{{title_tex(p['notes'])}}}")   # symbols as subscripts
