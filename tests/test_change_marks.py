@@ -199,9 +199,15 @@ def test_exactly_the_sheets_that_print_something_new_carry_the_bar(cycle):
     labelled = {i for i, page in enumerate(new, 1) if "changed since P1" in page}       # the bar's label
     assert labelled == set(p2.changed_sheets) and labelled
     appendix = _appendix(new)
+    # the body starts with its first section's heading on the contents' last sheet (the contents' line for
+    # it ends in a sheet number); up to that sheet: cover and contents (new page numbers), not compared
+    # here (that sheet also prints the job inputs' first table, whose output carries the whole job)
+    start = next(i for i, page in enumerate(new, 1) if "1 Scope of this calculation" in page)
     for i, page in enumerate(new, 1):
-        if i <= 3 or i >= appendix:      # cover, contents (new page numbers) and the comparison itself
+        if i < start or i >= appendix:   # cover, contents and the comparison itself
             assert i not in labelled
+            continue
+        if i == start:
             continue
         novel = [ln for ln in page if ln not in seen and ln != "changed since P1"]
         assert (i in labelled) == bool(novel), (i, novel[:3])

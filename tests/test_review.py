@@ -225,11 +225,13 @@ def _first_section_sheet(pdf: Path) -> int:
 
 
 def _find(pdf: Path, npages: int, phrase: list[str]) -> tuple[int, tuple[float, float, float, float]]:
-    """First sheet of the body and box where the words of ``phrase`` follow one another."""
+    """First sheet of the body and box where the words of ``phrase`` follow one another as a check's
+    heading (after its number, "5.4"): a title is also printed in tables (the section search names the
+    governing check of each section tried)."""
     for p in range(_first_section_sheet(pdf), npages + 1):
         ws = _words(pdf, p)
-        for i in range(len(ws) - len(phrase) + 1):
-            if [w[0] for w in ws[i:i + len(phrase)]] == phrase:
+        for i in range(1, len(ws) - len(phrase) + 1):
+            if [w[0] for w in ws[i:i + len(phrase)]] == phrase and re.fullmatch(r"\d+(\.\d+)+", ws[i - 1][0]):
                 box = ws[i:i + len(phrase)]
                 return p, (min(b[1] for b in box), min(b[2] for b in box), max(b[3] for b in box), max(b[4] for b in box))
     raise AssertionError(f"{phrase} not printed")
