@@ -85,3 +85,13 @@ def test_line_load_level_bad_value_is_one_line_naming_the_field():
         loads_job(_udl_job("web"))
     msg = str(err.value)
     assert "load[4].applied_to" in msg and "'web'" in msg and "'bottom flange'" in msg and "\n" not in msg
+
+
+def test_loading_diagram_says_where_a_line_load_acts():
+    from splicecalc.analysis import SimpleBeam, beam_diagram_data, draw_beam_diagrams
+
+    job = loads_job(_udl_job("bottom flange"))
+    data = beam_diagram_data(SimpleBeam(job.beam.span, list(job.loads)))
+    assert [ld["level"] for ld in data["loads"] if ld["name"] == "storage strip"] == ["bottom flange"]
+    texts = [t.get_text() for ax in draw_beam_diagrams(data).axes for t in ax.texts]
+    assert any(t.startswith("storage strip:") and t.endswith("at the bottom flange") for t in texts)

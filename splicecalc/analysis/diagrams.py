@@ -106,9 +106,10 @@ def beam_diagram_data(beam: SimpleBeam, *, splices_mm: Sequence[float] | None = 
             if isinstance(ld, UDL):
                 a, b = ld.extent(L)
                 loads.append({"type": "udl", "name": ld.name, "w_kN_per_m": float(ld.w), "from_m": a / 1e3,
-                              "to_m": b / 1e3})
+                              "to_m": b / 1e3, "level": getattr(ld, "applied_to", "flange")})
             elif isinstance(ld, PointLoad):
-                loads.append({"type": "point", "name": ld.name, "P_kN": ld.P / 1e3, "at_m": ld.x / 1e3})
+                loads.append({"type": "point", "name": ld.name, "P_kN": ld.P / 1e3, "at_m": ld.x / 1e3,
+                              "level": getattr(ld, "applied_to", "flange")})
     xv, v = _sample(beam, n)
     vmx = beam.V_max()
     xm = sorted_unique(np.concatenate((np.linspace(0.0, L, n), beam.breakpoints())))
@@ -179,6 +180,8 @@ def _load_panel(ax: Any, loads: list[dict], L_m: float) -> None:
             a, b = ld["from_m"], ld["to_m"]
             ax.add_patch(Rectangle((a, level), b - a, 0.22, fc="tab:orange", alpha=0.25, ec="tab:orange", lw=0.8))
             where = "" if a <= 1e-9 and b >= L_m - 1e-9 else f", x = {a:.3g} to {b:.3g} m"
+            if ld.get("level", "flange") != "flange":      # a line load at a level of its own
+                where += f", at the {ld['level']}"
             ax.annotate(f"{ld['name']}: {ld['w_kN_per_m']:.3g} kN/m{where}", ((a + b) / 2, level + 0.11), ha="center",
                         va="center", fontsize=6.5)
             level += 0.3
@@ -187,7 +190,9 @@ def _load_panel(ax: Any, loads: list[dict], L_m: float) -> None:
         if ld["type"] == "point":
             ax.annotate("", (ld["at_m"], 0.02), xytext=(ld["at_m"], top + 0.35),
                         arrowprops=dict(arrowstyle="-|>", color="tab:brown", lw=1.2))
-            ax.annotate(f"{ld['name']}: {ld['P_kN']:.3g} kN at x = {ld['at_m']:.3g} m", (ld["at_m"], top + 0.37),
+            lvl = ld.get("level", "flange")
+            on = "" if lvl == "flange" else f", {'through the web' if lvl == 'web' else 'at the ' + lvl}"
+            ax.annotate(f"{ld['name']}: {ld['P_kN']:.3g} kN at x = {ld['at_m']:.3g} m{on}", (ld["at_m"], top + 0.37),
                         ha="center",
                         va="bottom", fontsize=6.5, color="tab:brown")
     ax.set_ylim(-0.3, top + 0.75)
