@@ -40,6 +40,7 @@ ACCEPT_PREFIX = "splicecalc.accept."
 ACCEPT_W, ACCEPT_H = 480.0, 60.0
 #: the acceptance text's font size and leading (pt) in the field's appearance (Courier: 0.6 em a character)
 ACCEPT_FONT, ACCEPT_LEADING = 6.5, 7.8
+_BOX_SIZES = {DEST_PREFIX: (FIELD_W, FIELD_H), ACCEPT_PREFIX: (ACCEPT_W, ACCEPT_H)}
 _TAG_RE = re.compile(r"\[splicecalc (\{.*\})\]\s*$", re.S)
 
 
@@ -81,37 +82,48 @@ class MalformedPDF(ValueError):
 
 
 def field_boxes(reader: Any, prefix: str = DEST_PREFIX,
-                size: tuple[float, float] = (FIELD_W, FIELD_H)) -> dict[str, tuple[int, tuple[float, float, float, float]]]:
+                size: tuple[float, float] | None = None) -> dict[str, tuple[int, tuple[float, float, float, float]]]:
     """``role -> (page index, box)`` from the template's named destinations ``<prefix><role>`` (the
     signature boxes of the cover, or with :data:`ACCEPT_PREFIX` the summary's acceptance boxes);
     {} when there are none."""
+    return anchor_boxes(reader, {prefix: size or _BOX_SIZES.get(prefix, (FIELD_W, FIELD_H))})[prefix]
+
+
+def anchor_boxes(reader: Any, sizes: dict[str, tuple[float, float]] | None = None
+                 ) -> dict[str, dict[str, tuple[int, tuple[float, float, float, float]]]]:
+    """:func:`field_boxes` for several prefixes (default: the signature and the acceptance boxes) in one
+    walk of the name tree and one of the page tree (each walk reads object streams: the costly part)."""
+    sizes = sizes or _BOX_SIZES
+    out: dict[str, dict[str, tuple[int, tuple[float, float, float, float]]]] = {k: {} for k in sizes}
     try:
         names = reader.root.get("/Names")
         tree = names.get_object().get("/Dests") if names is not None else None
     except Exception:  # noqa: BLE001 - a PDF without the tree just has no anchors
-        return {}
+        return out
     if tree is None:
-        return {}
-    raw: dict[str, tuple[int, float, float]] = {}   # name -> (page object number, x, y)
+        return out
+    lo, hi = min(sizes), max(sizes) + "~"
+    raw: dict[tuple[str, str], tuple[int, float, float]] = {}   # (prefix, role) -> (page object number, x, y)
 
     def walk(node: Any, depth: int = 0) -> None:
         if depth > 20:
             return
         node = node.get_object()
         lim = node.get("/Limits")
-        if lim is not None and len(lim) == 2 and (str(lim[1]) < prefix or str(lim[0]) > prefix + "~"):
+        if lim is not None and len(lim) == 2 and (str(lim[1]) < lo or str(lim[0]) > hi):
             return                                 # a name-tree branch without our names
         arr = node.get("/Names")
         if arr is not None:
             for i in range(0, len(arr) - 1, 2):
                 name = str(arr[i])
-                if not name.startswith(prefix):
+                prefix = next((p for p in sizes if name.startswith(p)), None)
+                if prefix is None:
                     continue
                 dest = arr[i + 1].get_object()
                 if isinstance(dest, dict) or hasattr(dest, "keys"):
                     dest = dest.get("/D")
                 try:
-                    raw[name[len(prefix):]] = (dest.raw_get(0).idnum, float(dest[2]), float(dest[3]))
+                    raw[(prefix, name[len(prefix):])] = (dest.raw_get(0).idnum, float(dest[2]), float(dest[3]))
                 except (IndexError, TypeError, AttributeError, ValueError):
                     continue
         for kid in node.get("/Kids", []) or []:
@@ -121,11 +133,11 @@ def field_boxes(reader: Any, prefix: str = DEST_PREFIX,
         walk(tree)
         index = _page_indices(reader, {v[0] for v in raw.values()})
     except Exception:  # noqa: BLE001 - a damaged tree just has no anchors
-        return {}
-    out: dict[str, tuple[int, tuple[float, float, float, float]]] = {}
-    for role, (idnum, x, y) in raw.items():
+        return out
+    for (prefix, role), (idnum, x, y) in raw.items():
         if idnum in index:
-            out[role] = (index[idnum], (x, y - FIELD_DEPTH, x + size[0], y - FIELD_DEPTH + size[1]))
+            w, h = sizes[prefix]
+            out[prefix][role] = (index[idnum], (x, y - FIELD_DEPTH, x + w, y - FIELD_DEPTH + h))
     return out
 
 
@@ -247,9 +259,10 @@ def sign_pdf_bytes(pdf_bytes: bytes, kp: Any, role: str, *, human_reason: str, t
         raise MalformedPDF(f"not a PDF that can be updated ({exc.__class__.__name__})") from None
     first = not existing
     if first:
-        boxes = field_boxes(w.prev) or _fallback_boxes()
+        anchors = anchor_boxes(w.prev)
+        boxes = anchors[DEST_PREFIX] or _fallback_boxes()
         have = {f[0] for f in _form_field_names(w.prev)}
-        accept = field_boxes(w.prev, ACCEPT_PREFIX, (ACCEPT_W, ACCEPT_H))
+        accept = anchors[ACCEPT_PREFIX]
         for r, fname in FIELDS.items():
             if fname in have:
                 continue
