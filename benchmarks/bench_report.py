@@ -16,7 +16,9 @@ Routes, each a fresh process timed from outside (interpreter start, imports, eve
   build writes from the job, its job file beside it, the kernel headless like ours): nbconvert's own
   command line and ExecutePreprocessor with our exporter (entry point ``Calc_package_PDF``), so the same
   LaTeX, with XeLaTeX passes from nothing (no seed: the CLI keeps no build folder) and none of our
-  build's own arrangements (kernel launched first, pandoc started beside the cells, nothing else).
+  build's own arrangements (kernel launched first, pandoc started beside the cells, the contents list
+  predicted before the first pass: ``--CalcPackageExporter.predict_contents=False``, so three passes
+  for the demo, as nbconvert's own PDFExporter runs, ``latex_count`` = 3).
   ``--to pdf`` (nbconvert's own template) cannot typeset this notebook any more: its check tables are
   ``text/latex`` using macros of our template. ``--stock-exporter pdf`` tries it all the same (needs
   ``ulem.sty``, Debian: texlive-plain-generic).
@@ -88,8 +90,11 @@ def stock(notebook: Path, exporter: str = "Calc_package_PDF") -> dict:
     out = notebook.with_name(notebook.stem + "_stock")
     env = {**os.environ, "SPLICECALC_HEADLESS": "1"}
     c0, t0 = _cpu(), time.perf_counter()
+    # XeLaTeX as nbconvert's own PDFExporter runs it for this package: three passes from nothing
+    # (its latex_count), i.e. without our predicted contents list (report.compile.predicted_toc)
+    plain = ["--CalcPackageExporter.predict_contents=False"] if exporter == "Calc_package_PDF" else []
     proc = subprocess.run([str(jupyter), "nbconvert", "--to", exporter, "--execute", str(notebook),
-                           "--output", out.name], capture_output=True, text=True, env=env, cwd=notebook.parent)
+                           "--output", out.name, *plain], capture_output=True, text=True, env=env, cwd=notebook.parent)
     wall, cpu = time.perf_counter() - t0, _cpu() - c0
     if proc.returncode != 0:
         raise SystemExit(f"the stock route (nbconvert --to {exporter}) failed:\n{proc.stderr[-2000:]}")

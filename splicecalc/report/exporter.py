@@ -126,6 +126,11 @@ class CalcPackageExporter(PDFExporter):
     #: the previous build's .aux/.toc/.out, kept per output name (empty: every build starts from nothing)
     seed_directory = Unicode("", help="Folder keeping the previous build's .aux, .toc and .out to seed "
                                       "the next one (see splicecalc.report.compile)").tag(config=True)
+    #: predict the contents list before a first XeLaTeX pass from nothing (two passes instead of three;
+    #: splicecalc.report.compile.predicted_toc). False: the plain passes, three for a fresh package
+    #: as nbconvert's own PDFExporter runs (``latex_count``); benchmarks/bench_report.py's stock route
+    predict_contents = Bool(True, help="Predict the contents list before the first XeLaTeX pass "
+                                       "(False: plain passes from nothing)").tag(config=True)
     #: pandoc conversions a build started early (:class:`~splicecalc.report.pandocwork.PandocWork`);
     #: None: nbconvert's ``convert_pandoc`` as it stands
     pandoc_work = AnyTrait(None, allow_none=True, help="convert_pandoc with conversions started early")
@@ -221,7 +226,8 @@ class CalcPackageExporter(PDFExporter):
         except OSError as err:      # a full disk or a read-only folder: name the build folder
             raise OSError(err.errno, err.strerror, str(workdir)) from None
         seed = Path(self.seed_directory) if self.seed_directory else None
-        run = run_xelatex(workdir / f"{stem}.tex", progress=self.progress, seed_dir=seed)
+        run = run_xelatex(workdir / f"{stem}.tex", progress=self.progress, seed_dir=seed,
+                          predict_toc=self.predict_contents)
         if seed is not None:
             save_seed(seed, workdir / f"{stem}.tex", run.pages)
         pdf = run.pdf_path.read_bytes()
