@@ -131,7 +131,9 @@ def test_every_notebook_text_reaches_tex_escaped():
                                 "governing_changed": True, "changed": True}]}
     tex = comparison_latex(c)
     assert r"\input" not in tex and r"\write" not in tex and "^^" not in tex
-    assert tex.count(r"\textbackslash{}input") == 10         # name, input, old value, 2 moved, 2 added, part (2), governing
+    # (core.text.escape_tex puts break points, \hspace{0pt}, into long unbroken runs: counted without them)
+    assert tex.replace(r"\hspace{0pt}", "").count(r"\textbackslash{}input") == 10   # name, input, old value,
+    # 2 moved, 2 added, part (2), governing
     assert "+0.100" in tex and "Checks removed" in tex
 
 
