@@ -515,6 +515,9 @@ def _refill_accept(w):
 
 case("accept-box-filled-by-hand")(lambda d, e, s: _incremental(d, _fill_accept))
 case("accept-box-refilled")(lambda d, e, s: _incremental(d, _refill_accept))
+# a forger's tool signs checked over the demo's NOT CHECKED items without stating how they are covered
+case("accept-missing-checked", base="built")(lambda d, e, s: [
+    _low_level_sign(d, _k(e, "a"), "prepared"), _low_level_sign(d, _k(e, "b"), "checked")])
 case("accept-box-filled-then-signed", base="built")(lambda d, e, s: [
     _low_level_sign(d, _k(e, "a"), "prepared"), _incremental(d, lambda w: _fill_accept(w, "AcceptChecked", "x")),
     _low_level_sign(d, _k(e, "b"), "checked", accept_note="x")])

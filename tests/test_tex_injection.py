@@ -195,6 +195,15 @@ def test_figure_labels_are_plain_text():
     texts = [t for ax in fig.axes for t in ax.texts] + [ax.title for ax in fig.axes]
     assert any(name in t.get_text() for t in texts)
     assert all(not t.get_parse_math() for t in texts)
+    # a 10 kB load name would make the figure as wide as the label: every text is shortened with the marker
+    long_name = "N" * 10_000
+    fig = draw_beam_diagrams(beam_diagram_data(
+        SimpleBeam(6000.0, (PointLoad(name=long_name, action="permanent", P=10e3, x=3000.0),)), title=long_name))
+    import matplotlib.text
+
+    shown = [t.get_text() for t in fig.findobj(matplotlib.text.Text)]
+    assert max(len(t) for t in shown) < 200 and any("more characters" in t for t in shown)
+    fig.savefig(io.BytesIO(), format="png")
 
 
 # ---------------------------------------------------------------- one package build

@@ -127,6 +127,23 @@ def _quiet_pyhanko():
         logging.getLogger(name).setLevel(logging.CRITICAL)
 
 
+def acceptance_problems(kind: str, sigs: list[tuple[str, str, dict]], nb: dict) -> list[str]:
+    """Checked / approved signatures ``(role, signer, record)`` over failing checks or NOT CHECKED records of
+    ``nb`` that state no acceptance (`sign` refuses them; a signature made by other means is caught here)."""
+    fails, gaps = nbs.failing_checks(nb), nbs.not_checked(nb)
+    out = []
+    for role, signer, rec in sigs:
+        if role not in ("checked", "approved"):
+            continue
+        if fails and not rec.get("accept_failing"):
+            out.append(f"{kind} {role} ({signer}): signed over {len(fails)} failing check(s) without stating "
+                       "why they are accepted (--accept-failing)")
+        if gaps and not rec.get("accept_not_checked"):
+            out.append(f"{kind} {role} ({signer}): signed over {len(gaps)} NOT CHECKED item(s) without stating "
+                       "how they are covered (--accept-not-checked)")
+    return out
+
+
 def _verify_nb(nb_path: Path, trusted: list[Any]) -> tuple[dict, list[Any], list[str], str]:
     nb = nbs.read_notebook(nb_path)
     digest = nbs.notebook_digest(nb)
@@ -138,6 +155,7 @@ def _verify_nb(nb_path: Path, trusted: list[Any]) -> tuple[dict, list[Any], list
     for s in sigs:
         if s.role not in ROLES:
             problems.append(f"notebook: unknown role {s.role!r}")
+    problems += acceptance_problems("notebook", [(s.role, s.signer, s.message) for s in sigs], nb)
     return nb, sigs, problems, digest
 
 
@@ -202,6 +220,7 @@ def verify_package(path: str | Path, thorough: bool = False) -> PackageStatus:
             why = pdf_notebook_job_mismatch(data, nb)
             if why:
                 problems.append(f"PDF and notebook: {why}")
+            problems += acceptance_problems("PDF", [(s.role, s.signer, s.tag) for s in psigs], nb)
             for s in nsigs:
                 if s.message.get("pdf_sha256") != base:
                     problems.append(f"notebook {s.role}: signed with another PDF than {p.name}")
