@@ -692,7 +692,9 @@ def _connection_head(part: Any) -> None:
     spec = part.spec
     show_heading(f"End connection at support {part.end} ({spec.connection.replace('_', ' ')})")
     rows = [["Design reaction (largest ULS)", f"{part.V_Ed / 1e3:.1f} kN", part.combination],
-            ["Tying force (accidental, structural integrity)", f"{d.tie / 1e3:.1f} kN", d.tie_basis],
+            # a table cell is text: the basis's code symbols as plain words there (G_k -> Gk), never a raw _
+            ["Tying force (accidental, structural integrity)", f"{d.tie / 1e3:.1f} kN",
+             re.sub(r"\b([A-Za-z]{1,2}|psi|gamma)_([A-Za-z0-9]+)\b", r"\1\2", d.tie_basis)],
             ["Existing member", getattr(spec.existing_member, "designation", ""), spec.existing_face]]
     show_table(["Item", "Value", "Source"], rows, align="lll", title=f"Support {part.end} actions")
     desc = d.detail.describe()
