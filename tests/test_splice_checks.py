@@ -299,3 +299,45 @@ def test_any_layout_gives_records_never_a_crash_or_silent_pass(fr, fc, fp, fg, f
     fits = {r.id: r.ok for r in d.records if r.id.startswith("fit_")}
     if not all(fits.values()):
         assert not d.ok
+
+
+# ------------------------------------------------------------- A4: web bearing, alpha_d in the direction of the force
+# 457x152x60 UKB (BS 4-1 table, from memory): h 454.6, b 152.9, tw 8.1, tf 13.3, r 10.2
+UKB457_152 = measured_section(h=454.6, b=152.9, tw=8.1, tf=13.3, r=10.2, designation="457x152x60 UKB (measured)")
+S1_FLANGE = FlangeLayout(rows=3, columns=2, pitch=50.0, gauge=70.0, plate=12.0, e1=35.0)
+S1_WEB = WebLayout(rows=5, columns=2, pitch=70.0, gauge=70.0, plate=8.0, e1=35.0, e_v=35.0)
+
+
+def test_web_bearing_alpha_d_from_the_bolt_ahead_checker_s1():
+    # The demo's splice S1 (M = 237.07 kNm, V = 39.09 kN, gap 10 mm, M20 8.8 in 22 mm holes, S355 fu 470).
+    # Hand calculation, EN 1993-1-8 Table 3.4: the top beam-web bolt nearest the joint carries
+    # F_x = 67.33 kN and F_z = 20.74 kN; vertically it bears towards the bolt below at p1 = 70 mm:
+    # alpha_d = 70/66 - 1/4 = 0.811, k1 = min(2.8*35/22 - 1.7, 1.4*70/22 - 1.7, 2.5) = 2.5 (edge bolt
+    # across, e2 = the web end distance 35 mm), F_b,z,Rd = 2.5*0.811*470*20*8.1/1.25 = 123.4 kN;
+    # horizontally it bears towards the beam end at e1 = 35 mm: alpha_d = 35/66 = 0.530, k1 = 2.5,
+    # F_b,x,Rd = 80.75 kN; U = sqrt((67.33/80.75)^2 + (20.74/123.4)^2) = 0.851 (checker's figures).
+    d = run(UKB457_152, "S355", "M20 8.8", S1_FLANGE, S1_WEB, M=237.068e6, V=39.086e3, gap="10 mm",
+            plate_grade="S355")
+    r = rec(d, "web_bearing_beam")
+    a_in = 70 / 66 - 0.25                                                    # Table 3.4, inner bolt
+    Fbz = 2.5 * a_in * 470 * 20 * 8.1 / 1.25                                 # Table 3.4
+    assert Fbz / 1e3 == pytest.approx(123.4, abs=0.05)                       # checker's arithmetic
+    assert r.values["F_b_z_Rd"][0] == pytest.approx(Fbz / 1e3, rel=1e-6)
+    Fbx = 2.5 * (35 / 66) * 470 * 20 * 8.1 / 1.25                            # Table 3.4, end bolt
+    assert r.values["F_b_x_Rd"][0] == pytest.approx(Fbx / 1e3, rel=1e-6)
+    assert r.demand == pytest.approx(0.851, abs=0.001)                       # checker: sqrt(0.695 + 0.028)
+
+
+def test_web_bearing_positions_direction_words():
+    # Beam web, 5 x 2 group: the outer column bearing into the beam has nothing ahead (alpha_d does not
+    # limit); the column at the joint bearing to the beam end has the end distance; plates towards the
+    # joint see the bolt across it at gap + 2 e1 (EN 1993-1-8 Table 3.4 definitions of e1 and p1).
+    from splicecalc.joints.splice.checks import web_bearing_positions
+    d = run(UKB457_152, "S355", "M20 8.8", S1_FLANGE, S1_WEB, M=237.068e6, V=39.086e3, gap="10 mm")
+    g = d.geometry
+    beam = web_bearing_positions(g, UKB457_152, "beam", 2, 1)
+    assert beam["+x"][:2] == (None, None)
+    assert beam["-x"][:2] == (None, 70.0)
+    assert web_bearing_positions(g, UKB457_152, "beam", 0, 0)["-x"][:2] == (35.0, None)
+    assert web_bearing_positions(g, UKB457_152, "plates", 0, 0)["-x"][:2] == (None, 10.0 + 2 * 35.0)
+    assert web_bearing_positions(g, UKB457_152, "plates", 0, 1)["+z"][:2] == (35.0, None)

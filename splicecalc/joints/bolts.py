@@ -511,7 +511,7 @@ def _opt_pos(name: str, v: float | None) -> float | None:
 
 def bearing_resistance(bolt: Bolt, t: float, f_u: float, e_1: float | None, e_2: float | None = None,
                        p_1: float | None = None, p_2: float | None = None, *, hole: str = "normal",
-                       gamma_M2: float = 1.25, calc: Calc | None = None) -> float:
+                       gamma_M2: float = 1.25, calc: Calc | None = None, nothing_ahead: bool = False) -> float:
     """F_b,Rd (N) of the governing bolt position of a layout, load along direction 1.
 
     e_1 / p_1 are measured in the direction of load transfer, e_2 / p_2 across it;
@@ -523,6 +523,10 @@ def bearing_resistance(bolt: Bolt, t: float, f_u: float, e_1: float | None, e_2:
     ``e_1=None, p_1=p_1, e_2=None, p_2=p_2``. Inputs are validated here as in
     :func:`check_bolt_bearing`. A distance below the Table 3.3 minimum (e >= 1.2 d_0,
     p_1 >= 2.2 d_0, p_2 >= 2.4 d_0), where the Table 3.4 factors lose meaning, gives 0.
+
+    ``nothing_ahead=True`` with ``e_1 = p_1 = None``: the bolt bears towards neither a free edge nor
+    another bolt within the member (e.g. a beam-web bolt bearing into the beam, away from its end);
+    alpha_d then does not limit and alpha_b = min(f_ub/f_u, 1.0) (Table 3.4 with alpha_d taken as 1.0).
     """
     bolt = _bolt(bolt)
     t = require_positive("t", t, "mm")
@@ -531,15 +535,15 @@ def bearing_resistance(bolt: Bolt, t: float, f_u: float, e_1: float | None, e_2:
     require_choice("hole", hole, tuple(K_HOLE_BEARING))
     gamma_M2 = require_positive("gamma_M2", gamma_M2)
     calc = calc if calc is not None else Calc()
-    bad = _bearing_geometry(bolt, hole, e_1, e_2, p_1, p_2)
+    bad = _bearing_geometry(bolt, hole, e_1, e_2, p_1, p_2, nothing_ahead=nothing_ahead)
     if bad:
         return _below_minima(calc, bad)
     return _bearing(bolt, t, f_u, e_1, e_2, p_1, p_2, hole, gamma_M2, calc)
 
 
-def _bearing_geometry(bolt: Bolt, hole: str, e_1, e_2, p_1, p_2) -> list[str]:
+def _bearing_geometry(bolt: Bolt, hole: str, e_1, e_2, p_1, p_2, nothing_ahead: bool = False) -> list[str]:
     """Required positions present; returns the distances below the Table 3.3 minima (text, empty if none)."""
-    if e_1 is None and p_1 is None:
+    if e_1 is None and p_1 is None and not nothing_ahead:
         raise InputError("e_1/p_1", None, "an end distance or a pitch in the direction of the load")
     if e_2 is None and p_2 is None:
         raise InputError("e_2/p_2", None, "an edge distance or a gauge across the load (k_1, Table 3.4)",
@@ -566,6 +570,10 @@ def _bearing(bolt: Bolt, t: float, f_u: float, e_1: float | None, e_2: float | N
         ad.append(calc(alpha_d_inner, p_1=p_1, d_0=d_0))
     if len(ad) > 1:
         calc.note("The smaller $\\alpha_{d}$ (end or inner bolt) governs.")
+    if not ad:
+        calc.note("No free edge and no other bolt ahead in the direction of the force within the member: "
+                  "$\\alpha_{d}$ does not limit (taken as 1.0).")
+        ad.append(1.0)
     a_b = calc(alpha_b, alpha_d=min(ad), f_ub=bolt.f_ub, f_u=f_u)
     if e_2 is not None and p_2 is not None:
         k1 = calc(k_1_edge, e_2=e_2, p_2=p_2, d_0=d_0)

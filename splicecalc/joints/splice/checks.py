@@ -21,10 +21,13 @@ Methods (stated on the calc sheet):
   over 2 planes; bearing on the beam web and on the two web plates checked per
   direction with the linear utilisation ``sqrt((F_x/F_b,x,Rd)^2 + (F_z/F_b,z,Rd)^2) <= 1``
   (:func:`splicecalc.joints.bolts.U_b_2d`, the one convention of the package), each F_b,Rd from
-  Table 3.4 with e1/p1 taken in that direction and k1 from the distances across it.
-  In the beam web the top and bottom rows take as "end distance" the distance to
-  the flange face (conservative: the web is not free there); every bolt is taken
-  as an end bolt towards the nearest free edge whatever the sign of its force.
+  Table 3.4 with alpha_d from what lies AHEAD of the bolt in that direction (a free
+  edge at e1: e1/(3 d0); another bolt at p1: p1/(3 d0) - 1/4; nothing within the
+  member, a beam-web bolt bearing into the beam: alpha_d does not limit) and k1 from
+  the distances across it (:func:`web_bearing_positions`). In the beam web the top
+  and bottom rows bearing towards a flange take the distance to the flange face as
+  an end distance (conservative: the web is not free there). Each force component
+  is taken in both senses (|M|, |V| of either sign, either side of the joint).
 * Slip: category B with serviceability forces and gamma_M3,ser, category C with
   ULS forces and gamma_M3 (3.4.1, 3.9); bearing at ULS is checked for all
   categories, category C adds the net section at f_y (EN 1993-1-1 6.2.3(4)).
@@ -118,14 +121,14 @@ def _kN(rec: CheckRecord) -> float:
 
 
 def _fb(bolt, t, fu, e1, p1, e2, p2, gM2, hole, calc=None) -> float:
-    """Table 3.4 bearing of one bolt position; non-positive distances -> 0 (does not fit)."""
+    """Table 3.4 bearing of one bolt position; non-positive distances -> 0 (does not fit).
+    ``e1 = p1 = None``: nothing ahead of the bolt in the direction of the force (alpha_d does not limit)."""
     for v in (e1, p1, e2, p2):
         if v is not None and v <= 0.0:
             return 0.0
-    if e1 is None and p1 is None:
-        e1 = 1e6
     try:
-        return max(B.bearing_resistance(bolt, t, fu, e1, e2, p1, p2, hole=hole, gamma_M2=gM2, calc=calc), 0.0)
+        return max(B.bearing_resistance(bolt, t, fu, e1, e2, p1, p2, hole=hole, gamma_M2=gM2, calc=calc,
+                                        nothing_ahead=e1 is None and p1 is None), 0.0)
     except InputError:          # below the Table 3.3 minima: reported by the spacing records
         return 0.0
 
@@ -367,44 +370,80 @@ def _flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na
 
 
 # ======================================================================== web group
+def web_bearing_positions(g: Geometry, section, ply: str, i: int, j: int) -> dict:
+    """Table 3.4 distances of the web bolt in row ``i`` (0 at the top) and column ``j`` (0 nearest the
+    joint) for each direction it may bear in on ``ply`` ('beam' web or web 'plates'): a dict
+    ``{direction: (e1, p1, e2, p2)}`` with directions '+x' (away from the joint), '-x', '+z' (up), '-z'.
+
+    alpha_d comes from what lies AHEAD of the bolt in that direction: a free edge at e1 (e1/(3 d0)), or
+    another bolt at p1 (p1/(3 d0) - 1/4); both None: nothing ahead within the member (alpha_d does not
+    limit). k1 comes from the edge e2 / spacing p2 across the direction. Beam web: towards the beam end
+    (column nearest the joint) the end distance e1 of the web; into the beam (outer column) nothing
+    ahead; towards a flange (top / bottom row) the distance to the flange face taken as an end
+    distance (conservative: the web is not free there). Web plates: towards the plate end (outer
+    column) e1; towards the joint (column nearest it) the bolt across the joint at gap + 2 e1; top and
+    bottom rows the plate edges e_v."""
+    n_r, n_c = g.n_r, g.n_c
+    p = g.p_w if n_r > 1 else None
+    gg = g.g_w if n_c > 1 else None
+    top, bottom = i == 0, i == n_r - 1
+    near, far = j == 0, j == n_c - 1
+    if ply == "beam":
+        e_z = (section.h - 2 * section.tf - (n_r - 1) * g.p_w) / 2        # row to the flange face
+        ahead_x = {"-x": (g.e1_w, None) if near else (None, gg), "+x": (None, None) if far else (None, gg)}
+        across_z = (g.e1_w if near else None, gg)                            # k1 of vertical bearing
+    else:
+        e_z = g.e_v
+        ahead_x = {"+x": (g.e1_w, None) if far else (None, gg),
+                   "-x": (None, g.g_a + 2 * g.e1_w) if near else (None, gg)}
+        across_z = (g.e1_w if far else None, gg)
+    ahead_z = {"+z": (e_z, None) if top else (None, p), "-z": (e_z, None) if bottom else (None, p)}
+    across_x = (e_z if (top or bottom) else None, p)                        # k1 of horizontal bearing
+    out = {d: (e1, p1) + across_x for d, (e1, p1) in ahead_x.items()}
+    out.update({d: (e1, p1) + across_z for d, (e1, p1) in ahead_z.items()})
+    return out
+
+
+_DIR_WORDS = {"+x": "+x (away from the joint)", "-x": "-x (towards the joint)", "+z": "+z (up)", "-z": "-z (down)"}
+
+
+def _ahead_words(ply: str, d: str, e1, p1) -> str:
+    """What lies ahead of a web bolt in direction ``d`` (words for the calc sheet)."""
+    if e1 is None and p1 is None:
+        return "no free edge and no bolt ahead within the member"
+    if p1 is not None:
+        return f"next bolt at p1 = {p1:g} mm"
+    if ply == "beam" and d in ("+z", "-z"):
+        return f"flange face at {e1:g} mm, taken as an end distance (conservative: the web is not free there)"
+    return f"free edge at e1 = {e1:g} mm"
+
+
 def web_bolt_bearing(bolt, g: Geometry, section, t: float, fu: float, ply: str, gM2: float,
                      bolt_forces, calc: Calc | None = None, hole: str = "normal") -> tuple[float, tuple]:
     """Worst bearing interaction U over the web bolts for ``ply`` 'beam' (the beam web,
     thickness t) or 'plates' (both web plates, t = 2 t_wp). Returns (U, governing
-    (x, z, F_x, F_z, F_b_x, F_b_z))."""
-    n_r, n_c = g.n_r, g.n_c
-    p = g.p_w if n_r > 1 else None
-    gg = g.g_w if n_c > 1 else None
-    e_fl = (section.h - 2 * section.tf - (n_r - 1) * g.p_w) / 2   # top bolt to the flange face
+    (x, z, F_x, F_z, F_b_x, F_b_z, dir_x, dir_z)).
+
+    Each bolt bears in the direction of its force, and F_b,Rd in each direction takes alpha_d from what
+    lies ahead in that direction (:func:`web_bearing_positions`). The splice is designed for |M| and |V|
+    of either sign on either side of the joint, so each force component is taken in both senses (the
+    four combinations per bolt, the worst governs)."""
     worst = (-1.0, None)
     cache: dict = {}
+    n_c = g.n_c
     for k, (x, z, Fx, Fz, Fr) in enumerate(bolt_forces):
         i, j = divmod(k, n_c)                                     # i row from the top, j column from the joint
-        edge_row = i == 0 or i == n_r - 1
-        if ply == "beam":
-            endc = j == 0                                         # column nearest the beam end
-            kx = (endc, edge_row)
-            if kx not in cache:
-                fbx = _fb(bolt, t, fu, g.e1_w if endc else None, None if endc else gg,
-                          e_fl if edge_row else None, p, gM2, hole)
-                fbz = _fb(bolt, t, fu, e_fl if edge_row else None, None if edge_row else p,
-                          g.e1_w if endc else None, gg, gM2, hole)
-                cache[kx] = (fbx, fbz)
-        else:
-            endc = j == n_c - 1                                   # column nearest the plate end
-            kx = (endc, edge_row)
-            if kx not in cache:
-                fbx = _fb(bolt, t, fu, g.e1_w if endc else None, None if endc else gg,
-                          g.e_v if edge_row else None, p, gM2, hole)
-                fbz = _fb(bolt, t, fu, g.e_v if edge_row else None, None if edge_row else p,
-                          g.e1_w if endc else None, gg, gM2, hole)
-                cache[kx] = (fbx, fbz)
-        fbx, fbz = cache[kx]
-        if fbx <= 0 or fbz <= 0:
-            return math.inf, (x, z, Fx, Fz, fbx, fbz)
-        U = B.U_b_2d(F_x_Ed=Fx, F_b_x_Rd=fbx, F_z_Ed=Fz, F_b_z_Rd=fbz)
-        if U > worst[0]:
-            worst = (U, (x, z, Fx, Fz, fbx, fbz))
+        if (i, j) not in cache:
+            pos = web_bearing_positions(g, section, ply, i, j)
+            cache[(i, j)] = {d: _fb(bolt, t, fu, e1, p1, e2, p2, gM2, hole) for d, (e1, p1, e2, p2) in pos.items()}
+        fb = cache[(i, j)]
+        for dx, dz in (("+x", "+z"), ("+x", "-z"), ("-x", "+z"), ("-x", "-z")):
+            fbx, fbz = fb[dx], fb[dz]
+            if fbx <= 0 or fbz <= 0:
+                return math.inf, (x, z, Fx, Fz, fbx, fbz, dx, dz)
+            U = B.U_b_2d(F_x_Ed=abs(Fx), F_b_x_Rd=fbx, F_z_Ed=abs(Fz), F_b_z_Rd=fbz)
+            if U > worst[0]:
+                worst = (U, (x, z, Fx, Fz, fbx, fbz, dx, dz))
     return worst
 
 
@@ -433,9 +472,17 @@ def _web_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Natio
         U, gv = web_bolt_bearing(bolt, g, section, t, fu, ply, na.gamma_M2, forces.bolt_forces, hole=spec.holes)
         c = calc
         if c.render and math.isfinite(U):
-            x, z, Fx, Fz, fbx, fbz = gv
-            c.note(f"Governing bolt at x = {x:g} mm, z = {z:g} mm from the group centroid; "
-                   f"F_b,Rd in x (e1 along the beam) and in z (e1 vertical), Table 3.4")
+            x, z, Fx, Fz, fbx, fbz, dx, dz = gv
+            i, j = divmod(next(k for k, b in enumerate(forces.bolt_forces) if b[0] == x and b[1] == z), g.n_c)
+            pos = web_bearing_positions(g, section, ply, i, j)
+            c.note(f"Governing bolt at x = {x:g} mm, z = {z:g} mm from the group centroid (x away from the joint, "
+                   f"z up), bearing on the {what} towards {_DIR_WORDS[dx]} and {_DIR_WORDS[dz]} (each force component "
+                   "taken in both senses: the splice is designed for |M| and |V| of either sign). Table 3.4 in each direction: "
+                   "$\\alpha_{d}$ from what lies ahead (free edge e1, or bolt at p1), k1 from the distances across.")
+            for d, sym in ((dx, "F_{b,x,Rd}"), (dz, "F_{b,z,Rd}")):
+                e1, p1, e2, p2 = pos[d]
+                c.note(f"${sym}$, bearing towards {_DIR_WORDS[d]}: {_ahead_words(ply, d, e1, p1)}")
+                _fb(bolt, t, fu, e1, p1, e2, p2, na.gamma_M2, spec.holes, calc=c)
             c(B.U_b_2d, F_x_Ed=abs(Fx), F_b_x_Rd=fbx, F_z_Ed=abs(Fz), F_b_z_Rd=fbz)
         if gv is not None:
             c.keep("F_x_Ed", abs(gv[2]), "N")

@@ -82,6 +82,7 @@ class Geometry:
     # mass
     plate_mass: float   # kg, all plates of one splice (2 flanges x (outer + inner), 2 web plates)
     n_bolts: int        # all bolts of one splice
+    g_a: float = 0.0    # gap between the beam ends (mm)
 
 
 def geometry(section, bolt, layout: SpliceLayout, gap: float, density: float = 7850.0) -> Geometry:
@@ -119,7 +120,7 @@ def geometry(section, bolt, layout: SpliceLayout, gap: float, density: float = 7
         A_pi=A_pi, share_o=share_o, washer_clear_gauge=section.tw + 2 * section.r + bolt.washer_od,
         n_w=n_w, n_r=w.rows, n_c=w.columns, p_w=w.pitch, g_w=w.gauge, e1_w=e1w, e_v=e_v, h_wp=h_wp,
         t_wp=w.plate, L_wp=L_wp, d_web=section.h - 2 * section.tf - 2 * section.r,
-        plate_mass=vol * 1e-9 * density, n_bolts=2 * 2 * n_f + 2 * n_w)
+        plate_mass=vol * 1e-9 * density, n_bolts=2 * 2 * n_f + 2 * n_w, g_a=gap)
 
 
 __all__ = ["Geometry", "geometry", "default_edge", "round_up", "round_down", "INNER_PLATE_CLEAR"]
