@@ -12,10 +12,11 @@ so no beam reuses another's remembered splice search). Times, in one run:
 * end to end: ``splicecalc batch SCHEDULE --quiet`` in a new process vs 20 ``splicecalc run``
   processes one after the other (what a user would do without a schedule).
 
-``--pdf N`` also builds the packages of the first N beams: ``--pdf`` pool vs the N
-``build_package`` calls one after the other (slow: about 20-30 s a package).
+``--pdf N`` also builds the packages of the first N beams, in interleaved rounds (``--pdf-rounds``):
+the N ``build_package`` calls one after the other (the alternative) and the ``--pdf`` pool; wall and
+CPU of each (slow: about 10-30 s a package).
 
-Run:  .venv/bin/python benchmarks/bench_batch.py [--rounds 3] [--pdf 4]
+Run:  .venv/bin/python benchmarks/bench_batch.py [--rounds 3] [--pdf 4 [--pdf-rounds 2] [--pdf-only]]
 """
 
 from __future__ import annotations
@@ -64,6 +65,8 @@ def main() -> None:
     ap = argparse.ArgumentParser()
     ap.add_argument("--rounds", type=int, default=3)
     ap.add_argument("--pdf", type=int, default=0, help="also time the packages of the first N beams")
+    ap.add_argument("--pdf-rounds", type=int, default=2, help="interleaved rounds of the --pdf timing")
+    ap.add_argument("--pdf-only", action="store_true", help="only the --pdf timing")
     args = ap.parse_args()
     workers = B.default_workers()
     with tempfile.TemporaryDirectory() as tmp:
@@ -71,6 +74,9 @@ def main() -> None:
         sched.write_text(schedule_text(), encoding="utf-8")
         s = B.read_schedule(sched)
         assert all(b.ok for b in s.beams), [b.error for b in s.beams if not b.ok]
+        if args.pdf_only:
+            pdf_rounds(s, args.pdf, args.pdf_rounds, workers, Path(tmp))
+            return
         B.design_one(s.beams[0].name, s.beams[0].text)           # imports and catalogue warm, as in a worker
         print(f"{len(s.beams)} beams, {workers} worker(s) (os.cpu_count() = {os.cpu_count()}), "
               f"load average {os.getloadavg()[0]:.1f}")
@@ -126,25 +132,54 @@ def main() -> None:
               f"(ratio {cli_batch / t_runs:.2f})")
 
         if args.pdf:
-            from splicecalc.workflow.package import build_package
+            pdf_rounds(s, args.pdf, args.pdf_rounds, workers, Path(tmp))
 
-            sub = B.Schedule(s.source, s.title, s.beams[:args.pdf])
-            seq = 0.0
-            for b in sub.beams:
-                d = Path(tmp) / "seq" / b.name
-                d.mkdir(parents=True)
-                jf = d / f"{b.name}.toml"
-                jf.write_text(b.text, encoding="utf-8")
-                t = time.perf_counter()
-                build_package(jf, d / f"{b.name}.pdf", progress=False)
-                seq += time.perf_counter() - t
-            t = time.perf_counter()
-            rows = B.run_beams(sub, out=Path(tmp) / "pool", pdf=True, workers=workers, progress=False)
-            wall = time.perf_counter() - t
-            assert all(x["package_pdf"] for x in rows), [x["status"] for x in rows]
-            print(f"{f'{args.pdf} packages (--pdf): pool wall vs one after the other':<52} {wall:6.1f} s vs "
-                  f"{seq:6.1f} s (ratio {wall / seq:.2f}, load {os.getloadavg()[0]:.1f})")
 
+def _cpu() -> float:
+    a, b = resource.getrusage(resource.RUSAGE_SELF), resource.getrusage(resource.RUSAGE_CHILDREN)
+    return a.ru_utime + a.ru_stime + b.ru_utime + b.ru_stime
+
+
+def pdf_rounds(s: B.Schedule, n: int, rounds: int, workers: int, tmp: Path) -> None:
+    """The first ``n`` packages one after the other in this process (the alternative: what ``splicecalc
+    build`` does for each) and by the ``--pdf`` pool, interleaved, the order swapped each round. Wall and
+    CPU (this process + every child waited for: kernels, XeLaTeX, the pool's workers)."""
+    from splicecalc.workflow.package import build_package
+
+    sub = B.Schedule(s.source, s.title, s.beams[:n])
+
+    def seq(tag: str) -> tuple[float, float]:
+        c, t = _cpu(), time.perf_counter()
+        for b in sub.beams:
+            d = tmp / tag / b.name
+            d.mkdir(parents=True)
+            jf = d / f"{b.name}.toml"
+            jf.write_text(b.text, encoding="utf-8")
+            build_package(jf, d / f"{b.name}.pdf", progress=False)
+        return time.perf_counter() - t, _cpu() - c
+
+    def pool(tag: str) -> tuple[float, float]:
+        c, t = _cpu(), time.perf_counter()
+        rows = B.run_beams(sub, out=tmp / tag, pdf=True, workers=workers, progress=False)
+        wall, cpu = time.perf_counter() - t, _cpu() - c
+        assert all(x.get("package_pdf") for x in rows), [x["status"] for x in rows]
+        return wall, cpu
+
+    runs = {"seq": seq, "pool": pool}
+    got: dict[str, list[tuple[float, float]]] = {k: [] for k in runs}
+    ratios, loads = [], []
+    for r in range(rounds):
+        for k in (("seq", "pool") if r % 2 == 0 else ("pool", "seq")):
+            got[k].append(runs[k](f"r{r}{k}"))
+            loads.append(os.getloadavg()[0])
+        ratios.append(got["pool"][-1][0] / got["seq"][-1][0])
+        print(f"{n} packages, round {r + 1}: one after the other {got['seq'][-1][0]:5.1f} s wall / "
+              f"{got['seq'][-1][1]:5.1f} s CPU   pool {got['pool'][-1][0]:5.1f} s wall / {got['pool'][-1][1]:5.1f} s CPU"
+              f"   ratio {ratios[-1]:.2f}  (load {loads[-1]:.1f})", flush=True)
+    med = {k: (statistics.median(w for w, _ in v), statistics.median(c for _, c in v)) for k, v in got.items()}
+    print(f"{f'{n} packages (--pdf), {rounds} interleaved rounds':<52} pool / one after the other: wall median "
+          f"{statistics.median(ratios):.2f} x (range {min(ratios):.2f}-{max(ratios):.2f}; {med['pool'][0]:.1f} s vs "
+          f"{med['seq'][0]:.1f} s), CPU {med['pool'][1]:.1f} s vs {med['seq'][1]:.1f} s; load {min(loads):.1f}-{max(loads):.1f}")
 
 if __name__ == "__main__":
     main()
