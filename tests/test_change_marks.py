@@ -32,8 +32,9 @@ def _out(data: dict) -> dict:
 
 
 def _nb(*outputs_per_cell: list[dict]) -> dict:
-    return {"cells": [{"cell_type": "code", "metadata": {}, "source": "", "outputs": list(outs)}
-                      for outs in outputs_per_cell], "metadata": {}, "nbformat": 4, "nbformat_minor": 5}
+    return {"cells": [{"cell_type": "code", "id": f"cell-{i}", "execution_count": i, "metadata": {}, "source": "",
+                       "outputs": list(outs)} for i, outs in enumerate(outputs_per_cell, 1)],
+            "metadata": {}, "nbformat": 4, "nbformat_minor": 5}
 
 
 def _check(cid: str, u: float) -> dict:
@@ -277,3 +278,45 @@ def test_compare_writes_the_appendix_pdf_and_never_over_an_issued_file(cycle, ca
     err = capsys.readouterr().err
     assert "--pdf" in err and "never overwritten" in err and len(err.strip().splitlines()) == 1
     assert p1.pdf.read_bytes() == before
+
+
+# ----------------------------------------------------------------- the template's wiring (LaTeX only, no XeLaTeX)
+def _md(text: str) -> dict:
+    return _out({"text/markdown": text, "text/plain": text})
+
+
+def _latex(nb: dict, **resources) -> str:
+    import nbformat
+
+    from splicecalc.report.exporter import CalcPackageExporter
+
+    node = nbformat.from_dict(nb)
+    node.metadata["splicecalc"] = {"title": "T", "job_number": "J1", "revision": "P2"}
+    latex, _ = CalcPackageExporter().to_latex(node, {"metadata": {"name": "calc"}, **resources})
+    return latex
+
+
+@pytest.mark.skipif(shutil.which("pandoc") is None, reason="pandoc not installed")
+def test_only_the_changed_output_is_wrapped_and_the_comparison_is_bound_in():
+    old = _nb([_md("Span 7.2 m"), _md("Load 4 kN/m")], [{"output_type": "stream", "name": "stdout", "text": "kept\n"}])
+    old["cells"][0]["outputs"].append(_out({"application/vnd.splicecalc.job+json": {"beam": {"span": "7.2 m"}},
+                                            "text/plain": "job"}))
+    new = json.loads(json.dumps(old))
+    new["cells"][0]["outputs"][1] = _md("Load 5 kN/m")
+    new["cells"][0]["outputs"][2]["data"]["application/vnd.splicecalc.job+json"] = {"beam": {"span": "7.5 m"}}
+    tex = _latex(new, previous={"revision": "P1", "notebook": old, "name": "calc.pdf"})
+    body = tex[tex.index(r"\begin{document}"):]
+    assert body.count(r"\calcchangedbegin") == body.count(r"\calcchangedend") == 1
+    inner = body[body.index(r"\calcchangedbegin"):body.index(r"\calcchangedend")]
+    assert "Load 5" in inner and "Span" not in inner and "kept" not in inner
+    assert r"\renewcommand\calcchgsince{P1}" in tex and r"\calcchangedsheets" in body
+    assert r"\section{Changes since issued revision P1}" in body and "beam.span & 7.2 m & 7.5 m" in body
+    plain = _latex(new)                                 # no previous issue: no marks, no appendix, no cover row
+    plain = plain[plain.index(r"\begin{document}"):]
+    assert r"\calcchangedbegin" not in plain and "Changes since issued" not in plain and "Changed since" not in plain
+
+
+@pytest.mark.skipif(shutil.which("pandoc") is None, reason="pandoc not installed")
+def test_a_reason_for_no_marks_is_printed_on_the_cover_escaped():
+    tex = _latex(_nb([_md("x")]), changes_note="calc_P1.pdf is not the file issued as P1 ({#})")
+    assert r"Changes & not marked: calc\_P1.pdf is not the file issued as P1 (\{\#\})" in tex
