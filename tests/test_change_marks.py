@@ -320,3 +320,13 @@ def test_only_the_changed_output_is_wrapped_and_the_comparison_is_bound_in():
 def test_a_reason_for_no_marks_is_printed_on_the_cover_escaped():
     tex = _latex(_nb([_md("x")]), changes_note="calc_P1.pdf is not the file issued as P1 ({#})")
     assert r"Changes & not marked: calc\_P1.pdf is not the file issued as P1 (\{\#\})" in tex
+
+
+@pytest.mark.skipif(shutil.which("pandoc") is None, reason="pandoc not installed")
+def test_a_notebook_without_job_inputs_is_still_marked_and_says_why_it_is_not_compared():
+    old = _nb([_md("Section 254x146x31 UKB"), _md("M_c,Rd = 130 kN m")])
+    new = _nb([_md("Section 254x146x31 UKB"), _md("M_c,Rd = 131 kN m")])
+    tex = _latex(new, previous={"revision": "A", "notebook": old, "name": "calc.pdf"})
+    body = tex[tex.index(r"\begin{document}"):]
+    assert body.count(r"\calcchangedbegin") == 1 and "131" in body[body.index(r"\calcchangedbegin"):]
+    assert r"\section{Changes since issued revision A}" in body and "No comparison of inputs and checks" in body

@@ -23,6 +23,7 @@ from nbconvert.preprocessors import Preprocessor
 from traitlets import Any as AnyTrait, Bool, Unicode, default
 from traitlets.config import Config
 
+from ..core.errors import InputError
 from .compile import require_tool, run_xelatex, save_seed
 from .display import DISPLAY_PRIORITY
 from .errors import CalcBuildError
@@ -106,10 +107,15 @@ class ChangeMarkPreprocessor(Preprocessor):
         for ci, oi in changed:
             nb.cells[ci].metadata.setdefault("splicecalc_changed", []).append(oi)
         name = prev.get("new_name") or resources.get("metadata", {}).get("name", "") or "this package"
-        c = compare_revisions(old, nb, old_name=str(prev.get("name", "previous")), new_name=str(name))
         since = str(prev.get("revision", "") or "-")
-        calc["changes"] = {"since": since, "outputs": len(changed),
-                           "latex": comparison_latex(c, heading=f"Changes since issued revision {since}")}
+        heading = f"Changes since issued revision {since}"
+        try:
+            c = compare_revisions(old, nb, old_name=str(prev.get("name", "previous")), new_name=str(name))
+            latex = comparison_latex(c, heading=heading)
+        except InputError as err:       # a notebook that publishes no job inputs: the marks still stand
+            latex = "\n".join([r"\clearpage", r"\section{" + escape_tex(heading) + "}", r"\label{calc-changes}",
+                                r"{\small " + escape_tex(f"No comparison of inputs and checks: {err}") + r"\par}", ""])
+        calc["changes"] = {"since": since, "outputs": len(changed), "latex": latex}
         return nb, resources
 
 
