@@ -91,6 +91,16 @@ def test_a_wrong_prediction_costs_a_pass_never_a_wrong_page(tmp_path):
     assert text == plain_text and "??" not in text and "Hidden 59" in text
 
 
+def test_sheet_of_n_that_disagrees_with_the_sheets_written_is_never_printed(tmp_path):
+    # a document whose "of N" settles on a count that is not the sheets written (here a label written by
+    # hand; in practice a package that writes LastPage before the last sheet): never a silent PDF
+    bogus = DOC.replace(r"\usepackage{fancyhdr,lastpage,hyperref}", r"\usepackage{fancyhdr,hyperref}").replace(
+        r"\end{document}", r"\makeatletter\immediate\write\@auxout{\string\newlabel{LastPage}{{}{7}{}{page.7}{}}}"
+        "\n\\end{document}")
+    with pytest.raises(CalcBuildError, match=r"'of 7' but 1 were written"):
+        _build(tmp_path / "n", bogus % "One short check.", predict_toc=False)
+
+
 def test_a_seeded_rebuild_needs_one_pass_and_shows_the_same_text(tmp_path):
     seed = tmp_path / "seed"
     tex = DOC % _sections(12)

@@ -109,6 +109,17 @@ def _pages(log_text: str) -> int:
     return int(m.group(1)) if m else 0
 
 
+def _lastpage(tex_path: Path) -> int | None:
+    """The sheet count a pass wrote for "Sheet n of N" (the ``LastPage`` label in the ``.aux``), or None."""
+    import re
+
+    aux = tex_path.with_suffix(".aux")
+    if not aux.is_file():
+        return None
+    m = re.search(r"\\newlabel\{LastPage\}\{\{[^{}]*\}\{(\d+)\}", aux.read_text(encoding="utf-8", errors="replace"))
+    return int(m.group(1)) if m else None
+
+
 def _clear(tex_path: Path) -> None:
     for sfx in AUX_SUFFIXES:
         tex_path.with_suffix(sfx).unlink(missing_ok=True)
@@ -344,6 +355,14 @@ def run_xelatex(tex_path: Path, progress: bool = True, timeout_s: float = 300.0,
                 raise CalcBuildError(f"xelatex failed on pass {len(times)}: {err} (log: {log_path})")
             # a pass that read only a predicted contents list (no .aux) is never the last one
             if (before and _hashes(tex_path) == before and (seeded or n > 1)) or n >= MAX_PASSES:
+                # last guard on "Sheet n of N": the count the last pass printed (read from the .aux it was
+                # given, which equals the one it wrote) must be the sheets it wrote
+                last = _lastpage(tex_path)
+                if last is not None and last != _pages(log_text):
+                    if n < MAX_PASSES:
+                        continue
+                    raise CalcBuildError(f"the sheets say 'of {last}' but {_pages(log_text)} were written after "
+                                         f"{n} XeLaTeX passes; build again with --fresh (log: {log_path})")
                 break
         t = time.perf_counter()
         proc = subprocess.run([driver, *XDV_DRIVER[1:], "-o", pdf_path.name, xdv_path.name], cwd=workdir, env=env,
