@@ -514,3 +514,24 @@ def test_moment_shared_with_the_length_above_leaves_a_gap():
     full, _ = _column_case()
     assert not any(r.id == "ex_col_above" for r in full.records)
     assert _rec(res.records, "ex_col_interaction_y").demand < _rec(full.records, "ex_col_interaction_y").demand
+
+
+def test_column_buckling_takes_the_largest_N_over_every_leading_action():
+    """EN 1990 6.4.3.2 with the UK NA (Eqs. 6.10a/b, xi = 0.925; psi_0 = 0.7 for category B, 0 for the roof,
+    category H; NA to BS EN 1990 Table NA.A1.1, from memory): flexural buckling is shown in the combination
+    with the largest N_Ed, whatever combination governs the interaction; the basis lists every one tried."""
+    loads = parse_existing_loads({"kind": "column", "height": "4.2 m", "category": "B",
+                                  "axial": {"permanent": "125 kN", "imposed": "36 kN"}}, "column flange", "x")
+    det = design_end_connection(BEAM, "S355", 150e3, _support()).detail
+    parts = (ReactionPart("G", "permanent", None, 20e3), ReactionPart("roof", "imposed", "H", 40e3))
+    res = existing_member_checks(COL, loads, lambda t: existing_material_of("S275", t), "column flange", det,
+                                 parts, 1.0, UK_NA)
+    G = 145e3
+    cands = (1.35 * G + 1.5 * 0.7 * 36e3,                     # 6.10a: psi_0 Q (roof psi_0 = 0)
+             0.925 * 1.35 * G + 1.5 * 36e3,                   # 6.10b, floor imposed leading
+             0.925 * 1.35 * G + 1.5 * 40e3 + 1.5 * 0.7 * 36e3)    # 6.10b, roof leading
+    N = max(cands)
+    assert N == cands[2]
+    for ax in ("y", "z"):
+        assert _rec(res.records, f"ex_col_buckling_{ax}").demand == pytest.approx(N / 1e3, rel=1e-9)
+    assert "Combinations tried" in " ".join(res.basis) and "end moment" in " ".join(res.basis)

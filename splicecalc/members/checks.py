@@ -32,10 +32,11 @@ catch them but are no longer raised by these checks.
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 from typing import Any, Sequence
 
 from ..core.errors import InputError, require_finite, require_in_range, require_non_negative, require_positive
-from ..core.record import Calc, CheckRecord
+from ..core.record import NOT_CHECKED, Calc, CheckRecord
 from ..materials.partial_factors import UK_NA, NationalAnnex
 from ..materials.steel import E_MPa, steel
 from ..sections.geometry import A_v_z
@@ -911,14 +912,16 @@ def check_floor_frequency(delta_mm: float, f_min: float = FLOOR_FREQUENCY_MIN_HZ
 def restraint_force(N_f_Ed: float, span_mm: float, tributary_mm: float, m: float = 1.0,
                     calc: Calc | None = None, *, location_mm: float | None = None,
                     name: str = "") -> CheckRecord:
-    """Design force of one intermediate lateral restraint, EN 1993-1-1 5.3.3(2) (information record).
+    """Design force of one intermediate lateral restraint, EN 1993-1-1 5.3.3(2): a NOT CHECKED record.
 
     ``N_f_Ed`` (N): the compression-flange force the restraints stabilise, N_Ed = M_Ed / h (5.3.3(4));
     ``span_mm``: the length L of the restrained flange (the span); ``tributary_mm``: the length of
     flange this restraint collects the equivalent stabilising force q_d from; ``m``: members restrained
     by the same system (1: this beam alone). delta_q, the in-plane deflection of the restraint system,
     is taken as L/2500 (a stiff restraint, common practice, from memory). The restraint and its
-    fixings are not designed by the package: the record states the force they need.
+    fixings are not designed by the package: the record is NOT CHECKED (the member checks rely on it)
+    and states the force they need as the demand (``values["F_restraint"]``, the working, the note),
+    never as a resistance.
     """
     calc = _check_calc(calc)
     N = require_non_negative("N_f_Ed", N_f_Ed, "N")
@@ -934,16 +937,20 @@ def restraint_force(N_f_Ed: float, span_mm: float, tributary_mm: float, m: float
     calc.keep("a_trib", a, "mm")
     calc.keep("F_restraint", F, "N")
     pct = 100.0 * F / N if N > 0 else 0.0
-    calc.note(f"Restraint force $F = q_d \\cdot a$ = {F / 1e3:.2f} kN over {a / 1e3:.3g} m of flange "
-              f"({pct:.2f} % of the flange force).")
+    calc.note(f"Restraint force (demand) $F_{{Ed}} = q_d \\cdot a$ = {F / 1e3:.2f} kN over {a / 1e3:.3g} m of "
+              f"flange ({pct:.2f} % of the flange force).")
     what = f" {name}" if name else ""
-    return calc.info(id="restraint_force", title=f"Lateral restraint{what}: design force",
-                     clause="EN 1993-1-1:2005, 5.3.3(2), Eq. 5.13", demand=F, resistance=N, unit="N",
-                     location_mm=loc,
-                     note=f"F = {F / 1e3:.2f} kN = {pct:.2f} % of the compression-flange force N_Ed = M_Ed/h = "
-                          f"{N / 1e3:.0f} kN (5.3.3(4)); delta_q = L/2500 assumed; the restraint and its fixings "
-                          "must be designed for it (not designed here); 6.3.5.2 (2.5 % at plastic hinges) does "
-                          "not apply: elastic analysis, no plastic hinges")
+    rec = calc.info(id="restraint_force", title=f"Lateral restraint{what}: strength, stiffness, path to a diaphragm",
+                    clause="EN 1993-1-1:2005, 5.3.3(2), Eq. 5.13", demand=F, resistance=0.0, unit="N",
+                    location_mm=loc)
+    # the member checks rely on this restraint, which the package does not design: NOT CHECKED, never a pass
+    # (the force is the demand the restraint must take; there is no resistance to put beside it)
+    return replace(rec, status=NOT_CHECKED, ok=False, utilisation=0.0,
+                   note=f"Demand F_Ed = {F / 1e3:.2f} kN ({pct:.2f} % of the compression-flange force N_Ed = M_Ed/h = "
+                        f"{N / 1e3:.0f} kN, 5.3.3(4); delta_q = L/2500 assumed). The LTB check relies on this "
+                        "restraint: design the restraint and its fixings for F_Ed, check its stiffness and its load "
+                        "path to a stable diaphragm or bracing (not designed in this package). 6.3.5.2 (2.5 % at "
+                        "plastic hinges) does not apply: elastic analysis, no plastic hinges.")
 
 
 __all__ = ["SlenderSectionError", "ShearBucklingError", "ALPHA_LT", "DEFLECTION_LIMITS", "section_class",

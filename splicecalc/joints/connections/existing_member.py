@@ -329,20 +329,39 @@ def column_member_checks(sec: Any, cl: ExistingColumnLoads, mat_at: Callable[[fl
     # no transverse load in the column length: M_cr depends on the shape of the moment diagram only
     mcr_shape = mcr_numerical(sec, cl.L_z, (np.array([0.0, cl.L_z]), np.array([1e6, 1e6 * cl.moment_ratio]))).M_cr
     combos = _combos({k: (a["action"], a["category"]) for k, a in acts.items()}, na, psi)
-    best = None
-    for c in combos:
+    # every combination (each variable action leading in turn, EN 1990 6.4.3.2): each check is shown in
+    # the combination that governs it (flexural buckling with the largest N_Ed, the interaction with the
+    # largest utilisation, ...)
+    worst: dict[str, tuple[float, int]] = {}
+    forces = []
+    ids: list[str] = []
+    for i, c in enumerate(combos):
         N, My, Mz, R = _column_forces(acts, c, e, axis, cl.moment_share)
-        recs = _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, Calc(), face, det, tie, c.name,
-                              mcr_shape)
-        u = max((r.utilisation for r in recs), default=0.0)
-        if best is None or u > best[0]:
-            best = (u, c, N, My, Mz, R)
-    _, c, N, My, Mz, R = best
-    calc.note(f"Governing combination {c.name}: {c.expression}. Reaction {R / 1e3:.1f} kN at e = {e:.1f} mm from the "
-              f"column axis ({GUIDANCE_ECC}), {cl.moment_share:g} of R e taken by this length: "
-              f"$N_{{Ed}}$ = {N / 1e3:.1f} kN, $M_{{y,Ed}}$ = {My / 1e6:.2f} kNm, $M_{{z,Ed}}$ = {Mz / 1e6:.2f} kNm.")
-    recs = _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, calc, face, det, tie, c.name,
-                          mcr_shape)
+        forces.append((N, My, Mz, R))
+        for r in _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, Calc(), face, det, tie, c.name,
+                                 mcr_shape):
+            if r.id not in worst:
+                ids.append(r.id)
+            if r.id not in worst or r.utilisation > worst[r.id][0] + 1e-12:
+                worst[r.id] = (r.utilisation, i)
+    gov = max(worst.values())[1]
+    by_id: dict[str, CheckRecord] = {}
+    for i in sorted({i for _, i in worst.values()}):
+        c = combos[i]
+        N, My, Mz, R = forces[i]
+        head = (f"Combination {c.name}: {c.expression}. Reaction {R / 1e3:.1f} kN at e = {e:.1f} mm from the column "
+                f"axis ({GUIDANCE_ECC}), {cl.moment_share:g} of R e taken by this length as an end moment at the "
+                f"connection end ({cl.moment_share * R * e / 1e6:.2f} kNm; {cl.moment_ratio:g} times it at the "
+                f"other end): $N_{{Ed}}$ = {N / 1e3:.1f} kN, $M_{{y,Ed}}$ = {My / 1e6:.2f} kNm, "
+                f"$M_{{z,Ed}}$ = {Mz / 1e6:.2f} kNm.")
+        sub = Calc(render=calc.render, precision=calc.precision)
+        for r in _column_records(sec, cl, mf.f_y, mw.f_y, mw.f_u, N, My, Mz, na, sub, face, det, tie, c.name,
+                                 mcr_shape):
+            if worst[r.id][1] == i:
+                by_id[r.id] = replace(r, latex=((head,) if calc.render else ()) + r.latex)
+    recs = [by_id[k] for k in ids]
+    c = combos[gov]
+    N, My, Mz, R = forces[gov]
     if cl.moment_share < 1.0:
         recs.append(not_checked(
             id="ex_col_above", title="Existing column: the length above takes the rest of the connection moment",
@@ -362,9 +381,16 @@ def column_member_checks(sec: Any, cl: ExistingColumnLoads, mat_at: Callable[[fl
     basis = (f"Column length between restraints {cl.L_y / 1e3:g} m (y-y), {cl.L_z / 1e3:g} m (z-z), pinned ends, "
              "braced (simple construction).",
              f"Reaction at e = {e:.1f} mm from the column axis: {GUIDANCE_ECC}; share of the moment taken by this "
-             f"length {cl.moment_share:g}; moment ratio along the length psi = {cl.moment_ratio:g}.",
+             f"length {cl.moment_share:g}; moment ratio along the length psi = {cl.moment_ratio:g}. The connection "
+             "is taken at the end of the length (its height on the length is not used): the moment share x R e is "
+             f"an end moment there and psi = {cl.moment_ratio:g} times it at the other end; N_Ed includes R over "
+             "the whole length (conservative for any connection height).",
              f"Material: {mf.label}, f_y = {mf.f_y:g} MPa at t_f = {sec.tf:g} mm, {mw.f_y:g} MPa at t_w = "
-             f"{sec.tw:g} mm. {mf.note}")
+             f"{sec.tw:g} mm. {mf.note}",
+             "Combinations tried (EN 1990 6.4.3.2, each variable action leading in turn; each check shown in the "
+             "one that governs it): " + "; ".join(
+                 f"{cc.name}: N_Ed = {ff[0] / 1e3:.1f} kN, M_y,Ed = {ff[1] / 1e6:.2f} kNm, M_z,Ed = {ff[2] / 1e6:.2f} kNm"
+                 for cc, ff in zip(combos, forces)) + ".")
     return ExistingMemberResult("column", tuple(recs), tuple(rows), basis, c.name, mf)
 
 
