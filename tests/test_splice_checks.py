@@ -341,3 +341,23 @@ def test_web_bearing_positions_direction_words():
     assert web_bearing_positions(g, UKB457_152, "beam", 0, 0)["-x"][:2] == (35.0, None)
     assert web_bearing_positions(g, UKB457_152, "plates", 0, 0)["-x"][:2] == (None, 10.0 + 2 * 35.0)
     assert web_bearing_positions(g, UKB457_152, "plates", 0, 1)["+z"][:2] == (35.0, None)
+
+
+def test_beam_bending_web_holes_6_2_5_5_checker_s1():
+    # EN 1993-1-1 6.2.5(5): the complete tension zone (flange + web from mid-depth) against Eq. 6.16.
+    # Hand calculation for the demo's S1 (457x152x60 UKB S355: fy 355, fu 470; Wpl,y 1287.3 cm3 as the
+    # package prints it; 2 flange holes and 2 web rows above mid-depth, d0 22 mm):
+    # A_tz = 152.9*13.3 + (227.3 - 13.3)*8.1 = 3767.0 mm2; A_tz,net = 3767.0 - 2*22*13.3 - 2*22*8.1 = 2825.4;
+    # 0.9*2825.4*470/1.1 = 1086.5 kN < 3767.0*355 = 1337.3 kN: not met, so reduce.
+    d = run(UKB457_152, "S355", "M20 8.8", S1_FLANGE, S1_WEB, M=237.068e6, V=39.086e3, gap="10 mm",
+            plate_grade="S355")
+    r = rec(d, "beam_bending_web_holes")
+    A_t = 152.9 * 13.3 + (454.6 / 2 - 13.3) * 8.1
+    A_n = A_t - 2 * 22 * 13.3 - 2 * 22 * 8.1
+    assert 0.9 * A_n * 470 / 1.1 < A_t * 355                                 # Eq. 6.16 not met
+    dA = A_t - 0.9 * A_n * (470 / 1.1) / 355
+    y_t = (152.9 * 13.3 * (454.6 - 13.3) / 2 + 8.1 * (454.6 / 2 - 13.3) ** 2 / 2) / A_t
+    W = UKB457_152.Wpl_y - dA * y_t - dA ** 2 / (4 * 8.1)                    # plastic NA moves dA/(2 tw)
+    assert r.resistance == pytest.approx(W * 355 / 1e6, rel=1e-9)
+    assert r.resistance < rec(d, "beam_bending_holes").resistance           # web holes cost capacity
+    assert r.clause == "EN 1993-1-1:2005, 6.2.5(5)"

@@ -94,6 +94,48 @@ def U_NM(N_Ed: float, N_Rd: float, M_Ed: float, M_Rd: float) -> float:
     return U_NM
 
 
+CL_WEB_HOLES = "EN 1993-1-1:2005, 6.2.5(5)"
+
+
+@clause(CL_WEB_HOLES, units={"b": "mm", "t_f": "mm", "h": "mm", "t_w": "mm"}, returns="mm2",
+        example=dict(b=152.9, t_f=13.3, h=454.6, t_w=8.1))
+def A_tz(b: float, t_f: float, h: float, t_w: float) -> float:
+    """Gross area of the tension zone of a doubly symmetric I section in bending (mm2): the tension
+    flange and the web from mid-depth (the plastic neutral axis) to the flange; root fillets left out."""
+    A_tz = b * t_f + (h / 2 - t_f) * t_w
+    return A_tz
+
+
+@clause(CL_WEB_HOLES, units={"b": "mm", "t_f": "mm", "h": "mm", "t_w": "mm", "A_tz": "mm2"}, returns="mm",
+        example=dict(b=152.9, t_f=13.3, h=454.6, t_w=8.1, A_tz=3767.0))
+def y_tz(b: float, t_f: float, h: float, t_w: float, A_tz: float) -> float:
+    """Centroid of the tension zone from mid-depth (mm)."""
+    y_tz = (b * t_f * (h - t_f) / 2 + t_w * (h / 2 - t_f) ** 2 / 2) / A_tz
+    return y_tz
+
+
+@clause(CL_WEB_HOLES, units={"A_tz": "mm2", "d_0": "mm", "t_f": "mm", "t_w": "mm"}, returns="mm2",
+        example=dict(A_tz=3767.0, n_f=2, d_0=22.0, t_f=13.3, n_w=2, t_w=8.1))
+def A_tz_net(A_tz: float, n_f: int, d_0: float, t_f: float, n_w: int, t_w: float) -> float:
+    """Net area of the tension zone (mm2): n_f holes across the flange, n_w web holes in the tension zone."""
+    A_tz_net = A_tz - n_f * d_0 * t_f - n_w * d_0 * t_w
+    return A_tz_net
+
+
+@clause(CL_WEB_HOLES, units={"W_pl_y": "mm3", "A_tz": "mm2", "A_tz_net": "mm2", "f_u": "MPa", "f_y": "MPa",
+                             "y_tz": "mm", "t_w": "mm"}, returns="mm3",
+        example=dict(W_pl_y=1287.3e3, A_tz=3767.0, A_tz_net=2825.4, f_u=470.0, f_y=355.0, gamma_M0=1.0,
+                     gamma_M2=1.1, y_tz=168.3, t_w=8.1))
+def W_pl_y_tz_net(W_pl_y: float, A_tz: float, A_tz_net: float, f_u: float, f_y: float, gamma_M0: float,
+                  gamma_M2: float, y_tz: float, t_w: float) -> float:
+    """Plastic modulus with the tension zone reduced to the area that meets Eq. 6.16 (mm3): the
+    deficit Delta A_tz = A_tz - 0.9 A_tz,net (f_u/gamma_M2)/(f_y/gamma_M0) is taken off at the
+    zone's centroid y_tz, the plastic neutral axis moving Delta A_tz/(2 t_w) in the web."""
+    Delta_A_tz = A_tz - 0.9 * A_tz_net * (f_u / gamma_M2) / (f_y / gamma_M0)
+    W_pl_y_tz_net = W_pl_y - Delta_A_tz * y_tz - Delta_A_tz ** 2 / (4 * t_w)
+    return W_pl_y_tz_net
+
+
 def _fail(id: str, title: str, clause_: str, err: Exception, location_mm=None) -> CheckRecord:
     """A failing record for a check that cannot be made (layout does not fit)."""
     return CheckRecord(id=id, title=title, clause=clause_, demand=1.0, resistance=0.0, unit="",
@@ -576,8 +618,16 @@ def _member_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Na
     wb: list[CheckRecord] = []
     d0 = bolt.d_0
     cols = 2 if g.p2o_f == 0 else 4
+    def web_holes() -> list[CheckRecord]:
+        cls = _section_class(section, grade)
+        out_: list[CheckRecord] = []
+        _safe(out_, check_web_holes_bending, fid="beam_bending_web_holes", ftitle="Beam at the splice: bending with "
+              "web holes (6.2.5(5))", fclause=CL_WEB_HOLES, section=section, grade=grade, g=g, forces=forces, na=na,
+              calc=calc, d0=d0, cls=cls, loc=loc)
+        return out_
+
     if group == TAG_WEB:
-        return _tag(_member_web(section, grade, g, forces, na, calc, loc, d0), TAG_WEB)
+        return _tag(_member_web(section, grade, g, forces, na, calc, loc, d0) + web_holes(), TAG_WEB)
     A_f_net = P.A_net_plate(b=section.b, t=section.tf, n=cols, d_0=d0)
     # the beam's own tension flange, net of its holes, for the flange force the splice design assumes
     # (same moment split and lever arm as the bolts; taken at the outermost flange bolt row)
@@ -597,8 +647,58 @@ def _member_records(section, grade: str, bolt, g: Geometry, spec, forces, na: Na
               calc=calc, A_f_net=A_f_net, location_mm=loc)
         fl[-1] = _retitle(fl[-1], "beam_bending_holes", "Beam at the splice: bending with tension-flange holes (6.2.5(4))")
     if group == TAG_FLANGE:
-        return _tag(fl, TAG_FLANGE)
-    return _tag(fl, TAG_FLANGE) + _tag(_member_web(section, grade, g, forces, na, calc, loc, d0), TAG_WEB)
+        return _tag(fl, TAG_FLANGE) + _tag(web_holes(), TAG_WEB)
+    return _tag(fl, TAG_FLANGE) + _tag(_member_web(section, grade, g, forces, na, calc, loc, d0) + web_holes(), TAG_WEB)
+
+
+def _section_class(section, grade: str) -> int:
+    """Cross-section class in bending (the members layer's public classification)."""
+    from ...members.checks import section_class
+    return section_class(section, grade)
+
+
+def check_web_holes_bending(section, grade: str, g: Geometry, forces, na: NationalAnnex, calc: Calc, d0: float,
+                            cls: int, loc=None) -> CheckRecord:
+    """Beam at the splice: bending with the holes of the complete tension zone, EN 1993-1-1 6.2.5(5):
+    web holes in the tension zone may be ignored only when Eq. 6.16 (6.2.5(4)) is met for the tension
+    flange plus the web's tension zone; else the zone is reduced to the area that meets it. The section
+    is taken through one web bolt column with the flange holes (both at the splice); the moment is the
+    largest of those at the joint line, the outermost flange row and the outermost web column."""
+    from ...members import en1993_1_1 as f11
+    fy, fu = steel(grade, section.tf).f_y, steel(grade, section.tf).f_u
+    cols = 2 if g.p2o_f == 0 else 4
+    n_w = g.n_r // 2                                  # web rows above mid-depth (a row at mid-depth is not in tension)
+    At = calc(A_tz, b=section.b, t_f=section.tf, h=section.h, t_w=section.tw)
+    At_net = calc(A_tz_net, A_tz=At, n_f=cols, d_0=d0, t_f=section.tf, n_w=n_w, t_w=section.tw)
+    N_u = calc(f11.N_u_Rd, A_net=At_net, f_u=fu, gamma_M2=na.gamma_M2_member)
+    N_pl = calc(f11.N_pl_Rd, A=At, f_y=fy, gamma_M0=na.gamma_M0)
+    plastic = cls <= 2
+    if N_u >= N_pl:
+        calc.note("Eq. 6.16 met for the complete tension zone: the web holes need not be allowed for (6.2.5(5)).")
+        W = section.Wpl_y if plastic else section.Wel_y
+        how = "holes ignored (Eq. 6.16 met for flange + web tension zone)"
+    else:
+        calc.note("Eq. 6.16 not met for the complete tension zone: the zone is reduced to the area that meets it.")
+        yt = calc(y_tz, b=section.b, t_f=section.tf, h=section.h, t_w=section.tw, A_tz=At)
+        if plastic:
+            W = calc(W_pl_y_tz_net, W_pl_y=section.Wpl_y, A_tz=At, A_tz_net=At_net, f_u=fu, f_y=fy,
+                     gamma_M0=na.gamma_M0, gamma_M2=na.gamma_M2_member, y_tz=yt, t_w=section.tw)
+        else:
+            calc.note("Class 3: the elastic modulus with the tension zone's deficit taken off at its centroid "
+                      "($\\Delta A_{f}$ below is the zone's deficit, $y_{f}$ its centroid $y_{tz}$).")
+            A_eff = calc(f11.A_f_eff, A_f_net=At_net, f_u=fu, f_y=fy, gamma_M0=na.gamma_M0,
+                         gamma_M2=na.gamma_M2_member)
+            W = calc(f11.W_el_y_net, I_y=section.Iy, A=section.A, Delta_A_f=At - A_eff, y_f=yt, h=section.h)
+        how = "tension zone reduced for its holes (Eq. 6.16 not met)"
+    M_Rd = calc(f11.M_c_Rd, W_y=W, f_y=fy, gamma_M0=na.gamma_M0)
+    calc.keep("A_tz_net", At_net, "mm2")
+    calc.keep("W_y", W, "mm3")
+    M_Ed = max(abs(forces.M_f_Ed), abs(forces.M_w_a_Ed), abs(forces.M_j_Ed))
+    return calc.record(id="beam_bending_web_holes", title="Beam at the splice: bending with the holes of the "
+                       "whole tension zone, flange and web (6.2.5(5))", clause=CL_WEB_HOLES, demand=M_Ed,
+                       resistance=M_Rd, unit="Nmm", location_mm=loc,
+                       note=f"{cols} flange holes and {n_w} web hole(s) above mid-depth, d0 = {d0:g} mm; {how}; "
+                            "M the largest of the group moments (outermost flange row)")
 
 
 def _member_web(section, grade, g, forces, na, calc, loc, d0) -> list[CheckRecord]:
