@@ -400,7 +400,9 @@ def test_user_tying_force():
 def test_design_to_dict_has_units_and_caution(ep_design):
     dd = ep_design.to_dict()
     assert dd["V_Ed_kN"] == pytest.approx(250.0) and "caution" in dd and dd["detail"]["h_p_mm"] == 290.0
-    assert all(c["clause"].startswith(("EN ", "BS ")) for c in dd["checks"])
+    # a code clause, or none with the source in guidance (simple-joint detailing rules and fits)
+    assert all(c["clause"].startswith(("EN ", "BS ")) or (c["clause"] == "" and c["guidance"])
+               for c in dd["checks"])
 
 
 def test_drawing_to_scale(tmp_path, ep_design):
@@ -451,3 +453,19 @@ def test_automatic_choice_never_lighter_for_a_larger_reaction():
         if b.checks_pass:
             assert all(r.ok for r in b.records if r.checked)
     prop()
+
+
+def test_detailing_rules_cite_guidance_not_a_classification_clause(ep_design, fp_design):
+    """h_p >= 0.6 h_b, gauge 90-140 mm, e >= 2 d, t_p <= 0.5 d and the fits come from published simple-joint
+    guidance (from memory) or the geometry of the detail, not from EN 1993-1-8 5.2.2.2 (classification):
+    their clause is empty and their source is in `guidance`; a code clause stays where one applies."""
+    for d in (ep_design, fp_design):
+        for r in d.records:
+            assert "5.2.2.2" not in r.clause and "5.2.2.2" not in r.guidance, r.id
+    for rid in ("ep_hp_min", "ep_gauge_min", "ep_gauge_max"):
+        r = _rec(ep_design, rid)
+        assert r.clause == "" and "guidance" in r.guidance and "from memory" in r.guidance and r.has("detailing")
+    assert _rec(ep_design, "ex_fit_width").guidance.startswith("geometric fit")
+    assert _rec(ep_design, "ep_tp_ductility").clause == "EN 1993-1-8:2005, 6.4.2(2), Eq. 6.32"
+    for rid in ("fp_tp_ductility", "fp_e1_2d", "fp_rows_min"):
+        assert _rec(fp_design, rid).clause == "" and "guidance" in _rec(fp_design, rid).guidance

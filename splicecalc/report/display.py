@@ -114,7 +114,7 @@ class CheckOutput:
                 p["label"] = self.label         # the row's text: the title without its part's prefix
             u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf")
             md = (f"| {r.title} | {fmt_number(r.demand)}{_unit_md(r.unit)} | {fmt_number(r.resistance)}"
-                  f"{_unit_md(r.unit)} | {u} | {r.verdict} | {r.clause} |")
+                  f"{_unit_md(r.unit)} | {u} | {r.verdict} | {r.clause or r.guidance} |")
             return {CHECK_MIME: p, "text/markdown": md, "text/plain": r.summary_line()}
         u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf")
         md = [f"**{markdown_safe(r.title)}** — *{markdown_safe(r.clause)}*", ""]

@@ -178,14 +178,15 @@ def _unit_tex(unit: str) -> str:
 
 
 def rule_row_latex(p: dict[str, Any]) -> str:
-    """One check as a row of a rule table (``\\calcrule``: rule, E_d, R_d, u, verdict, clause)."""
+    """One check as a row of a rule table (``\\calcrule``: rule, E_d, R_d, u, verdict, clause; a rule with no
+    code clause shows its source, the record's ``guidance``)."""
     ut = _unit_tex(p.get("unit", ""))
     u = p.get("utilisation")
     u_txt = r"$\infty$" if u is None else f"{u:.2f}"
     verdict = "\\calcok" if p.get("ok") else "\\calcfail"
     start = f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}\\calcrevmark{{{anchor_name(str(p.get('id', '')))}}}"
     return (f"\\calcrule{{{start}{title_tex(p.get('label') or p.get('title', ''))}}}{{{fmt_number(p.get('demand'))}{ut}}}"
-            f"{{{fmt_number(p.get('resistance'))}{ut}}}{{{u_txt}}}{{{verdict}}}{{{escape_tex(p.get('clause', ''))}}}"
+            f"{{{fmt_number(p.get('resistance'))}{ut}}}{{{u_txt}}}{{{verdict}}}{{{escape_tex(p.get('clause') or p.get('guidance', ''))}}}"
             f"\\calcmark{{{anchor_name(str(p.get('id', '')), end=True)}}}\n")
 
 

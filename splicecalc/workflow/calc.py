@@ -403,7 +403,7 @@ def run_calc(job: Job, render: bool = True) -> CalcResult:
         bad = [r for p in (*parts, *conns) for r in p.records if r.checked and not r.ok and not r.id.endswith("tie_force")]
         if bad:
             r = max(bad, key=lambda r: r.utilisation)
-            return f"{r.title} exceeds capacity (u = {r.utilisation:.2f}; {r.clause})"
+            return f"{r.title} exceeds capacity (u = {r.utilisation:.2f}; {r.clause or r.guidance})"
         return None
 
     auto_splices = job.beam.is_auto and job.splices is not None

@@ -158,7 +158,7 @@ def show_rules(records: Sequence[CheckRecord], title: str, note: str = RULES_NOT
     if not recs:
         return
     head = f"\\calcrulehead{{{_tex_text(title)}}}{{{note}}}"
-    md = f"**{title}**\n\n{note}\n\n| Rule | E_d | R_d | u | Verdict | Clause |\n|:--|--:|--:|--:|:-:|:--|"
+    md = f"**{title}**\n\n{note}\n\n| Rule | E_d | R_d | u | Verdict | Clause / source |\n|:--|--:|--:|--:|:-:|:--|"
     publish(_Bundle({"text/latex": head, "text/markdown": md, "text/plain": title}))
     for r in recs:
         label = r.title.split(": ", 1)[1] if r.title.startswith(PART_PREFIXES) and ": " in r.title else ""
@@ -814,7 +814,7 @@ def parts_table(result: CalcResult) -> TableOutput:
             continue
         # a part's verdict NOT CHECKED names what is not checked, not only its highest utilisation
         gaps = [part.short_title(r) for r in part.records if not r.checked]
-        gov_text = f"{part.short_title(g)} ({g.clause})" + (f"; NOT CHECKED: {'; '.join(gaps)}" if gaps else "")
+        gov_text = f"{part.short_title(g)} ({g.clause or g.guidance})" + (f"; NOT CHECKED: {'; '.join(gaps)}" if gaps else "")
         rows.append([part.title, gov_text, str(len(part.records)),
                      fmt_utilisation(g.utilisation), _part_verdict(part.records)])
     table = TableOutput(["Part", "Governing check (clause)", "Checks", "Util.", "Verdict"], rows, align="llrrl",

@@ -36,8 +36,13 @@ from ..spacing import check_spacing
 from .formulas import t_p_max_ductility
 
 GUIDANCE = "published simple-joint guidance (from memory)"
-#: clause cited for the detailing rules that keep a joint nominally pinned
-CL_PINNED = "EN 1993-1-8:2005, 5.2.2.2 (rotation capacity of a nominally pinned joint)"
+#: clause of the detailing rules of a simple joint (h_p >= 0.6 h_b, gauge 90-140 mm, e >= 2 d, fits): none.
+#: The rules come from published simple-joint guidance (``GUIDANCE``) or the geometry of the detail
+#: (``GEOMETRY``), named in the record's ``guidance``; EN 1993-1-8 5.2.2.2 is joint classification and
+#: is not their source. A code clause is cited only where one applies (end plate t_p, 6.4.2(2)).
+CL_PINNED = ""
+#: guidance of a fit rule: the plate or bolts must physically fit the member they meet
+GEOMETRY = "geometric fit of the detail (no code clause)"
 CL_SPACING = "EN 1993-1-8:2005, 3.5, Table 3.3"
 #: nominal eccentricity of a beam reaction from the face of a column in simple construction (mm),
 #: published UK guidance for simple columns (from memory)
@@ -181,12 +186,15 @@ def weld_grade_existing(ctx: Context) -> str:
 
 def _rec(calc: Calc, id: str, title: str, clause: str, demand: float, resistance: float, note: str = "",
          unit: str = "mm", guidance: str = "") -> CheckRecord:
-    """A detailing record; a rule from published guidance names it in ``guidance`` (the clause is the code's
-    requirement the rule serves, e.g. the rotation capacity of a nominally pinned joint, 5.2.2.2)."""
+    """A detailing record (tag ``detailing``). A rule with no code clause (``clause`` empty, CL_PINNED) names
+    its source in ``guidance``: published simple-joint guidance (``note`` GUIDANCE) or the geometry of the
+    detail (GEOMETRY); ``clause`` holds a code clause only."""
     if note == GUIDANCE:                     # the rule itself is the guidance's: say so in its own field
         note, guidance = "", guidance or GUIDANCE
+    if not clause and not guidance:
+        guidance = GEOMETRY
     return calc.record(id=id, title=title, clause=clause, demand=demand, resistance=resistance, unit=unit,
-                       note=note, guidance=guidance)
+                       note=note, guidance=guidance, tags=("detailing",))
 
 
 def detailing_checks(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]:
@@ -223,7 +231,7 @@ def detailing_checks(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]
         out.append(_rec(calc, "fp_e2b_2d", "Beam web end distance e_2,b >= 2 d", CL_PINNED, 2.0 * b.d,
                         det.e_2b, GUIDANCE))
         out.append(_rec(calc, "fp_rows_min", "At least two bolt rows (moment V z)", CL_PINNED, 2.0,
-                        float(det.n_1), "a single bolt cannot resist the eccentricity", unit=""))
+                        float(det.n_1), "a single bolt cannot resist the eccentricity", unit="", guidance=GUIDANCE))
         out += check_spacing(d0, det.t_p, e_1=det.e_1, e_2=det.e_2, p_1=det.p_1 if det.n_1 > 1 else None,
                              calc=calc, id="fp_spacing", where="fin plate")
         out += check_spacing(d0, beam.tw, e_1=det.e_2b, calc=calc, id="fp_web_spacing", where="beam web")
@@ -298,5 +306,5 @@ def ceil_to(x: float, step: float) -> float:
     return math.ceil(x / step - 1e-9) * step
 
 
-__all__ = ["Detail", "Context", "detailing_checks", "fit_checks", "weld_grade_existing", "GUIDANCE", "CL_PINNED",
+__all__ = ["Detail", "Context", "detailing_checks", "fit_checks", "weld_grade_existing", "GUIDANCE", "CL_PINNED", "GEOMETRY",
            "E_NOMINAL_COLUMN", "ceil_to"]

@@ -48,8 +48,8 @@ def check_notch(beam, f_y: float, V_Ed: float, d_n: float, c: float, lever: floa
     calc = calc if calc is not None else Calc()
     out: list[CheckRecord] = []
     out.append(calc.record(id=f"{prefix}_depth", title="Notch depth d_n <= h_b / 2", clause=CL_PINNED,
-                           demand=d_n, resistance=beam.h / 2.0, unit="mm",
-                           note=f"{GUIDANCE}: a deeper notch needs a stiffened or deeper beam end; reduce the "
+                           demand=d_n, resistance=beam.h / 2.0, unit="mm", guidance=GUIDANCE, tags=("detailing",),
+                           note="a deeper notch needs a stiffened or deeper beam end; reduce the "
                                 "notch depth"))
     h_T = beam.h - d_n
     A_T = calc(A_tee, h_T=h_T, t_w=beam.tw, b=beam.b, t_f=beam.tf)
