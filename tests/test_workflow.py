@@ -144,7 +144,8 @@ def test_records_complete_unique_and_summary_sorted(demo_result):
     recs = r.records
     ids = [x.id for x in recs]
     assert len(ids) == len(set(ids))
-    n = (len(r.design.records) + len(r.positions.records) + sum(len(s.design.records) for s in r.splices)
+    n = (len(r.design.records) + len(r.positions.records)
+         + sum(len(s.design.records) + sum(1 for x in s.records if x.has("accidental")) for s in r.splices)  # + tie
          + sum(len(c.design.records) + 1 for c in r.connections))   # + the tie-force INFO record of each end
     assert len(recs) == n                                                # every part's records, once
     summ = r.summary_records

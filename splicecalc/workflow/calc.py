@@ -312,6 +312,31 @@ def design_splices(job: Job, design: BeamDesign, render: bool = True,
     return plan, tuple(out)
 
 
+def splice_tie_checks(job: Job, splices: tuple, connections: tuple, render: bool = True) -> tuple:
+    """Each splice with its checks under the end connections' tie force added (accidental situation,
+    :func:`splicecalc.joints.splice.tying.tie_records`): the tie runs the length of the beam. Without
+    end connections there is no tie force: a NOT CHECKED record says so."""
+    if not splices:
+        return splices
+    from ..core.record import not_checked
+    from ..joints.splice.tying import tie_records
+    ties = [(c.design.tie, c.design.tie_basis, c.end) for c in connections]
+    out = []
+    for s in splices:
+        if ties:
+            T, basis, end = max(ties, key=lambda t: t[0])
+            recs = tie_records(s.design, job.splices, T, job.na, render=render, loc=s.x_mm,
+                               basis=f"end {end}: {basis}")
+        else:
+            recs = [not_checked(id="tie", title="Tie force through the splice (accidental)",
+                                clause="EN 1991-1-7:2006, A.5.1, Eq. (A.1)", location_mm=s.x_mm,
+                                reason="no [[support]] is given, so the beam's tie force is not known; the splice "
+                                       "must carry it (give the supports, or check the tie separately)")]
+        extra = tuple(_relabel(r, s.label, f"Splice {s.label}") for r in recs)
+        out.append(replace(s, records=s.records + extra))
+    return tuple(out)
+
+
 def splice_slip_checks(job: Job, design: BeamDesign, plan: Any, render: bool = True) -> tuple[CheckRecord, ...]:
     """The SLS deflection checks repeated with the slip of category A splices."""
     if plan is None or not plan.designs:
@@ -417,6 +442,7 @@ def run_calc(job: Job, render: bool = True) -> CalcResult:
         connections = design_connections(job, design, render=render)
         plan, splices = design_splices(job, design, render=render, end_mass_kg=_end_masses(job, connections))
     positions = plan.positions if plan is not None else None
+    splices = splice_tie_checks(job, splices, connections, render=render)
     slip = splice_slip_checks(job, design, plan, render=render)
     rounds = plan.rounds if plan is not None else 0
     kit_mass = plan.kit_mass_kg if plan is not None else 0.0
@@ -428,5 +454,5 @@ def run_calc(job: Job, render: bool = True) -> CalcResult:
 
 
 __all__ = ["CalcError", "CalcResult", "ConnectionPart", "SplicePart", "design_connections", "design_member",
-           "design_splices", "member_checks", "run_calc", "splice_envelope", "splice_slip_checks", "END_LETTER",
+           "design_splices", "member_checks", "run_calc", "splice_envelope", "splice_slip_checks", "splice_tie_checks", "END_LETTER",
            "MAX_ROUNDS"]
