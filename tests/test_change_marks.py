@@ -47,10 +47,19 @@ def _project(rev: str) -> dict:
 
 
 # ----------------------------------------------------------------- which outputs changed
+def _rev(nb: dict, rev: str) -> dict:
+    nb["metadata"] = {"splicecalc": {"revision": rev}}
+    return nb
+
+
 def test_same_content_is_unchanged_and_the_revision_code_alone_is_no_change():
-    old = _nb([_project("P1"), _check("a", 0.5)], [_check("b", 0.7)])
-    new = _nb([_project("P2"), _check("a", 0.5)], [_check("b", 0.7)])
+    line = "**Project (from the job file):** number J1; title Beam; revision {}."
+    old = _rev(_nb([_project("P1"), _md(line.format("P1")), _check("a", 0.5)], [_check("b", 0.7)]), "P1")
+    new = _rev(_nb([_project("P2"), _md(line.format("P2")), _check("a", 0.5)], [_check("b", 0.7)]), "P2")
     assert changed_outputs(old, new) == []
+    other = _rev(_nb([_project("P3"), _md(line.format("P3")), _check("a", 0.5)], [_check("b", 0.7)]), "P2")
+    assert changed_outputs(old, other) == [(0, 0), (0, 1)]          # not the package's own code: a change
+    assert output_fingerprint(_md("plate P2 of 4"), "P2") != output_fingerprint(_md("plate P1 of 4"), "P1")
 
 
 def test_a_changed_record_is_marked_at_its_place_and_a_moved_one_is_not():

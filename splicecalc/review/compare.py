@@ -22,6 +22,7 @@ from __future__ import annotations
 import hashlib
 import json
 import math
+import re
 from dataclasses import dataclass
 from typing import Any
 
@@ -310,16 +311,15 @@ def comparison_text(c: dict[str, Any]) -> str:
 # ----------------------------------------------------------------- changed outputs (change bars)
 #: the MIME type of a figure's data (drawn from it; its PDF / PNG bytes carry creation dates)
 _FIGURE_MIME = "application/vnd.splicecalc.figure+json"
-#: a table of the title block's fields: its revision row differs in every revision, like every sheet's strip
-_PROJECT_TABLE = "Project (from the job file)"
 
 
-def output_fingerprint(output: Any) -> str:
+def output_fingerprint(output: Any, revision: str = "") -> str:
     """SHA-256 of what the package prints of one notebook output: the first MIME type of
     :data:`~splicecalc.report.display.DISPLAY_PRIORITY` it carries (a check record's JSON with its
     rendered steps, a table's rows, markdown text), a figure's data rather than its image bytes,
-    printed text of a stream. The revision row of the project table is left out (the revision code
-    is on every sheet's strip; a new code is not a change of content)."""
+    printed text of a stream. ``revision``: the package's revision code, which is left out where the
+    output names it ("revision P2", a table's "Revision" | "P2" row): a new code is on every sheet's
+    strip and is not a change of content."""
     from ..report.display import DISPLAY_PRIORITY
 
     if not isinstance(output, dict):
@@ -331,14 +331,25 @@ def output_fingerprint(output: Any) -> str:
         data = output.get("data") if isinstance(output.get("data"), dict) else {}
         mime = _FIGURE_MIME if _FIGURE_MIME in data else next((m for m in DISPLAY_PRIORITY if m in data), None)
         value = data.get(mime) if mime else sorted(data)
-        if mime == TABLE_MIME and isinstance(value, dict) and value.get("title") == _PROJECT_TABLE:
-            value = dict(value, rows=[r for r in value.get("rows") or []
-                                      if not (isinstance(r, list) and r and r[0] == "Revision")])
         if isinstance(value, list) and mime and mime.startswith("text/"):
             value = "".join(str(x) for x in value)
         body = [str(mime), value]
     raw = json.dumps(body, sort_keys=True, ensure_ascii=False, separators=(",", ":"), default=str)
+    if revision:
+        raw = re.sub(r'(?i)(revision[\s"\[\],:]*)' + re.escape(revision) + r"(?![A-Za-z0-9])", r"\1<revision>", raw)
     return hashlib.sha256(raw.encode("utf-8")).hexdigest()
+
+
+def _revision_of(nb: Any) -> str:
+    """The revision code a notebook was built for (its title block, else its job's [project])."""
+    meta = nb.get("metadata", {}).get("splicecalc", {}) if isinstance(nb, dict) else {}
+    rev = meta.get("revision") if isinstance(meta, dict) else None
+    if not rev:
+        try:
+            rev = (job_inputs(nb).get("project") or {}).get("revision")
+        except (ValueError, TypeError, AttributeError):
+            rev = None
+    return str(rev or "").strip()
 
 
 def _outputs(nb: Any):
@@ -355,10 +366,11 @@ def changed_outputs(old_nb: Any, new_nb: Any) -> list[tuple[int, int]]:
     what was removed is listed by the comparison (checks removed), it has no place to carry a bar."""
     from collections import Counter
 
-    have = Counter(output_fingerprint(o) for _, _, o in _outputs(old_nb))
+    ra, rb = _revision_of(old_nb), _revision_of(new_nb)
+    have = Counter(output_fingerprint(o, ra) for _, _, o in _outputs(old_nb))
     out = []
     for ci, oi, o in _outputs(new_nb):
-        f = output_fingerprint(o)
+        f = output_fingerprint(o, rb)
         if have[f] > 0:
             have[f] -= 1
         else:
