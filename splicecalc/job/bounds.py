@@ -120,6 +120,9 @@ BOUNDS: tuple[Bound, ...] = (
     # ---------------------------------------------------------------- supports
     Bound("support[].tying_force", "N", 1000.0, 2.0e6, "kN", "a tying force",
           "UK practice asks at least 75 kN; beyond 2000 kN no simple end connection ties it", "'75 kN'"),
+    Bound("support[].top_below_existing", "mm", -1000.0, 1000.0, "mm", "a level of the new beam's top",
+          "measured from the existing beam's top (negative: above it); beyond 1 m the new beam does not meet that "
+          "existing beam's web", "'0 mm'"),
     # loads already on the existing member ([support.existing_loads], characteristic values)
     Bound("support[].existing_loads.span", "mm", 1000.0, 36000.0, "m", "the existing beam's span",
           "as for the new beam: rolled sections of buildings", "'6 m'"),

@@ -114,6 +114,7 @@ REFERENCE: dict[str, dict[str, tuple[str, str]]] = {
         "existing_face": ("text", "'column flange' | 'column web' | 'beam web'"),
         "existing_steel": ("any", "era band ('1950-1958' ...), 'unknown', a grade, or coupon tests"),
         "notch_top": ("table", "top notch of the new beam: depth and length"),
+        "top_below_existing": ("length", "beam web only: new beam top below the existing beam top (0 = level)"),
         "tying_force": ("force", "tying force (default from the loads, at least 75 kN)"),
         "rows": ("integer", "bolt rows (default chosen)"),
         "pitch": ("length", "bolt pitch (default chosen)"),

@@ -696,6 +696,9 @@ def _connection_head(part: Any) -> None:
             ["Tying force (accidental, structural integrity)", f"{d.tie / 1e3:.1f} kN",
              re.sub(r"\b([A-Za-z]{1,2}|psi|gamma)_([A-Za-z0-9]+)\b", r"\1\2", d.tie_basis)],
             ["Existing member", getattr(spec.existing_member, "designation", ""), spec.existing_face]]
+    if d.spec.notch_text != "-" or d.spec.notch_basis:
+        rows.append(["Notches of the new beam (depth x length)", d.spec.notch_text,
+                     "designed from the levels of both members" if d.spec.notch_basis else "job"])
     show_table(["Item", "Value", "Source"], rows, align="lll", title=f"Support {part.end} actions")
     desc = d.detail.describe()
     show_text(f"**Detail.** {desc[:1].upper() + desc[1:]}.\n\n{d.choice}")
@@ -732,7 +735,9 @@ def show_connections(result: CalcResult) -> None:
     shown: list[Any] = []
     for part in result.connections:
         like = next((c for c in shown if c.spec.connection == part.spec.connection
-                     and c.design.detail.describe() == part.design.detail.describe()), None)
+                     and c.design.detail.describe() == part.design.detail.describe()
+                     and c.design.spec.notch_text == part.design.spec.notch_text
+                     and c.spec.existing_face == part.spec.existing_face), None)
         show_connection(result, part, like)
         if like is None:
             shown.append(part)

@@ -24,7 +24,7 @@ from .detail import Context, Detail, ceil_to, detailing_checks, weld_grade_exist
 from .endplate import end_plate_checks
 from .existing import ExistingResult, existing_checks, existing_material
 from .finplate import fin_plate_checks
-from .notch import check_notch
+from .notch import check_double_notch, check_notch, notch_fit
 from .spec import TYING_MIN_N, SupportSpec
 
 #: standard fillet leg sizes (mm)
@@ -95,6 +95,10 @@ class ConnectionDesign:
         return {"support": self.spec.index, "at": self.spec.at, "connection": self.spec.connection,
                 "V_Ed_kN": self.V_Ed / 1e3, "tying_force_kN": self.tie / 1e3, "tying_basis": self.tie_basis,
                 "detail": self.detail.to_dict(), "ok": self.ok, "choice": self.choice,
+                "notches": {"top_depth_mm": self.spec.notch_depth, "top_length_mm": self.spec.notch_length,
+                            "bottom_depth_mm": self.spec.notch_bottom_depth,
+                            "bottom_length_mm": self.spec.notch_bottom_length,
+                            "top_below_existing_mm": self.spec.level, "basis": self.spec.notch_basis},
                 "existing": {"material": self.existing.material.label, "f_y_MPa": self.existing.material.f_y,
                              "f_u_MPa": self.existing.material.f_u, "historic": self.existing.material.historic,
                              "M_add_kNm": self.existing.M_add_Nmm / 1e6, "e_mm": self.existing.e_mm,
@@ -140,14 +144,14 @@ def _candidates(ctx: Context, spec: SupportSpec, bolt) -> tuple[list[Detail], st
         e_2 = ceil_to(2.5 * d, 5.0)
         thick = (spec.plate_t,) if spec.plate_t else FIN_PLATE_T
         gauges = (0.0,)
-    top = ctx.web_top
+    top = ctx.plate_top_min
     n_lo = 1 if kind == "end plate" else 2
     if spec.rows:
         rows = [spec.rows]
         note = f"{spec.rows} rows as specified"
     else:
         n_min = max(n_lo, math.ceil((0.6 * ctx.beam.h - 2.0 * e_1) / p_1 - 1e-9) + 1)
-        n_fit = math.floor((ctx.web_bottom - top - 2.0 * e_1) / p_1 + 1e-9) + 1
+        n_fit = math.floor((ctx.plate_bottom_max - top - 2.0 * e_1) / p_1 + 1e-9) + 1
         n_max = min(MAX_ROWS, max(n_min, n_fit))
         rows = list(range(n_min, n_max + 1))
         note = (f"rows tried {n_min} to {n_max} (fewer than {n_min} would make h_p < 0.6 h_b; more than "
@@ -179,13 +183,39 @@ def evaluate(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> tuple[list[C
         recs += end_plate_checks(ctx, det, V_Ed, calc)
     else:
         recs += fin_plate_checks(ctx, det, V_Ed, calc)
-    if ctx.notched:
-        lever = ctx.notch_length + (det.t_p if det.kind == "end plate" else det.gap)
-        recs += check_notch(ctx.beam, ctx.beam_mat.f_y, V_Ed, ctx.notch_depth, ctx.notch_length, lever, na=ctx.na,
-                            calc=calc)
+    z0 = det.t_p if det.kind == "end plate" else det.gap
+    holes = det.n_1 if det.kind == "fin plate" else 0      # fin plate bolts sit in the notched length
+    fy, fu = ctx.beam_mat.f_y, ctx.beam_mat.f_u
+    if ctx.notched and ctx.notch_bottom:
+        c = max(ctx.notch_length, ctx.notch_bottom_length or 0.0)
+        recs += check_double_notch(ctx.beam, fy, fu, V_Ed, ctx.notch_depth, ctx.notch_bottom, c, c + z0,
+                                   tie=ctx.tie, holes=holes, d_0=det.bolt.d_0, na=ctx.na, calc=calc)
+    elif ctx.notched:
+        recs += check_notch(ctx.beam, fy, V_Ed, ctx.notch_depth, ctx.notch_length, ctx.notch_length + z0,
+                            na=ctx.na, calc=calc, tie=ctx.tie, f_u=fu, holes=holes, d_0=det.bolt.d_0)
+    elif ctx.notch_bottom:
+        recs += check_notch(ctx.beam, fy, V_Ed, ctx.notch_bottom, ctx.notch_bottom_length,
+                            ctx.notch_bottom_length + z0, na=ctx.na, calc=calc, prefix="notch_bottom", tie=ctx.tie,
+                            f_u=fu, holes=holes, d_0=det.bolt.d_0)
     ex = existing_checks(ctx, det, V_Ed, calc)
     recs += list(ex.records)
     return recs, ex
+
+
+def _fit_notches(beam: Any, spec: Any) -> Any:
+    """On an existing beam web, find from the levels of both members where the new beam's flanges meet the
+    existing flanges and root fillets, and design the notches the job did not give (top and / or bottom)."""
+    if not isinstance(spec, SupportSpec) or spec.existing_face != "beam web" or not hasattr(beam, "h"):
+        return spec
+    fit = notch_fit(beam, spec.existing_member, spec.level)
+    kw: dict[str, Any] = {"notch_basis": fit.text}
+    if fit.top and not spec.notched:
+        kw.update(notch_depth=fit.top, notch_length=fit.length)
+    elif spec.notched and fit.top:
+        kw["notch_basis"] = fit.text + f" Top notch as given in the job: {spec.notch_depth:g} x {spec.notch_length:g} mm."
+    if fit.bottom:
+        kw.update(notch_bottom_depth=fit.bottom, notch_bottom_length=fit.length)
+    return replace(spec, **kw)
 
 
 def _label(det: Detail) -> str:
@@ -243,6 +273,7 @@ def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec:
     from ...materials.historic import existing_material_of
     from .existing_member import existing_member_checks
 
+    spec = _fit_notches(beam_section, spec)
     V, grade = _validate(beam_section, beam_grade, V_Ed, spec, na)
     bolt = get_bolt(spec.bolt_size, spec.bolt_class)
     mat = existing_material(spec.existing_member, spec.existing_face, spec.existing_steel)
@@ -254,7 +285,9 @@ def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec:
         tie, tie_basis = TYING_MIN_N, "75 kN minimum (the beam's loads were not given to compute it)"
     ctx = Context(beam=beam_section, beam_grade=grade, beam_mat=steel(grade, beam_section.tf),
                   existing=spec.existing_member, face=spec.existing_face, existing_mat=mat, na=na,
-                  tie=tie, notch_depth=spec.notch_depth, notch_length=spec.notch_length)
+                  tie=tie, notch_depth=spec.notch_depth, notch_length=spec.notch_length,
+                  notch_bottom=spec.notch_bottom_depth, notch_bottom_length=spec.notch_bottom_length,
+                  level=spec.level)
     cands, row_note = _candidates(ctx, spec, bolt)
     rejected: list[str] = []
     chosen = None
@@ -280,7 +313,7 @@ def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec:
         head = (f"NO candidate passes every check; shown: {_label(chosen)} (lowest governing utilisation "
                 f"{best[1]:.2f}). Change the connection type, bolt size, plate grade or the existing-member "
                 "assumptions")
-    parts = [head + "."]
+    parts = [head + "."] + ([spec.notch_basis] if spec.notch_basis else [])
     if auto:
         parts.append("Chosen automatically: " + ", ".join(auto) + f"; {row_note}; weld leg = smallest standard "
                      "leg giving a full-strength weld (EN 1993-1-8 4.5.3.2).")

@@ -142,6 +142,9 @@ class Context:
     tie: float                     # tying force, N
     notch_depth: float | None = None
     notch_length: float | None = None
+    notch_bottom: float | None = None        # bottom notch depth (mm)
+    notch_bottom_length: float | None = None
+    level: float = 0.0                       # beam web: new beam top below the existing top (mm)
 
     @property
     def t_supp(self) -> float:
@@ -154,8 +157,28 @@ class Context:
 
     @property
     def web_bottom(self) -> float:
-        """Depth from the beam top to the bottom of the usable web (top of the bottom root fillet), mm."""
-        return self.beam.h - self.beam.tf - self.beam.r
+        """Depth from the beam top to the bottom of the usable web (mm): above the bottom root fillet, and
+        at least 10 mm above a bottom notch."""
+        flat = self.beam.h - self.beam.tf - self.beam.r
+        if self.notch_bottom:
+            return min(flat, self.beam.h - self.notch_bottom - 10.0)
+        return flat
+
+    @property
+    def plate_top_min(self) -> float:
+        """Highest plate top (mm below the new beam top): on the new web and, on an existing beam web, below
+        the existing top root fillet."""
+        if self.face == "beam web":
+            return max(self.web_top, self.existing.tf + self.existing.r - self.level)
+        return self.web_top
+
+    @property
+    def plate_bottom_max(self) -> float:
+        """Lowest plate bottom (mm below the new beam top): on the new web and, on an existing beam web,
+        above the existing bottom root fillet."""
+        if self.face == "beam web":
+            return min(self.web_bottom, self.existing.h - self.existing.tf - self.existing.r - self.level)
+        return self.web_bottom
 
     @property
     def web_top(self) -> float:
@@ -284,20 +307,49 @@ def fit_checks(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]:
             out.append(_rec(calc, "ex_fit_flange", "New beam flange fits between the column flanges", CL_PINNED,
                             ctx.beam.b, space, "b of the new beam <= h - 2 t_f of the column: else notch the "
                             "beam flanges"))
-        if ctx.face == "beam web" and ctx.notched:
-            low = ex.h - ex.tf - ex.r
-            out.append(_rec(calc, "ex_fit_web_bottom", "Plate bottom above the existing beam's bottom root fillet "
-                            "(top flanges level)", CL_PINNED, det.top + det.h_p, low,
-                            f"plate from {det.top:g} to {det.top + det.h_p:g} mm below the top; the existing web is "
-                            f"flat down to h - t_f - r = {low:.1f} mm: use fewer rows, a smaller pitch or a "
-                            "shallower notch"))
-            need = ex.tf + ex.r
-            out.append(_rec(calc, "ex_fit_notch", "Top notch clears the existing top flange and fillet "
-                            "(top flanges level)", CL_PINNED, need, ctx.notch_depth,
-                            "notch depth >= t_f + r of the existing beam"))
-            need_c = (ex.b - ex.tw) / 2.0 + det.gap + (det.t_p if det.kind == "end plate" else 0.0)
-            out.append(_rec(calc, "ex_fit_notch_len", "Top notch length clears the existing flange outstand",
-                            CL_PINNED, need_c, ctx.notch_length, "(b - t_w)/2 of the existing beam plus the gap"))
+        if ctx.face == "beam web":
+            out += _beam_web_fit(ctx, det, calc)
+    return out
+
+
+def _beam_web_fit(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]:
+    """Levels on an existing beam web: the plate on its flat web, the new beam's flanges clear of its flanges
+    and root fillets (notches), from the levels of both members (ctx.level: new top below existing top)."""
+    from .notch import notch_fit
+    ex, lv = ctx.existing, ctx.level
+    where = ("tops of steel level" if abs(lv) < 1e-9 else f"new beam top {lv:g} mm below the existing top")
+    out: list[CheckRecord] = []
+    high = ex.tf + ex.r
+    out.append(_rec(calc, "ex_fit_web_top", f"Plate top below the existing beam's top root fillet ({where})",
+                    CL_PINNED, high, lv + det.top,
+                    f"plate top {lv + det.top:g} mm below the existing top; the existing web is flat from t_f + r = "
+                    f"{high:.1f} mm: lower the plate (a deeper top notch)"))
+    low = ex.h - ex.tf - ex.r
+    out.append(_rec(calc, "ex_fit_web_bottom", f"Plate bottom above the existing beam's bottom root fillet ({where})",
+                    CL_PINNED, lv + det.top + det.h_p, low,
+                    f"plate from {lv + det.top:g} to {lv + det.top + det.h_p:g} mm below the existing top; the "
+                    f"existing web is flat down to h - t_f - r = {low:.1f} mm: use fewer rows, a smaller pitch or a "
+                    "shallower notch"))
+    fit = notch_fit(ctx.beam, ex, lv)
+    lengths = []
+    if fit.need_top > 0.0:
+        out.append(_rec(calc, "ex_fit_notch", f"New beam's top clears the existing top flange and root fillet ({where})",
+                        CL_PINNED, fit.need_top, ctx.notch_depth or 0.0,
+                        f"cut needed = existing t_f + r - level = {high:.1f} - {lv:g} mm; top notch given "
+                        f"{ctx.notch_depth or 0:g} mm: notch the top flange", guidance=GUIDANCE))
+        lengths.append(ctx.notch_length or 0.0)
+    if fit.need_bottom > 0.0:
+        out.append(_rec(calc, "ex_fit_notch_bottom", f"New beam's bottom clears the existing bottom flange and root "
+                        f"fillet ({where})", CL_PINNED, fit.need_bottom, ctx.notch_bottom or 0.0,
+                        f"cut needed = level + h_b - (h - t_f - r) of the existing = {lv:g} + {ctx.beam.h:g} - "
+                        f"{low:.1f} mm; bottom notch {ctx.notch_bottom or 0:g} mm: notch the bottom flange",
+                        guidance=GUIDANCE))
+        lengths.append(ctx.notch_bottom_length or 0.0)
+    if lengths:
+        out.append(_rec(calc, "ex_fit_notch_len", "Notch length clears the existing flange outstand", CL_PINNED,
+                        fit.need_length, min(lengths),
+                        f"(b - t_w)/2 = ({ex.b:g} - {ex.tw:g})/2 of the existing beam, from its web face (the plate "
+                        "thickness or gap taken as tolerance)", guidance=GUIDANCE))
     return out
 
 

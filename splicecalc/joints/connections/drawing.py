@@ -52,8 +52,10 @@ def _existing(ax, design, y_top, y_bot):
            (cx + ex.tw / 2, -ex.h + ex.tf), (cx + ex.b / 2, -ex.h + ex.tf), (cx + ex.b / 2, -ex.h),
            (cx - ex.b / 2, -ex.h), (cx - ex.b / 2, -ex.h + ex.tf), (cx - ex.tw / 2, -ex.h + ex.tf),
            (cx - ex.tw / 2, -ex.tf), (cx - ex.b / 2, -ex.tf)]
-    ax.add_patch(Polygon(pts, closed=True, **_STEEL))
-    return f"existing beam {ex.designation} in section, web face (top flanges level)"
+    lv = getattr(design.spec, "level", 0.0)
+    ax.add_patch(Polygon([(x, y - lv) for x, y in pts], closed=True, **_STEEL))
+    where = "tops of steel level" if abs(lv) < 1e-9 else f"new top {lv:g} mm below the existing top"
+    return f"existing beam {ex.designation} in section, web face ({where})"
 
 
 @plain_text_figures
@@ -72,12 +74,14 @@ def draw_connection(design, path: str | os.PathLike | None = None, length_mm: fl
     x0 = det.t_p if det.kind == "end plate" else det.gap
     dn, c = spec.notch_depth or 0.0, spec.notch_length or 0.0
     # new beam outline (elevation): flanges as bands, notch cut from the top
-    pts = [(x0 + c, 0.0), (x0 + L, 0.0), (x0 + L, -beam.h), (x0, -beam.h), (x0, -dn)]
-    if dn:
-        pts.append((x0 + c, -dn))
+    dnb, cb = getattr(spec, "notch_bottom_depth", None) or 0.0, getattr(spec, "notch_bottom_length", None) or 0.0
+    pts = [(x0 + c, 0.0), (x0 + L, 0.0), (x0 + L, -beam.h)]
+    pts += [(x0 + cb, -beam.h), (x0 + cb, -beam.h + dnb), (x0, -beam.h + dnb)] if dnb else [(x0, -beam.h)]
+    pts += [(x0, -dn), (x0 + c, -dn)] if dn else [(x0, 0.0)]
     ax.add_patch(Polygon(pts, closed=True, **_NEW))
     ax.plot([x0 + c if dn else x0, x0 + L], [-beam.tf, -beam.tf], color="black", linewidth=0.6)
-    ax.plot([x0, x0 + L], [-beam.h + beam.tf, -beam.h + beam.tf], color="black", linewidth=0.6)
+    ax.plot([x0 + (cb if dnb else 0.0), x0 + L], [-beam.h + beam.tf, -beam.h + beam.tf], color="black",
+            linewidth=0.6)
     yp0, yp1 = -det.top, -det.top - det.h_p
     rows = [yp0 - det.e_1 - i * det.p_1 for i in range(det.n_1)]
     d0 = det.bolt.d_0

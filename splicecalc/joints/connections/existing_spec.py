@@ -20,7 +20,9 @@ Supporting beam (the new beam lands on the web of an existing beam)::
     at = "2.1 m"                     # where the new beam lands, from the existing beam's left support
     udl = { permanent = "8 kN/m", imposed = "5 kN/m" }
     points = [{ at = "4.0 m", permanent = "20 kN", imposed = "10 kN" }]   # optional
-    restraints = ["3.0 m"]           # optional lateral restraints between the supports
+    restraints = ["3.0 m"]           # optional lateral restraints between the supports (none within
+                                     # 50 mm of ``at`` unless torsion = "restrained": the one-sided
+                                     # connection itself does not hold the compression flange)
     category = "B"                   # optional
     load_level = "top flange"        # level of its own loads (the new reaction acts at the bolt group)
     deflection_limit = 360           # optional, span / N under the variable actions
@@ -40,6 +42,9 @@ from ...core.errors import InputError, require_in_range
 from ...core.units import parse_quantity
 
 KINDS = ("column", "beam")
+#: a lateral restraint of an existing beam this close to the new beam's connection (mm) is taken as the
+#: connection itself: refused while the beam is free to twist there (see :func:`parse_existing_loads`)
+RESTRAINT_AT_CONNECTION_MM = 50.0
 _COLUMN_KEYS = ("kind", "height", "height_y", "height_z", "axial", "moment_y", "moment_z", "category",
                 "moment_share", "moment_ratio")
 _BEAM_KEYS = ("kind", "span", "at", "udl", "points", "restraints", "category", "load_level", "deflection_limit",
@@ -203,6 +208,13 @@ def parse_existing_loads(table: Any, face: str, pre: str) -> ExistingColumnLoads
     if tors not in ("free", "restrained"):
         raise InputError(f"{pre}.torsion", tors, "'free' (the torsion is checked here) or 'restrained' (the "
                                                  "floor prevents the twist: stated, to be confirmed)")
+    for i, x in enumerate(restr):
+        if tors == "free" and abs(x - at) <= RESTRAINT_AT_CONNECTION_MM:
+            raise InputError(f"{pre}.restraints[{i + 1}]", rs[i],
+                             f"no restraint at the new beam's connection (at = {at / 1000:g} m) while torsion = "
+                             "'free': a one-sided partial-depth connection does not hold the compression flange, "
+                             "so remove it (LTB over the real unrestrained length) or write torsion = "
+                             "'restrained' if the floor holds the flange there")
     return ExistingBeamLoads(span=span, at=at, udl=_pair(table.get("udl"), "N/mm", f"{pre}.udl"), points=tuple(pts),
                              restraints=tuple(sorted(set(restr))), category=_category(table, pre),
                              load_level=level, deflection_limit=lim, torsion=tors)

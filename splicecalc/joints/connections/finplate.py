@@ -27,7 +27,7 @@ from __future__ import annotations
 
 from dataclasses import replace
 
-from ...core.record import Calc, CheckRecord
+from ...core.record import Calc, CheckRecord, not_checked
 from ...materials.steel import steel
 from ...members.en1993_1_1 import V_pl_Rd
 from ..bolts import BEARING_2D_CONVENTION, BEARING_2D_GUIDANCE, F_b_Rd_lap, F_r_Ed, F_v_Rd, U_b_2d, bearing_resistance, shear_factor_alpha_v
@@ -149,6 +149,12 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
         calc.keep("V_Rd_n", V_n, "N")
         out.append(calc.record(id="fp_web_shear", title="Beam web shear at the bolt line, gross and net",
                                clause="EN 1993-1-1:2005, 6.2.6(7)", demand=V_Ed, resistance=min(V_g, V_n), unit="N"))
+    elif ctx.notch_bottom:
+        out.append(not_checked(id="fp_web_shear_net", title="Notched beam web: net shear and block tearing at the "
+                               "bolt line (double notch)", clause="EN 1993-1-1:2005, 6.2.6(7)",
+                               reason="the beam is notched at both flanges: the net shear of the web rectangle less "
+                                      "the holes and the block tearing of the web are not implemented for a fin "
+                                      "plate; check by hand (EN 1993-1-8 3.10.2) or use an end plate"))
     else:
         h_T = beam.h - ctx.notch_depth
         A_T = calc(A_tee, h_T=h_T, t_w=beam.tw, b=beam.b, t_f=beam.tf)

@@ -181,6 +181,34 @@ def c_lim_notch(h_b: float, t_w: float, f_y: float, f_ref: float = 275.0) -> flo
     return c_lim
 
 
+# ------------------------------------------------------------------ double notch (both flanges cut)
+
+
+@clause("EN 1993-1-1:2005, 6.2.5(2)", units={"h_b": "mm", "d_nt": "mm", "d_nb": "mm"}, returns="mm",
+        example=dict(h_b=454.6, d_nt=35.0, d_nb=30.0))
+def h_w_notch(h_b: float, d_nt: float, d_nb: float) -> float:
+    """Depth of the web left between a top and a bottom notch (mm): h_b - d_nt - d_nb (a rectangle)."""
+    h_w_N = h_b - d_nt - d_nb
+    return h_w_N
+
+
+@clause("EN 1993-1-1:2005, 6.2.6(2), Eq. 6.18", units={"h_w": "mm", "t_w": "mm"}, returns="mm2",
+        example=dict(h_w=389.6, t_w=8.1))
+def A_v_rect(h_w: float, t_w: float) -> float:
+    """Shear area of the rectangular web left by a double notch (mm2): the whole web, h_w t_w
+    (published notched-beam guidance, from memory)."""
+    A_v_N = h_w * t_w
+    return A_v_N
+
+
+@clause("EN 1993-1-1:2005, 6.3.2.1", units={"h_b": "mm"}, returns="mm", example=dict(h_b=454.6))
+def d_lim_double_notch(h_b: float) -> float:
+    """Deepest notch (top or bottom) of a double-notched restrained beam needing no stability check (mm):
+    h_b / 5 (published notched-beam guidance, from memory)."""
+    d_lim = h_b / 5
+    return d_lim
+
+
 # ------------------------------------------------------------------ tying (T-stub, 6.2.4 with f_u, gamma_Mu)
 
 

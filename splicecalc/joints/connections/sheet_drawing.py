@@ -7,7 +7,8 @@ kind ``"connection"``).
 
 * Elevation: the existing member at the left (x = 0 its face), the new beam to the right
   (y = 0 its top, the beam below), the plate, bolt rows, welds, top notch, dimensioned
-  (plate top, e1, pitch, plate depth, notch depth x length).
+  (plate top, e1, pitch, plate depth, notch depth x length, top and bottom notches); on an existing
+  beam web the existing section is drawn at its level against the new beam (``top_below_existing_mm``).
 * Second view: for an end plate the view on the plate (width, gauge, edge distance, bolt
   holes, web welds each side); for a fin plate a plan section through the bolts (support,
   plate, beam web, bolt line distance z, gap).
@@ -45,6 +46,9 @@ def connection_drawing_data(design: Any, title: str = "") -> dict[str, Any]:
                   "p3_mm": det.p_3, "z_mm": det.z, "gap_mm": det.gap, "e2b_mm": det.e_2b},
         "weld_leg_mm": det.weld_leg,
         "notch": {"depth_mm": spec.notch_depth or 0.0, "length_mm": spec.notch_length or 0.0},
+        "notch_bottom": {"depth_mm": getattr(spec, "notch_bottom_depth", None) or 0.0,
+                         "length_mm": getattr(spec, "notch_bottom_length", None) or 0.0},
+        "top_below_existing_mm": getattr(spec, "level", 0.0),
     }
 
 
@@ -63,6 +67,9 @@ def draw_connection_data(data: dict[str, Any]) -> Any:
     tp, hp, bp, top = pl["t_mm"], pl["h_mm"], pl["b_mm"], pl["top_mm"]
     leg = data["weld_leg_mm"]
     dn, c = data["notch"]["depth_mm"], data["notch"]["length_mm"]
+    nb = data.get("notch_bottom") or {}
+    dnb, cb = nb.get("depth_mm", 0.0), nb.get("length_mm", 0.0)
+    lv = data.get("top_below_existing_mm", 0.0)             # existing top at y = +lv
     rows = [-top - bo["e1_mm"] - i * bo["p1_mm"] for i in range(bo["rows"])]
     steel = dict(facecolor="0.86", edgecolor="black", linewidth=0.7)
     new = dict(facecolor="white", edgecolor="black", linewidth=0.9)
@@ -94,9 +101,10 @@ def draw_connection_data(data: dict[str, Any]) -> Any:
         pts = [(cx - eb / 2, 0), (cx + eb / 2, 0), (cx + eb / 2, -etf), (cx + etw / 2, -etf),
                (cx + etw / 2, -eh + etf), (cx + eb / 2, -eh + etf), (cx + eb / 2, -eh), (cx - eb / 2, -eh),
                (cx - eb / 2, -eh + etf), (cx - etw / 2, -eh + etf), (cx - etw / 2, -etf), (cx - eb / 2, -etf)]
-        ax.add_patch(Polygon(pts, closed=True, **steel))
+        ax.add_patch(Polygon([(x, y - lv) for x, y in pts], closed=True, **steel))
         x_left = cx - eb / 2
-        y_bot = min(y_bot, -eh - 30.0)
+        y_top = max(y_top, -lv + 30.0)
+        y_bot = min(y_bot, -lv - eh - 30.0)
     else:
         t_face = ex["tf_mm"] if face == "column flange" else ex["tw_mm"]
         ax.add_patch(Rectangle((-t_face, y_bot), t_face, y_top - y_bot, **steel))
@@ -104,12 +112,12 @@ def draw_connection_data(data: dict[str, Any]) -> Any:
         ax.plot([x_left + 10, x_left + 10], [y_bot, y_top], color="0.4", linewidth=0.5, linestyle="-.")
     x0 = tp if end_plate else bo["gap_mm"]
     L = max(0.55 * h, bp + 120.0)                        # length of new beam shown (broken off)
-    outline = [(x0 + c, 0.0), (x0 + L, 0.0), (x0 + L, -h), (x0, -h), (x0, -dn)]
-    if dn:
-        outline.append((x0 + c, -dn))
+    outline = [(x0 + c, 0.0), (x0 + L, 0.0), (x0 + L, -h)]
+    outline += [(x0 + cb, -h), (x0 + cb, -h + dnb), (x0, -h + dnb)] if dnb else [(x0, -h)]
+    outline += [(x0, -dn), (x0 + c, -dn)] if dn else [(x0, 0.0)]
     ax.add_patch(Polygon(outline, closed=True, **new))
     ax.plot([x0 + (c if dn else 0.0), x0 + L], [-tf, -tf], color="black", linewidth=0.5)
-    ax.plot([x0, x0 + L], [-h + tf, -h + tf], color="black", linewidth=0.5)
+    ax.plot([x0 + (cb if dnb else 0.0), x0 + L], [-h + tf, -h + tf], color="black", linewidth=0.5)
     for xx in (x0 + L,):                                   # break line at the far end
         ax.plot([xx, xx], [0, -h], color="white", linewidth=1.6)
         ax.plot([xx - 6, xx + 6, xx - 6, xx + 6], [-h * 0.45, -h * 0.48, -h * 0.52, -h * 0.55], color="black",
@@ -138,7 +146,16 @@ def draw_connection_data(data: dict[str, Any]) -> Any:
     if dn:
         dim_h(12.0, x0, x0 + c, f"notch {c:g}", below=False)
         dim_v(x0 + c + 8, 0.0, -dn, f"{dn:g}")
-    ax.text(x0 + L - 8, -h + tf + 8, f"new beam {bm['designation']}", ha="right", va="bottom", **txt)
+    if dnb:
+        dim_h(-h - 12.0, x0, x0 + cb, f"notch {cb:g}")
+        dim_v(x0 + cb + 8, -h, -h + dnb, f"{dnb:g}")
+        y_bot = min(y_bot, -h - 40.0)
+    if face == "beam web":
+        ax.text(x0 + L - 8, 4.0, "tops of steel level" if abs(lv) < 1e-9 else
+                f"new top {abs(lv):g} {'below' if lv > 0 else 'above'} existing top", ha="right", va="bottom",
+                **txt)
+    ax.text(x0 + L - 8, -h - 6.0 if dnb else -h + tf + 8, f"new beam {bm['designation']}", ha="right",
+            va="top" if dnb else "bottom", **txt)
     weld_note = (f"{leg:g} mm fillet welds,\nboth sides of the web" if end_plate
                  else f"{leg:g} mm fillet welds,\nboth sides, to the support")
     ax.annotate(weld_note, xy=((tp + leg / 2) if end_plate else leg / 2, yp1 + 0.3 * hp),

@@ -13,7 +13,10 @@ Example (TOML)::
     existing_steel = "1950-1958"        # era band, a grade "S275", "unknown" (lowest band, caution) or
                                         # coupon tests { tested_fy = "262 MPa", tested_fu = "410 MPa",
                                         # samples = 3 } (characteristic value by EN 1990 Annex D)
-    notch_top = "40 mm x 120 mm"        # depth x length, optional
+    notch_top = "40 mm x 120 mm"        # depth x length, optional (on a beam web: designed when needed)
+    top_below_existing = "0 mm"         # beam web only: new beam top below the existing top (default 0:
+                                        # tops of steel level; negative = above); the notches that clear the
+                                        # existing flanges and root fillets are designed from it
     tying_force = "75 kN"               # optional; default: from the new beam's loads by the UK NA rule
     consequence_class = "2b"            # optional: "1", "2a", "2b" (default) or "3", for the tying force
     [support.existing_loads]            # optional: loads and restraints of the existing member
@@ -46,7 +49,8 @@ ENDS = ("start", "end")
 #: the UK building-regulation guidance and the UK NA to EN 1991-1-7, flagged)
 TYING_MIN_N = 75_000.0
 _KEYS = ("at", "connection", "bolts", "plate", "existing_member", "existing_face", "existing_steel",
-         "notch_top", "tying_force", "rows", "pitch", "gauge", "weld_leg", "existing_loads", "consequence_class")
+         "notch_top", "tying_force", "rows", "pitch", "gauge", "weld_leg", "existing_loads", "consequence_class",
+         "top_below_existing")
 #: consequence classes of EN 1991-1-7 / UK NA for the tying force
 CONSEQUENCE_CLASSES = ("1", "2a", "2b", "3")
 _BOLT_RE = re.compile(r"^\s*(M\d{2})\s*(?:(?:class|gr\.?|grade)\s*)?(\d{1,2}\.\d)?\s*$", re.I)
@@ -81,6 +85,13 @@ class SupportSpec:
     tying_given: bool = False
     consequence_class: str = "2b"
     existing_loads: Any = None
+    #: beam web: the new beam's top below the existing beam's top (mm, 0 = tops of steel level)
+    level: float = 0.0
+    #: bottom notch (designed by :func:`~.notch.notch_fit` when the new beam meets the existing bottom flange)
+    notch_bottom_depth: float | None = None
+    notch_bottom_length: float | None = None
+    #: how the notches were found (text for the calc sheet; '' when none was designed)
+    notch_basis: str = ""
 
     @property
     def field(self) -> str:
@@ -90,6 +101,14 @@ class SupportSpec:
     @property
     def notched(self) -> bool:
         return self.notch_depth is not None
+
+    @property
+    def notch_text(self) -> str:
+        """Notches for the calc sheet, e.g. 'top 35 x 85 mm, bottom 30 x 85 mm' ('-' when none)."""
+        parts = ([f"top {self.notch_depth:g} x {self.notch_length:g} mm"] if self.notched else []) + \
+                ([f"bottom {self.notch_bottom_depth:g} x {self.notch_bottom_length:g} mm"]
+                 if self.notch_bottom_depth else [])
+        return ", ".join(parts) or "-"
 
 
 def _text(table: dict, key: str, pre: str) -> str | None:
@@ -241,6 +260,16 @@ def parse_support(table: dict, index: int) -> SupportSpec:
     notch = _text(table, "notch_top", pre)
     if notch is not None:
         kw["notch_depth"], kw["notch_length"] = parse_notch(notch, f"{pre}.notch_top")
+    if "top_below_existing" in table:
+        if kw["existing_face"] != "beam web":
+            raise InputError(f"{pre}.top_below_existing", table["top_below_existing"],
+                             "no top_below_existing unless existing_face = 'beam web' (it sets the level of the "
+                             "new beam against the existing beam's flanges)")
+        lv = parse_quantity(table["top_below_existing"], "mm", f"{pre}.top_below_existing")
+        if not -1000.0 <= lv <= 1000.0:
+            raise InputError(f"{pre}.top_below_existing", table["top_below_existing"],
+                             "a level from '-1000 mm' to '1000 mm' (0 mm = tops of steel level)")
+        kw["level"] = lv
     if "tying_force" in table:
         tie = parse_quantity(table["tying_force"], "N", f"{pre}.tying_force")
         if tie <= 0.0:
