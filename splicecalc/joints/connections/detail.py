@@ -336,20 +336,20 @@ def _beam_web_fit(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]:
         out.append(_rec(calc, "ex_fit_notch", f"New beam's top clears the existing top flange and root fillet ({where})",
                         CL_PINNED, fit.need_top, ctx.notch_depth or 0.0,
                         f"cut needed = existing t_f + r - level = {high:.1f} - {lv:g} mm; top notch given "
-                        f"{ctx.notch_depth or 0:g} mm: notch the top flange", guidance=GUIDANCE))
+                        f"{ctx.notch_depth or 0:g} mm: notch the top flange", guidance=GEOMETRY))
         lengths.append(ctx.notch_length or 0.0)
     if fit.need_bottom > 0.0:
         out.append(_rec(calc, "ex_fit_notch_bottom", f"New beam's bottom clears the existing bottom flange and root "
                         f"fillet ({where})", CL_PINNED, fit.need_bottom, ctx.notch_bottom or 0.0,
                         f"cut needed = level + h_b - (h - t_f - r) of the existing = {lv:g} + {ctx.beam.h:g} - "
                         f"{low:.1f} mm; bottom notch {ctx.notch_bottom or 0:g} mm: notch the bottom flange",
-                        guidance=GUIDANCE))
+                        guidance=GEOMETRY))
         lengths.append(ctx.notch_bottom_length or 0.0)
     if lengths:
         out.append(_rec(calc, "ex_fit_notch_len", "Notch length clears the existing flange outstand", CL_PINNED,
                         fit.need_length, min(lengths),
                         f"(b - t_w)/2 = ({ex.b:g} - {ex.tw:g})/2 of the existing beam, from its web face (the plate "
-                        "thickness or gap taken as tolerance)", guidance=GUIDANCE))
+                        "thickness or gap taken as tolerance)", guidance=GEOMETRY))
     return out
 
 
