@@ -1,13 +1,18 @@
 """The one splice-position loop: positions -> splice designs -> positions, until stable.
 
-Splice positions and splice layouts depend on each other: a piece's mass includes the
-whole kit of the splices at its ends (cover plates and bolt assemblies) and the shortest
-piece is one cover-plate length. :func:`plan_splices` therefore finds positions with no
-kit, designs every splice there (plain floats), and finds the positions again with the
-heaviest kit (plates and bolts, elementwise maxima) and the longest cover plate, until
-the kit and the plate length no longer grow (at most :data:`MAX_ROUNDS` rounds). The end
-pieces also carry their end connection (:func:`end_connection_mass`), and every piece
-mass gets the job's ``mass_margin``. Only then, with ``render=True``, are the final
+Splice positions and splice layouts depend on each other: the shortest piece is one
+cover-plate length and a splice keeps half its longest plate clear of supports, loads and
+restraints. :func:`plan_splices` therefore finds positions with a first guess, designs every
+splice there (plain floats), and finds the positions again with the longest cover plate,
+until the plate length no longer grows (at most :data:`MAX_ROUNDS` rounds).
+
+Lifting convention (:data:`splicecalc.design.splice_positions.MASS_CONVENTION`, one for the mass
+AND the length checks): pieces are carried in and lifted bare; the splice kits (cover plates,
+bolt assemblies) and the end connections' bolts are loose items fitted in place. So the piece
+mass is the steel plus, on an end piece, what is welded to it (:attr:`EndMass.lifted_kg`: an end
+plate; a fin plate belongs to the existing steel), and the piece length is the steel's (no
+cover plate projects). The heaviest kit is still found and reported (the loose items to handle).
+Every piece mass gets the job's ``mass_margin``. Only then, with ``render=True``, are the final
 splices re-run with rendering (same layouts).
 
 This is the only copy of the loop: the calc (:func:`splicecalc.workflow.calc.run_calc`),
@@ -45,6 +50,12 @@ class EndMass:
     @property
     def mass_kg(self) -> float:
         return self.plate_kg + self.bolts_kg
+
+    @property
+    def lifted_kg(self) -> float:
+        """What the end piece carries when lifted bare: an end plate welded to the beam; its bolts are loose,
+        and a fin plate is fixed to the existing steel, not to the piece."""
+        return self.plate_kg if self.what.startswith("end plate") else 0.0
 
 
 def end_connection_mass(connection_design: Any) -> EndMass:
@@ -131,13 +142,15 @@ def plan_splices(section: Any, grade: str, span_mm: float, spec: Any, *, M_abs: 
     zone = FIRST_SPLICE_ZONE_MM
     pos = designs = ser = kits = None
     for rounds in range(1, MAX_ROUNDS + 1):
-        pos = choose_splice_positions(span_mm, spec, splice_mass_kg=used[0] + used[1], splice_bolts_kg=used[1],
+        # pieces are lifted bare (MASS_CONVENTION): the kit does not count in a piece's mass
+        pos = choose_splice_positions(span_mm, spec, splice_mass_kg=0.0, splice_bolts_kg=0.0,
                                       splice_zone_mm=zone, plate_half_length_mm=0.5 * zone, **kw)
         designs, ser = design_all(pos, False)
         kits = tuple(splice_kit(d, spec) for d in designs)
         need = (max((k.plates_kg for k in kits), default=0.0), max((k.bolts_kg for k in kits), default=0.0))
         need_zone = max([FIRST_SPLICE_ZONE_MM] + [max(d.geometry.L_fp, d.geometry.L_wp) for d in designs])
-        if not designs or (need[0] <= used[0] + 1e-9 and need[1] <= used[1] + 1e-9 and need_zone <= zone + 1e-9):
+        if not designs or need_zone <= zone + 1e-9:
+            used = need
             break
         used = (max(used[0], need[0]), max(used[1], need[1]))
         zone = max(zone, need_zone)

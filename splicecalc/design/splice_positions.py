@@ -19,9 +19,8 @@ Optimisation: minimise the worst splice demand
 ``D(x) = |M(x)|/M_c,Rd + |V(x)|/V_c,Rd`` over a grid of candidate cuts
 (dynamic programming, minimax with the sum as a tie-break), subject to
 ``L_min <= piece length <= L_max`` and the clearances. The piece mass is
-``m' L`` plus, for every splice at its ends, the full mass of the splice plates
-and bolts (conservative: either piece may be lifted with the splice kit bolted
-on). ``L_min`` is the splice zone: no piece may be shorter than one cover
+``m' L`` plus what the caller counts per splice end (``splice_mass_kg``; the calc passes 0:
+pieces are lifted bare and the kit is fitted in place, :data:`MASS_CONVENTION`). ``L_min`` is the splice zone: no piece may be shorter than one cover
 plate length plus twice the clearance zone kept by the splice itself.
 The result is compared with equal-length cutting.
 """
@@ -120,9 +119,12 @@ class PieceMass:
 
 
 #: how a piece's mass is counted (stated on the calc sheet)
-MASS_CONVENTION = ("piece mass = (beam steel m' L + at each splice end the whole splice kit of the heaviest splice "
-                   "(cover plates + bolt assemblies: either piece may be lifted with the kit bolted on) + on an end "
-                   "piece its end plate or fin plate with its bolts) x (1 + mass margin)")
+MASS_CONVENTION = ("pieces are carried in and lifted bare: the splice kits (cover plates, bolt assemblies) and the "
+                   "end connections' bolts are loose items, fitted in place after the lift. So one convention for "
+                   "both access checks: piece mass = (beam steel m' L + on an end piece its welded end plate) x "
+                   "(1 + mass margin); piece length = joint line to joint line (support line at an end), which the "
+                   "bare steel does not exceed (it stops half the gap short of each joint line) and which no cover "
+                   "plate adds to")
 
 
 def _piece_masses(xs: Sequence[float], L: float, m_per_mm: float, kit: tuple[float, float],
@@ -461,7 +463,9 @@ def _records(xs, lengths, build, clr, clear_dist, spec, zone, margin) -> list[Ch
     for k, (Lp, pm) in enumerate(zip(lengths, build)):
         if spec.max_piece_length:
             recs.append(calc.record(id=f"piece{k + 1}_length", title=f"Piece {k + 1} length (access limit)",
-                                    clause=_CL, demand=Lp, resistance=spec.max_piece_length, unit="mm"))
+                                    clause=_CL, demand=Lp, resistance=spec.max_piece_length, unit="mm",
+                                    note="joint line to joint line (support line at an end); lifted bare, the "
+                                         "cover plates fitted after the lift", tags=("piece", "length")))
         if spec.max_piece_mass:
             calc.keep("m_steel", pm.steel_kg, "kg")
             calc.keep("m_splice_plates", pm.plates_kg, "kg")
@@ -470,10 +474,11 @@ def _records(xs, lengths, build, clr, clear_dist, spec, zone, margin) -> list[Ch
             calc.keep("m_margin", pm.margin_kg, "kg")
             recs.append(calc.record(id=f"piece{k + 1}_mass", title=f"Piece {k + 1} mass as lifted (access limit)",
                                     clause=_CL, demand=pm.total_kg, resistance=spec.max_piece_mass, unit="kg",
-                                    note=f"steel {pm.steel_kg:.1f} + splice plates {pm.plates_kg:.1f} + bolt "
-                                         f"assemblies {pm.bolts_kg:.1f} + end connection {pm.end_kg:.1f} + margin "
-                                         f"{margin * 100:g} % {pm.margin_kg:.1f} = {pm.total_kg:.1f} kg; "
-                                         + MASS_CONVENTION,
+                                    note=(f"steel {pm.steel_kg:.1f} + "
+                                          + (f"splice plates {pm.plates_kg:.1f} + bolt assemblies {pm.bolts_kg:.1f} + "
+                                             if pm.plates_kg or pm.bolts_kg else "")
+                                          + f"end plate {pm.end_kg:.1f} + margin {margin * 100:g} % "
+                                          f"{pm.margin_kg:.1f} = {pm.total_kg:.1f} kg; " + MASS_CONVENTION),
                                     tags=("piece", "mass")))
         if len(lengths) > 1:
             recs.append(calc.record(id=f"piece{k + 1}_min_length", title=f"Piece {k + 1} longer than the splice zone",

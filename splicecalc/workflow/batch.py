@@ -81,7 +81,7 @@ COLUMN_NOTES: dict[str, str] = {
     "splices": "site splices (count)",
     "splice_positions_m": "splice positions from support A, m (';' between splices)",
     "bolts_per_splice": "bolts in each splice, flange and web, both sides (count; ';' between splices)",
-    "heaviest_piece_kg": "heaviest piece as lifted, kg (steel, plates, bolts, margin)",
+    "heaviest_piece_kg": "heaviest piece as lifted bare, kg (steel, welded end plate, margin)",
     "checks": "check records (count)",
     "exceeding": "checks exceeding capacity (count)",
     "not_checked": "NOT CHECKED records (count)",

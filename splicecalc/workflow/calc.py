@@ -17,7 +17,7 @@ Chain (each part calls the module that owns its method; nothing is re-derived he
    cited plus the standards list) and cautions.
 
 Splice positions and splice layouts depend on each other (the piece mass includes
-the whole splice kit, plates and bolt assemblies, and an end piece its end connection;
+an end piece's welded end plate; pieces are lifted bare, the splice kits fitted in place;
 the shortest piece is one cover-plate length): the one loop that settles them is
 :func:`splicecalc.design.splice_plan.plan_splices`, called here on the ULS envelopes
 with the imposed load patterned (EN 1991-1-1 6.2.1(1)). The end connections are
@@ -356,7 +356,7 @@ def _end_masses(job: Job, connections: tuple) -> tuple[float, float]:
     from ..design.splice_plan import end_connection_mass
     m = {"A": 0.0, "B": 0.0}
     for c in connections:
-        m[c.end] = end_connection_mass(c.design).mass_kg
+        m[c.end] = end_connection_mass(c.design).lifted_kg      # lifted bare: the welded end plate only
     return m["A"], m["B"]
 
 

@@ -483,7 +483,8 @@ def show_splice_positions(result: CalcResult) -> None:
     kit = (f"{plan.kit_plates_kg:.1f} kg of cover plates + {plan.kit_bolts_kg:.1f} kg of bolt assemblies = "
            f"{plan.kit_mass_kg:.1f} kg (the heaviest splice)" if plan is not None
            else f"{result.splice_kit_mass_kg:.1f} kg")
-    show_text(f"**Method.** {pos.method}. Splice kit used for the piece masses: {kit}; shortest piece "
+    show_text(f"**Method.** {pos.method}. Heaviest splice kit, loose and fitted in place after the lift (not in "
+              f"the piece masses): {kit}; shortest piece "
               f"{result.splice_zone_mm:g} mm; {result.splice_rounds} round(s) of positions and splice layout. "
               f"Splice forces from the ULS envelopes with the {PATTERN_NOTE}.")
     if pos.splices:
@@ -496,16 +497,16 @@ def show_splice_positions(result: CalcResult) -> None:
                    notes="Demand = |M|/M_c,Rd + |V|/V_c,Rd of the beam at the splice (the quantity minimised).")
     cuts = [0.0, *pos.positions, result.job.beam.span]
     prow = [[str(p.index), f"{cuts[i] / 1000:.3f}-{cuts[i + 1] / 1000:.3f}", f"{p.length_mm / 1000:.3f}",
-             f"{p.steel_kg:.1f}", f"{p.plates_kg:.1f}", f"{p.bolts_kg:.1f}", f"{p.end_kg:.1f}", f"{p.margin_kg:.1f}",
-             f"{p.total_kg:.1f}"]
+             f"{p.steel_kg:.1f}", f"{p.end_kg:.1f}", f"{p.margin_kg:.1f}", f"{p.total_kg:.1f}"]
             for i, p in enumerate(pos.piece_masses)]
-    show_table(["Piece", "x (m)", "L (m)", "Steel", "Plates", "Bolt sets", "End conn.",
+    show_table(["Piece", "x (m)", "L (m)", "Steel", "End plate (welded)",
                 f"Margin {pos.mass_margin * 100:g} %", "Total"], prow,
-               align="llrrrrrrr", title="Pieces as lifted: mass build-up (kg)",
-               notes=MASS_CONVENTION + ". Bolt sets: " + ASSEMBLY_CONVENTION + ".")
+               align="llrrrrr", title="Pieces as lifted (bare): length and mass build-up (kg)",
+               notes=MASS_CONVENTION + ".")
     if plan is not None and plan.kits:
         show_list([f"S{k}: {kt.describe()}" for k, kt in enumerate(plan.kits, start=1)],
-                  title="Splice kits (plates and bolt assemblies, from the product standards' dimensions)")
+                  title="Splice kits, loose items fitted in place (plates and bolt assemblies, from the product "
+                        "standards' dimensions; bolt sets: " + ASSEMBLY_CONVENTION + ")")
     if pos.splices:
         eq = ", ".join(f"{x / 1000:.3f}" for x in pos.equal_positions)
         chosen = ", ".join(f"{x / 1000:.3f}" for x in pos.positions)
