@@ -246,6 +246,14 @@ def test_rendered_design_matches_float(kw):
     for a, b in zip(fast.records, slow.records):
         assert a.id == b.id and a.utilisation == pytest.approx(b.utilisation, rel=1e-9)
     assert sum(len(r.latex) for r in slow.records) > 20
+    # tying resistances use gamma_Mu = 1.1 (UK NA to BS EN 1993-1-8, from memory): printed as gamma_Mu, never
+    # under the symbol gamma_M2 (1.25 everywhere else)
+    tie = [r for r in slow.records if "_tie_" in r.id and r.latex]
+    assert tie
+    for r in tie:
+        text = " ".join(r.latex)
+        assert "\\gamma_{M2}" not in text and "\\gamma_{M} " not in text, r.id
+    assert any("\\gamma_{Mu}" in " ".join(r.latex) for r in tie)
 
 
 # ------------------------------------------------------------------ fin plate, by hand

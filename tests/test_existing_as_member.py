@@ -535,3 +535,17 @@ def test_column_buckling_takes_the_largest_N_over_every_leading_action():
     for ax in ("y", "z"):
         assert _rec(res.records, f"ex_col_buckling_{ax}").demand == pytest.approx(N / 1e3, rel=1e-9)
     assert "Combinations tried" in " ".join(res.basis) and "end moment" in " ".join(res.basis)
+
+
+def test_rendered_interaction_names_each_axis():
+    """Eqs. 6.61 / 6.62 (EN 1993-1-1 6.3.3(4)) print chi_y, k_yy, k_yz and chi_z, k_zy, k_zz; n_y and n_z
+    (Annex B) each under their own symbol, never a generic n_i or k_zy,12."""
+    loads = _col_loads(moment_y={"permanent": "20 kNm"})
+    det = design_end_connection(BEAM, "S355", 150e3, _support()).detail
+    res = existing_member_checks(COL, loads, lambda t: existing_material_of("S275", t), "column flange", det,
+                                 None, 150e3, NA610, PSI_UK_NA, 75e3, Calc(render=True))
+    y, z = (" ".join(_rec(res.records, f"ex_col_interaction_{a}").latex) for a in ("y", "z"))
+    everything = " ".join(" ".join(r.latex) for r in res.records)
+    assert "n_{i}" not in everything and "_{12}" not in everything and "chi_{i}" not in everything
+    assert "n_{y}" in y and "n_{z}" in y and "k_{yy}" in y and "k_{yz}" in y and "U_{y}" in y
+    assert "k_{zy}" in z and "k_{zz}" in z and "\\chi_{z}" in z and "U_{z}" in z

@@ -11,8 +11,9 @@ from __future__ import annotations
 import html
 import json
 import math
+from contextlib import contextmanager
 from dataclasses import asdict, dataclass, field
-from typing import Any, Callable
+from typing import Any, Callable, Iterator
 
 from .render import render as _render
 from .units import convert
@@ -172,6 +173,22 @@ def utilisation(demand: float, resistance: float) -> float:
     return abs(demand) / resistance
 
 
+_GREEK = {"alpha", "beta", "gamma", "delta", "epsilon", "zeta", "eta", "theta", "lambda", "mu", "nu", "xi",
+          "rho", "sigma", "tau", "phi", "chi", "psi", "omega", "Phi", "Delta"}
+
+
+def _tex_symbol(name: str) -> str:
+    """How handcalcs prints a name: ``gamma_M2`` -> ``\\gamma_{M2}``, ``p_2_min`` -> ``p_{2_{min}}``."""
+    parts = name.split("_")
+    b = "\\" + parts[0] if parts[0] in _GREEK else parts[0]
+    if len(parts) == 1:
+        return b
+    sub = parts[-1]
+    for part in reversed(parts[1:-1]):
+        sub = f"{part}_{{{sub}}}"
+    return f"{b}_{{{sub}}}"
+
+
 class Calc:
     """Runs clause functions, optionally rendering each step.
 
@@ -179,20 +196,37 @@ class Calc:
     >>> F = calc(F_v_Rd, alpha_v=0.6, f_ub=800, A_s=245, gamma_M2=1.25)  # doctest: +SKIP
     """
 
-    __slots__ = ("render", "precision", "latex", "values")
+    __slots__ = ("render", "precision", "latex", "values", "renamed")
 
     def __init__(self, render: bool = False, precision: int = 3) -> None:
         self.render = render
         self.precision = precision
         self.latex: list[str] = []
         self.values: dict[str, tuple[float, str]] = {}
+        #: symbol shown for a formula's parameter (``gamma_M2`` -> ``gamma_Mu``), see :meth:`symbols`
+        self.renamed: dict[str, str] = {}
 
     def __call__(self, fn: Callable, **kwargs: Any) -> Any:
         if not self.render:
             return fn(**kwargs)
         latex, result = _render(fn, precision=self.precision, **kwargs)
+        for old, new in self.renamed.items():
+            latex = latex.replace(_tex_symbol(old), _tex_symbol(new))
         self.latex.append(latex)
         return result
+
+    @contextmanager
+    def symbols(self, **renamed: str) -> Iterator["Calc"]:
+        """Show a formula's symbol (parameter or result) as the quantity it stands for, within the block:
+        ``with calc.symbols(gamma_M2="gamma_Mu"): calc(F_t_Rd, ..., gamma_M2=na.gamma_Mu)`` renders
+        gamma_Mu (tying); ``with calc.symbols(n_i="n_y")`` names the axis of a formula written for either.
+        The formula stays the one formula; only its printed symbol changes."""
+        before = dict(self.renamed)
+        self.renamed.update(renamed)
+        try:
+            yield self
+        finally:
+            self.renamed = before
 
     def note(self, text: str) -> None:
         """Add a prose line (LaTeX text mode) to the rendered steps."""

@@ -75,8 +75,11 @@ def check_spacing(d_0: float, t: float, *, e_1: float | None = None, e_2: float 
                   p_1: float | None = None, p_2: float | None = None, exposed: bool = False,
                   compression: bool = False, line: str = "outer", apply_maxima: bool | None = None,
                   calc: Calc | None = None, id: str = "spacing", where: str = "",
-                  location_mm: float | None = None) -> list[CheckRecord]:
+                  location_mm: float | None = None, p_2_as: str = "") -> list[CheckRecord]:
     """One :class:`CheckRecord` per applicable Table 3.3 rule for a bolt layout (all mm).
+
+    ``p_2_as``: the layout's own symbol of the spacing across the load (an end plate's gauge ``p_3``), used
+    in the titles and the working so that one quantity keeps one symbol.
 
     Distances given as ``None`` are not present in the layout and not checked.
     ``line`` ('outer' or 'inner') selects the p_1 maximum for tension members.
@@ -105,8 +108,10 @@ def check_spacing(d_0: float, t: float, *, e_1: float | None = None, e_2: float 
         rec("e_2_min", "Edge distance e2 minimum", calc(e_min, d_0=d_0), e_2)
     if p_1 is not None:
         rec("p_1_min", "Spacing p1 minimum", calc(p_1_min, d_0=d_0), p_1)
+    p2_txt = f"Gauge {p_2_as.replace('_', '')} (Table 3.3 p2)" if p_2_as else "Spacing p2"
     if p_2 is not None:
-        rec("p_2_min", "Spacing p2 minimum", calc(p_2_min, d_0=d_0), p_2)
+        with calc.symbols(**({"p_2_min": f"{p_2_as}_min"} if p_2_as else {})):
+            rec("p_2_min", f"{p2_txt} minimum", calc(p_2_min, d_0=d_0), p_2)
     if exposed:
         if e_1 is not None:
             rec("e_1_max", "End distance e1 maximum (exposed)", e_1, calc(e_max, t=t))
@@ -122,7 +127,7 @@ def check_spacing(d_0: float, t: float, *, e_1: float | None = None, e_2: float 
                 what = "tension, inner line"
             rec("p_1_max", f"Spacing p1 maximum ({what})", p_1, lim)
         if p_2 is not None:
-            rec("p_2_max", "Spacing p2 maximum", p_2, calc(p_max, t=t, k_t=14.0, p_lim=200.0))
+            rec("p_2_max", f"{p2_txt} maximum", p_2, calc(p_max, t=t, k_t=14.0, p_lim=200.0))
     return out
 
 

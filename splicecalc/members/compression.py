@@ -141,10 +141,9 @@ def k_zy_B(lamb_z: float, n_z: float, C_mLT: float, cls: int) -> float:
     [1 - 0.1 lambda_z n_z/(C_mLT - 0.25)] >= [1 - 0.1 n_z/(C_mLT - 0.25)]; lambda_z < 0.4:
     0.6 + lambda_z <= 1 - 0.1 lambda_z n_z/(C_mLT - 0.25). Class 3: [1 - 0.05 lambda_z n_z/(C_mLT - 0.25)]
     >= [1 - 0.05 n_z/(C_mLT - 0.25)]."""
-    if lamb_z >= 0.4: k_zy_12 = max(1 - 0.1 * lamb_z * n_z / (C_mLT - 0.25), 1 - 0.1 * n_z / (C_mLT - 0.25))
-    else: k_zy_12 = min(0.6 + lamb_z, 1 - 0.1 * lamb_z * n_z / (C_mLT - 0.25))
     if cls >= 3: k_zy = max(1 - 0.05 * lamb_z * n_z / (C_mLT - 0.25), 1 - 0.05 * n_z / (C_mLT - 0.25))
-    else: k_zy = k_zy_12
+    elif lamb_z >= 0.4: k_zy = max(1 - 0.1 * lamb_z * n_z / (C_mLT - 0.25), 1 - 0.1 * n_z / (C_mLT - 0.25))
+    else: k_zy = min(0.6 + lamb_z, 1 - 0.1 * lamb_z * n_z / (C_mLT - 0.25))
     return k_zy
 
 

@@ -243,7 +243,7 @@ def detailing_checks(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]
                         90.0, det.p_3, GUIDANCE))
         out.append(_rec(calc, "ep_gauge_max", "Gauge p_3 <= 140 mm", CL_PINNED, det.p_3, 140.0, GUIDANCE))
         out += check_spacing(d0, det.t_p, e_1=det.e_1, e_2=det.e_2, p_1=det.p_1 if det.n_1 > 1 else None,
-                             p_2=det.p_3, calc=calc, id="ep_spacing", where="end plate")
+                             p_2=det.p_3, calc=calc, id="ep_spacing", where="end plate", p_2_as="p_3")
     else:
         out.append(_rec(calc, "fp_tp_ductility", "Fin plate t_p <= 0.5 d (bolt ductility)", CL_PINNED,
                         det.t_p, 0.5 * b.d, GUIDANCE))

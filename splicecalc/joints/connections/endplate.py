@@ -46,8 +46,9 @@ def support_bearing(ctx: Context, det: Detail, gamma_M2: float, calc: Calc) -> f
     e_2 = (ex.b - det.p_3) / 2.0 if ctx.face == "column flange" else None
     if e_2 is not None and e_2 <= 0.0:
         e_2 = 0.5 * b.d_0  # bolts off the flange: a bearing of (almost) nothing, the fit check fails anyway
-    return bearing_resistance(b, ctx.t_supp, ctx.existing_mat.f_u, e_1, e_2, p_1, det.p_3, gamma_M2=gamma_M2,
-                              calc=calc)
+    with calc.symbols(p_2="p_3"):          # the end-plate gauge is p_3 on the drawing and in the rules
+        return bearing_resistance(b, ctx.t_supp, ctx.existing_mat.f_u, e_1, e_2, p_1, det.p_3, gamma_M2=gamma_M2,
+                                  calc=calc)
 
 
 def end_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list[CheckRecord]:
@@ -68,10 +69,11 @@ def end_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     # bolt group
     a_v = shear_factor_alpha_v(b.bolt_class)
     Fv = calc(F_v_Rd, alpha_v=a_v, f_ub=b.f_ub, A_s=b.A_s, gamma_M2=na.gamma_M2)
-    Fb_end = bearing_resistance(b, det.t_p, plate.f_u, det.e_1, det.e_2, None, det.p_3, gamma_M2=na.gamma_M2,
-                                calc=calc)
-    Fb_in = (bearing_resistance(b, det.t_p, plate.f_u, None, det.e_2, det.p_1, det.p_3, gamma_M2=na.gamma_M2,
-                                calc=calc) if det.n_1 > 1 else Fb_end)
+    with calc.symbols(p_2="p_3"):          # the end-plate gauge is p_3 on the drawing and in the rules
+        Fb_end = bearing_resistance(b, det.t_p, plate.f_u, det.e_1, det.e_2, None, det.p_3, gamma_M2=na.gamma_M2,
+                                    calc=calc)
+        Fb_in = (bearing_resistance(b, det.t_p, plate.f_u, None, det.e_2, det.p_1, det.p_3, gamma_M2=na.gamma_M2,
+                                    calc=calc) if det.n_1 > 1 else Fb_end)
     Fb_s = support_bearing(ctx, det, na.gamma_M2, calc)
     # bearing of each bolt position: the weaker of the plate and the existing member
     Fb_e = min(Fb_end, Fb_s)
@@ -108,35 +110,36 @@ def end_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
                                  id="ep_weld_shear", title="Welds to the beam web: shear per unit length"))
 
     # tying: end plate T-stub and beam web in tension
-    gMu = na.gamma_Mu
-    a = calc(a_throat, s=det.weld_leg)
-    m = calc(m_ep, p_3=det.p_3, t_w=beam.tw, a=a)
-    Ft = calc(F_t_Rd, f_ub=b.f_ub, A_s=b.A_s, gamma_M2=gMu)
-    F_t_sum = det.n_b * Ft
-    e_w = b.washer_od / 4.0
-    tie_note = NOTE_TIE
-    if m > 0.0:
-        n = calc(n_tstub, e_min=det.e_2, m=m)
-        M_pl = calc(M_pl_Rd_u, l_eff=det.h_p, t_f=det.t_p, f_u=plate.f_u, gamma_Mu=gMu)
-        F1 = calc(F_T_1_Rd, M_pl_u=M_pl, m=m, n=n, e_w=e_w)
-        F2 = calc(F_T_2_Rd, M_pl_u=M_pl, n=n, F_t_sum=F_t_sum, m=m)
-        R_tie = min(F1, F2, F_t_sum)
-        for k, v, u in (("m", m, "mm"), ("n", n, "mm"), ("e_w", e_w, "mm"), ("F_T_1_Rd", F1, "N"),
-                        ("F_T_2_Rd", F2, "N"), ("F_T_3_Rd", F_t_sum, "N")):
-            calc.keep(k, v, u)
-    else:
-        R_tie = 0.0
-        calc.keep("m", m, "mm")
-        tie_note += (f"; m = {m:.1f} mm <= 0: the bolts sit on the web welds, the T-stub model does not apply: "
-                     "increase the gauge p_3")
-    out.append(calc.record(id="ep_tie_plate", title="Tying: end plate in bending (T-stub modes 1, 2, 3)",
-                           clause="EN 1993-1-8:2005, 6.2.4.1, Table 6.2", demand=ctx.tie,
-                           resistance=R_tie, unit="N", note=tie_note, guidance=GUIDANCE + ": tying resistances"))
-    Fw = calc(F_t_wb_Rd_u, h_p=det.h_p, t_w=beam.tw, f_u=fu_b, gamma_Mu=gMu)
-    out.append(calc.record(id="ep_tie_web", title="Tying: beam web in tension over h_p",
-                           clause="EN 1993-1-8:2005, 6.2.6.8, Eq. 6.22", demand=ctx.tie, resistance=Fw, unit="N",
-                           note=NOTE_TIE + "; the welds are full strength for the web",
-                           guidance=GUIDANCE + ": tying resistances"))
+    with calc.symbols(gamma_M2="gamma_Mu", gamma_M="gamma_Mu"):      # tying: gamma_Mu, never labelled gamma_M2
+        gMu = na.gamma_Mu
+        a = calc(a_throat, s=det.weld_leg)
+        m = calc(m_ep, p_3=det.p_3, t_w=beam.tw, a=a)
+        Ft = calc(F_t_Rd, f_ub=b.f_ub, A_s=b.A_s, gamma_M2=gMu)
+        F_t_sum = det.n_b * Ft
+        e_w = b.washer_od / 4.0
+        tie_note = NOTE_TIE
+        if m > 0.0:
+            n = calc(n_tstub, e_min=det.e_2, m=m)
+            M_pl = calc(M_pl_Rd_u, l_eff=det.h_p, t_f=det.t_p, f_u=plate.f_u, gamma_Mu=gMu)
+            F1 = calc(F_T_1_Rd, M_pl_u=M_pl, m=m, n=n, e_w=e_w)
+            F2 = calc(F_T_2_Rd, M_pl_u=M_pl, n=n, F_t_sum=F_t_sum, m=m)
+            R_tie = min(F1, F2, F_t_sum)
+            for k, v, u in (("m", m, "mm"), ("n", n, "mm"), ("e_w", e_w, "mm"), ("F_T_1_Rd", F1, "N"),
+                            ("F_T_2_Rd", F2, "N"), ("F_T_3_Rd", F_t_sum, "N")):
+                calc.keep(k, v, u)
+        else:
+            R_tie = 0.0
+            calc.keep("m", m, "mm")
+            tie_note += (f"; m = {m:.1f} mm <= 0: the bolts sit on the web welds, the T-stub model does not apply: "
+                         "increase the gauge p_3")
+        out.append(calc.record(id="ep_tie_plate", title="Tying: end plate in bending (T-stub modes 1, 2, 3)",
+                               clause="EN 1993-1-8:2005, 6.2.4.1, Table 6.2", demand=ctx.tie,
+                               resistance=R_tie, unit="N", note=tie_note, guidance=GUIDANCE + ": tying resistances"))
+        Fw = calc(F_t_wb_Rd_u, h_p=det.h_p, t_w=beam.tw, f_u=fu_b, gamma_Mu=gMu)
+        out.append(calc.record(id="ep_tie_web", title="Tying: beam web in tension over h_p",
+                               clause="EN 1993-1-8:2005, 6.2.6.8, Eq. 6.22", demand=ctx.tie, resistance=Fw, unit="N",
+                               note=NOTE_TIE + "; the welds are full strength for the web",
+                               guidance=GUIDANCE + ": tying resistances"))
     return out
 
 

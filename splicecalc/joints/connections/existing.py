@@ -95,39 +95,40 @@ def existing_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> Exist
                                clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=det.t_p, resistance=t_max,
                                unit="mm", note=_note(ctx, f"t_p <= t_2 f_u2/(f_yp gamma_M2) ({GUIDANCE})")))
     # tying into the existing member
-    gMu = na.gamma_Mu
-    if det.kind == "end plate":
-        B = calc(B_p_Rd, d_m=b.d_m, t_p=t2, f_u=fu2, gamma_M2=gMu)
-        out.append(calc.record(id="ex_tie_punching", title=f"Tying: bolt punching through the existing {ctx.face}",
-                               clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=ctx.tie / det.n_b, resistance=B,
-                               unit="N", note=_note(ctx, "gamma_Mu in place of gamma_M2 for tying")))
+    with calc.symbols(gamma_M2="gamma_Mu", gamma_M="gamma_Mu"):      # tying: gamma_Mu, never labelled gamma_M2
+        gMu = na.gamma_Mu
+        if det.kind == "end plate":
+            B = calc(B_p_Rd, d_m=b.d_m, t_p=t2, f_u=fu2, gamma_M2=gMu)
+            out.append(calc.record(id="ex_tie_punching", title=f"Tying: bolt punching through the existing {ctx.face}",
+                                   clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=ctx.tie / det.n_b, resistance=B,
+                                   unit="N", note=_note(ctx, "gamma_Mu in place of gamma_M2 for tying")))
+            if ctx.face == "column flange":
+                m = calc(m_cf, p_3=det.p_3, t_w=ex.tw, r=ex.r)
+                e_c = (ex.b - det.p_3) / 2.0
+                if m > 0.0 and e_c > 0.0:
+                    n = calc(n_tstub, e_min=min(e_c, det.e_2), m=m)
+                    M_pl = calc(M_pl_Rd_u, l_eff=det.h_p, t_f=t2, f_u=fu2, gamma_Mu=gMu)
+                    Ft = calc(F_t_Rd, f_ub=b.f_ub, A_s=b.A_s, gamma_M2=gMu)
+                    e_w = b.washer_od / 4.0
+                    F1 = calc(F_T_1_Rd, M_pl_u=M_pl, m=m, n=n, e_w=e_w)
+                    F2 = calc(F_T_2_Rd, M_pl_u=M_pl, n=n, F_t_sum=det.n_b * Ft, m=m)
+                    R = min(F1, F2, det.n_b * Ft)
+                    calc.keep("F_T_1_Rd", F1, "N")
+                    calc.keep("F_T_2_Rd", F2, "N")
+                else:
+                    R = 0.0
+                out.append(calc.record(id="ex_tie_flange", guidance=GUIDANCE_TIE, title="Tying: existing column flange in bending (T-stub)",
+                                       clause="EN 1993-1-8:2005, 6.2.4.1, Table 6.2", demand=ctx.tie, resistance=R,
+                                       unit="N", note=_note(ctx, "f_u for f_y, gamma_Mu, sum l_eff = h_p (published "
+                                                                 "guidance, from memory)")))
         if ctx.face == "column flange":
-            m = calc(m_cf, p_3=det.p_3, t_w=ex.tw, r=ex.r)
-            e_c = (ex.b - det.p_3) / 2.0
-            if m > 0.0 and e_c > 0.0:
-                n = calc(n_tstub, e_min=min(e_c, det.e_2), m=m)
-                M_pl = calc(M_pl_Rd_u, l_eff=det.h_p, t_f=t2, f_u=fu2, gamma_Mu=gMu)
-                Ft = calc(F_t_Rd, f_ub=b.f_ub, A_s=b.A_s, gamma_M2=gMu)
-                e_w = b.washer_od / 4.0
-                F1 = calc(F_T_1_Rd, M_pl_u=M_pl, m=m, n=n, e_w=e_w)
-                F2 = calc(F_T_2_Rd, M_pl_u=M_pl, n=n, F_t_sum=det.n_b * Ft, m=m)
-                R = min(F1, F2, det.n_b * Ft)
-                calc.keep("F_T_1_Rd", F1, "N")
-                calc.keep("F_T_2_Rd", F2, "N")
-            else:
-                R = 0.0
-            out.append(calc.record(id="ex_tie_flange", guidance=GUIDANCE_TIE, title="Tying: existing column flange in bending (T-stub)",
-                                   clause="EN 1993-1-8:2005, 6.2.4.1, Table 6.2", demand=ctx.tie, resistance=R,
-                                   unit="N", note=_note(ctx, "f_u for f_y, gamma_Mu, sum l_eff = h_p (published "
-                                                             "guidance, from memory)")))
-    if ctx.face == "column flange":
-        om = calc(omega_1, b_eff=det.h_p, t_wc=ex.tw, A_vc=ex.Av_z)
-        Ft = calc(F_t_wc_Rd, omega=om, b_eff=det.h_p, t_wc=ex.tw, f_wc=fu2, gamma_M=gMu)
-        out.append(calc.record(id="ex_tie_web_tension", guidance=GUIDANCE_TIE, title="Tying: existing column web in transverse tension",
-                               clause="EN 1993-1-8:2005, 6.2.6.3(1), Eq. 6.15", demand=ctx.tie, resistance=Ft,
-                               unit="N", note=_note(ctx, "b_eff,t,wc = h_p (the length the plate loads), one-sided "
-                                                         "joint beta = 1; f_u and gamma_Mu for tying (published "
-                                                         "simple-joint guidance, from memory)")))
+            om = calc(omega_1, b_eff=det.h_p, t_wc=ex.tw, A_vc=ex.Av_z)
+            Ft = calc(F_t_wc_Rd, omega=om, b_eff=det.h_p, t_wc=ex.tw, f_wc=fu2, gamma_M=gMu)
+            out.append(calc.record(id="ex_tie_web_tension", guidance=GUIDANCE_TIE, title="Tying: existing column web in transverse tension",
+                                   clause="EN 1993-1-8:2005, 6.2.6.3(1), Eq. 6.15", demand=ctx.tie, resistance=Ft,
+                                   unit="N", note=_note(ctx, "b_eff,t,wc = h_p (the length the plate loads), one-sided "
+                                                             "joint beta = 1; f_u and gamma_Mu for tying (published "
+                                                             "simple-joint guidance, from memory)")))
     if web and det.kind == "end plate":
         out.append(not_checked(
             id="ex_tie_web_yield", title=f"Tying: existing {ctx.face} in bending (yield lines)",

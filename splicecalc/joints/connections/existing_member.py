@@ -277,22 +277,26 @@ def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float,
                                note=f"rolled section, UK NA curves, k_c from Table 6.6 (psi = {psi:g}); {note}"))
     # --- member interaction, Annex B
     Cm = calc(fc.C_m_linear, psi=psi)
-    ny = calc(fc.n_ratio, N_Ed=N, chi=chi["y"], N_Rk=N_Rk, gamma_M1=na.gamma_M1)
-    nz = calc(fc.n_ratio, N_Ed=N, chi=chi["z"], N_Rk=N_Rk, gamma_M1=na.gamma_M1)
+    with calc.symbols(n_i="n_y", chi="chi_y"):          # one formula for either axis: print the axis
+        ny = calc(fc.n_ratio, N_Ed=N, chi=chi["y"], N_Rk=N_Rk, gamma_M1=na.gamma_M1)
+    with calc.symbols(n_i="n_z", chi="chi_z"):
+        nz = calc(fc.n_ratio, N_Ed=N, chi=chi["z"], N_Rk=N_Rk, gamma_M1=na.gamma_M1)
     kyy = calc(fc.k_yy_B, C_my=Cm, lamb_y=lam["y"], n_y=ny, cls=cls)
     kzz = calc(fc.k_zz_B, C_mz=Cm, lamb_z=lam["z"], n_z=nz, cls=cls)
     kyz = calc(fc.k_yz_B, k_zz=kzz, cls=cls)
     kzy = calc(fc.k_zy_B, lamb_z=lam["z"], n_z=nz, C_mLT=Cm, cls=cls)
-    U61 = calc(fc.U_buckling_NM, N_Ed=N, chi_i=chi["y"], N_Rk=N_Rk, k_iy=kyy, M_y_Ed=My, chi_LT=chi_LT,
-               M_y_Rk=My_Rk, k_iz=kyz, M_z_Ed=Mz, M_z_Rk=Mz_Rk, gamma_M1=na.gamma_M1)
-    U62 = calc(fc.U_buckling_NM, N_Ed=N, chi_i=chi["z"], N_Rk=N_Rk, k_iy=kzy, M_y_Ed=My, chi_LT=chi_LT,
-               M_y_Rk=My_Rk, k_iz=kzz, M_z_Ed=Mz, M_z_Rk=Mz_Rk, gamma_M1=na.gamma_M1)
+    with calc.symbols(chi_i="chi_y", k_iy="k_yy", k_iz="k_yz", U_i="U_y"):      # Eq. 6.61
+        U61 = calc(fc.U_buckling_NM, N_Ed=N, chi_i=chi["y"], N_Rk=N_Rk, k_iy=kyy, M_y_Ed=My, chi_LT=chi_LT,
+                   M_y_Rk=My_Rk, k_iz=kyz, M_z_Ed=Mz, M_z_Rk=Mz_Rk, gamma_M1=na.gamma_M1)
     inote = (f"Annex B (Method 2), Tables B.1/B.2 (member susceptible to torsional deformation, braced), C_m = "
              f"{Cm:.2f} for the linear moment (Table B.3); {note}")
     calc.keep("U_6_61", U61)
     out.append(calc.record(id="ex_col_interaction_y", guidance=GUIDANCE_ECC, title="Existing column: buckling with bending, Eq. 6.61",
                            clause="EN 1993-1-1:2005, 6.3.3(4), Eq. 6.61", demand=U61, resistance=1.0, unit="",
                            note=inote))
+    with calc.symbols(chi_i="chi_z", k_iy="k_zy", k_iz="k_zz", U_i="U_z"):      # Eq. 6.62
+        U62 = calc(fc.U_buckling_NM, N_Ed=N, chi_i=chi["z"], N_Rk=N_Rk, k_iy=kzy, M_y_Ed=My, chi_LT=chi_LT,
+                   M_y_Rk=My_Rk, k_iz=kzz, M_z_Ed=Mz, M_z_Rk=Mz_Rk, gamma_M1=na.gamma_M1)
     calc.keep("U_6_62", U62)
     out.append(calc.record(id="ex_col_interaction_z", guidance=GUIDANCE_ECC, title="Existing column: buckling with bending, Eq. 6.62",
                            clause="EN 1993-1-1:2005, 6.3.3(4), Eq. 6.62", demand=U62, resistance=1.0, unit="",

@@ -182,38 +182,39 @@ def fin_plate_checks(ctx: Context, det: Detail, V_Ed: float, calc: Calc) -> list
     out.append(w)
 
     # tying
-    gMu = na.gamma_Mu
-    T1 = ctx.tie / n
-    Fv_u = calc(F_v_Rd, alpha_v=a_v, f_ub=b.f_ub, A_s=b.A_s, gamma_M2=gMu)
-    out.append(calc.record(id="fp_tie_bolts", title="Tying: bolt shear", clause="EN 1993-1-8:2005, 3.6.1, Table 3.4",
-                           demand=T1, resistance=Fv_u, unit="N", note=NOTE_TIE, guidance=GUIDANCE + ": tying"))
-    Fbp_u = bearing_resistance(b, det.t_p, plate.f_u, det.e_2, det.e_1, None, det.p_1, gamma_M2=gMu, calc=calc)
-    Fbp_u = _lap_capped(calc, Fbp_u, plate.f_u, b.d, det.t_p, gMu)
-    out.append(calc.record(id="fp_tie_bearing_plate", title="Tying: bolt bearing on the fin plate",
-                           clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=T1, resistance=Fbp_u, unit="N",
-                           note=NOTE_TIE + "; " + NOTE_LAP, guidance=GUIDANCE + ": tying"))
-    Fbw_u = bearing_resistance(b, beam.tw, fu_b, det.e_2b, e1b, None, det.p_1, gamma_M2=gMu, calc=calc)
-    Fbw_u = _lap_capped(calc, Fbw_u, fu_b, b.d, beam.tw, gMu)
-    out.append(calc.record(id="fp_tie_bearing_web", title="Tying: bolt bearing on the beam web",
-                           clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=T1, resistance=Fbw_u, unit="N",
-                           note=NOTE_TIE + "; " + NOTE_LAP, guidance=GUIDANCE + ": tying"))
-    out.append(check_plate_tension(ctx.tie, det.h_p, det.t_p, det.plate_grade, n_holes=n, d_0=d0, gamma_M2=gMu,
-                                   na=na, calc=calc, id="fp_tie_plate_tension",
-                                   title="Tying: fin plate in tension, gross and net"))
-    out.append(check_plate_tension(ctx.tie, det.h_p, beam.tw, ctx.beam_grade, n_holes=n, d_0=d0, gamma_M2=gMu,
-                                   na=na, calc=calc, id="fp_tie_web_tension",
-                                   title="Tying: beam web in tension over h_p, gross and net"))
-    if n > 1:
-        blk_t = block_tearing_areas(det.t_p, d0, 1, det.e_2, 0.0, n, det.e_1, det.p_1, pattern="inner")
-        blk_o = block_tearing_areas(det.t_p, d0, 1, det.e_2, 0.0, n, det.e_1, det.p_1, pattern="outer")
-        worst = min((blk_t, blk_o), key=lambda a: 0.5 * a.A_nt * plate.f_u + a.A_nv * plate.f_y / 3 ** 0.5)
-        out.append(check_block_tearing(ctx.tie, worst.A_nt, worst.A_nv, det.plate_grade, det.t_p, gamma_M2=gMu,
-                                       na=na, calc=calc, id="fp_tie_plate_block",
-                                       title=f"Tying: fin plate block tearing ({worst.pattern} block)"))
-        blk_w = block_tearing_areas(beam.tw, d0, 1, det.e_2b, 0.0, n, det.e_2b, det.p_1, pattern="inner")
-        out.append(check_block_tearing(ctx.tie, blk_w.A_nt, blk_w.A_nv, ctx.beam_grade, beam.tw, gamma_M2=gMu,
-                                       na=na, calc=calc, id="fp_tie_web_block",
-                                       title="Tying: beam web block tearing (inner block)"))
+    with calc.symbols(gamma_M2="gamma_Mu", gamma_M="gamma_Mu"):      # tying: gamma_Mu, never labelled gamma_M2
+        gMu = na.gamma_Mu
+        T1 = ctx.tie / n
+        Fv_u = calc(F_v_Rd, alpha_v=a_v, f_ub=b.f_ub, A_s=b.A_s, gamma_M2=gMu)
+        out.append(calc.record(id="fp_tie_bolts", title="Tying: bolt shear", clause="EN 1993-1-8:2005, 3.6.1, Table 3.4",
+                               demand=T1, resistance=Fv_u, unit="N", note=NOTE_TIE, guidance=GUIDANCE + ": tying"))
+        Fbp_u = bearing_resistance(b, det.t_p, plate.f_u, det.e_2, det.e_1, None, det.p_1, gamma_M2=gMu, calc=calc)
+        Fbp_u = _lap_capped(calc, Fbp_u, plate.f_u, b.d, det.t_p, gMu)
+        out.append(calc.record(id="fp_tie_bearing_plate", title="Tying: bolt bearing on the fin plate",
+                               clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=T1, resistance=Fbp_u, unit="N",
+                               note=NOTE_TIE + "; " + NOTE_LAP, guidance=GUIDANCE + ": tying"))
+        Fbw_u = bearing_resistance(b, beam.tw, fu_b, det.e_2b, e1b, None, det.p_1, gamma_M2=gMu, calc=calc)
+        Fbw_u = _lap_capped(calc, Fbw_u, fu_b, b.d, beam.tw, gMu)
+        out.append(calc.record(id="fp_tie_bearing_web", title="Tying: bolt bearing on the beam web",
+                               clause="EN 1993-1-8:2005, 3.6.1, Table 3.4", demand=T1, resistance=Fbw_u, unit="N",
+                               note=NOTE_TIE + "; " + NOTE_LAP, guidance=GUIDANCE + ": tying"))
+        out.append(check_plate_tension(ctx.tie, det.h_p, det.t_p, det.plate_grade, n_holes=n, d_0=d0, gamma_M2=gMu,
+                                       na=na, calc=calc, id="fp_tie_plate_tension",
+                                       title="Tying: fin plate in tension, gross and net"))
+        out.append(check_plate_tension(ctx.tie, det.h_p, beam.tw, ctx.beam_grade, n_holes=n, d_0=d0, gamma_M2=gMu,
+                                       na=na, calc=calc, id="fp_tie_web_tension",
+                                       title="Tying: beam web in tension over h_p, gross and net"))
+        if n > 1:
+            blk_t = block_tearing_areas(det.t_p, d0, 1, det.e_2, 0.0, n, det.e_1, det.p_1, pattern="inner")
+            blk_o = block_tearing_areas(det.t_p, d0, 1, det.e_2, 0.0, n, det.e_1, det.p_1, pattern="outer")
+            worst = min((blk_t, blk_o), key=lambda a: 0.5 * a.A_nt * plate.f_u + a.A_nv * plate.f_y / 3 ** 0.5)
+            out.append(check_block_tearing(ctx.tie, worst.A_nt, worst.A_nv, det.plate_grade, det.t_p, gamma_M2=gMu,
+                                           na=na, calc=calc, id="fp_tie_plate_block",
+                                           title=f"Tying: fin plate block tearing ({worst.pattern} block)"))
+            blk_w = block_tearing_areas(beam.tw, d0, 1, det.e_2b, 0.0, n, det.e_2b, det.p_1, pattern="inner")
+            out.append(check_block_tearing(ctx.tie, blk_w.A_nt, blk_w.A_nv, ctx.beam_grade, beam.tw, gamma_M2=gMu,
+                                           na=na, calc=calc, id="fp_tie_web_block",
+                                           title="Tying: beam web block tearing (inner block)"))
     return out
 
 
