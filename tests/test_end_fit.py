@@ -140,7 +140,7 @@ def test_restraint_at_free_connection_refused():
         _beam_loads(restraints=["3.0 m"], torsion="free")
     msg = str(ei.value)
     assert "support[2].existing_loads.restraints[1]" in msg and "torsion = 'restrained'" in msg
-    assert len(msg.splitlines()) == 1 or msg.splitlines()[0]
+    assert "\n" not in msg.strip()
 
 
 def test_restraint_elsewhere_or_with_stated_torsional_restraint_accepted():
@@ -164,3 +164,11 @@ def test_demo_crossbeam_ltb_over_full_span():
     assert ltb[0].demand == pytest.approx(179.7, abs=0.1)
     assert 190.0 < ltb[0].resistance < 215.0 and ltb[0].ok
     assert b.design.spec.notch_bottom_depth == 30.0            # the demo's end B is double notched
+
+
+def test_level_leaving_no_web_is_one_line_error():
+    # new top 400 mm above the existing top: top cut 17 + 10.2 + 400 = 427.2 mm, + 5 mm up to 435 mm, which is
+    # past h - t_f - r = 454.6 - 13.3 - 10.2 = 431.1 mm of the new beam (its bottom root fillet): hand
+    with pytest.raises(InputError, match=r"support\[2\]\.top_below_existing") as ei:
+        design_end_connection(NEW, "S355", 80e3, _support(top_below_existing="-400 mm"))
+    assert "\n" not in str(ei.value).strip()

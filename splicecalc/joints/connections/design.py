@@ -215,6 +215,17 @@ def _fit_notches(beam: Any, spec: Any) -> Any:
         kw["notch_basis"] = fit.text + f" Top notch as given in the job: {spec.notch_depth:g} x {spec.notch_length:g} mm."
     if fit.bottom:
         kw.update(notch_bottom_depth=fit.bottom, notch_bottom_length=fit.length)
+    top = kw.get("notch_depth", spec.notch_depth) or 0.0
+    bottom = fit.bottom or 0.0
+    flat = beam.h - beam.tf - beam.r
+    if (top and bottom and top + bottom >= beam.h - 2.0 * beam.tf) or (not bottom and top >= flat) \
+            or (not top and bottom >= flat):
+        where = "tops of steel level" if abs(spec.level) < 1e-9 else f"top_below_existing = {spec.level:g} mm"
+        raise InputError(f"{spec.field}.top_below_existing", f"{spec.level:g} mm",
+                         f"a level at which the new beam {beam.designation} keeps its web past the existing "
+                         f"flanges ({where} needs notches of top {top:g} mm and bottom {bottom:g} mm in a "
+                         f"{beam.h:g} mm beam)", "Change the level or the new beam's depth, or use a different "
+                                                 "support detail")
     return replace(spec, **kw)
 
 
