@@ -361,3 +361,19 @@ def test_beam_bending_web_holes_6_2_5_5_checker_s1():
     assert r.resistance == pytest.approx(W * 355 / 1e6, rel=1e-9)
     assert r.resistance < rec(d, "beam_bending_holes").resistance           # web holes cost capacity
     assert r.clause == "EN 1993-1-1:2005, 6.2.5(5)"
+
+
+def test_splice_force_symbols_one_value_each_checker_b11():
+    # Checker B11: each rendered force formula uses the forces table's symbols, one symbol one value.
+    # Hand calculation (demo S1): M_f = 237.068 + 39.086 * 0.140 = 242.54 kNm; M_w = (237.068 + 39.086 * 0.110)
+    # * 5292.2 / 25500 = 50.09 kNm; M_g = 50.09 + 39.086 * 0.075 = 53.02 kNm (checker's figures).
+    import re
+    spec = parse_splices({"bolts": "M20 8.8", "gap": "10 mm", "plate_grade": "S355"})
+    d = check_splice(UKB457_152, "S355", 237.068e6, 39.086e3, 0.0, spec=spec,
+                     layout=SpliceLayout("M20", "8.8", S1_FLANGE, S1_WEB), render=True)
+    lhs = [m.group(1) for t in d.force_latex for m in re.finditer(r"^\s*(M_\{[a-z]_\{Ed\}\})\s*&=", t, re.M)]
+    assert sorted(lhs) == sorted(set(lhs)) == ["M_{f_{Ed}}", "M_{g_{Ed}}", "M_{w_{Ed}}"]
+    assert d.forces.M_f_Ed / 1e6 == pytest.approx(237.068 + 39.086 * 0.140, abs=1e-3)
+    assert d.forces.M_g_Ed / 1e6 == pytest.approx(53.02, abs=0.01)
+    web = next(t for t in d.force_latex if "M_{w_{Ed}} &=" in t)
+    assert "237.068" in web and "242.540" not in web            # M_w from M_j,Ed and a_w, not from M_f,Ed

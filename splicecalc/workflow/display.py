@@ -555,12 +555,11 @@ def _splice_forces_table(part: Any) -> None:
             ["Shear force", "$V_{Ed}$", f"{abs(fo.V_Ed) / 1e3:.1f}", _u("kN")],
             ["Axial force (tension +)", "$N_{Ed}$", f"{fo.N_Ed / 1e3:.1f}", _u("kN")],
             ["Splice design moment (joint line)", "$M_{j,Ed}$", f"{fo.M_j_Ed / 1e6:.1f}", _u("kNm")],
-            [f"Moment at the outermost flange row, {fo.a_f:g} mm from the joint", "$M_{f,Ed}$", f"{fo.M_f_Ed / 1e6:.1f}",
-             _u("kNm")],
+            [f"Moment at the outermost flange row, $a_{{f}}$ = {fo.a_f:g} mm from the joint", "$M_{f,Ed}$",
+             f"{fo.M_f_Ed / 1e6:.1f}", _u("kNm")],
             ["Flange force (beam flange and flange bolts)", "$F_{f,Ed}$", f"{fo.F_f_Ed / 1e3:.1f}", _u("kN")],
-            [f"Moment at the outermost web column, {fo.a_w:g} mm from the joint", "$M_{a,Ed}$", f"{fo.M_w_a_Ed / 1e6:.1f}",
-             _u("kNm")],
-            ["Web share of that moment", "$M_{w,Ed}$", f"{fo.M_w_Ed / 1e6:.1f}", _u("kNm")],
+            [f"Web share of the moment at the outermost web column, $a_{{w}}$ = {fo.a_w:g} mm from the joint",
+             "$M_{w,Ed}$", f"{fo.M_w_Ed / 1e6:.1f}", _u("kNm")],
             ["Moment on the web bolt group", "$M_{g,Ed}$", f"{fo.M_g_Ed / 1e6:.2f}", _u("kNm")],
             ["Largest web bolt force", "$F_{r,Ed}$", f"{fo.F_web_max / 1e3:.1f}", _u("kN")]]
     if part.M_Ed_ser is not None:

@@ -65,11 +65,19 @@ def M_j_Ed(M_Ed: float, k_min: float, M_c_Rd: float) -> float:
     return M_j_Ed
 
 
-@clause(CIT_DIST, units={"M_j_Ed": "Nmm", "I_web": "mm4", "I_y": "mm4"}, returns="Nmm",
-        example=dict(M_j_Ed=300e6, I_web=1.14e8, I_y=5.52e8))
-def M_w_Ed(M_j_Ed: float, I_web: float, I_y: float) -> float:
-    """Web share of the splice moment by stiffness (N*mm)."""
-    M_w_Ed = M_j_Ed * I_web / I_y
+@clause(CIT_DIST, units={"M_j_Ed": "Nmm", "V_Ed": "N", "a_f": "mm"}, returns="Nmm",
+        example=dict(M_j_Ed=300e6, V_Ed=200e3, a_f=140.0))
+def M_f_Ed(M_j_Ed: float, V_Ed: float, a_f: float) -> float:
+    """Moment at the outermost flange bolt row, a_f from the joint line, on the side where it grows (N*mm)."""
+    M_f_Ed = abs(M_j_Ed) + abs(V_Ed) * a_f
+    return M_f_Ed
+
+
+@clause(CIT_DIST, units={"M_j_Ed": "Nmm", "V_Ed": "N", "a_w": "mm", "I_web": "mm4", "I_y": "mm4"}, returns="Nmm",
+        example=dict(M_j_Ed=300e6, V_Ed=200e3, a_w=110.0, I_web=1.14e8, I_y=5.52e8))
+def M_w_Ed(M_j_Ed: float, V_Ed: float, a_w: float, I_web: float, I_y: float) -> float:
+    """Web share by stiffness of the moment at the outermost web bolt column, a_w from the joint line (N*mm)."""
+    M_w_Ed = (abs(M_j_Ed) + abs(V_Ed) * a_w) * I_web / I_y
     return M_w_Ed
 
 
@@ -96,11 +104,12 @@ def z_f(h: float, t_f: float) -> float:
     return z_f
 
 
-@clause(CIT_DIST, units={"M_j_Ed": "Nmm", "M_w_Ed": "Nmm", "z_f": "mm", "N_f_Ed": "N"}, returns="N",
-        example=dict(M_j_Ed=300e6, M_w_Ed=62e6, z_f=517.5, N_f_Ed=0.0))
-def F_f_Ed(M_j_Ed: float, M_w_Ed: float, z_f: float, N_f_Ed: float) -> float:
-    """Flange force: flange share of the moment over the lever arm plus the axial share (N)."""
-    F_f_Ed = (M_j_Ed - M_w_Ed) / z_f + abs(N_f_Ed)
+@clause(CIT_DIST, units={"M_f_Ed": "Nmm", "I_web": "mm4", "I_y": "mm4", "z_f": "mm", "N_f_Ed": "N"}, returns="N",
+        example=dict(M_f_Ed=328e6, I_web=1.14e8, I_y=5.52e8, z_f=517.5, N_f_Ed=0.0))
+def F_f_Ed(M_f_Ed: float, I_web: float, I_y: float, z_f: float, N_f_Ed: float) -> float:
+    """Flange force at the outermost flange row: the flanges' share (1 - I_web/I_y) of M_f,Ed over the lever
+    arm, plus the axial share (N)."""
+    F_f_Ed = M_f_Ed * (1 - I_web / I_y) / z_f + abs(N_f_Ed)
     return F_f_Ed
 
 
@@ -113,14 +122,13 @@ def e_w(g_a: float, e_1: float, n_c: int, p_2: float) -> float:
     return e_w
 
 
-@clause(CIT_DIST, units={"M_Ed": "Nmm", "V_Ed": "N", "e": "mm"}, returns="Nmm",
-        example=dict(M_Ed=62e6, V_Ed=300e3, e=70.0))
-def M_e_Ed(M_Ed: float, V_Ed: float, e: float) -> float:
-    """Moment a distance e from where M acts, on the side where it grows: |M| + |V| e (N*mm). Used for
-    the moment at a group's outermost bolt row (e = a from the joint line) and for the moment on the
-    web bolt group about its centroid (M = M_w, e = e_w)."""
-    M_e_Ed = abs(M_Ed) + abs(V_Ed) * e
-    return M_e_Ed
+@clause(CIT_POLAR, units={"M_w_Ed": "Nmm", "V_Ed": "N", "e_w": "mm"}, returns="Nmm",
+        example=dict(M_w_Ed=62e6, V_Ed=300e3, e_w=70.0))
+def M_g_Ed(M_w_Ed: float, V_Ed: float, e_w: float) -> float:
+    """Moment on the web bolt group about its centroid: the web share plus the shear times the distance
+    e_w from the joint line to the centroid, on the side where they add (N*mm)."""
+    M_g_Ed = M_w_Ed + abs(V_Ed) * e_w
+    return M_g_Ed
 
 
 @clause(CIT_POLAR, units={"N_w_Ed": "N", "M_g_Ed": "Nmm", "z_i": "mm", "I_p": "mm2"}, returns="N",
@@ -163,7 +171,7 @@ class SpliceForces:
     a_f: float = 0.0       # joint line -> outermost flange bolt row (mm)
     a_w: float = 0.0       # joint line -> outermost web bolt column (mm)
     M_f_Ed: float = 0.0    # moment at the outermost flange row: the flange force is taken there
-    M_w_a_Ed: float = 0.0  # moment at the outermost web column: the web share is taken there
+    M_w_a_Ed: float = 0.0  # moment at the outermost web column: the web share M_w_Ed is taken there
 
     @property
     def F_web_max(self) -> float:
@@ -192,13 +200,12 @@ def flange_force(section, M_j: float, V_Ed: float, N_Ed: float, a_f: float, calc
 
     The moment there (``|M_j| + |V| a_f``) is split by stiffness as at the joint line."""
     c = calc or Calc()
-    Mf = c(M_e_Ed, M_Ed=M_j, V_Ed=V_Ed, e=a_f) if a_f > 0 else abs(M_j)
+    Mf = c(M_f_Ed, M_j_Ed=M_j, V_Ed=V_Ed, a_f=a_f)
     Iw = I_web(t_w=section.tw, h=section.h, t_f=section.tf)
-    Mwf = c(M_w_Ed, M_j_Ed=Mf, I_web=Iw, I_y=section.Iy)
     Nf = c(N_f_Ed, N_Ed=N_Ed, b=section.b, t_f=section.tf, A=section.A) if N_Ed else 0.0
     z = z_f(h=section.h, t_f=section.tf)
-    Ff = c(F_f_Ed, M_j_Ed=Mf, M_w_Ed=Mwf, z_f=z, N_f_Ed=Nf)
-    return Ff, Mf, (Mf - Mwf) / z, Nf
+    Ff = c(F_f_Ed, M_f_Ed=Mf, I_web=Iw, I_y=section.Iy, z_f=z, N_f_Ed=Nf)
+    return Ff, Mf, Ff - abs(Nf), Nf
 
 
 def splice_forces(section, M_Ed: float, V_Ed: float, N_Ed: float, *, gap: float, web_rows: int,
@@ -221,10 +228,10 @@ def splice_forces(section, M_Ed: float, V_Ed: float, N_Ed: float, *, gap: float,
     aw = web_reach(gap, web_e1, web_columns, web_gauge)
     if c.render:
         c.note("Web group: moment share at its outermost bolt column, a_w from the joint line")
-    Mwa = c(M_e_Ed, M_Ed=Mj, V_Ed=V_Ed, e=aw)
-    Mw = c(M_w_Ed, M_j_Ed=Mwa, I_web=Iw, I_y=section.Iy)
+    Mw = c(M_w_Ed, M_j_Ed=Mj, V_Ed=V_Ed, a_w=aw, I_web=Iw, I_y=section.Iy)
+    Mwa = M_f_Ed(M_j_Ed=Mj, V_Ed=V_Ed, a_f=aw)        # the moment at that column (not printed: M_w,Ed shows it)
     e = c(e_w, g_a=gap, e_1=web_e1, n_c=web_columns, p_2=web_gauge)
-    Mg = c(M_e_Ed, M_Ed=Mw, V_Ed=V_Ed, e=e)
+    Mg = c(M_g_Ed, M_w_Ed=Mw, V_Ed=V_Ed, e_w=e)
     n = web_rows * web_columns
     Ip = I_p(n_r=web_rows, n_c=web_columns, p_1=web_pitch, p_2=web_gauge)
     V = abs(V_Ed)
@@ -242,6 +249,8 @@ def splice_forces(section, M_Ed: float, V_Ed: float, N_Ed: float, *, gap: float,
         # render the governing bolt with the same formulas
         xg, zg, *_ = max(forces, key=lambda f: f[4])
         c(I_p, n_r=web_rows, n_c=web_columns, p_1=web_pitch, p_2=web_gauge)
+        if Nw == 0.0:
+            c.note("$N_{w,Ed}$ = 0: the term $N_{w,Ed}/n$ of $F_{x,Ed}$ is zero and is not printed in the numbers.")
         fx = c(F_x_Ed, N_w_Ed=Nw, n=n, M_g_Ed=Mg, z_i=zg, I_p=Ip)
         fz = c(F_z_Ed, V_Ed=V, n=n, M_g_Ed=Mg, x_i=xg, I_p=Ip)
         c(F_r_Ed, F_x_Ed=fx, F_z_Ed=fz)
@@ -250,5 +259,5 @@ def splice_forces(section, M_Ed: float, V_Ed: float, N_Ed: float, *, gap: float,
                         a_f=flange_a, a_w=aw, M_f_Ed=Mf, M_w_a_Ed=Mwa)
 
 
-__all__ = ["I_web", "M_e_Ed", "flange_force", "flange_reach", "web_reach", "M_j_Ed", "M_w_Ed", "N_f_Ed", "N_w_Ed", "z_f", "F_f_Ed", "e_w",
+__all__ = ["I_web", "M_f_Ed", "M_g_Ed", "flange_force", "flange_reach", "web_reach", "M_j_Ed", "M_w_Ed", "N_f_Ed", "N_w_Ed", "z_f", "F_f_Ed", "e_w",
            "F_x_Ed", "F_z_Ed", "SpliceForces", "splice_forces", "web_bolt_coordinates"]
