@@ -549,3 +549,18 @@ def test_rendered_interaction_names_each_axis():
     assert "n_{i}" not in everything and "_{12}" not in everything and "chi_{i}" not in everything
     assert "n_{y}" in y and "n_{z}" in y and "k_{yy}" in y and "k_{yz}" in y and "U_{y}" in y
     assert "k_{zy}" in z and "k_{zz}" in z and "\\chi_{z}" in z and "U_{z}" in z
+
+
+def test_section_verdict_is_the_rendered_max_of_n_and_U_NM():
+    """The cross-section record prints what it computed: U = max(n, U_NM) (EN 1993-1-1 Eq. 6.9 and Eq. 6.41),
+    rendered as the last step, with M_pl,z,Rd = W_pl,z f_y / gamma_M0 (Eq. 6.13) worked for M_N,z,Rd."""
+    loads = _col_loads(axial={"permanent": "300 kN"})
+    det = design_end_connection(BEAM, "S355", 20e3, _support()).detail
+    res = existing_member_checks(COL, loads, lambda t: existing_material_of("S275", t), "column flange", det,
+                                 None, 20e3, NA610, PSI_UK_NA, 75e3, Calc(render=True))
+    r = _rec(res.records, "ex_col_section")
+    n = _rec(res.records, "ex_col_section").values["N_Ed"][0] * 1e3 / (COL.A * 275.0)
+    assert r.demand == pytest.approx(max(n, r.demand), rel=1e-9) and r.demand == pytest.approx(n, rel=1e-9)
+    text = " ".join(r.latex)
+    assert "M_{pl_{z_{Rd}}} &= W_{pl_{z}}" in text.replace("\n", " ") or "M_{pl_{z_{Rd}}} &=" in text
+    assert "U &= \\operatorname{max}" in text

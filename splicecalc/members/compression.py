@@ -78,6 +78,15 @@ def U_biaxial_NM(M_y_Ed: float, M_N_y_Rd: float, M_z_Ed: float, M_N_z_Rd: float,
     return U_NM
 
 
+@clause("EN 1993-1-1:2005, 6.2.4(1), Eq. 6.9 and 6.2.9.1(6), Eq. 6.41", units={}, returns="",
+        example=dict(U_NM=0.02, n=0.157))
+def U_section_NM(U_NM: float, n: float) -> float:
+    """Utilisation of an I or H cross-section under N + M: the larger of the axial check N_Ed / N_pl,Rd = n
+    (Eq. 6.9) and the bi-axial criterion U_NM (Eq. 6.41), which on its own does not bound N."""
+    U = max(U_NM, n)
+    return U
+
+
 @clause("EN 1993-1-1:2005, 6.2.9.2(1), Eq. 6.42", units={"N_Ed": "N", "A": "mm2", "M_y_Ed": "Nmm", "W_el_y": "mm3",
                                                           "M_z_Ed": "Nmm", "W_el_z": "mm3", "f_y": "MPa"},
         returns="", example=dict(N_Ed=600e3, A=9310.0, M_y_Ed=80e6, W_el_y=898e3, M_z_Ed=5e6, W_el_z=307e3,
@@ -174,5 +183,5 @@ def V_pl_T_Rd(V_pl_Rd: float, tau_t_Ed: float, f_y: float, gamma_M0: float) -> f
 
 
 __all__ = ["ALPHA_FLEXURAL", "flexural_curves", "N_cr", "lambda_flex", "M_N_y_Rd", "M_N_z_Rd", "U_biaxial_NM",
-           "U_elastic_NM", "C_m_linear", "n_ratio", "k_yy_B", "k_zz_B", "k_yz_B", "k_zy_B", "U_buckling_NM",
+           "U_elastic_NM", "U_section_NM", "C_m_linear", "n_ratio", "k_yy_B", "k_zz_B", "k_yz_B", "k_zy_B", "U_buckling_NM",
            "V_pl_T_Rd"]

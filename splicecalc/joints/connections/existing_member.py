@@ -229,14 +229,17 @@ def _column_records(sec: Any, cl: ExistingColumnLoads, f_y: float, f_y_w: float,
     if cls <= 2:
         Npl = calc(f11.N_pl_Rd, A=A, f_y=f_y, gamma_M0=na.gamma_M0)
         n = N / Npl
+        calc.note(f"$n = N_{{Ed}} / N_{{pl,Rd}}$ = {N / 1e3:.1f} / {Npl / 1e3:.1f} = {n:.3f}")
         a_w = min((A - 2.0 * sec.b * sec.tf) / A, 0.5)
-        MNy = calc(fc.M_N_y_Rd, M_pl_y_Rd=My_Rk / na.gamma_M0, n=n, a=a_w)
-        MNz = calc(fc.M_N_z_Rd, M_pl_z_Rd=Mz_Rk / na.gamma_M0, n=n, a=a_w)
-        if n >= 1.0:
-            U = n
-        else:
-            U = calc(fc.U_biaxial_NM, M_y_Ed=My, M_N_y_Rd=MNy, M_z_Ed=Mz, M_N_z_Rd=MNz, n=n)
-            U = max(U, n)
+        with calc.symbols(M_c_Rd="M_pl_y_Rd", W_y="W_pl_y"):
+            Mply = calc(f11.M_c_Rd, W_y=sec.Wpl_y, f_y=f_y, gamma_M0=na.gamma_M0)
+        with calc.symbols(M_c_Rd="M_pl_z_Rd", W_y="W_pl_z"):
+            Mplz = calc(f11.M_c_Rd, W_y=sec.Wpl_z, f_y=f_y, gamma_M0=na.gamma_M0)
+        MNy = calc(fc.M_N_y_Rd, M_pl_y_Rd=Mply, n=n, a=a_w)
+        MNz = calc(fc.M_N_z_Rd, M_pl_z_Rd=Mplz, n=n, a=a_w)
+        # n >= 1: Eq. 6.41 does not apply (no moment left), the axial check alone governs
+        U_NM = calc(fc.U_biaxial_NM, M_y_Ed=My, M_N_y_Rd=MNy, M_z_Ed=Mz, M_N_z_Rd=MNz, n=n) if n < 1.0 else 0.0
+        U = calc(fc.U_section_NM, U_NM=U_NM, n=n)          # the value the verdict prints
         cl_txt = "EN 1993-1-1:2005, 6.2.9.1(6), Eq. 6.41"
     else:
         U = calc(fc.U_elastic_NM, N_Ed=N, A=A, M_y_Ed=My, W_el_y=sec.Wel_y, M_z_Ed=Mz, W_el_z=sec.Wel_z, f_y=f_y,
