@@ -564,3 +564,18 @@ def test_section_verdict_is_the_rendered_max_of_n_and_U_NM():
     text = " ".join(r.latex)
     assert "M_{pl_{z_{Rd}}} &= W_{pl_{z}}" in text.replace("\n", " ") or "M_{pl_{z_{Rd}}} &=" in text
     assert "U &= \\operatorname{max}" in text
+
+
+def test_shear_with_torsion_eq_6_26_root_over_the_bracket_only():
+    """EN 1993-1-1 Eq. 6.26: V_pl,T,Rd = sqrt(1 - tau_t,Ed / (1.25 (f_y/sqrt 3)/gamma_M0)) V_pl,Rd; the
+    rendered root covers the bracket only (V_pl,Rd outside it); nil once tau_t,Ed reaches 1.25 f_y/sqrt 3."""
+    from splicecalc.members import compression as fc
+    V = fc.V_pl_T_Rd(V_pl_Rd=636.347e3, tau_t_Ed=18.682, f_y=230.0, gamma_M0=1.0)
+    assert V == pytest.approx(math.sqrt(1 - 18.682 / (1.25 * 230 / math.sqrt(3))) * 636.347e3, rel=1e-12)
+    assert V == pytest.approx(599.47e3, rel=1e-4)          # the demo's crossbeam, hand check
+    assert fc.V_pl_T_Rd(V_pl_Rd=600e3, tau_t_Ed=400.0, f_y=275.0, gamma_M0=1.0) == 0.0
+    calc = Calc(render=True)
+    calc(fc.V_pl_T_Rd, V_pl_Rd=636.347e3, tau_t_Ed=18.682, f_y=230.0, gamma_M0=1.0)
+    tex = calc.latex[0]
+    assert "\\sqrt { 1 - \\frac{ \\tau_{t_{Ed}} }{ \\tau_{Rd} } } \\cdot V_{pl_{Rd}}" in tex
+    assert "max" not in tex

@@ -177,8 +177,12 @@ def U_buckling_NM(N_Ed: float, chi_i: float, N_Rk: float, k_iy: float, M_y_Ed: f
         returns="N", example=dict(V_pl_Rd=600e3, tau_t_Ed=40.0, f_y=275.0, gamma_M0=1.0))
 def V_pl_T_Rd(V_pl_Rd: float, tau_t_Ed: float, f_y: float, gamma_M0: float) -> float:
     """Plastic shear resistance of an I or H section reduced for St Venant torsion (N):
-    V_pl,T,Rd = sqrt(1 - tau_t,Ed / (1.25 (f_y/sqrt 3)/gamma_M0)) V_pl,Rd."""
-    V_pl_T_Rd = sqrt(max(1 - tau_t_Ed / (1.25 * (f_y / sqrt(3)) / gamma_M0), 0.0)) * V_pl_Rd
+    V_pl,T,Rd = sqrt(1 - tau_t,Ed / (1.25 (f_y/sqrt 3)/gamma_M0)) V_pl,Rd, the root over the bracket only
+    (tau_Rd = 1.25 (f_y/sqrt 3)/gamma_M0 named as a step so the rendering shows it so; nil when tau_t,Ed
+    reaches tau_Rd)."""
+    tau_Rd = 1.25 * (f_y / sqrt(3)) / gamma_M0
+    if tau_t_Ed < tau_Rd: V_pl_T_Rd = sqrt(1 - tau_t_Ed / tau_Rd) * V_pl_Rd
+    else: V_pl_T_Rd = 0.0
     return V_pl_T_Rd
 
 
