@@ -184,9 +184,6 @@ r = "10.2 mm"
 kind = "beam"
 span = "6.0 m"
 at = "3.0 m"
-restraints = [
-    "3.0 m",
-]
 category = "H"
 torsion = "free"
 

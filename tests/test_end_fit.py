@@ -172,3 +172,11 @@ def test_level_leaving_no_web_is_one_line_error():
     with pytest.raises(InputError, match=r"support\[2\]\.top_below_existing") as ei:
         design_end_connection(NEW, "S355", 80e3, _support(top_below_existing="-400 mm"))
     assert "\n" not in str(ei.value).strip()
+
+
+def test_notched_end_ltb_not_checked_unless_restrained():
+    d = design_end_connection(NEW, "S355", 80e3, _support())
+    r = _rec(d, "notch_ltb")
+    assert not r.checked and "end B" in r.note and "top 35 x 85 mm, bottom 30 x 85 mm" in r.note
+    d = design_end_connection(NEW, "S355", 80e3, _support(), restrained=True)
+    assert not any(x.id == "notch_ltb" for x in d.records)

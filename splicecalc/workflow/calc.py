@@ -382,7 +382,7 @@ def design_connections(job: Job, design: BeamDesign, render: bool = True) -> tup
         tcalc = Calc(render=render)
         tying = tying_force_from_loads(an.loads, an.span_mm, spec.consequence_class, job.psi, tcalc)
         d = design_end_connection(design.section, job.beam.grade, V, spec, job.na, render=render, reactions=parts,
-                                  tying=tying, psi=job.psi)
+                                  tying=tying, psi=job.psi, restrained=job.beam.continuous_restraint)
         tie_rec = tying_record(tcalc, d.tie, d.tie_basis, spec.tying_given)
         existing_ids = {id(r) for r in d.existing.records}
         own = tuple(_relabel(r, end, f"End {end}") for r in d.records if id(r) not in existing_ids)

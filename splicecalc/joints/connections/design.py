@@ -24,7 +24,7 @@ from .detail import Context, Detail, ceil_to, detailing_checks, weld_grade_exist
 from .endplate import end_plate_checks
 from .existing import ExistingResult, existing_checks, existing_material
 from .finplate import fin_plate_checks
-from .notch import check_double_notch, check_notch, notch_fit
+from .notch import check_double_notch, check_notch, notch_fit, notch_ltb_not_checked
 from .spec import TYING_MIN_N, SupportSpec
 
 #: standard fillet leg sizes (mm)
@@ -266,7 +266,8 @@ def _validate(beam_section: Any, beam_grade: str, V_Ed: float, spec: Any, na: An
 
 def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec: SupportSpec,
                           na: NationalAnnex = UK_NA, render: bool = False, *, reactions: Sequence[Any] | None = None,
-                          tying: tuple[float, str] | None = None, psi: Any = None) -> ConnectionDesign:
+                          tying: tuple[float, str] | None = None, psi: Any = None,
+                          restrained: bool = False) -> ConnectionDesign:
     """Design one end connection (partial-depth end plate or fin plate) of the new beam.
 
     ``beam_section``: Section of the new beam; ``beam_grade``: e.g. "S355"; ``V_Ed``: design
@@ -279,7 +280,9 @@ def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec:
     used with ``spec.existing_loads`` in the member check of the existing member (None: ``V_Ed``
     taken as a permanent action, conservative). ``tying``: (force N, basis text) computed from the
     loads (:func:`~.tying.tying_force_from_loads`); a ``tying_force`` in the job overrides it; with
-    neither the 75 kN minimum is used. ``psi``: the job's psi-factor table.
+    neither the 75 kN minimum is used. ``psi``: the job's psi-factor table. ``restrained``: the new
+    beam's compression flange is held laterally along its length (job ``restraints = "continuous"``);
+    otherwise a notched end gets a NOT CHECKED record for the beam's LTB with the notch.
     """
     from ...materials.historic import existing_material_of
     from .existing_member import existing_member_checks
@@ -339,6 +342,8 @@ def design_end_connection(beam_section: Any, beam_grade: str, V_Ed: float, spec:
                                     chosen, reactions, V, na, psi, tie, calc)
     ex = replace(ex, records=ex.records + member.records, member=member)
     recs = list(recs) + list(member.records)
+    if (spec.notched or spec.notch_bottom_depth) and not restrained:
+        recs.append(notch_ltb_not_checked(spec))
     warnings = []
     if spec.connection == "fin plate":
         warnings.append("The fin plate is WELDED to the existing member: confirm the weldability of the existing "

@@ -73,6 +73,20 @@ class NotchFit:
                 f", length {self.length:g} mm ({NOTCH_PRACTICE}).")
 
 
+def notch_ltb_not_checked(spec) -> CheckRecord:
+    """NOT CHECKED: the new beam's lateral-torsional buckling allowing for a notched end (beam not held
+    laterally along its length). The member LTB check takes a fork at each support; a notch reduces the
+    end's restraint against twist and the limits of :func:`check_notch` are for restrained beams."""
+    end = "A" if spec.at == "start" else "B"
+    return not_checked(id="notch_ltb", title="New beam: lateral-torsional buckling with the notched end",
+                       clause="EN 1993-1-1:2005, 6.3.2.1",
+                       reason=f"the new beam is notched at end {end} ({spec.notch_text}) and is not held laterally "
+                              "along its length: the member LTB check takes a fork support there, which a notched "
+                              "end may not give; check the end segment allowing for the notch (published guidance "
+                              "for unrestrained notched beams: a longer effective length, from memory) or restrain "
+                              "the top flange at the notch")
+
+
 def _up(x: float) -> float:
     return math.ceil(x / NOTCH_ROUND - 1e-9) * NOTCH_ROUND
 
@@ -228,4 +242,4 @@ def check_double_notch(beam, f_y: float, f_u: float, V_Ed: float, d_nt: float, d
     return out
 
 
-__all__ = ["check_notch", "check_double_notch", "notch_fit", "NotchFit", "NOTCH_PRACTICE"]
+__all__ = ["check_notch", "check_double_notch", "notch_fit", "NotchFit", "NOTCH_PRACTICE", "notch_ltb_not_checked"]
