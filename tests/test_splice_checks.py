@@ -377,3 +377,25 @@ def test_splice_force_symbols_one_value_each_checker_b11():
     assert d.forces.M_g_Ed / 1e6 == pytest.approx(53.02, abs=0.01)
     web = next(t for t in d.force_latex if "M_{w_{Ed}} &=" in t)
     assert "237.068" in web and "242.540" not in web            # M_w from M_j,Ed and a_w, not from M_f,Ed
+
+
+def test_resistances_printed_with_their_working_checker_b12():
+    # Checker B12 (splice items). Hand calculation, EN 1993-1-8 Table 3.4: the outer plate's inner-row bolt,
+    # alpha_d = 50/66 - 1/4 = 0.508, F_b,Rd = 2.5 * 0.508 * 470 * 20 * 12 / 1.25 = 114.5 kN, the group's
+    # F_b,Rd,min, must have its working printed.
+    from splicecalc.workflow.display import same_working
+    spec = parse_splices({"bolts": "M20 8.8", "gap": "10 mm", "plate_grade": "S355"})
+    d12 = check_splice(UKB457_152, "S355", 237.068e6, 39.086e3, 0.0, spec=spec,
+                       layout=SpliceLayout("M20", "8.8", S1_FLANGE, S1_WEB), render=True)
+    grp = "\n".join(rec(d12, "flange_bolt_group").latex)
+    assert "50.000" in grp and "0.508" in grp
+    assert 2.5 * (50 / 66 - 0.25) * 470 * 20 * 12 / 1.25 / 1e3 == pytest.approx(114.5, abs=0.05)
+    # the compression note names the length it divides: (gap + 2 e1)/t = 80/12 (Table 3.3 note 2)
+    assert rec(d12, "outer_plate_compression").note.startswith("(gap + 2 e_1)/t = 80/12 = 6.67")
+    # a 10 mm plate buckles (80/10 = 8.0 >= 9 eps = 7.32): its working differs, so it is never referred
+    # to the 12 mm splice's working (shown in full)
+    fl10 = FlangeLayout(rows=3, columns=2, pitch=50.0, gauge=70.0, plate=10.0, e1=35.0)
+    d10 = check_splice(UKB457_152, "S355", 191.07e6, 58.87e3, 0.0, spec=spec,
+                       layout=SpliceLayout("M20", "8.8", fl10, S1_WEB), render=True)
+    assert not same_working(rec(d10, "outer_plate_compression"), d12)
+    assert same_working(rec(d10, "outer_plate_tension"), d12)

@@ -363,7 +363,7 @@ def check_plate_bending(M_Ed: float, h: float, t: float, grade: str, *, plastic:
 def check_plate_compression(N_Ed: float, b: float, t: float, p_1: float, grade: str, *, curve: str = "c",
                             A_net: float | None = None, na: NationalAnnex = UK_NA, calc: Calc | None = None,
                             id: str = "plate_compression", title: str = "Plate in compression between fasteners",
-                            location_mm: float | None = None) -> CheckRecord:
+                            location_mm: float | None = None, length_name: str = "p_1") -> CheckRecord:
     """Plate b x t (mm) in compression N_Ed (N) with fastener pitch p_1 (mm) along the load.
 
     EN 1993-1-8:2005, 3.5, Table 3.3 note 2: if p_1/t < 9 eps the cross-section
@@ -371,6 +371,7 @@ def check_plate_compression(N_Ed: float, b: float, t: float, p_1: float, grade: 
     6.3.1 with L_cr = 0.6 p_1 and curve c. The cross-section resistance is on the
     gross area (holes filled by bolts, EN 1993-1-1 6.2.4), or on ``A_net`` (mm2)
     when given: oversize and slotted holes must be allowed for in compression too.
+    ``length_name``: what ``p_1`` is, for the note (e.g. "gap + 2 e_1" for the strip across a joint).
     """
     na = _na(na)
     N_Ed = require_in_range("N_Ed", require_non_negative("N_Ed", N_Ed, "N"), 0.0, MAX_FORCE_N, "N")
@@ -396,9 +397,11 @@ def check_plate_compression(N_Ed: float, b: float, t: float, p_1: float, grade: 
         calc.keep("lambda_bar", lam)
         calc.keep("chi", x)
         N_Rd = min(Npl, Nb)
-        note = f"p_1/t = {p_1 / t:.2f} >= 9 eps = {lim:.2f}: buckling checked, L_cr = 0.6 p_1, curve {curve}"
+        note = (f"({length_name})/t = {p_1:g}/{t:g} = {p_1 / t:.2f} >= 9 eps = {lim:.2f}: buckling checked, "
+                f"L_cr = 0.6 ({length_name}), curve {curve}")
     else:
-        note = f"p_1/t = {p_1 / t:.2f} < 9 eps = {lim:.2f}: no buckling between fasteners (Table 3.3 note 2)"
+        note = (f"({length_name})/t = {p_1:g}/{t:g} = {p_1 / t:.2f} < 9 eps = {lim:.2f}: no buckling between "
+                "fasteners (Table 3.3 note 2)")
     return calc.record(id=id, title=title, clause="EN 1993-1-8:2005, 3.5, Table 3.3", demand=N_Ed,
                        resistance=N_Rd, unit="N", location_mm=location_mm, note=note)
 

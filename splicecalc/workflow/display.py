@@ -600,7 +600,8 @@ def show_splice(result: CalcResult, part: Any, like: Any = None, groups: tuple[s
     if like is not None and groups:
         # a group (flange or web) laid out as in an earlier splice: its strength checks as rows, the
         # working referred to that splice; the other group's checks in full
-        referred = [r for r in records if _splice_group(r) in groups and not is_detailing_rule(r)]
+        referred = [r for r in records if _splice_group(r) in groups and not is_detailing_rule(r)
+                    and same_working(r, like)]
         words = " and ".join(groups)
         rest = "web" if groups == ("flange",) else "flange"
         verb = "are" if len(groups) > 1 else "is"
@@ -630,7 +631,29 @@ def show_splice_as(result: CalcResult, part: Any, first: Any) -> None:
         show_table(["Item", "Layout"], mine, align="ll", title=f"Layout of splice {part.label}")
     if part.design.notes:
         show_list(part.design.notes, "Notes")
-    show_rules(part.records, f"Splice {part.label}: every check (working as for {first.label})")
+    own = [r for r in part.records if not same_working(r, first)]
+    show_rules([r for r in part.records if r not in own], f"Splice {part.label}: every check (working as for "
+               f"{first.label})")
+    if own:
+        show_text(f"The checks below take a different path in {part.label} than in {first.label} (e.g. buckling "
+                  "that the first did not need, or a check it does not have): their working in full.")
+        show_part_checks(own, f"Splice {part.label}: detailing rules")
+
+
+def same_working(rec: CheckRecord, like: Any) -> bool:
+    """True when the splice ``like`` has the check of ``rec`` (same id after the ``S<k>.`` prefix) worked
+    with the same formulas, so a row may refer to its working: the same number of rendered steps with the
+    same left-hand sides. A check that took another path (a buckling branch, a reduced section) or that
+    ``like`` does not have is shown in full (checker: a resistance must never be printed without its working)."""
+    suffix = rec.id.split(".", 1)[-1]
+    other = next((r for r in like.records if r.id.split(".", 1)[-1] == suffix), None)
+    if other is None:
+        return False
+    lhs = re.compile(r"^\s*\\begin\{aligned\}\s*([^&]*)&=", re.M)
+
+    def shape(r):
+        return [m.group(1).strip() for t in r.latex for m in lhs.finditer(t)], len(r.latex)
+    return shape(rec) == shape(other)
 
 
 _THICKNESS = re.compile(r"^(\d+(?:\.\d+)?) x \d+(?:\.\d+)? x ")

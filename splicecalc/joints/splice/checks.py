@@ -270,6 +270,7 @@ def _flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na
     share_i = 1.0 - share_o
     lap = (rows == 1 and not inner)
     per_bolt: list[float] = []
+    where: list[tuple] = []        # per bolt: the ply and Table 3.4 position that gives its resistance
     worst = {"beam flange": math.inf, "outer plate": math.inf, "inner plates": math.inf}
     cache: dict = {}
 
@@ -292,13 +293,21 @@ def _flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na
             v_o = fb("o", g.t_po, fu_o, g.e1_f if plate_end else None, None if plate_end else p1, e2o, p2o)
             worst["beam flange"] = min(worst["beam flange"], v_b)
             worst["outer plate"] = min(worst["outer plate"], v_o / share_o)
-            v = min(v_b, v_o / share_o)
+            cands = [(v_b, ("beam flange", section.tf, fu_b, g.e1_f if beam_end else None,
+                            None if beam_end else p1, e2b, p2b, 1.0, "end row" if beam_end else "inner row", j)),
+                     (v_o / share_o, ("outer plate", g.t_po, fu_o, g.e1_f if plate_end else None,
+                                      None if plate_end else p1, e2o, p2o, share_o,
+                                      "end row" if plate_end else "inner row", j))]
             if inner:
                 e2i, p2ii = lines_i[j]
                 v_i = fb("i", g.t_pi, fu_i, g.e1_f if plate_end else None, None if plate_end else p1, e2i, p2ii)
                 worst["inner plates"] = min(worst["inner plates"], v_i / share_i)
-                v = min(v, v_i / share_i)
+                cands.append((v_i / share_i, ("inner plates", g.t_pi, fu_i, g.e1_f if plate_end else None,
+                                              None if plate_end else p1, e2i, p2ii, share_i,
+                                              "end row" if plate_end else "inner row", j)))
+            v, w = min(cands, key=lambda c_: c_[0])
             per_bolt.append(v)
+            where.append(w)
     gov = min((k for k in worst if math.isfinite(worst[k])), key=lambda k: worst[k])
     if calc.render:
         calc.note(f"Bearing, governing ply: {gov} (force per bolt divided by the ply's share of the flange force)")
@@ -308,6 +317,16 @@ def _flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na
         e2o, p2o_ = lines_o[0]
         calc.note("Outer plate, end bolt (row at the plate end, edge line), Table 3.4:")
         _fb(bolt, g.t_po, fu_o, g.e1_f, None, e2o, p2o_, gM2, hole, calc=calc)
+        if per_bolt:
+            k_min = min(range(len(per_bolt)), key=lambda k: per_bolt[k])
+            ply, t_, fu_, e1_, p1_, e2_, p2_, sh, row, j_ = where[k_min]
+            shown = {("beam flange", "end row"), ("outer plate", "end row")}
+            if (ply, row) not in shown or j_ not in (0, cols - 1):
+                line = "edge line" if e2_ is not None else "inner line"
+                calc.note(f"Governing bolt of the group, $F_{{b,Rd,min}}$: {ply}, {row}, {line}, Table 3.4"
+                          + (f" (its resistance divided by the ply's share {sh:.3f} of the flange force)"
+                             if sh < 1.0 else "") + ":")
+                _fb(bolt, t_, fu_, e1_, p1_, e2_, p2_, gM2, hole, calc=calc)
     if F_v > 0.0 and min(per_bolt) > 0.0:
         _safe(out, B.check_bolt_group, fid="flange_bolt_group", ftitle="Flange bolt group: bearing and shear (3.7)",
               fclause="EN 1993-1-8:2005, 3.7(1)", F_Ed=F_f, F_v_Rd_each=F_v, F_b_Rd_each=per_bolt, calc=calc,
@@ -375,13 +394,14 @@ def _flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na
               location_mm=loc)
     # -- compression: buckling between fasteners and across the joint
     p_free = max(g.p1_f if rows > 1 else 0.0, spec.gap + 2 * g.e1_f)
+    p_name = "gap + 2 e_1" if p_free == spec.gap + 2 * g.e1_f else "p_1"
     # oversize holes are not "filled by fasteners": net area in compression too (EN 1993-1-1 6.2.4)
     over = hole == "oversize"
     A_no = P.A_net_plate(b=g.b_po, t=g.t_po, n=cols, d_0=d0) if over else None
     A_ni = P.A_net_plate(b=g.b_pi, t=g.t_pi, n=cols // 2, d_0=d0) if (over and inner) else None
     _safe(out, P.check_plate_compression, fid="outer_plate_compression", ftitle="Outer flange plate: compression",
           fclause="EN 1993-1-8:2005, 3.5, Table 3.3", N_Ed=F_o, b=g.b_po, t=g.t_po, p_1=p_free, grade=pg, na=na,
-          A_net=A_no, calc=calc, id="outer_plate_compression",
+          A_net=A_no, calc=calc, id="outer_plate_compression", length_name=p_name,
           title="Outer flange plate: compression, buckling over max(p1, gap + 2 e1)", location_mm=loc)
     for r in out:
         if r.id == "outer_plate_compression":
@@ -389,7 +409,7 @@ def _flange_records(section, grade: str, bolt, g: Geometry, spec, F_f: float, na
     if inner:
         _safe(out, P.check_plate_compression, fid="inner_plate_compression", ftitle="Inner flange plates: compression",
               fclause="EN 1993-1-8:2005, 3.5, Table 3.3", N_Ed=F_f * share_i / 2, b=g.b_pi, t=g.t_pi, p_1=p_free,
-              grade=pg, na=na, A_net=A_ni, calc=calc, id="inner_plate_compression",
+              grade=pg, na=na, A_net=A_ni, calc=calc, id="inner_plate_compression", length_name=p_name,
               title="Inner flange plate (each): compression, buckling over max(p1, gap + 2 e1)", location_mm=loc)
         for r in out:
             if r.id == "inner_plate_compression":
