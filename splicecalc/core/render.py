@@ -243,12 +243,18 @@ def _drop_zero_terms_latex(latex: str) -> str:
     return "".join(out)
 
 
+#: a name such as ``lamb_bar`` (handcalcs: ``\\lambda_{bar}``) is the code's barred symbol: ``\\bar{\\lambda}``,
+#: ``lamb_bar_z`` -> ``\\bar{\\lambda}_{z}``; never "bar" as a subscript
+_BAR_SUB = re.compile(r"\\(lambda|eta|chi)_\{bar(?:[_,]([A-Za-z0-9,]+))?\}")
+
+
 def tex_clean(latex: str) -> str:
     """Tidy what handcalcs writes: macros LaTeX does not define (:data:`_UNDEFINED_GREEK`),
     ``abs(x)`` as ``|x|``, numbers in the units of :data:`TEX_DISPLAY_UNITS`, a double sign from substituting a
     negative number (``1 - -1.000`` -> ``1 + 1.000``, ``1 + -1.000`` -> ``1 - 1.000``) and no term that prints
     as zero in a numeric substitution (:func:`drop_zero_terms`)."""
     latex = _UNDEFINED_GREEK.sub(lambda m: m.group(1), latex)
+    latex = _BAR_SUB.sub(lambda m: f"\\bar{{\\{m.group(1)}}}" + (f"_{{{m.group(2)}}}" if m.group(2) else ""), latex)
     latex = display_units(_abs_bars(latex))
     latex = _UNARY_DOUBLE.sub(r"\1", latex)
     latex = _DOUBLE_SIGN.sub(lambda m: "+ " if m.group(1) == "-" else "- ", latex)

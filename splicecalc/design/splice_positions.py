@@ -456,10 +456,11 @@ def _records(xs, lengths, build, clr, clear_dist, spec, zone, margin) -> list[Ch
     recs = []
     calc = Calc()
     for k, x in enumerate(xs):
-        recs.append(calc.record(id=f"splice{k + 1}_clearance", title=f"Splice {k + 1} clear of supports, loads, restraints",
+        recs.append(calc.record(id=f"splice{k + 1}_clearance", title=f"Splice {k + 1} joint line clear of supports, loads, restraints",
                                 clause=_CL, demand=clr, resistance=clear_dist(x), unit="mm", location_mm=x,
-                                note="distance to the nearest support, point load or restraint >= clearance "
-                                     "(the job's clearance, and not less than half the longest cover plate)"))
+                                note="distance from the joint line (the splice's centreline) to the nearest support, "
+                                     "point load or restraint >= clearance (the job's clearance, and not less than "
+                                     "half the longest cover plate)", tags=("clearance",)))
     for k, (Lp, pm) in enumerate(zip(lengths, build)):
         if spec.max_piece_length:
             recs.append(calc.record(id=f"piece{k + 1}_length", title=f"Piece {k + 1} length (access limit)",

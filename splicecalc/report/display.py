@@ -75,7 +75,8 @@ def check_payload(record: CheckRecord) -> dict[str, Any]:
     if not record.checked:
         p.update({"demand": None, "resistance": None, "utilisation": None})
     elif not record.is_check:
-        p.update({"utilisation": None})
+        # information (core.record.INFO) has no resistance and no utilisation: "-" wherever it is shown
+        p.update({"utilisation": None, "resistance": None})
     return p
 
 
@@ -112,9 +113,10 @@ class CheckOutput:
             p["layout"] = "row"
             if self.label:
                 p["label"] = self.label         # the row's text: the title without its part's prefix
-            u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf")
-            md = (f"| {r.title} | {fmt_number(r.demand)}{_unit_md(r.unit)} | {fmt_number(r.resistance)}"
-                  f"{_unit_md(r.unit)} | {u} | {r.verdict} | {r.clause or r.guidance} |")
+            u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf") if r.is_check else "-"
+            rd = f"{fmt_number(r.resistance)}{_unit_md(r.unit)}" if r.is_check else "-"
+            md = (f"| {r.title} | {fmt_number(r.demand)}{_unit_md(r.unit)} | {rd}"
+                  f" | {u} | {r.verdict} | {r.clause or r.guidance} |")
             return {CHECK_MIME: p, "text/markdown": md, "text/plain": r.summary_line()}
         u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf")
         md = [f"**{markdown_safe(r.title)}** — *{markdown_safe(r.clause)}*", ""]

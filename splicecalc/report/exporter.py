@@ -32,7 +32,7 @@ from .latexfix import break_handcalcs
 from .latexout import (check_latex, escape_tex, full_texts_latex, prose_symbols_tex, review_latex, table_latex,
                        verbatim_text)
 from .liveonly import LiveOnlyOutputsPreprocessor, StaleInputsPreprocessor
-from .metadata import calc_metadata
+from .metadata import calc_metadata, provenance
 
 #: folder holding our nbconvert template(s)
 LATEX_DIR = Path(__file__).with_name("latex")
@@ -202,6 +202,7 @@ class CalcPackageExporter(PDFExporter):
         resources = dict(resources or {})
         name = resources.get("metadata", {}).get("name", "") or "Calculation"
         resources["calc"] = calc_metadata(nb.metadata, default_title=name, signoff=_signoff_state(nb))
+        resources["calc"]["provenance"] = provenance(nb, resources.get("metadata", {}).get("path"))
         if resources.get("changes_note"):
             resources["calc"]["changes_note"] = str(resources["changes_note"])
         latex, resources = LatexExporter.from_notebook_node(self, nb, resources=resources, **kw)

@@ -40,8 +40,13 @@ def _symbol(m: re.Match) -> str:
     return f"${base}_{{{sub}}}$"
 
 
+#: plain-text maths of our own prose (a note's ``sqrt((F_x/F_b,x,Rd)^2 + ...)``) as the sheet prints it
+_PLAIN_MATH = (("<=", "≤"), (">=", "≥"), ("sqrt(", "√("), ("^2", "²"), ("^3", "³"))
+
+
 def _prose_plain(t: str) -> str:
-    t = t.replace("<=", "≤").replace(">=", "≥")
+    for a, b in _PLAIN_MATH:
+        t = t.replace(a, b)
     out, pos = [], 0
     for m in _SYMBOL_RE.finditer(t):
         out.append(escape_tex(t[pos:m.start()]))
@@ -104,7 +109,18 @@ def prose_symbols_tex(latex: str) -> str:
     """Code symbols in the LaTeX pandoc made of a markdown output (notes, cautions, method text) set as
     math with their subscripts (``f\\_y`` -> ``$f_{y}$``): never a raw underscore on a sheet. Only
     letters, digits and commas go into the math (see :func:`_symbol`)."""
+    for a, b in _PANDOC_PLAIN_MATH:
+        latex = latex.replace(a, b)
     return _PANDOC_SYMBOL_RE.sub(_symbol, latex)
+
+
+#: the same plain-text maths as pandoc writes it in LaTeX (``h <= 540`` -> ``h \textless{}= 540``)
+_PANDOC_PLAIN_MATH = ((r"\textless{}=", r"$\leq$"), (r"\textgreater{}=", r"$\geq$"), ("sqrt(", r"$\surd$("),
+                      (r"\^{}2", r"\textsuperscript{2}"), (r"\^{}3", r"\textsuperscript{3}"))
+
+
+#: longest table cell printed whole (characters; about a third of a sheet in a narrow column)
+CELL_MAX = 1200
 
 
 def cell_tex(cell: str) -> str:
@@ -112,8 +128,13 @@ def cell_tex(cell: str) -> str:
     c = _clean(str(cell)).strip()
     if len(c) >= 2 and c.startswith("$") and c.endswith("$") and safe_math(c[1:-1]):
         return c
-    # a row cannot break across sheets: a long text is shortened here and printed in full under "Texts in full"
-    return escape_tex(c, limit=TEXT_SHORT)
+    # a row cannot break across sheets: a text longer than CELL_MAX is shortened here. Only a job or
+    # title-block text can be that long (each is printed in full under "Texts in full", which lists every
+    # such text longer than TEXT_SHORT); our own cells (the clauses cited by a standard, a part's gaps)
+    # are printed whole, so no marker points to a section that is not there
+    if len(c) > CELL_MAX:
+        return escape_tex(c, limit=CELL_MAX)
+    return title_tex(c)     # code symbols (G_k, psi_1, k_T) with their subscripts, never a raw underscore
 
 
 def full_texts_latex(nb: Any) -> str:
@@ -184,9 +205,12 @@ def rule_row_latex(p: dict[str, Any]) -> str:
     u = p.get("utilisation")
     u_txt = r"$\infty$" if u is None else f"{u:.2f}"
     verdict = "\\calcok" if p.get("ok") else "\\calcfail"
+    r_txt = f"{fmt_number(p.get('resistance'))}{ut}"
+    if p.get("status") == "info":            # core.record.INFO: no resistance, no utilisation, never OK
+        u_txt, verdict, r_txt = "-", "\\textbf{INFO}", "-"
     start = f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}\\calcrevmark{{{anchor_name(str(p.get('id', '')))}}}"
     return (f"\\calcrule{{{start}{title_tex(p.get('label') or p.get('title', ''))}}}{{{fmt_number(p.get('demand'))}{ut}}}"
-            f"{{{fmt_number(p.get('resistance'))}{ut}}}{{{u_txt}}}{{{verdict}}}{{{escape_tex(p.get('clause') or p.get('guidance', ''))}}}"
+            f"{{{r_txt}}}{{{u_txt}}}{{{verdict}}}{{{escape_tex(p.get('clause') or p.get('guidance', ''))}}}"
             f"\\calcmark{{{anchor_name(str(p.get('id', '')), end=True)}}}\n")
 
 
@@ -217,10 +241,12 @@ def check_latex(p: dict[str, Any]) -> str:
     if p.get("status") == "not checked":     # core.record.NOT_CHECKED: no numbers, never a pass
         ut, u_txt, verdict = "", "-", "\\textcolor{failred}{\\textbf{NOT CHECKED}}"
     elif p.get("status") == "info":          # core.record.INFO: information, no utilisation
-        u_txt, verdict = "-", "\\textbf{INFO}"
-        if not p.get("demand") and not p.get("resistance"):
-            ut, d_txt, r_txt = "", "-", "-"
-    out.append(f"\\calcverdict{{{d_txt}{ut}}}{{{r_txt}{ut}}}"
+        # information has no resistance: "-" (never "0 kN"), whatever the record carries
+        u_txt, verdict, r_txt = "-", "\\textbf{INFO}", "-"
+        if not p.get("demand"):
+            ut, d_txt = "", "-"
+    r_ut = "" if r_txt == "-" else ut
+    out.append(f"\\calcverdict{{{d_txt}{ut}}}{{{r_txt}{r_ut}}}"
                f"{{{u_txt}}}{{{verdict}}}\\calcmark{{{anchor_name(str(p.get('id', '')), end=True)}}}")
     return "\n\n".join(out) + "\n"
 

@@ -116,3 +116,31 @@ def _mark(sig: dict[str, Any]) -> str:
     if sig.get("digest"):
         return f"signed electronically, digest {str(sig['digest'])[:12]}"
     return ""
+
+
+#: hex digits of a SHA-256 shown on the cover (the full value is in the build record `<pdf>.json`)
+SHORT_SHA = 16
+
+
+def provenance(nb: Any, folder: str | None) -> dict[str, str]:
+    """What a checker needs to reproduce the package, for the cover: splicecalc's version, the sheet
+    template's SHA-256 and the job file's name and SHA-256 (short forms; ``signoff.notebook.versions``
+    and ``job_record`` compute them, the build record keeps them in full). Texts only; the template
+    escapes them."""
+    from pathlib import Path
+
+    from ..signoff.notebook import job_record, versions
+
+    v = versions()
+    out = {"version": str(v["splicecalc"]), "template_sha": str(v["latex_template_sha256"])[:SHORT_SHA],
+           "job_name": "", "job_sha": ""}
+    if folder:
+        try:
+            rec = job_record(nb, Path(folder) / "notebook.ipynb")
+        except (OSError, ValueError, TypeError):
+            rec = None
+        if rec:
+            out["job_name"] = Path(str(rec["name"])).name
+            out["job_sha"] = str(rec["sha256"] or "")[:SHORT_SHA] or "(job file not found beside the notebook)"
+    return out
+

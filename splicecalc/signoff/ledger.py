@@ -251,13 +251,25 @@ def is_protected(pdf: str | Path) -> bool:
     return protection_reason(pdf) is not None
 
 
+def _job_file(nb: Any, notebook_path: str | Path | None) -> dict | None:
+    """``{"name", "sha256"}`` of the job file the notebook reads (None when there is no notebook path)."""
+    from .notebook import job_record
+
+    if not notebook_path:
+        return None
+    try:
+        return job_record(nb, Path(notebook_path))
+    except (OSError, ValueError, TypeError):
+        return None
+
+
 def write_sidecar(pdf: str | Path, nb: Any, notebook_path: str | Path | None, issued: bool = False) -> dict:
     """Record what was built: the PDF's and the notebook's SHA-256 (hints for people and for
     `splicecalc sign`, which refuses a PDF and notebook from different builds; never trusted by verify)."""
     import hashlib
 
     from .digest import canonical_json, job_inputs
-    from .notebook import notebook_digest, read_notebook
+    from .notebook import notebook_digest, read_notebook, versions
 
     st = status_of(nb)
     meta = ledger_of(nb)
@@ -273,6 +285,9 @@ def write_sidecar(pdf: str | Path, nb: Any, notebook_path: str | Path | None, is
         "notebook_sha256": nb_sha,
         "digest": st.current_digest,
         "job_sha256": hashlib.sha256(canonical_json(job).encode("utf-8")).hexdigest() if job else None,
+        # what the cover prints in short (report.metadata.provenance): the software and the job file as read
+        "versions": versions(),
+        "job_file": _job_file(nb, notebook_path),
         "status": st.label,
         "signatures": meta["signatures"],
         "revisions": meta["revisions"],

@@ -42,7 +42,7 @@ from ..core.units import convert
 from ..design.beam import BeamDesign, design_beam
 from ..job.model import Job
 from .errors import CalcError
-from .references import CAUTIONS, Reference, cited_clauses, standards_list
+from .references import CAUTIONS, Reference, cited_clauses, execution_cautions, standards_list
 
 from ..design.splice_plan import FIRST_SPLICE_ZONE_MM, MAX_ROUNDS  # noqa: E402  (the loop's own settings)
 #: end letters used for the supports (as in the member checks: support A at x = 0)
@@ -115,6 +115,7 @@ class PackageRecords:
                 out.append("The splices are bearing-type (category A) joints in clearance holes: the kink from slip "
                            "at each splice is computed and included in the deflection checks (unless the job "
                            "sets slip = 'ignored', shown as NOT CHECKED).")
+        out += [c for c in execution_cautions(self) if c not in out]
         return tuple(out)
 
 

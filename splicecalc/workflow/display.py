@@ -56,6 +56,11 @@ def show_heading(text: str, level: int = 1) -> None:
     publish(_Bundle({"text/markdown": "#" * level + " " + markdown_safe(line), "text/plain": text}))
 
 
+def _latex_only(latex: str) -> None:
+    """A piece of the template's own LaTeX (a macro of ours, no job text); nothing shows in Jupyter."""
+    publish(_Bundle({"text/latex": latex, "text/markdown": "", "text/plain": ""}))
+
+
 def contents_depth(depth: int = 1) -> None:
     """Limit the PDF contents list to ``depth`` (1: sections only) from here on.
 
@@ -430,6 +435,14 @@ def show_analysis(result: CalcResult) -> None:
     if sls:
         caption += (f" Bottom panel: deflection under {sls[0].name} (characteristic variable actions) with "
                      f"the second moment of area I_y of {d.section.designation}.")
+    # the splices are designed for patterned imposed load (on parts of the span), which gives more shear at a
+    # point than the full-span load drawn: say so where a reader compares the two
+    higher = [f"S{sp.index} {abs(sp.V_Ed) / 1e3:.1f} kN (diagram {abs(float(b.V(sp.x_mm))) / 1e3:.1f} kN)"
+              for sp in result.splices if abs(sp.V_Ed) > abs(float(b.V(sp.x_mm))) + 1.0]
+    if higher:
+        caption += (" The splice design shears exceed the diagram's values at the splices (" + ", ".join(higher)
+                    + "): they are for imposed load patterned on parts of the span, which gives more shear there "
+                    "than load on the whole span.")
     show_drawing(data, caption)
     rows = []
     for (cc, bb) in an.uls:
@@ -470,6 +483,39 @@ def show_member(result: CalcResult) -> None:
 
 
 # ======================================================================== splices
+#: width of a timber joist hanger, the usual fitting at a restraint (mm; common practice, from memory)
+HANGER_WIDTH_MM = 100.0
+
+
+def plate_end_clearance_note(result: CalcResult) -> str:
+    """The clearance checks' datum stated, and what it leaves at the cover-plate ends: the clearance is
+    measured from the joint line; the plate ends are half the longest cover plate nearer to the support,
+    load or restraint, and a fitting there (a joist hanger, a bearing) must stay clear of them."""
+    ends = []
+    for k, sp in enumerate(getattr(result, "splices", ()), start=1):
+        rec = next((r for r in result.position_records if r.id == f"splice{k}_clearance" and r.checked), None)
+        geo = getattr(getattr(sp, "design", None), "geometry", None)
+        if rec is None or geo is None:
+            continue
+        half = 0.5 * max(float(geo.L_fp), float(geo.L_wp))
+        ends.append((k, float(rec.resistance), half, float(rec.resistance) - half))
+    if not ends:
+        return ""
+    parts = "; ".join(f"S{k}: joint line {d:.0f} mm, cover plates {h:.0f} mm each side, plate ends {e:.0f} mm"
+                      for k, d, h, e in ends)
+    worst = min(e for *_, e in ends)
+    ok = worst >= HANGER_WIDTH_MM / 2
+    return ("**Datum of the clearances.** Measured from the joint line (the splice's centreline) to the set-out "
+            f"line of the nearest support, point load or restraint ({parts}). A fitting there must reach less than "
+            "the plate-end distance from its set-out line towards the splice, so that it does not bear on or "
+            f"clash with a cover plate: a joist hanger up to {HANGER_WIDTH_MM:g} mm wide reaches "
+            f"{HANGER_WIDTH_MM / 2:g} mm (common practice, from memory), "
+            + ("which the smallest plate-end distance, "
+               f"{worst:.0f} mm, clears. A wider fitting needs the splice moved." if ok else
+               f"more than the smallest plate-end distance, {worst:.0f} mm: confirm the fitting's width "
+               "on the drawings or move the splice."))
+
+
 def show_splice_positions(result: CalcResult) -> None:
     """Where the beam is cut: positions, pieces with their mass build-up, the comparison with equal cutting,
     position checks, and the slip deflection of category A splices."""
@@ -516,6 +562,9 @@ def show_splice_positions(result: CalcResult) -> None:
         show_table(["Cutting", "Positions (m)", "Worst demand", "Clear of supports, loads, restraints"], rows,
                    align="llrl", title="Comparison with equal cutting")
     show_part_checks(result.position_records, "Access limits and clearances")
+    clear_note = plate_end_clearance_note(result)
+    if clear_note:
+        show_text(clear_note)
     slip = getattr(result, "slip_checks", ())
     if slip:
         show_text("**Slip of the category A splices.** Bolts in clearance holes slip before they bear: each "
@@ -803,7 +852,9 @@ def show_existing(result: CalcResult) -> None:
         if member is None:
             continue
         what = {"column": "column", "beam": "supporting beam"}.get(member.kind, "member")
-        show_heading(f"Existing {what} at support {part.end} checked as a member", level=3)
+        # a numbered part of its own (in the contents), its checks its children (13.7.1 ...), listed too
+        show_heading(f"Existing {what} at support {part.end} checked as a member", level=2)
+        _latex_only("\\calcnestedchecks")
         if member.basis:
             show_list(member.basis, "Basis")
         if member.load_rows:
@@ -820,6 +871,7 @@ def show_existing(result: CalcResult) -> None:
                          f"{member.combination} (design values, its own loads and the new reaction).")
         show_part_checks([r for r in part.existing_records if r.id in member_ids],
                          f"Existing {what} at {part.end}: detailing rules")
+        _latex_only("\\calcnestedchecksend")
 
 
 # ======================================================================== summary, references, cautions

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import re
 from dataclasses import dataclass
-from typing import Iterable
+from typing import Any, Iterable
 
 from ..core.record import CheckRecord
 
@@ -52,6 +52,50 @@ CAUTIONS: tuple[str, ...] = (
     "Do not weld to old steel until its weldability (chemical composition, carbon equivalent, "
     "laminations) has been confirmed; bolted connections to existing members are preferred.",
 )
+
+def execution_cautions(result: Any) -> list[str]:
+    """Cautions and specification notes on how the job is built, raised by what it holds: the faying
+    surfaces and preload the slip-resistant splices rely on, fit-up between two fixed existing members
+    (site packing and the EN 1993-1-8 3.6.1(12) pack limit) and erection stability before the lateral
+    restraints are fixed. ``result`` is a :class:`workflow.calc.CalcResult` (or anything with its
+    ``splices``, ``connections`` and ``job``)."""
+    from ..joints.bolts import MU
+
+    out: list[str] = []
+    cats = sorted({getattr(s.spec, "category", "") for s in getattr(result, "splices", ()) if s.spec is not None})
+    for cat in (c for c in cats if c in ("B", "C")):
+        fc = next(s.spec.friction_class for s in result.splices if s.spec is not None and s.spec.category == cat)
+        out.append(f"Specification, category {cat} splices (slip-resistant, EN 1993-1-8 3.4.1): the slip "
+                   f"resistances assume class {fc} faying surfaces (mu = {MU.get(fc, 0.5):g}; class A: shot- or grit-"
+                   "blasted, loose rust removed, unpainted, EN 1090-2 Table 18) and bolts preloaded by a "
+                   "controlled tightening method to EN 1090-2 8.5 (preloadable bolt assemblies to EN 14399). "
+                   "Mark the faying surfaces 'no paint' on the drawings; a coating or a different surface needs "
+                   "its slip factor established and the splices re-checked. Slip in the clearance holes is then "
+                   "prevented at SLS, so the analysis takes no kink at the splices.")
+    conns = [c for c in getattr(result, "connections", ()) if getattr(c.spec, "existing_member", None) is not None]
+    if len(conns) >= 2:
+        d = min(float(c.design.detail.bolt.d) for c in conns)
+        holes = {getattr(s.spec, "holes", "normal") for s in getattr(result, "splices", ()) if s.spec is not None}
+        kinds = " and ".join(sorted({str(c.design.detail.kind) + "s" for c in conns}))
+        out.append(f"Fit-up: the beam is fixed at both ends to existing members that cannot move ({kinds}), "
+                   f"with splices in "
+                   f"{'/'.join(sorted(holes)) or 'normal'} clearance holes, so the as-built length and levels "
+                   "between the existing faces must be taken up on site: measure the gap before the end pieces "
+                   "are fabricated and make up the difference with steel packs behind the end plates. Packs "
+                   f"totalling at most d/3 = {d / 3:.1f} mm per bolt (M{d:g}) keep beta_p = 1 (EN 1993-1-8 "
+                   "3.6.1(12)); thicker packing reduces the bolt shear resistance by beta_p = 9d/(8d + 3t_p) "
+                   "and is not covered by these checks. Slotted holes for adjustment are not allowed unless "
+                   "designed (EN 1993-1-8 3.6.1, 3.9).")
+    job = getattr(result, "job", None)
+    beam = getattr(job, "beam", None)
+    if getattr(beam, "restraints", ()) and not getattr(beam, "continuous_restraint", False):
+        out.append("Erection: the lateral-torsional buckling checks rely on the restraints fixed to the beam "
+                   "(joist hangers or similar). Until they are fixed the beam, and each piece before its splices "
+                   "are fully bolted, is laterally unrestrained: the erector's method statement must provide "
+                   "temporary restraint or propping, and no construction load may be placed on the beam before "
+                   "the splices are fully bolted (and preloaded where specified) and the restraints fixed.")
+    return out
+
 
 _STD_RE = re.compile(r"^((?:UK NA to BS EN|BS EN|EN|BS) [0-9]+(?:-[0-9]+)*(?:\+A[0-9]+)?:[0-9]{4}(?:\+A[0-9]+:[0-9]{4})?)(?:, (.*))?$")
 
@@ -102,5 +146,5 @@ def standards_list(historic_used: bool) -> tuple[tuple[str, str], ...]:
     return STANDARDS + tuple(extra)
 
 
-__all__ = ["CAUTIONS", "HISTORIC_GUIDANCE", "JOINT_GUIDANCE", "Reference", "STANDARDS", "cited_clauses",
+__all__ = ["CAUTIONS", "execution_cautions", "HISTORIC_GUIDANCE", "JOINT_GUIDANCE", "Reference", "STANDARDS", "cited_clauses",
            "standards_list"]

@@ -163,11 +163,14 @@ def draw_connection_data(data: dict[str, Any]) -> Any:
                 arrowprops=dict(arrowstyle="-", linewidth=0.4), **txt)
     ax.text(x_left, y_top + 4, "ELEVATION", ha="left", va="bottom", fontsize=7, fontweight="bold",
             family="sans-serif")
+    # "existing: existing stanchion" said the word twice: the prefix only when the name lacks it
+    ex_name = str(ex['designation'] or 'member')
+    ex_label = ex_name if ex_name.lower().startswith("existing") else f"existing: {ex_name}"
     if face == "beam web":
-        ax.text(x_left, y_bot + 6, f"existing: {ex['designation'] or 'member'}\n({face})", ha="left", va="bottom",
+        ax.text(x_left, y_bot + 6, f"{ex_label}\n({face})", ha="left", va="bottom",
                 **txt)
     else:                                   # along the column, left of its face, clear of the bolts
-        ax.text(x_left + 2, y_bot + 10, f"existing: {ex['designation'] or 'member'} ({face})", rotation=90,
+        ax.text(x_left + 2, y_bot + 10, f"{ex_label} ({face})", rotation=90,
                 ha="left", va="bottom", **txt)
     x_right = max(x0 + L + 12, xd + 150)
 
