@@ -120,16 +120,22 @@ def show_figure(fig: Any, caption: str = "") -> None:
         show_text(f"*{caption}*")
 
 
-def show_drawing(data: dict[str, Any], caption: str = "") -> None:
+def show_drawing(data: dict[str, Any], caption: str = "", floating: bool = False) -> None:
     """Display a figure given by its data (:mod:`splicecalc.report.figures`), caption below.
 
     In Jupyter it is drawn here; in a headless build the build process draws it
-    while this kernel goes on with the next cells.
+    while this kernel goes on with the next cells. ``floating``: in the PDF the figure and its
+    caption float to the top of a sheet (a tall to-scale drawing), so the text after it fills the
+    sheet before it instead of leaving it part blank.
     """
     from ..report.figures import drawing_bundle
 
+    if floating:
+        data = {**data, "float": True, "caption": caption}
     publish(_Bundle(drawing_bundle(data, caption, headless=bool(os.environ.get(HEADLESS_ENV)))))
-    if caption:
+    if caption and floating:        # the PDF prints it inside the float; Jupyter shows it here
+        publish(_Bundle({"text/markdown": f"*{markdown_safe(caption)}*", "text/latex": "\\relax", "text/plain": caption}))
+    elif caption:
         show_text(f"*{caption}*")
 
 
@@ -789,7 +795,7 @@ def show_connection(result: CalcResult, part: Any, like: Any = None) -> None:
 
         view = "view on the end plate" if d.detail.kind == "end plate" else "plan section through the bolts"
         show_drawing(connection_drawing_data(d), f"End {part.end}: elevation and {view}, to the scale stated, "
-                                                  "dimensions in mm.")
+                                                  "dimensions in mm.", floating=True)
         show_part_checks(part.records, f"End {part.end}: detailing rules")
     else:
         show_text(f"**Same detail as end {like.end}**: every check below is made for the reaction at "

@@ -26,16 +26,32 @@ _GEOMETRY_KEYS = ("L_fp", "L_wp", "e1_f", "p1_f", "t_po", "t_pi", "b_po", "b_pi"
 _DIM = dict(color="0.25", lw=0.6)
 
 
-def _dim(ax, x1, y1, x2, y2, text, off=0.0, vertical=False, fs=6):
-    """A dimension line with end ticks and its text (mm)."""
+#: a dimension's text: on a white ground (a centre line or hatch behind it never strikes it), drawn over lines
+_LABEL = dict(bbox=dict(fc="white", ec="none", pad=0.4), zorder=6)
+
+
+def _dim(ax, x1, y1, x2, y2, text, off=0.0, vertical=False, fs=6, where=""):
+    """A dimension line with end arrows and its text (mm). The text is set off the line by a few points
+    of paper (whatever the scale), so it never sits on its own arrow: above a horizontal line (``where``
+    "below": under it; "right": past its right-hand end, for a dimension shorter than its text) or beside
+    a vertical one (right of it)."""
     if vertical:
         x = x1 + off
         ax.annotate("", xy=(x, y1), xytext=(x, y2), arrowprops=dict(arrowstyle="<->", **_DIM))
-        ax.text(x + 3, (y1 + y2) / 2, text, fontsize=fs, va="center", ha="left", rotation=90)
+        ax.annotate(text, xy=(x, (y1 + y2) / 2), xytext=(2.0, 0.0), textcoords="offset points", fontsize=fs,
+                    va="center", ha="left", rotation=90, **_LABEL)
     else:
         y = y1 + off
         ax.annotate("", xy=(x1, y), xytext=(x2, y), arrowprops=dict(arrowstyle="<->", **_DIM))
-        ax.text((x1 + x2) / 2, y + 3, text, fontsize=fs, ha="center", va="bottom")
+        if where == "right":
+            ax.annotate(text, xy=(max(x1, x2), y), xytext=(3.0, 0.0), textcoords="offset points", fontsize=fs,
+                        ha="left", va="center", **_LABEL)
+        elif where == "below":
+            ax.annotate(text, xy=((x1 + x2) / 2, y), xytext=(0.0, -1.5), textcoords="offset points", fontsize=fs,
+                        ha="center", va="top", **_LABEL)
+        else:
+            ax.annotate(text, xy=((x1 + x2) / 2, y), xytext=(0.0, 1.5), textcoords="offset points", fontsize=fs,
+                        ha="center", va="bottom", **_LABEL)
 
 
 def splice_drawing_data(design: Any, title: str | None = None) -> dict[str, Any]:
@@ -122,11 +138,11 @@ def draw_splice_data(data: dict[str, Any]) -> Any:
     # dimensions (right half)
     x_first = gap / 2 + g.e1_w
     top_b = hw / 2 - g.e_v
-    _dim(ax, -gap / 2, -h / 2 - g.t_po - 25, gap / 2, -h / 2 - g.t_po - 25, f"gap {gap:g}")
+    _dim(ax, -gap / 2, -h / 2 - g.t_po - 25, gap / 2, -h / 2 - g.t_po - 25, f"gap {gap:g}", where="right")
     # dimensions in rows of their own where short ones sit side by side (their texts are wider than them)
-    _dim(ax, gap / 2, -hw / 2 - 12, x_first, -hw / 2 - 12, f"e1 {g.e1_w:g}")
+    _dim(ax, gap / 2, -hw / 2 - 12, x_first, -hw / 2 - 12, f"e1 {g.e1_w:g}", where="right")
     if g.n_c > 1:
-        _dim(ax, x_first, -hw / 2 - 34, x_first + g.g_w, -hw / 2 - 34, f"{g.g_w:g}")
+        _dim(ax, x_first, -hw / 2 - 34, x_first + g.g_w, -hw / 2 - 34, f"{g.g_w:g}", where="below")
     if g.n_r > 1:
         _dim(ax, Lw / 2 + 15, top_b, Lw / 2 + 15, top_b - g.p_w, f"p {g.p_w:g}", vertical=True)
     _dim(ax, Lw / 2 + 40, hw / 2, Lw / 2 + 40, top_b, f"ev {g.e_v:g}", vertical=True)
@@ -155,16 +171,16 @@ def draw_splice_data(data: dict[str, Any]) -> Any:
             for y in ys:
                 ax.add_patch(Circle((x, y), d_hole / 2, fc="white", ec="k", lw=0.8, zorder=3))
     xr = gap / 2 + g.e1_f
-    _dim(ax, gap / 2, -b / 2 - 12, xr, -b / 2 - 12, f"e1 {g.e1_f:g}")
+    _dim(ax, gap / 2, -b / 2 - 12, xr, -b / 2 - 12, f"e1 {g.e1_f:g}", where="right")
     if lay.flange.rows > 1:
-        _dim(ax, xr, -b / 2 - 30, xr + g.p1_f, -b / 2 - 30, f"p1 {g.p1_f:g}")
+        _dim(ax, xr, -b / 2 - 30, xr + g.p1_f, -b / 2 - 30, f"p1 {g.p1_f:g}", where="below")
     xd = Lf / 2 + 15
     _dim(ax, xd, -g.g_f / 2, xd, g.g_f / 2, f"gauge {g.g_f:g}", vertical=True)
     _dim(ax, xd + 40, max(ys), xd + 40, g.b_po / 2, f"e2 {g.e2_po:g}", vertical=True)
     _dim(ax, -Lf / 2 - 30, -b / 2, -Lf / 2 - 30, b / 2, f"b {b:g}", vertical=True)
     ax.set_aspect("equal")
     ax.set_xlim(-ext, ext)
-    ax.set_ylim(-b / 2 - 45, b / 2 + 30)
+    ax.set_ylim(-b / 2 - 60, b / 2 + 30)
     inner = f" + 2 inner {g.b_pi:g} x {g.t_pi:g}" if g.t_pi > 0 else ""
     ax.set_title(f"Plan on top flange: outer plate {g.b_po:g} x {g.t_po:g} x {Lf:g}{inner};\n"
                  f"{lay.bolt_size} {lay.bolt_class} bolts in {d_hole:g} mm holes", fontsize=8)
@@ -176,7 +192,7 @@ def draw_splice_data(data: dict[str, Any]) -> Any:
 
     e_w = 2 * ext
     e1_h = h + 2 * g.t_po + 120.0
-    e2_h = b + 75.0
+    e2_h = b + 90.0
     gap_mm, foot_mm, head_mm = 10.0, 7.0, 16.0
     sc = fit_scale(2 * e_w + gap_mm * 10, max(e1_h, e2_h), room_h=150.0)
     H = max(e1_h, e2_h) / sc + foot_mm + head_mm
