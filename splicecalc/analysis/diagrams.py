@@ -182,8 +182,14 @@ def _load_panel(ax: Any, loads: list[dict], L_m: float) -> None:
             where = "" if a <= 1e-9 and b >= L_m - 1e-9 else f", x = {a:.3g} to {b:.3g} m"
             if ld.get("level", "flange") != "flange":      # a line load at a level of its own
                 where += f", at the {ld['level']}"
-            ax.annotate(f"{ld['name']}: {ld['w_kN_per_m']:.3g} kN/m{where}", ((a + b) / 2, level + 0.11), ha="center",
-                        va="center", fontsize=6.5)
+            # the label where no point-load arrow runs through it: the middle, a quarter or three quarters
+            # of the band, whichever is furthest from every point load; on a light ground over the arrow
+            pts = [p["at_m"] for p in loads if p["type"] == "point"]
+            xl = max((a + f * (b - a) for f in (0.5, 0.25, 0.75)),
+                     key=lambda x: min((abs(x - q) for q in pts), default=0.0) + (1e-6 if x == (a + b) / 2 else 0.0))
+            ax.annotate(f"{ld['name']}: {ld['w_kN_per_m']:.3g} kN/m{where}", (xl, level + 0.11), ha="center",
+                        va="center", fontsize=6.5, zorder=5,
+                        bbox=dict(fc="white", ec="none", alpha=0.75, pad=0.3))
             level += 0.3
     top = level + 0.1
     for ld in loads:

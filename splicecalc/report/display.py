@@ -75,8 +75,11 @@ def check_payload(record: CheckRecord) -> dict[str, Any]:
     if not record.checked:
         p.update({"demand": None, "resistance": None, "utilisation": None})
     elif not record.is_check:
-        # information (core.record.INFO) has no resistance and no utilisation: "-" wherever it is shown
-        p.update({"utilisation": None, "resistance": None})
+        # information (core.record.INFO) has no utilisation, and no resistance unless it carries a limit
+        # (a class limit of c/t): "-" wherever it is shown, never "0 kN"
+        p.update({"utilisation": None})
+        if not record.resistance:
+            p.update({"resistance": None})
     return p
 
 
@@ -114,7 +117,7 @@ class CheckOutput:
             if self.label:
                 p["label"] = self.label         # the row's text: the title without its part's prefix
             u = fmt_utilisation(r.utilisation).replace(r"$\infty$", "inf") if r.is_check else "-"
-            rd = f"{fmt_number(r.resistance)}{_unit_md(r.unit)}" if r.is_check else "-"
+            rd = f"{fmt_number(r.resistance)}{_unit_md(r.unit)}" if r.is_check or r.resistance else "-"
             md = (f"| {r.title} | {fmt_number(r.demand)}{_unit_md(r.unit)} | {rd}"
                   f" | {u} | {r.verdict} | {r.clause or r.guidance} |")
             return {CHECK_MIME: p, "text/markdown": md, "text/plain": r.summary_line()}

@@ -115,7 +115,8 @@ def prose_symbols_tex(latex: str) -> str:
 
 
 #: the same plain-text maths as pandoc writes it in LaTeX (``h <= 540`` -> ``h \textless{}= 540``)
-_PANDOC_PLAIN_MATH = ((r"\textless{}=", r"$\leq$"), (r"\textgreater{}=", r"$\geq$"), ("sqrt(", r"$\surd$("),
+_PANDOC_PLAIN_MATH = ((r"\textless{}=", r"$\leq$"), (r"\textgreater{}=", r"$\geq$"),
+                      (r"\textless=", r"$\leq$"), (r"\textgreater=", r"$\geq$"), ("sqrt(", r"$\surd$("),
                       (r"\^{}2", r"\textsuperscript{2}"), (r"\^{}3", r"\textsuperscript{3}"))
 
 
@@ -207,7 +208,9 @@ def rule_row_latex(p: dict[str, Any]) -> str:
     verdict = "\\calcok" if p.get("ok") else "\\calcfail"
     r_txt = f"{fmt_number(p.get('resistance'))}{ut}"
     if p.get("status") == "info":            # core.record.INFO: no resistance, no utilisation, never OK
-        u_txt, verdict, r_txt = "-", "\\textbf{INFO}", "-"
+        u_txt, verdict = "-", "\\textbf{INFO}"
+        if not p.get("resistance"):
+            r_txt = "-"
     start = f"\\calcmark{{{anchor_name(str(p.get('id', '')))}}}\\calcrevmark{{{anchor_name(str(p.get('id', '')))}}}"
     return (f"\\calcrule{{{start}{title_tex(p.get('label') or p.get('title', ''))}}}{{{fmt_number(p.get('demand'))}{ut}}}"
             f"{{{r_txt}}}{{{u_txt}}}{{{verdict}}}{{{escape_tex(p.get('clause') or p.get('guidance', ''))}}}"
@@ -241,8 +244,10 @@ def check_latex(p: dict[str, Any]) -> str:
     if p.get("status") == "not checked":     # core.record.NOT_CHECKED: no numbers, never a pass
         ut, u_txt, verdict = "", "-", "\\textcolor{failred}{\\textbf{NOT CHECKED}}"
     elif p.get("status") == "info":          # core.record.INFO: information, no utilisation
-        # information has no resistance: "-" (never "0 kN"), whatever the record carries
-        u_txt, verdict, r_txt = "-", "\\textbf{INFO}", "-"
+        # information has no resistance (unless it carries a limit): "-", never "0 kN"
+        u_txt, verdict = "-", "\\textbf{INFO}"
+        if not p.get("resistance"):
+            r_txt = "-"
         if not p.get("demand"):
             ut, d_txt = "", "-"
     r_ut = "" if r_txt == "-" else ut

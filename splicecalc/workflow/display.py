@@ -507,19 +507,14 @@ def plate_end_clearance_note(result: CalcResult) -> str:
         ends.append((k, float(rec.resistance), half, float(rec.resistance) - half))
     if not ends:
         return ""
-    parts = "; ".join(f"S{k}: joint line {d:.0f} mm, cover plates {h:.0f} mm each side, plate ends {e:.0f} mm"
-                      for k, d, h, e in ends)
+    parts = "; ".join(f"S{k}: {d:.0f} mm, plates {h:.0f} mm each side, plate ends {e:.0f} mm" for k, d, h, e in ends)
     worst = min(e for *_, e in ends)
-    ok = worst >= HANGER_WIDTH_MM / 2
-    return ("**Datum of the clearances.** Measured from the joint line (the splice's centreline) to the set-out "
-            f"line of the nearest support, point load or restraint ({parts}). A fitting there must reach less than "
-            "the plate-end distance from its set-out line towards the splice, so that it does not bear on or "
-            f"clash with a cover plate: a joist hanger up to {HANGER_WIDTH_MM:g} mm wide reaches "
-            f"{HANGER_WIDTH_MM / 2:g} mm (common practice, from memory), "
-            + ("which the smallest plate-end distance, "
-               f"{worst:.0f} mm, clears. A wider fitting needs the splice moved." if ok else
-               f"more than the smallest plate-end distance, {worst:.0f} mm: confirm the fitting's width "
-               "on the drawings or move the splice."))
+    reach = HANGER_WIDTH_MM / 2
+    return ("**Datum of the clearances:** the joint line, to the set-out line of the nearest support, load or "
+            f"restraint ({parts}). A fitting there must reach less than the plate-end distance towards the splice: "
+            f"a joist hanger up to {HANGER_WIDTH_MM:g} mm wide reaches {reach:g} mm (common practice, from memory), "
+            + (f"less than the {worst:.0f} mm available." if worst >= reach else
+               f"more than {worst:.0f} mm: confirm its width on the drawings or move the splice."))
 
 
 def show_splice_positions(result: CalcResult) -> None:

@@ -65,35 +65,26 @@ def execution_cautions(result: Any) -> list[str]:
     cats = sorted({getattr(s.spec, "category", "") for s in getattr(result, "splices", ()) if s.spec is not None})
     for cat in (c for c in cats if c in ("B", "C")):
         fc = next(s.spec.friction_class for s in result.splices if s.spec is not None and s.spec.category == cat)
-        out.append(f"Specification, category {cat} splices (slip-resistant, EN 1993-1-8 3.4.1): the slip "
-                   f"resistances assume class {fc} faying surfaces (mu = {MU.get(fc, 0.5):g}; class A: shot- or grit-"
-                   "blasted, loose rust removed, unpainted, EN 1090-2 Table 18) and bolts preloaded by a "
-                   "controlled tightening method to EN 1090-2 8.5 (preloadable bolt assemblies to EN 14399). "
-                   "Mark the faying surfaces 'no paint' on the drawings; a coating or a different surface needs "
-                   "its slip factor established and the splices re-checked. Slip in the clearance holes is then "
-                   "prevented at SLS, so the analysis takes no kink at the splices.")
+        out.append(f"Category {cat} splices (slip-resistant, EN 1993-1-8 3.4.1): the slip resistance assumes class "
+                   f"{fc} faying surfaces (mu = {MU.get(fc, 0.5):g}; class A: blasted, unpainted, EN 1090-2 Table 18) "
+                   "and bolts preloaded by a controlled method to EN 1090-2 8.5. Mark the faying surfaces 'no paint'; "
+                   "another surface needs its slip factor and a re-check.")
     conns = [c for c in getattr(result, "connections", ()) if getattr(c.spec, "existing_member", None) is not None]
     if len(conns) >= 2:
         d = min(float(c.design.detail.bolt.d) for c in conns)
         holes = {getattr(s.spec, "holes", "normal") for s in getattr(result, "splices", ()) if s.spec is not None}
         kinds = " and ".join(sorted({str(c.design.detail.kind) + "s" for c in conns}))
-        out.append(f"Fit-up: the beam is fixed at both ends to existing members that cannot move ({kinds}), "
-                   f"with splices in "
-                   f"{'/'.join(sorted(holes)) or 'normal'} clearance holes, so the as-built length and levels "
-                   "between the existing faces must be taken up on site: measure the gap before the end pieces "
-                   "are fabricated and make up the difference with steel packs behind the end plates. Packs "
-                   f"totalling at most d/3 = {d / 3:.1f} mm per bolt (M{d:g}) keep beta_p = 1 (EN 1993-1-8 "
-                   "3.6.1(12)); thicker packing reduces the bolt shear resistance by beta_p = 9d/(8d + 3t_p) "
-                   "and is not covered by these checks. Slotted holes for adjustment are not allowed unless "
-                   "designed (EN 1993-1-8 3.6.1, 3.9).")
+        holes = "/".join(sorted(holes)) or "normal"
+        out.append(f"Fit-up between fixed existing members ({kinds} at both ends, splices in {holes} holes): "
+                   "measure the gap on site before the end pieces are made and take up the difference with packs "
+                   f"behind the end plates, at most d/3 = {d / 3:.1f} mm (M{d:g}) so that beta_p = 1 (EN 1993-1-8 "
+                   "3.6.1(12)); thicker packs reduce the bolt shear by beta_p = 9d/(8d + 3t_p), not checked here.")
     job = getattr(result, "job", None)
     beam = getattr(job, "beam", None)
     if getattr(beam, "restraints", ()) and not getattr(beam, "continuous_restraint", False):
-        out.append("Erection: the lateral-torsional buckling checks rely on the restraints fixed to the beam "
-                   "(joist hangers or similar). Until they are fixed the beam, and each piece before its splices "
-                   "are fully bolted, is laterally unrestrained: the erector's method statement must provide "
-                   "temporary restraint or propping, and no construction load may be placed on the beam before "
-                   "the splices are fully bolted (and preloaded where specified) and the restraints fixed.")
+        out.append("Erection: until the restraints (joist hangers) are fixed and the splices fully bolted, the "
+                   "pieces are laterally unrestrained: the erector provides temporary restraint, and no construction "
+                   "load goes on the beam before then.")
     return out
 
 
