@@ -104,3 +104,18 @@ def test_execution_cautions():
     assert "Erection" in text
     # a bearing splice, one end on existing steel, no restraints: none of these
     assert execution_cautions(_result(category="A", ends=1, restraints=())) == []
+
+
+def test_clearance_datum_and_plate_end_distance():
+    # the demo's S1: 300 mm from the joint line to the R1 hanger, cover plates 350 long: plate ends 125 mm clear
+    from splicecalc.workflow.display import plate_end_clearance_note
+
+    rec = Calc().record(id="splice1_clearance", title="Splice 1 joint line clear of supports, loads, restraints",
+                        clause="Job file (access limits and clearances)", demand=300.0, resistance=300.0, unit="mm")
+    sp = SimpleNamespace(design=SimpleNamespace(geometry=SimpleNamespace(L_fp=350.0, L_wp=290.0)))
+    text = plate_end_clearance_note(SimpleNamespace(splices=[sp], position_records=[rec]))
+    assert "joint line" in text and "plates 175 mm each side" in text and "plate ends 125 mm" in text
+    assert "less than the 125 mm available" in text
+    tight = Calc().record(id="splice1_clearance", title="x", clause="Job file (access limits and clearances)",
+                         demand=200.0, resistance=200.0, unit="mm")
+    assert "move the splice" in plate_end_clearance_note(SimpleNamespace(splices=[sp], position_records=[tight]))

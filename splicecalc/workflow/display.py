@@ -853,7 +853,7 @@ def show_existing(result: CalcResult) -> None:
         if member is None:
             continue
         what = {"column": "column", "beam": "supporting beam"}.get(member.kind, "member")
-        # a numbered part of its own (in the contents), its checks its children (13.7.1 ...), listed too
+        # a numbered part of its own (in the contents), its checks its children (13.7.1 ...; not in the contents)
         show_heading(f"Existing {what} at support {part.end} checked as a member", level=2)
         _latex_only("\\calcnestedchecks")
         if member.basis:
