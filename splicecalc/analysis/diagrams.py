@@ -169,6 +169,10 @@ def _mark(ax: Any, x_m: float, y: float, text: str, colour: str, L_m: float) -> 
                 bbox=dict(boxstyle="round,pad=0.15", fc="white", ec="none", alpha=0.85))
 
 
+#: width of the diagrams' figure in points (A4 text width), for placing the load labels clear of point loads
+LOAD_PANEL_WIDTH_PT = 72.0 * A4_TEXT_WIDTH_IN
+
+
 def _load_panel(ax: Any, loads: list[dict], L_m: float) -> None:
     """Sketch of the loads: UDLs as stacked bands, point loads as arrows, values in kN/m and kN."""
     from matplotlib.patches import Rectangle
@@ -184,10 +188,14 @@ def _load_panel(ax: Any, loads: list[dict], L_m: float) -> None:
                 where += f", at the {ld['level']}"
             # the label where no point-load arrow runs through it: the middle, a quarter or three quarters
             # of the band, whichever is furthest from every point load; on a light ground over the arrow
+            label = f"{ld['name']}: {ld['w_kN_per_m']:.3g} kN/m{where}"
             pts = [p["at_m"] for p in loads if p["type"] == "point"]
-            xl = max((a + f * (b - a) for f in (0.5, 0.25, 0.75)),
-                     key=lambda x: min((abs(x - q) for q in pts), default=0.0) + (1e-6 if x == (a + b) / 2 else 0.0))
-            ax.annotate(f"{ld['name']}: {ld['w_kN_per_m']:.3g} kN/m{where}", (xl, level + 0.11), ha="center",
+            # half the label's width in metres of span (6.5 pt text, about 3.6 pt a character, on an axis about
+            # 0.8 of the figure's width); candidates that keep the label within the span, the middle first
+            half = 0.5 * len(label) * 3.6 / (0.8 * LOAD_PANEL_WIDTH_PT) * 1.04 * L_m
+            cands = [min(max(a + f * (b - a), half), L_m - half) for f in (0.5, 0.25, 0.75, 0.1, 0.9)]
+            xl = next((x for x in cands if all(abs(x - q) > half + 0.02 * L_m for q in pts)), cands[0])
+            ax.annotate(label, (xl, level + 0.11), ha="center",
                         va="center", fontsize=6.5, zorder=5,
                         bbox=dict(fc="white", ec="none", alpha=0.75, pad=0.3))
             level += 0.3
