@@ -98,7 +98,7 @@ def test_execution_cautions():
     from splicecalc.workflow.references import execution_cautions
 
     text = " ".join(execution_cautions(_result()))
-    assert "class A" in text and "mu = 0.5" in text and "EN 1090-2" in text and "preload" in text
+    assert "class A" in text and "slip factor 0.5" in text and "no slip" in text and "EN 1090-2" in text and "preload" in text
     # fit-up between two fixed existing members: packs up to d/3 keep beta_p = 1 (EN 1993-1-8 3.6.1(12))
     assert "3.6.1(12)" in text and "6.7 mm" in text and "9d/(8d + 3t_p)" in text
     assert "Erection" in text

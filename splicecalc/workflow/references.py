@@ -65,8 +65,9 @@ def execution_cautions(result: Any) -> list[str]:
     cats = sorted({getattr(s.spec, "category", "") for s in getattr(result, "splices", ()) if s.spec is not None})
     for cat in (c for c in cats if c in ("B", "C")):
         fc = next(s.spec.friction_class for s in result.splices if s.spec is not None and s.spec.category == cat)
-        out.append(f"Category {cat} splices (slip-resistant, EN 1993-1-8 3.4.1): the slip resistance assumes class "
-                   f"{fc} faying surfaces (mu = {MU.get(fc, 0.5):g}; class A: blasted, unpainted, EN 1090-2 Table 18) "
+        out.append(f"Category {cat} splices (slip-resistant, EN 1993-1-8 3.4.1: no slip in the clearance holes "
+                   f"{'at SLS' if cat == 'B' else 'at ULS'}): the slip resistance assumes class "
+                   f"{fc} faying surfaces (slip factor {MU.get(fc, 0.5):g}; class A: blasted, unpainted, EN 1090-2 Table 18) "
                    "and bolts preloaded by a controlled method to EN 1090-2 8.5. Mark the faying surfaces 'no paint'; "
                    "another surface needs its slip factor and a re-check.")
     conns = [c for c in getattr(result, "connections", ()) if getattr(c.spec, "existing_member", None) is not None]
