@@ -2,7 +2,7 @@
 and the tidying of rendered steps (core.render.tex_clean), checked against hand conversions.
 
 Conversions by definition of the SI prefixes (1 cm = 10 mm, so 1 cm3 = 1e3 mm3, 1 cm4 = 1e4 mm4,
-1 cm6 = 1e6 mm6; 1 kN = 1e3 N; 1 MN = 1e3 kN; 1 GPa = 1e3 MPa)."""
+1 dm6 = 1e12 mm6; 1 kN = 1e3 N; 1 MN = 1e3 kN; 1 MN/m = 1e3 kN/m; 1 GPa = 1e3 MPa)."""
 
 from __future__ import annotations
 
@@ -16,7 +16,7 @@ from splicecalc.core.units import displayed
 @pytest.mark.parametrize("value, unit, shown, want", [
     (1199467.396, "mm3", "cm3", 1199.467396),        # 1 cm3 = 1000 mm3
     (120300000.0, "mm4", "cm4", 12030.0),            # 1 cm4 = 10 000 mm4
-    (465949633201.973, "mm6", "cm6", 465949.633201973),  # 1 cm6 = 1e6 mm6
+    (465949633201.973, "mm6", "dm6", 0.465949633201973),  # 1 dm6 = 1e12 mm6 (UK section tables)
     (94080.0, "N", "kN", 94.08),                      # 1 kN = 1000 N
     (2.6e8, "Nmm", "kNm", 260.0),                     # 1 kN m = 1e6 N mm
     (355.0, "MPa", "MPa", 355.0),                     # N/mm2 = MPa
@@ -30,7 +30,8 @@ def test_displayed_units_by_hand(value, unit, shown, want):
     # section properties: / 1e3, 1e4, 1e6, then 5 significant figures as section tables print them
     (r"1199467.396\ \mathrm{mm}^{3}", r"1199.5\ \mathrm{cm}^{3}"),            # 1199.467 cm3
     (r"12030641.514\ \mathrm{mm}^{4}", r"1203.1\ \mathrm{cm}^{4}"),           # 1203.064 cm4
-    (r"465949633201.973\ \mathrm{mm}^{6}", r"465950\ \mathrm{cm}^{6}"),       # 465949.633 cm6
+    (r"465949633201.973\ \mathrm{mm}^{6}", r"0.46595\ \mathrm{dm}^{6}"),     # 0.465950 dm6
+    (r"1.248\ \mathrm{MN/m}", r"1248\ \mathrm{kN/m}"),                       # weld per length, x 1e3
     (r"254999990.508\ \mathrm{mm}^{4}", r"25500\ \mathrm{cm}^{4}"),           # 457x152x60 UKB I_y from geometry
     (r"81234.000\ \mathrm{mm}^{3}", r"81.234\ \mathrm{cm}^{3}"),              # never more decimals than given
     (r"1.022\ \mathrm{MN} \cdot \mathrm{m}", r"1022\ \mathrm{kN} \cdot \mathrm{m}"),  # x 1e3, no digits invented

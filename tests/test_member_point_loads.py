@@ -415,3 +415,14 @@ def test_roof_imposed_load_stays_its_own_action():
              UDL("roof access", "imposed", 0.6, category="H"))
     names = {c.name for c in uls_combinations(loads)}
     assert "ULS 6.10b, leading: imposed B+E" in names and "ULS 6.10b, leading: imposed H" in names
+
+
+def test_floor_frequency_working_shows_the_deflection_in_mm():
+    """f_1 = (pi/2) sqrt(5 g / (384 delta)) (vibration handbooks, from memory): delta = 17.31 mm gives
+    4.267 Hz (hand: 1.5708 sqrt(5 x 9.81 / (384 x 0.01731))); the working prints delta in mm, not 0.017 m."""
+    from splicecalc.core.record import Calc
+    from splicecalc.members.checks import check_floor_frequency
+    rec = check_floor_frequency(17.31, 4.0, calc=Calc(render=True))
+    assert rec.resistance == pytest.approx(4.267, abs=1e-3)
+    text = " ".join(rec.latex)
+    assert "17.310" in text and "0.017" not in text

@@ -167,6 +167,16 @@ def test_summary_is_sorted_by_utilisation_and_flags_failures():
     assert p["rows"][0][-1] == "NOT OK" and p["notes"] == "1 check(s) NOT OK."
 
 
+def test_summary_info_without_a_quantity_prints_a_dash_as_its_sheet():
+    from splicecalc.core.record import Calc
+    info = Calc().info(id="web_bearing", title="Web at the supports", clause="EN 1993-1-5:2006, 6.1")
+    cls = Calc().info(id="classification", title="Class", clause="EN 1993-1-1:2005, 5.5", demand=50.3,
+                      resistance=58.6)
+    rows = {r[0]: r for r in summary_output([info, cls])._repr_mimebundle_()[TABLE_MIME]["rows"]}
+    assert rows["Web at the supports"][1:3] == ["-", "-"] and rows["Web at the supports"][-1] == "INFO"
+    assert rows["Class"][1] != "-"                           # an INFO with a quantity keeps it
+
+
 def test_check_latex_escapes_text_and_marks_the_verdict():
     rec = _record("Weld & plate_1", 50e3, 40e3)
     tex = check_latex(CheckOutput(rec)._repr_mimebundle_()[CHECK_MIME])

@@ -81,7 +81,7 @@ def _shift(number: str, power: int) -> str:
     return f"{d:.{places}f}"
 
 
-#: significant figures of a section property shown in cm3, cm4 or cm6 (as section tables print them:
+#: significant figures of a section property shown in cm3, cm4 or dm6 (as section tables print them:
 #: 25500 cm4, 1287.3 cm3; three decimals of a cm4 only repeat the float's last digits)
 SECTION_SIG_FIGS = 5
 
@@ -99,11 +99,14 @@ def _significant(number: str, figures: int) -> str:
 
 def display_units(latex: str) -> str:
     """Numbers with units in the rendered text put in the units of :data:`TEX_DISPLAY_UNITS`; section
-    properties (cm3, cm4, cm6) to :data:`SECTION_SIG_FIGS` significant figures."""
+    properties (cm3, cm4, dm6) to :data:`SECTION_SIG_FIGS` significant figures."""
     def repl(m: re.Match) -> str:
         unit, power = TEX_DISPLAY_UNITS[m.group(2)]
         number = _shift(m.group(1), power)
-        if unit.startswith("\\mathrm{cm}"):
+        if unit.startswith("\\mathrm{dm}"):          # 0.466 dm6 from mm6: the decimals the shift brings
+            from decimal import Decimal
+            number = f"{Decimal(m.group(1)).scaleb(power):f}"
+        if unit.startswith(("\\mathrm{cm}", "\\mathrm{dm}")):
             number = _significant(number, SECTION_SIG_FIGS)
         return f"{number}\\ {unit}"
     return _UNIT_RE.sub(repl, latex)

@@ -95,13 +95,15 @@ def to_quantity(value: float, unit: str) -> Any:
 
 #: The one display-unit table of the calc sheets: the unit forallpeople writes (as LaTeX) ->
 #: (the unit engineers use for that quantity, power of ten it scales the number by). Section moduli
-#: in cm3, second moments in cm4, warping constants in cm6, forces in kN, moments in kN m, moduli
+#: in cm3, second moments in cm4, warping constants in dm6 (as UK section tables), forces in kN, line
+#: loads and resistances per length in kN/m, moments in kN m, moduli
 #: in MPa (N/mm2). Applied to the rendered text only (:func:`splicecalc.core.render.tex_clean`):
 #: forallpeople's own prefixes are left alone, since a prefixed quantity loses its units in powers.
 TEX_DISPLAY_UNITS: dict[str, tuple[str, int]] = {
     r"\mathrm{mm}^{3}": (r"\mathrm{cm}^{3}", -3),
     r"\mathrm{mm}^{4}": (r"\mathrm{cm}^{4}", -4),
-    r"\mathrm{mm}^{6}": (r"\mathrm{cm}^{6}", -6),
+    r"\mathrm{mm}^{6}": (r"\mathrm{dm}^{6}", -12),
+    r"\mathrm{MN/m}": (r"\mathrm{kN/m}", 3),
     r"\mathrm{MN} \cdot \mathrm{m}": (r"\mathrm{kN} \cdot \mathrm{m}", 3),
     r"\mathrm{N} \cdot \mathrm{m}": (r"\mathrm{kN} \cdot \mathrm{m}", -3),
     r"\mathrm{MN}": (r"\mathrm{kN}", 3),
@@ -110,7 +112,7 @@ TEX_DISPLAY_UNITS: dict[str, tuple[str, int]] = {
 }
 #: float unit -> (unit shown in tables, factor to it) for numbers a sheet prints itself
 DISPLAY_UNITS: dict[str, tuple[str, float]] = {
-    "mm3": ("cm3", 1e-3), "mm4": ("cm4", 1e-4), "mm6": ("cm6", 1e-6), "N": ("kN", 1e-3),
+    "mm3": ("cm3", 1e-3), "mm4": ("cm4", 1e-4), "mm6": ("dm6", 1e-12), "N": ("kN", 1e-3),
     "Nmm": ("kNm", 1e-6), "kN": ("kN", 1.0), "kNm": ("kNm", 1.0), "MPa": ("MPa", 1.0),
 }
 

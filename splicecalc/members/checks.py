@@ -897,7 +897,7 @@ def check_floor_frequency(delta_mm: float, f_min: float = FLOOR_FREQUENCY_MIN_HZ
         raise InputError("delta_mm", delta_mm, "a deflection of at least 0.001 mm under the mass load")
     fm = require_in_range("f_min", f_min, 1.0, 20.0)
     loc = _loc(location_mm)
-    f1 = calc(f11.f_1_beam, delta_m=d / 1000.0)
+    f1 = calc(f11.f_1_beam, delta_mm=d)
     calc.keep("delta_mass", d, "mm")
     calc.keep("f_1", f1, "Hz")
     return calc.record(id="floor_frequency", title=f"Floor vibration: natural frequency, at least {fm:g} Hz",

@@ -316,11 +316,11 @@ def q_d_bracing(N_Ed: float, e_0: float, delta_q: float, L: float) -> float:
 
 
 # ------------------------------------------------------------------ floor vibration (EN 1990 A1.4.4)
-@clause("EN 1990:2002, A1.4.4", units={}, returns="", example=dict(delta_m=0.0084))
-def f_1_beam(delta_m: float, g_acc: float = 9.81) -> float:
+@clause("EN 1990:2002, A1.4.4", units={}, returns="", example=dict(delta_mm=8.4))
+def f_1_beam(delta_mm: float, g_acc: float = 9810.0) -> float:
     """Fundamental frequency of a simply supported beam from the deflection delta under its own mass load
-    f_1 = (pi/2) sqrt(5 g / (384 delta)) in Hz, with delta in m and g in m/s2 (plain numbers, so the
-    sheet shows the frequency in Hz): exact for a uniform mass (= (pi/2) sqrt(E I / (m L^4))), the
-    common approximation otherwise."""
-    f_1 = pi / 2 * (5 * g_acc / (384 * delta_m))**0.5
+    f_1 = (pi/2) sqrt(5 g / (384 delta)) in Hz, with delta in mm and g in mm/s2 (plain numbers, so the
+    sheet shows the frequency in Hz and the deflection in mm): exact for a uniform mass
+    (= (pi/2) sqrt(E I / (m L^4))), the common approximation otherwise."""
+    f_1 = pi / 2 * (5 * g_acc / (384 * delta_mm))**0.5
     return f_1

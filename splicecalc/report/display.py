@@ -190,8 +190,10 @@ def summary_output(records: Iterable[CheckRecord], title: str = "Summary of chec
             rows.append([r.title, "-", "-", "", "-", r.verdict])
             continue
         unit = f"${UNIT_TEX.get(r.unit, r.unit)}$" if r.unit else ""
-        if not r.is_check:
-            rows.append([r.title, fmt_number(r.demand), "-", unit, "-", r.verdict])
+        if not r.is_check:             # INFO: its quantity, or "-" as on its sheet when it has none
+            nothing = not r.demand and not r.resistance
+            rows.append([r.title, "-" if nothing else fmt_number(r.demand), "-", "" if nothing else unit, "-",
+                         r.verdict])
             continue
         rows.append([r.title, fmt_number(r.demand), fmt_number(r.resistance), unit,
                      fmt_utilisation(r.utilisation), r.verdict])
