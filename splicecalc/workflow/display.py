@@ -663,7 +663,28 @@ def show_splice(result: CalcResult, part: Any, like: Any = None, groups: tuple[s
                    note=f"Each row is the check of splice {like.label} of the same title, made with the forces and "
                         f"plates of {part.label}; the formulas are those shown there.")
         records = [r for r in records if r not in referred]
-    show_part_checks(records, f"Splice {part.label}: detailing rules")
+    ties = [r for r in records if r.has("accidental")]
+    show_part_checks([r for r in records if r not in ties], f"Splice {part.label}: detailing rules")
+    show_tie_rows(part, ties)
+
+
+def show_tie_rows(part: Any, ties: Sequence[CheckRecord]) -> None:
+    """The splice under the accidental tie force (``joints.splice.tying``): one table of rows, the
+    formulas named in the note (those of the splice's bolt shear and plate tension checks shown in
+    full, with gamma_Mu), the tie force and its shares from the calculation's own values."""
+    if not ties:
+        return
+    first = next((r for r in ties if r.checked and "N_f_Ed" in r.values), None)
+    if first is None:
+        show_rules(ties, f"Splice {part.label}: tie force (accidental)")
+        return
+    T, Nf, Nw = (first.values[k][0] for k in ("T_Ed", "N_f_Ed", "N_w_Ed"))
+    show_rules(ties, f"Splice {part.label}: the tie force through the splice (accidental)",
+               note=(f"Tie force T = {T:.1f} kN (the end connections' tie force), alone, shared by area: "
+                     f"per flange T b tf / A = {Nf:.1f} kN, in the web the rest, {Nw:.1f} kN. Bolt shear by "
+                     "EN 1993-1-8 Table 3.4 and plate tension by EN 1993-1-1 6.2.3, the formulas of this "
+                     "splice's bolt shear and plate tension checks, with the partial factor for tying "
+                     "1.1 (UK NA to BS EN 1993-1-8, from memory) in place of 1.25 for bolts."))
 
 
 def show_splice_as(result: CalcResult, part: Any, first: Any) -> None:

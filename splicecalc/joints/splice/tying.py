@@ -60,6 +60,9 @@ def tie_records(design, spec, T: float, na: NationalAnnex, render: bool = False,
     c = calc()
     Nf = c(N_f_Ed, N_Ed=T, b=section.b, t_f=section.tf, A=section.A)
     Nw = c(N_w_Ed, N_Ed=T, N_f_Ed=Nf)
+    c.keep("T_Ed", T, "N")
+    c.keep("N_f_Ed", Nf, "N")
+    c.keep("N_w_Ed", Nw, "N")
     share_o = g.share_o
     share_max = max(share_o, 1.0 - share_o) if inner else 1.0
     out.append(B.check_bolt_shear(bolt, Nf / g.n_f * share_max, n_s=1, threads_in_shear_plane=threads,
