@@ -119,3 +119,15 @@ def test_clearance_datum_and_plate_end_distance():
     tight = Calc().record(id="splice1_clearance", title="x", clause="Job file (access limits and clearances)",
                          demand=200.0, resistance=200.0, unit="mm")
     assert "move the splice" in plate_end_clearance_note(SimpleNamespace(splices=[sp], position_records=[tight]))
+
+
+def test_predicted_contents_know_the_nested_checks():
+    # the template's \calccheck is a \subsubsection between \calcnestedchecks and \calcnestedchecksend: the
+    # predicted .toc says so (a wrong prediction costs a XeLaTeX pass on every fresh build)
+    from splicecalc.report.compile import predicted_toc
+
+    tex = ("\\begin{document}\\section{Existing}\\calccheck{Bearing}{cl}\\subsection{Column as a member}"
+           "\\calcnestedchecks\\calccheck{Buckling}{cl}\\calcnestedchecksend\\calccheck{Web}{cl}\\end{document}")
+    toc = predicted_toc(tex)
+    assert "{subsubsection}{\\numberline {1.2.1}Buckling}" in toc
+    assert "{subsection}{\\numberline {1.3}Web}" in toc

@@ -130,6 +130,9 @@ def _clear(tex_path: Path) -> None:
 #: subsections); LaTeX's own sectioning commands are read below
 _TOC_MACROS = {"calccheck": ("subsection", 0, 2), "calcrulehead": ("subsection", 0, 2)}
 _LEVELS = ("section", "subsection", "subsubsection")
+#: the template's switches of \calccheck / \calcrulehead to \subsubsection (an existing member's own
+#: member checks, children of its heading) and back
+_NESTING = {"calcnestedchecks": True, "calcnestedchecksend": False}
 _TOC_COMMAND = None
 
 
@@ -170,15 +173,19 @@ def predicted_toc(tex: str) -> str:
 
     global _TOC_COMMAND
     if _TOC_COMMAND is None:
-        names = "|".join((*_LEVELS, *_TOC_MACROS, "addcontentsline", "addtocontents"))
+        names = "|".join((*_LEVELS, *_TOC_MACROS, *_NESTING, "addcontentsline", "addtocontents"))
         _TOC_COMMAND = re.compile(r"\\(" + names + r")(?![A-Za-z@])(\*?)")
     start = tex.find("\\begin{document}")
     body = tex[start:] if start >= 0 else tex
     body = re.sub(r"(?<!\\)%[^\n]*", "", body)          # comments (an escaped \% stays)
     numbers = [0, 0, 0]
     lines = []
+    nested = False
     for m in _TOC_COMMAND.finditer(body):
         name, star, pos = m.group(1), m.group(2), m.end()
+        if name in _NESTING:
+            nested = _NESTING[name]
+            continue
         if name in ("addcontentsline", "addtocontents"):
             args = []
             for _ in range(3 if name == "addcontentsline" else 2):
@@ -206,6 +213,8 @@ def predicted_toc(tex: str) -> str:
             if len(args) <= idx:
                 continue
             title = args[idx]
+            if nested:                  # the template's \calcchecklevel is \subsubsection there
+                level = "subsubsection"
         else:
             if star:
                 continue
