@@ -66,3 +66,19 @@ def test_demo_splices_carry_the_tie_force_in_run_and_json():
         r = ids[f"{s.label}.tie_outer_plate"]
         assert r.demand == pytest.approx(87.9 * 152.9 * 13.3 / UKB457_152.A, rel=2e-3)
         assert r.ok and r.has("accidental")
+
+
+def test_no_supports_means_the_tie_is_not_checked_never_silence():
+    # without [[support]] the beam's tie force is unknown: each splice gets a NOT CHECKED record
+    from pathlib import Path
+
+    from splicecalc.job import load_job
+    from splicecalc.workflow.calc import run_calc, splice_tie_checks
+    job = load_job(Path(__file__).parents[1] / "examples" / "demo_workshop_gallery.toml")
+    res = run_calc(job, render=False)
+    bare = tuple(type(s)(**{**s.__dict__, "records": tuple(r for r in s.records if not r.has("accidental"))})
+                 for s in res.splices)
+    out = splice_tie_checks(job, bare, (), render=False)
+    for s in out:
+        tie = [r for r in s.records if r.id == f"{s.label}.tie"]
+        assert len(tie) == 1 and not tie[0].checked and "support" in tie[0].note
