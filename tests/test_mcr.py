@@ -227,3 +227,23 @@ def test_generalized_eigenvalue_agrees_with_scipy():
         A = scale @ (A + A.T) @ scale
         ref = scipy.linalg.eigh(A, B, eigvals_only=True)[-1]
         assert _largest_generalized_eigenvalue(A, B) == pytest.approx(ref, rel=1e-9)
+
+
+def test_ltb_record_shows_the_closed_form_M_cr_0_for_reference():
+    """Beside the numerical M_cr, the LTB working gives M_cr,0 = (pi^2 E I_z/L^2) sqrt(I_w/I_z + L^2 G I_t/
+    (pi^2 E I_z)) (Timoshenko and Gere 1961, 6.2): 457x191x67 UKB over 3 m, about 802 kNm with the section-table
+    values I_z 1452 cm4, I_t 37.1 cm4, I_w 0.705 dm6 (from memory)."""
+    import math
+    from splicecalc.core.record import Calc
+    from splicecalc.members.checks import check_ltb
+    from splicecalc.sections import get_section
+    s = get_section("457x191x67 UKB")
+    L = 3000.0
+    M = (np.array([0.0, L]), np.array([200e6, 200e6]))
+    rec = check_ltb(s, "S355", 200e6, L_mm=L, M=M, calc=Calc(render=True))
+    E, G = 210000.0, 81000.0
+    M0 = math.pi**2 * E * s.Iz / L**2 * math.sqrt(s.Iw / s.Iz + L**2 * G * s.It / (math.pi**2 * E * s.Iz))
+    assert rec.values["M_cr_0"][0] == pytest.approx(M0 / 1e6, rel=1e-9)
+    assert rec.values["M_cr_0"][0] == pytest.approx(802, rel=0.01)
+    assert rec.values["M_cr"][0] == pytest.approx(M0 / 1e6, rel=0.02)     # uniform moment: FE ~ closed form
+    assert any("M_{cr_{0}}" in x for x in rec.latex)

@@ -454,3 +454,14 @@ def test_prose_symbols_in_markdown_outputs_and_table_notes_are_subscripts():
     assert prose_symbols_tex(kept) == kept
     t = table_latex({"columns": ["a"], "rows": [["1"]], "align": "l", "title": "", "notes": "every part at gamma_Q"})
     assert "$\\gamma_{Q}$" in t and "gamma\\_Q" not in t
+
+
+def test_section_table_lists_the_properties_of_M_cr():
+    """I_z, I_t, I_w printed in cm4, cm4, dm6 (the display-unit table). 457x191x67 UKB: I_z 1452 cm4,
+    I_t 37.1 cm4, I_w 0.705 dm6 (UK section tables, from memory)."""
+    from splicecalc.report.display import section_table
+    from splicecalc.sections import get_section
+    rows = {r[1]: r for r in section_table(get_section("457x191x67 UKB"), "S355")._repr_mimebundle_()[TABLE_MIME]["rows"]}
+    assert float(rows["$I_z$"][2]) == pytest.approx(1452, rel=0.01) and "cm^{4}" in rows["$I_z$"][3]
+    assert float(rows["$I_t$"][2]) == pytest.approx(37.1, rel=0.02) and "cm^{4}" in rows["$I_t$"][3]
+    assert float(rows["$I_w$"][2]) == pytest.approx(0.705, rel=0.01) and "dm^{6}" in rows["$I_w$"][3]

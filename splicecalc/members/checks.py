@@ -42,7 +42,7 @@ from ..materials.steel import E_MPa, steel
 from ..sections.geometry import A_v_z
 from . import en1993_1_1 as f11
 from . import en1993_1_5 as f15
-from .mcr import C_1_numerical, mcr_numerical
+from .mcr import C_1_numerical, M_cr_uniform, mcr_numerical
 
 
 class SlenderSectionError(InputError):
@@ -560,6 +560,20 @@ def ltb_curve_rolled(h: float, b: float) -> str:
     return "b" if hb <= 2.0 else ("c" if hb <= 3.1 else "d")
 
 
+def mcr_reference(calc: Calc, section: Any, L_mm: float, M_cr: float) -> float:
+    """M_cr,0 for reference beside a numerical M_cr: the closed form for uniform moment with fork ends and
+    loads at the shear centre (:func:`~splicecalc.members.mcr.M_cr_uniform`), rendered under its own
+    symbol, with the ratio M_cr / M_cr,0 (the moment shape's C_1 with the load height's effect). N*mm."""
+    with calc.symbols(M_cr="M_cr_0"):
+        M0 = calc(M_cr_uniform, I_z=section.Iz, I_w=section.Iw, I_t=section.It, L=float(L_mm))
+    calc.keep("M_cr_0", M0, "Nmm")
+    if math.isfinite(M_cr) and M0 > 0.0:
+        calc.note(f"For reference: $M_{{cr,0}}$ = {M0 / 1e6:.1f} kNm (uniform moment, closed form, length "
+                  f"{float(L_mm) / 1e3:.3g} m); $M_{{cr}} / M_{{cr,0}}$ = {M_cr / M0:.3f} (moment shape and load "
+                  "height).")
+    return M0
+
+
 def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, na: NationalAnnex = UK_NA,
               calc: Calc | None = None, *, C_1: float | None = None, k_c: float | None = None,
               L_mm: float | None = None, M: Any = None, q_N_per_mm: Any = 0.0, point_loads: Sequence = (),
@@ -622,6 +636,8 @@ def check_ltb(section: Any, grade: str, M_Ed: float, M_cr: float | None = None, 
                                   "height z_g and the moment diagram")
         calc.keep("M_cr", Mcr, "Nmm")
         calc.note(mcr_text)
+        if M_cr is None:             # computed here: the closed form beside it, so a checker can follow it
+            mcr_reference(calc, section, L_mm, Mcr)
         lam = calc(f11.lambda_LT, W_y=W, f_y=f_y, M_cr=Mcr)
     lam0 = na.lambda_LT_0
     calc.keep("lambda_LT", lam)
@@ -956,6 +972,6 @@ def restraint_force(N_f_Ed: float, span_mm: float, tributary_mm: float, m: float
 __all__ = ["SlenderSectionError", "ShearBucklingError", "ALPHA_LT", "DEFLECTION_LIMITS", "section_class",
            "classify", "W_y_with_holes", "check_bending", "check_shear", "check_bending_shear",
            "ltb_curve_rolled", "check_ltb", "check_web_bearing", "check_deflection", "effective_section",
-           "check_floor_frequency", "restraint_force", "bending_resistance",
+           "check_floor_frequency", "restraint_force", "bending_resistance", "mcr_reference",
            "check_flange_induced_buckling", "FLOOR_FREQUENCY_MIN_HZ", "VIBRATION_IMPOSED_SHARE",
            "shear_resistance", "transverse_resistance", "check_transverse_force", "check_transverse_bending"]

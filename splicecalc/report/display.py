@@ -282,6 +282,20 @@ def show_table(columns: Sequence[str], rows: Sequence[Sequence[Any]], title: str
     publish(TableOutput(columns, rows, title=title, align=align, notes=notes))
 
 
+def section_stability_rows(section: Any) -> list[list[str]]:
+    """The properties M_cr is computed from (I_z, I_t, I_w), in the units of the display-unit table
+    (core.units.displayed: cm4, cm4, dm6): ``[property, symbol, value, unit, source]``."""
+    from ..core.units import displayed
+
+    out = []
+    for name, sym, value, unit, fmt in (("Second moment, minor axis", "$I_z$", section.Iz, "mm4", "{:.1f}"),
+                                        ("Torsion constant", "$I_t$", section.It, "mm4", "{:.2f}"),
+                                        ("Warping constant", "$I_w$", section.Iw, "mm6", "{:.4f}")):
+        v, u = displayed(value, unit)
+        out.append([name, sym, fmt.format(v), u, "from geometry"])
+    return out
+
+
 def section_table(section: Any, grade: str) -> TableOutput:
     """Dimensions and properties of a rolled section with its steel strengths.
 
@@ -303,6 +317,7 @@ def section_table(section: Any, grade: str) -> TableOutput:
         ["Second moment", "$I_y$", f"{section.Iy / 1e4:.0f}", "cm4", "from geometry"],
         ["Plastic modulus", "$W_{pl,y}$", f"{section.Wpl_y / 1e3:.0f}", "cm3", "from geometry"],
         ["Elastic modulus", "$W_{el,y}$", f"{section.Wel_y / 1e3:.0f}", "cm3", "from geometry"],
+        *section_stability_rows(section),
         ["Yield strength", "$f_y$", f"{mat.f_y:.0f}", "MPa", f"EN 10025-2, {mat.grade}, t = {section.tf:g} mm"],
         ["Tensile strength", "$f_u$", f"{mat.f_u:.0f}", "MPa", f"EN 10025-2, {mat.grade}"],
     ]
@@ -318,4 +333,4 @@ def show_section(section: Any, grade: str) -> None:
 
 
 __all__ = ["CHECK_MIME", "DISPLAY_PRIORITY", "REVIEW_MIME", "ReviewOutput", "TABLE_MIME", "CheckOutput", "TableOutput", "check_payload", "fmt_number", "publish",
-           "fmt_utilisation", "section_table", "show_section", "show_check", "show_summary", "show_table", "summary_output", "UNIT_TEX"]
+           "fmt_utilisation", "section_table", "section_stability_rows", "show_section", "show_check", "show_summary", "show_table", "summary_output", "UNIT_TEX"]

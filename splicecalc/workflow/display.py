@@ -853,6 +853,10 @@ def show_existing(result: CalcResult) -> None:
                 ["Yield strength (at the flange thickness)", f"{ex.material.f_y:g}", _u("MPa")],
                 ["Ultimate strength", f"{ex.material.f_u:g}", _u("MPa")],
                 ["Dimensions h x b x tw x tf x r", dims, _u("mm")]]
+        if all(hasattr(m, k) for k in ("Iy", "Iz", "It", "Iw")):
+            from ..report.display import section_stability_rows
+            rows.append(["Second moment, major axis $I_y$", f"{m.Iy / 1e4:.0f}", _u("cm4")])
+            rows += [[f"{name} {sym}", v, _u(u)] for name, sym, v, u, _ in section_stability_rows(m)]
         if getattr(m, "taper_deg", 0.0):
             rows.append(["Flange taper (tf measured midway along the outstand)", f"{m.taper_deg:g} deg, "
                          f"{m.tf_root:.1f} to {m.tf_toe:.1f} mm", ""])

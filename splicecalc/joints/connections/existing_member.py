@@ -45,7 +45,7 @@ from ...materials.partial_factors import NationalAnnex
 from ...members import compression as fc
 from ..plates import N_b_Rd, chi as chi_flex
 from ...members import en1993_1_1 as f11
-from ...members.checks import ALPHA_LT, check_deflection, ltb_curve_rolled
+from ...members.checks import ALPHA_LT, check_deflection, ltb_curve_rolled, mcr_reference
 from ...members.mcr import C_1_numerical, mcr_numerical
 from .existing_spec import ExistingBeamLoads, ExistingColumnLoads
 from .formulas import (F_c_wc_Rd, M_fl_warping, U_bending_warping, b_eff_wc, k_wc, omega_1, rho_wc,
@@ -526,6 +526,7 @@ def beam_member_checks(sec: Any, bl: ExistingBeamLoads, mat_at: Callable[[float]
                   f"the tops of steel level), $C_1$ = {C1:.3f}.")
         if math.isfinite(res.M_cr):
             calc.keep("M_cr", res.M_cr, "Nmm")
+        mcr_reference(calc, sec, Ls, res.M_cr)
         chi = _chi_LT(calc, sec, W, f_y, res.M_cr, M_seg, na, C_1=C1)
         Mb = calc(f11.M_b_Rd, chi_LT_mod=chi, W_y=W, f_y=f_y, gamma_M1=na.gamma_M1)
         out.append(calc.record(id=f"ex_beam_ltb_{i}", title=f"Existing beam: lateral-torsional buckling, segment {i}",
