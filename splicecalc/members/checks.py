@@ -966,7 +966,7 @@ def restraint_force(N_f_Ed: float, span_mm: float, tributary_mm: float, m: float
                         f"{N / 1e3:.0f} kN, 5.3.3(4); delta_q = L/2500 assumed). The LTB check relies on this "
                         "restraint: design the restraint and its fixings for F_Ed, check its stiffness and its load "
                         "path to a stable diaphragm or bracing (not designed in this package). 6.3.5.2 (2.5 % at "
-                        "plastic hinges) does not apply: elastic analysis, no plastic hinges.")
+                        "plastic hinges) does not apply: elastic analysis, no plastic hinges")
 
 
 __all__ = ["SlenderSectionError", "ShearBucklingError", "ALPHA_LT", "DEFLECTION_LIMITS", "section_class",

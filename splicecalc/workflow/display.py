@@ -886,7 +886,7 @@ def show_existing(result: CalcResult) -> None:
         if member.load_rows:
             show_table(["Load", "Action", "Characteristic value", "Where"], [list(r) for r in member.load_rows],
                        align="llrl", title=f"Loads on the existing {what} (characteristic)",
-                       notes=(f"Governing combination: {member.combination}." if member.combination else ""))
+                       notes=(f"Governing combination (highest utilisation): {member.combination}; each check names its own." if member.combination else ""))
         if getattr(member, "diagram", None):
             from ..analysis import SimpleBeam, beam_diagram_data
 

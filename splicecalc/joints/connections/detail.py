@@ -42,7 +42,7 @@ GUIDANCE = "published simple-joint guidance (from memory)"
 #: is not their source. A code clause is cited only where one applies (end plate t_p, 6.4.2(2)).
 CL_PINNED = ""
 #: guidance of a fit rule: the plate or bolts must physically fit the member they meet
-GEOMETRY = "geometric fit of the detail (no code clause)"
+GEOMETRY = "geometric fit of the detail, no code clause"
 CL_SPACING = "EN 1993-1-8:2005, 3.5, Table 3.3"
 #: nominal eccentricity of a beam reaction from the face of a column in simple construction (mm),
 #: published UK guidance for simple columns (from memory)
