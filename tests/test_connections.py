@@ -474,6 +474,8 @@ def test_detailing_rules_cite_guidance_not_a_classification_clause(ep_design, fp
         r = _rec(ep_design, rid)
         assert r.clause == "" and "guidance" in r.guidance and "from memory" in r.guidance and r.has("detailing")
     assert _rec(ep_design, "ex_fit_width").guidance.startswith("geometric fit")
+    assert _rec(ep_design, "ex_fit_root").clause == ""          # washer seating: not a Table 3.3 rule
+    assert _rec(ep_design, "ex_fit_edge").clause == "EN 1993-1-8:2005, 3.5, Table 3.3"     # 1.2 d_0: it is
     assert _rec(ep_design, "ep_tp_ductility").clause == "EN 1993-1-8:2005, 6.4.2(2), Eq. 6.32"
     for rid in ("fp_tp_ductility", "fp_e1_2d", "fp_rows_min"):
         assert _rec(fp_design, rid).clause == "" and "guidance" in _rec(fp_design, rid).guidance

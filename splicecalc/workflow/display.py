@@ -146,8 +146,7 @@ def show_checks(records: Iterable[CheckRecord]) -> None:
 
 
 #: clauses of detailing rules (spacing, edge and end distances, fits, access limits): shown as table rows
-RULE_CLAUSES = ("EN 1993-1-8:2005, 3.5, Table 3.3", "EN 1993-1-8:2005, 3.5(1)", "EN 1993-1-8:2005, 5.2.2.2",
-                "Job file")
+RULE_CLAUSES = ("EN 1993-1-8:2005, 3.5, Table 3.3", "EN 1993-1-8:2005, 3.5(1)", "Job file")
 #: a rule's rendered working longer than this (characters of LaTeX) is a check of its own, shown in full
 RULE_MAX_LATEX = 300
 #: record-title prefixes of a part (``Splice S1: ``, ``End A: ``), left out of a rule table's rows

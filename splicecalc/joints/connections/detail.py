@@ -279,7 +279,7 @@ def fit_checks(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]:
                             f"(b - p_3)/2 = ({ex.b:g} - {det.p_3:g})/2: reduce the gauge or use smaller bolts"))
             clear = det.p_3 / 2.0 - ex.tw / 2.0 - ex.r
             out.append(_rec(calc, "ex_fit_root", "Bolts clear the existing root fillet (washer seats flat)",
-                            CL_SPACING, b.washer_od / 2.0, clear,
+                            CL_PINNED, b.washer_od / 2.0, clear,
                             f"p_3/2 - t_w/2 - r of the existing member; washer diameter {b.washer_od:g} mm "
                             "(practical rule): increase the gauge"))
             out.append(_rec(calc, "ex_fit_width", "End plate width within the existing flange", CL_PINNED,
@@ -299,7 +299,7 @@ def fit_checks(ctx: Context, det: Detail, calc: Calc) -> list[CheckRecord]:
                                                       "flat; reduce the gauge or edge distance"))
             clear = d_ex / 2.0 - det.p_3 / 2.0
             out.append(_rec(calc, "ex_fit_root", "Bolts clear the column root fillets (washer seats flat)",
-                            CL_SPACING, det.bolt.washer_od / 2.0, clear,
+                            CL_PINNED, det.bolt.washer_od / 2.0, clear,
                             f"d/2 - p_3/2 of the existing column; washer diameter {det.bolt.washer_od:g} mm "
                             "(practical rule): reduce the gauge"))
         if ctx.face == "column web":
