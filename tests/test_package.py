@@ -137,8 +137,12 @@ def test_demo_is_concise(demo):
     # 11, 12) and a second splice of its own layout (58 sheets); with steps packed into the rows they fit,
     # the second splice's flange checks referred to the first, and the references one row per standard,
     # 45 sheets: the target, with every check of `run --json` still in the summary (the test
-    # above and test_run_json_equals_the_printed_records)
-    assert demo.report.pages <= 45, demo.report.pages
+    # above and test_run_json_equals_the_printed_records). A checking engineer's review then added real content
+    # (end B's own notch detail, drawing and checks, NOT CHECKED records for the restraints, the tie force
+    # through each splice, workings that were missing, Iz/It/Iw): 54 sheets; tighter vertical spacing brought
+    # it back to the bound below. The target stays 45; the bound is the count actually reached, so a
+    # sheet gained without reason still fails here.
+    assert demo.report.pages <= 49, demo.report.pages
     # no overfull box at all in the demo's XeTeX log (TeX's own report), not just none wider than 5 pt
     from splicecalc.report.latexfix import overfull_boxes
 
