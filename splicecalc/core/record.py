@@ -124,8 +124,12 @@ class CheckRecord:
         if self.guidance:
             d["guidance"] = self.guidance
         if self.status == INFO:
+            # information has no utilisation, and no resistance unless it carries a limit (a class
+            # limit of c/t): null in the JSON as "-" on the sheet, never "0 kN"
             d["status"] = self.status
             d["utilisation"] = None
+            if not self.resistance:
+                d[f"resistance{sfx}"] = None
         return d
 
     def to_json(self) -> str:
