@@ -282,8 +282,15 @@ def _wrapping_spec(rows: list[list[str]], align: str, head: list[str] | None = N
     if not wide:
         return align
     others = sum(n + 2 for j, n in enumerate(longest) if j not in wide)
-    share = max(0.15, (1.0 - others / LINE_CHARS) / len(wide) - 0.02)
-    return "".join(f">{{\\raggedright\\arraybackslash}}p{{{share:.3f}\\linewidth}}" if j in wide else a
+    # the room left is shared fairly: a long column that needs less than an equal share (a standard's
+    # name beside the list of its clauses) gets what it needs, the rest goes to the longer ones
+    room = 1.0 - others / LINE_CHARS - 0.02 * len(wide)
+    share: dict[int, float] = {}
+    for k, j in enumerate(sorted(wide, key=lambda j: longest[j])):
+        fair = room / (len(wide) - k)
+        share[j] = max(0.15, min((longest[j] + 2) / LINE_CHARS, fair))
+        room -= share[j]
+    return "".join(f">{{\\raggedright\\arraybackslash}}p{{{share[j]:.3f}\\linewidth}}" if j in wide else a
                    for j, a in enumerate(align))
 
 
