@@ -301,7 +301,7 @@ def table_latex(p: dict[str, Any]) -> str:
     kind = p.get("kind", "data")
     if kind == "summary":
         # the check title wraps; numbers stay on one line
-        spec = ">{\\raggedright\\arraybackslash}p{0.58\\linewidth}" + "".join(align[1:])
+        spec = ">{\\raggedright\\arraybackslash}p{0.62\\linewidth}" + "".join(align[1:])
     elif kind == "parts":
         # room for the widest verdict, NOT CHECKED (a part whose made checks pass but has a gap)
         spec = (">{\\raggedright\\arraybackslash}p{0.25\\linewidth}"
@@ -309,7 +309,8 @@ def table_latex(p: dict[str, Any]) -> str:
     else:
         spec = _wrapping_spec(p["rows"], align, cols)
     head = " & ".join(f"\\textbf{{{cell_tex(c)}}}" for c in cols) + " \\\\"
-    size = "[\\footnotesize]" if kind in ("summary", "parts") else ""
+    # the full list (every check, one line each) set a size smaller than the summary by part above it
+    size = {"summary": "[\\scriptsize]", "parts": "[\\footnotesize]"}.get(kind, "")
     lines = [f"\\begin{{calctable}}{size}{{{spec}}}"]
     if p.get("title"):
         lines.append(f"\\multicolumn{{{len(cols)}}}{{@{{}}l}}{{\\calctabletitle{{{escape_tex(p['title'])}}}}} \\\\")

@@ -195,13 +195,42 @@ def repeated_checks(records: Sequence[CheckRecord]) -> dict[str, CheckRecord]:
     return out
 
 
+#: a prose line of a working at least this long (characters), printed word for word by an earlier check of
+#: the same part, is referred to that check (an existing member's combination, reaction and eccentricity)
+PROSE_REFER_MIN = 200
+
+
+def refer_repeated_prose(records: Sequence[CheckRecord]) -> list[CheckRecord]:
+    """Checks shown in full, in order: a long prose line of a working that an earlier one of them printed word
+    for word is referred to it by title, keeping the forces it ends with (the text after its last colon,
+    when short). Formulas are never referred; demands, resistances and ids are unchanged."""
+    import dataclasses
+
+    first: dict[str, str] = {}
+    out = []
+    for r in records:
+        steps = list(r.latex)
+        for i, step in enumerate(steps):
+            t = step.strip()
+            if len(t) < PROSE_REFER_MIN or t.startswith(("$$", "\\[", "\\begin{")):
+                continue
+            if t in first:
+                tail = t.rsplit(": ", 1)[1] if ": " in t else ""
+                steps[i] = (f"Combination, actions and basis as stated for {first[t]} above"
+                            + (f": {tail}" if tail and len(tail) <= 120 else "."))
+            else:
+                first[t] = r.title
+        out.append(dataclasses.replace(r, latex=tuple(steps)) if steps != list(r.latex) else r)
+    return out
+
+
 def show_part_checks(records: Sequence[CheckRecord], rules_title: str) -> None:
     """Strength checks in full (rendered working); the same check at further segments as one table
     referring to the governing segment's working; then the detailing rules of the part as one table."""
     recs = list(records)
     strength = [r for r in recs if not is_detailing_rule(r)]
     again = repeated_checks(strength)
-    show_checks([r for r in strength if r.id not in again])
+    show_checks(refer_repeated_prose([r for r in strength if r.id not in again]))
     governing = {g.id: g for g in again.values()}
     for g in governing.values():
         same = [r for r in strength if r.id in again and again[r.id].id == g.id]
