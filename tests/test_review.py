@@ -230,16 +230,40 @@ def _first_section_sheet(pdf: Path) -> int:
     return r.get_destination_page_number(first) + 1
 
 
+def _outline_pages(pdf: Path) -> list[tuple[str, int]]:
+    """(title, sheet) of every bookmark of the PDF (read with pypdf)."""
+    from pypdf import PdfReader
+
+    r = PdfReader(str(pdf))
+    out: list[tuple[str, int]] = []
+
+    def walk(items):
+        for it in items:
+            if isinstance(it, list):
+                walk(it)
+            else:
+                out.append((" ".join(str(it.title).split()), r.get_destination_page_number(it) + 1))
+    walk(r.outline)
+    return out
+
+
 def _find(pdf: Path, npages: int, phrase: list[str]) -> tuple[int, tuple[float, float, float, float]]:
-    """First sheet of the body and box where the words of ``phrase`` follow one another as a check's
-    heading (after its number, "5.4"): a title is also printed in tables (the section search names the
-    governing check of each section tried)."""
-    for p in range(_first_section_sheet(pdf), npages + 1):
+    """Sheet and box of a check's heading: the words of ``phrase`` following one another after its
+    number ("5.4"). A title is also printed in the contents list and in tables, and the contents may
+    share a sheet with the start of the body: the sheet is the one the PDF's bookmark of that title
+    points to, and on it the last match (the contents come first)."""
+    title = " ".join(phrase)
+    sheets = [pg for t, pg in _outline_pages(pdf) if t.endswith(title)]
+    candidates = sheets or list(range(_first_section_sheet(pdf), npages + 1))
+    for p in candidates:
         ws = _words(pdf, p)
+        found = None
         for i in range(1, len(ws) - len(phrase) + 1):
             if [w[0] for w in ws[i:i + len(phrase)]] == phrase and re.fullmatch(r"\d+(\.\d+)+", ws[i - 1][0]):
                 box = ws[i:i + len(phrase)]
-                return p, (min(b[1] for b in box), min(b[2] for b in box), max(b[3] for b in box), max(b[4] for b in box))
+                found = p, (min(b[1] for b in box), min(b[2] for b in box), max(b[3] for b in box), max(b[4] for b in box))
+        if found:
+            return found
     raise AssertionError(f"{phrase} not printed")
 
 
