@@ -137,6 +137,7 @@ def test_rebuild_reuses_unchanged_cells_and_prints_the_same_pdf(tmp_path):
     job.write_bytes(job.read_bytes().replace(b"\n", b" \n", 1))          # one byte changed: executed
     changed = build_package(job, pdf, progress=False)
     assert not changed.report.cells_reused and changed.report.cells_s > 0
+    changed_text = _text(pdf)                                            # the cover names the job's new SHA-256
 
     nbp = tmp_path / "calc.ipynb"                                        # outputs edited after the build
     nb = json.loads(nbp.read_text(encoding="utf-8"))
@@ -144,7 +145,7 @@ def test_rebuild_reuses_unchanged_cells_and_prints_the_same_pdf(tmp_path):
     nbp.write_text(json.dumps(nb), encoding="utf-8")
     edited = build_package(job, pdf, progress=False)
     assert not edited.report.cells_reused and edited.report.cells_s > 0
-    assert _text(pdf) == fresh_text
+    assert _text(pdf) == changed_text
 
 
 @pytest.mark.pdf
