@@ -351,8 +351,9 @@ def test_ten_kilobyte_texts_in_every_field_print_shortened_and_once_in_full(tmp_
     marker.unlink(missing_ok=True)
     out = build_package(made.notebook, tmp_path / "pkg" / "calc.pdf", progress=False)
     pdf = Path(getattr(out, "pdf", tmp_path / "pkg" / "calc.pdf"))
-    # the body of each sheet (the running strip above 22 mm and the footer below 282 mm cropped: A4 at 72 dpi)
-    body = subprocess.run(["pdftotext", "-x", "0", "-y", "66", "-W", "595", "-H", "734", str(pdf), "-"],
+    # the body of each sheet: the running strip (ends 18 mm from the top) and the footer (from ~289 mm)
+    # cropped, the body (23 mm to 283 mm: the template's geometry) kept whole; A4 in points
+    body = subprocess.run(["pdftotext", "-x", "0", "-y", "56", "-W", "595", "-H", "760", str(pdf), "-"],
                           capture_output=True, text=True, check=True).stdout
     whole = subprocess.run(["pdftotext", str(pdf), "-"], capture_output=True, text=True, check=True).stdout
     flat = _squash(body)
