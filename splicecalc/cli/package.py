@@ -80,6 +80,7 @@ def _print_build(b: Any, quiet: bool) -> None:
 def _failing_checks(notebook: Any) -> int:
     """Print the failing and NOT CHECKED checks of the executed notebook. The exit code is `run`'s:
     1 when a check fails, else 3 when some are NOT CHECKED, else 0 (the package is built in every case)."""
+    from ..core.errors import EXIT_NOT_CHECKED
     from ..signoff.notebook import failing_checks, not_checked, read_notebook
 
     nb = read_notebook(notebook)
@@ -90,7 +91,7 @@ def _failing_checks(notebook: Any) -> int:
             print(f"  NOT CHECKED  {g}", file=sys.stderr)
     failing = failing_checks(nb)
     if not failing:
-        return 3 if gaps else 0
+        return EXIT_NOT_CHECKED if gaps else 0
     print(f"splicecalc: {len(failing)} check(s) FAIL - the package is built but must not be relied on:",
           file=sys.stderr)
     for f in failing:

@@ -22,14 +22,12 @@ import sys
 import textwrap
 from typing import Any
 
-from ..core.errors import InputError
+from ..core.errors import EXIT_NOT_CHECKED, InputError
 
 #: verdict words of a part and of the whole job (our wording)
 WITHIN = "within capacity"
 OVER = "EXCEEDS capacity"
 GAP = "NOT CHECKED"
-#: exit code when no check exceeds capacity but some checks are not made
-EXIT_NOT_CHECKED = 3
 
 
 def add_parser(subparsers: Any) -> argparse.ArgumentParser:

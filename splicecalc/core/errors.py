@@ -116,3 +116,8 @@ def file_error_message(err: OSError, action: str = "write to") -> str:
 
 __all__ = ["InputError", "require_finite", "require_positive", "require_non_negative", "require_in_range",
            "require_choice", "require_count", "file_error_message"]
+
+
+#: exit code of run / build / demo / batch when nothing exceeds capacity but some checks are NOT
+#: CHECKED (a gap is not a pass); 0 every check within capacity, 1 one exceeds it, 2 bad input
+EXIT_NOT_CHECKED = 3

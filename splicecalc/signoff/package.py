@@ -368,6 +368,14 @@ class SignResult:
         return verify_package(self.pdf)
 
 
+def _package_pdf(pdf: str | Path) -> Path:
+    """The PACKAGE.pdf argument of sign / issue as a path; one-line error unless it is an existing PDF."""
+    p = Path(pdf)
+    if not p.is_file() or p.suffix.lower() != ".pdf":
+        raise InputError("PACKAGE.pdf", str(pdf), "an existing calc-package PDF")
+    return p
+
+
 def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = None,
                  same_person_ok: str | None = None, accept_failing: str | None = None,
                  open_comments_ok: str | None = None, accept_not_checked: str | None = None,
@@ -383,9 +391,7 @@ def sign_package(pdf: str | Path, role: str, kp: Any, *, reason: str | None = No
                                               _text("--accept-failing", accept_failing))
     open_comments_ok = _text("--open-comments-ok", open_comments_ok)
     accept_not_checked = _text("--accept-not-checked", accept_not_checked)
-    p = Path(pdf)
-    if not p.is_file() or p.suffix.lower() != ".pdf":
-        raise InputError("PACKAGE.pdf", str(pdf), "an existing calc-package PDF")
+    p = _package_pdf(pdf)
     nb_path = _notebook_for(p)
     st = verify_package(p)
     if st.state == "changed":
@@ -531,9 +537,7 @@ def issue_package(pdf: str | Path, purpose: str, kp: Any, *, override: str | Non
     """Issue a checked package: an issue signature on the cover and a row in the issue register."""
     purpose = _text("--purpose", purpose)
     override = _text("--override", override)
-    p = Path(pdf)
-    if not p.is_file() or p.suffix.lower() != ".pdf":
-        raise InputError("PACKAGE.pdf", str(pdf), "an existing calc-package PDF")
+    p = _package_pdf(pdf)
     st = verify_package(p)
     if st.state == "unsigned":
         raise InputError("PACKAGE.pdf", str(pdf), "a package signed at least as checked (it is unsigned)")

@@ -49,7 +49,7 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Any, Callable, Iterable
 
-from ..core.errors import InputError
+from ..core.errors import EXIT_NOT_CHECKED, InputError
 from ..core.files import write_atomic
 
 #: top-level tables of a schedule file
@@ -726,8 +726,6 @@ def write_summary_pdf(rows: list[dict[str, Any]], path: str | os.PathLike, title
     return write_atomic(p, data)
 
 
-#: exit code when nothing exceeds capacity or errs but some beam has NOT CHECKED items (as ``run``)
-EXIT_NOT_CHECKED = 3
 
 
 def exit_code(rows: list[dict[str, Any]]) -> int:
