@@ -488,3 +488,22 @@ def _records(xs, lengths, build, clr, clear_dist, spec, zone, margin) -> list[Ch
 
 
 __all__ = ["SplicePoint", "SplicePositions", "PieceMass", "patterned_envelope", "FREE_ACTIONS", "PATTERN_NOTE", "MASS_CONVENTION", "choose_splice_positions", "envelope"]
+
+
+#: width of a timber joist hanger, the usual fitting at a restraint (mm; common practice, from memory)
+HANGER_WIDTH_MM = 100.0
+
+
+def plate_end_clearances(result) -> list[tuple[int, float, float, float]]:
+    """``(k, joint line to the nearest support / load / restraint, half the longest cover plate, plate end
+    to it)`` in mm for each splice k whose clearance was checked: the clearance checks are measured from the
+    joint line; the plate ends are half the longest cover plate nearer."""
+    ends = []
+    for k, sp in enumerate(getattr(result, "splices", ()), start=1):
+        rec = next((r for r in result.position_records if r.id == f"splice{k}_clearance" and r.checked), None)
+        geo = getattr(getattr(sp, "design", None), "geometry", None)
+        if rec is None or geo is None:
+            continue
+        half = 0.5 * max(float(geo.L_fp), float(geo.L_wp))
+        ends.append((k, float(rec.resistance), half, float(rec.resistance) - half))
+    return ends

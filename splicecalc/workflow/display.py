@@ -517,22 +517,12 @@ def show_member(result: CalcResult) -> None:
 
 
 # ======================================================================== splices
-#: width of a timber joist hanger, the usual fitting at a restraint (mm; common practice, from memory)
-HANGER_WIDTH_MM = 100.0
-
-
 def plate_end_clearance_note(result: CalcResult) -> str:
-    """The clearance checks' datum stated, and what it leaves at the cover-plate ends: the clearance is
-    measured from the joint line; the plate ends are half the longest cover plate nearer to the support,
-    load or restraint, and a fitting there (a joist hanger, a bearing) must stay clear of them."""
-    ends = []
-    for k, sp in enumerate(getattr(result, "splices", ()), start=1):
-        rec = next((r for r in result.position_records if r.id == f"splice{k}_clearance" and r.checked), None)
-        geo = getattr(getattr(sp, "design", None), "geometry", None)
-        if rec is None or geo is None:
-            continue
-        half = 0.5 * max(float(geo.L_fp), float(geo.L_wp))
-        ends.append((k, float(rec.resistance), half, float(rec.resistance) - half))
+    """The clearance checks' datum stated, and what it leaves at the cover-plate ends (the distances are
+    :func:`design.splice_positions.plate_end_clearances`'; this only words them)."""
+    from ..design.splice_positions import HANGER_WIDTH_MM, plate_end_clearances
+
+    ends = plate_end_clearances(result)
     if not ends:
         return ""
     parts = "; ".join(f"S{k}: {d:.0f} mm, plates {h:.0f} mm each side, plate ends {e:.0f} mm" for k, d, h, e in ends)
